@@ -73,7 +73,21 @@ export interface StudyDesign {
   samples?: number;
   /** Interventions: variable → value. */
   hold?: Record<VariableId, number>;
+  /** Settle every state that can settle (the equilibrium model), whatever the interval. */
+  settleAll?: boolean;
 }
+
+/**
+ * Equation ids. A derived variable's formula is `formula(v)`, a state's rate
+ * equation is `rate(x)` (the same id once it is settled into a balance
+ * equation), a relation keeps its own id, an intervention adds `hold(x)`.
+ * Relation ids cannot contain parentheses, so the spaces never clash.
+ */
+export const equationId = {
+  formula: (v: VariableId): EquationId => `formula(${v})`,
+  rate: (x: VariableId): EquationId => `rate(${x})`,
+  hold: (x: VariableId): EquationId => `hold(${x})`,
+};
 
 /** A place on the interval axis where some state changes role. */
 export interface Breakpoint {
