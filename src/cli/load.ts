@@ -1,0 +1,29 @@
+import { parseModelText } from '../core/model/schema';
+import type { Model } from '../core/model/types';
+import { parseDuration } from '../core/model/units';
+import { CliError, type CliArgs, type CliIO } from './commands/types';
+
+/** Read and validate the model named by the first positional argument. */
+export function loadModel(args: CliArgs, io: CliIO): Model {
+  const path = args.positional[0];
+  if (!path) throw new CliError('name a model file, e.g. loopfold order model.json', 2);
+  let text: string;
+  try {
+    text = io.readFile(path);
+  } catch (e) {
+    throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
+  }
+  const r = parseModelText(text);
+  if (!r.ok) throw new CliError(`${path} is not a valid model: ${r.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
+  return r.model;
+}
+
+/** A duration option (`--interval 3h`) in the model's time unit, or undefined when absent. */
+export function durationOption(args: CliArgs, name: string, model: Model): number | undefined {
+  const v = args.options[name];
+  if (v === undefined) return undefined;
+  if (v === true) throw new CliError(`--${name} needs a value`, 2);
+  const d = parseDuration(v, model.timeUnit);
+  if (!d.ok) throw new CliError(`--${name}: ${d.message}`, 2);
+  return d.value;
+}
