@@ -1,0 +1,58 @@
+/**
+ * Loopfold's visual language, as data shared by the canvas and the SVG
+ * exporter. Every distinction is carried by shape, line style or a glyph
+ * first and by colour second, so it survives print and grayscale.
+ * DEVELOPERS.md ("Visual language") describes it in words.
+ */
+import type { VariableKind, LinkKind } from '../core/model/types';
+import type { Role } from '../core/ordering/types';
+
+export const INK = '#1d2b36';
+export const PAPER = '#f7f5f0';
+export const MUTED = '#5f6b73';
+
+/** Shape of a variable by its kind in the mechanism. */
+export type NodeShape = 'tag' | 'accumulator' | 'pill';
+export const KIND_SHAPE: Record<VariableKind, NodeShape> = { input: 'tag', state: 'accumulator', derived: 'pill' };
+
+export const ROLE_STYLE: Record<Role, { fill: string; stroke: string; dash?: string; glyph: string; label: string; strokeWidth: number }> = {
+  input: { fill: '#e3f1f4', stroke: '#1f6f80', glyph: '', label: 'input (set from outside)', strokeWidth: 1.5 },
+  state: { fill: '#e7e9f6', stroke: '#34428f', glyph: '', label: 'state (moves over time)', strokeWidth: 1.5 },
+  derived: { fill: '#ffffff', stroke: '#4f5a63', glyph: '', label: 'derived (follows at once)', strokeWidth: 1.5 },
+  settled: { fill: '#fbf0dc', stroke: '#8a5a12', glyph: '≈', label: 'settled (fast: at balance)', strokeWidth: 1.5 },
+  frozen: { fill: '#e9edf0', stroke: '#56697a', dash: '5 3', glyph: '‖', label: 'frozen (slow: constant in the study)', strokeWidth: 1.5 },
+  held: { fill: '#f6e3e3', stroke: '#8f2d2d', glyph: '⊥', label: 'held (intervention)', strokeWidth: 3 },
+};
+
+/** Link styles: instantaneous = solid with a filled head; integrating = dashed with a hollow head. */
+export const LINK_STYLE: Record<LinkKind, { dash?: string; head: 'filled' | 'hollow'; label: string; stroke: string }> = {
+  instantaneous: { head: 'filled', label: 'acts within the instant', stroke: INK },
+  integrating: { dash: '7 4', head: 'hollow', label: 'accumulates over time (lagged)', stroke: '#34428f' },
+};
+
+/** A simultaneous block: a container with a doubled outline; folded, a stacked card with a count. */
+export const BLOCK_STYLE = { fill: '#fdf8ee', stroke: '#8a5a12', gap: 3, radius: 14, label: 'simultaneous block (determined together)' };
+
+export const FONT_STACK = "'DejaVu Sans', 'Inter', 'Segoe UI', Arial, sans-serif";
+
+/**
+ * SVG path of a node outline of the given shape in a w×h box at the origin.
+ * tag: a label tag pointing right; accumulator: a rectangle (its floor bar is drawn separately); pill: fully rounded ends.
+ */
+export function shapePath(shape: NodeShape, w: number, h: number): string {
+  switch (shape) {
+    case 'tag': {
+      const p = Math.min(14, h / 2);
+      return `M0,0 H${w - p} L${w},${h / 2} L${w - p},${h} H0 Z`;
+    }
+    case 'accumulator':
+      return `M0,0 H${w} V${h} H0 Z`;
+    case 'pill': {
+      const r = h / 2;
+      return `M${r},0 H${w - r} A${r},${r} 0 0 1 ${w - r},${h} H${r} A${r},${r} 0 0 1 ${r},0 Z`;
+    }
+  }
+}
+
+/** Height of the accumulator's floor bar (the part that "fills"). */
+export const ACCUMULATOR_FLOOR = 6;
