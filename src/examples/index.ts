@@ -1,5 +1,8 @@
 import type { Model } from '../core/model/types';
 import sleepStress from './sleep-stress.json';
+import lake from './lake.json';
+import greenhouse from './greenhouse.json';
+import warehouse from './warehouse.json';
 
 /** An example of the gallery: a scenario of Loopfold's own, with a short description. */
 export interface Example {
@@ -16,6 +19,24 @@ export const EXAMPLES: Example[] = [
     title: 'Sleep, stress and mood',
     summary: 'An illustrative daily-life loop from minutes (stress) to months (coping). No clinical advice.',
     model: sleepStress,
+  },
+  {
+    id: 'lake',
+    title: 'A lake after the runoff',
+    summary: 'A workshop sketch of nutrients, algae, grazers and fish, with a sediment store that only fills and empties.',
+    model: lake,
+  },
+  {
+    id: 'greenhouse',
+    title: 'Greenhouse climate',
+    summary: 'Heating towards a setpoint, humidity from transpiration, soil water and dust on the glass, with formulas.',
+    model: greenhouse,
+  },
+  {
+    id: 'warehouse',
+    title: 'Warehouse restocking',
+    summary: 'Orders, goods in transit, deliveries and stock, with an implicit transit relation the ordering orients.',
+    model: warehouse,
   },
 ];
 
