@@ -1,0 +1,128 @@
+/**
+ * The explanation panel's text: what the ordering at an interval changes
+ * with respect to the mechanism as drawn, and why, in words a modeller reads.
+ */
+import { DEFAULT_SAMPLES, DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
+import { formatDuration, parseDuration } from '../model/units';
+import type { Breakpoint, Ordering, Role, StudyDesign } from './contract';
+import { simultaneousBlocks } from './derive';
+
+export type ExplanationTopic = 'summary' | 'settled' | 'frozen' | 'held' | 'block' | 'dynamic' | 'diagnostic' | 'nearby';
+
+export interface ExplanationLine {
+  topic: ExplanationTopic;
+  text: string;
+  variables: VariableId[];
+}
+
+/** A state's timescale in the model unit, or undefined when it has none (or it is not readable). */
+export function timescaleOf(model: Model, id: VariableId): number | undefined {
+  const v = model.variables.find((x) => x.id === id);
+  if (v?.timescale === undefined) return undefined;
+  const d = parseDuration(v.timescale, model.timeUnit);
+  return d.ok ? d.value : undefined;
+}
+
+/** "A", "A and B", "A, B and C". */
+export function listWords(words: readonly string[]): string {
+  if (words.length <= 1) return words.join('');
+  return `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`;
+}
+
+/** The study length in the model unit for a design: the window, or samples × interval. */
+export function studyLength(model: Model, design: StudyDesign): number | undefined {
+  if (design.window !== undefined) return design.window;
+  if (design.interval === undefined) return undefined;
+  return (design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES) * design.interval;
+}
+
+const ROLE_WORD: Record<Role, string> = {
+  input: 'is set from outside', state: 'becomes dynamic again', derived: 'follows within the instant',
+  settled: 'settles', frozen: 'becomes frozen', held: 'is held',
+};
+
+/**
+ * Sentences for the explanation panel, most important first.
+ * `explainOrdering(model, ordering, { interval: 4 })[0].text` → "Every 4 h, over a study of 50 samples (8.33 days): …".
+ */
+export function explainOrdering(model: Model, ordering: Ordering, design: StudyDesign, breakpoints: readonly Breakpoint[] = []): ExplanationLine[] {
+  const u = model.timeUnit;
+  const k = model.settings?.separation ?? DEFAULT_SEPARATION;
+  const name = (id: VariableId) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const names = (ids: readonly VariableId[]) => listWords(ids.map(name));
+  const role = (id: VariableId): Role => ordering.roles[id] ?? model.variables.find((v) => v.id === id)?.kind ?? 'derived';
+  const W = studyLength(model, design);
+  const lines: ExplanationLine[] = [];
+  const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
+  const settled = states.filter((s) => role(s) === 'settled');
+  const frozen = states.filter((s) => role(s) === 'frozen');
+  const dynamic = states.filter((s) => role(s) === 'state');
+  const held = model.variables.map((v) => v.id).filter((v) => role(v) === 'held');
+  const blocks = simultaneousBlocks(ordering);
+
+  if (design.interval !== undefined) {
+    const study = design.window !== undefined
+      ? `a study of ${formatDuration(design.window, u)} (${Math.max(1, Math.round(design.window / design.interval))} samples)`
+      : `a study of ${design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES} samples (${formatDuration(W!, u)})`;
+    const parts: string[] = [];
+    if (settled.length) parts.push(`${settled.length} ${settled.length === 1 ? 'state settles' : 'states settle'}`);
+    if (frozen.length) parts.push(`${frozen.length} ${frozen.length === 1 ? 'is' : 'are'} frozen`);
+    if (dynamic.length) parts.push(`${dynamic.length} ${dynamic.length === 1 ? 'stays' : 'stay'} dynamic`);
+    if (held.length) parts.push(`${held.length} held by intervention`);
+    const changed = settled.length + frozen.length + held.length > 0;
+    lines.push({
+      topic: 'summary',
+      text: changed
+        ? `Every ${formatDuration(design.interval, u)}, over ${study}: of ${states.length} states, ${listWords(parts)}.`
+        : `Every ${formatDuration(design.interval, u)}, over ${study}, the ordering keeps the mechanism as drawn: every state moves over time.`,
+      variables: [],
+    });
+  }
+
+  for (const s of settled) {
+    const tau = timescaleOf(model, s);
+    const why = tau !== undefined && design.interval !== undefined
+      ? ` (timescale ${formatDuration(tau, u)} ≤ interval/${k} = ${formatDuration(design.interval / k, u)})`
+      : ' (fast against the interval)';
+    const sources = [...new Set(ordering.edges.filter((e) => e.to === s && e.from !== s).map((e) => e.from))];
+    const from = sources.length ? ` from ${names(sources)}` : '';
+    lines.push({ topic: 'settled', text: `${name(s)} settles${why}: it reaches balance between samples, so its rate equation now fixes ${name(s)} within each instant${from}, with no lag.`, variables: [s] });
+  }
+  for (const s of frozen) {
+    const tau = timescaleOf(model, s);
+    const why = tau !== undefined && W !== undefined ? ` (timescale ${formatDuration(tau, u)} ≥ ${k} × study = ${formatDuration(k * W, u)})` : ' (slow against the study)';
+    const study = W !== undefined ? `a ${formatDuration(W, u).replace(/s$/, '')} study` : 'the study';
+    lines.push({ topic: 'frozen', text: `${name(s)} is frozen, held constant over ${study}${why}: it changes too little to see, so it acts as a fixed background and the links into it drop out.`, variables: [s] });
+  }
+  for (const v of held) {
+    const val = design.hold?.[v];
+    lines.push({ topic: 'held', text: `${name(v)} is held${val !== undefined ? ` at ${val}` : ''} by an intervention: the links into it are cut.`, variables: [v] });
+  }
+  for (const b of blocks) {
+    const feedback = b.variables.some((v) => model.variables.find((x) => x.id === v)?.kind === 'state');
+    lines.push({
+      topic: 'block',
+      text: `${names(b.variables)} form one simultaneous block: they are determined together${b.equations.length ? ` by ${listWords(b.equations)}` : ''}, so within the instant none of them comes first${feedback ? ' (a feedback loop that closes faster than the interval)' : ''}.`,
+      variables: [...b.variables],
+    });
+  }
+  if (dynamic.length && design.interval !== undefined) {
+    lines.push({ topic: 'dynamic', text: `${names(dynamic)} ${dynamic.length === 1 ? 'stays' : 'stay'} dynamic: ${dynamic.length === 1 ? 'it carries' : 'they carry'} over from one sample to the next, and the links into ${dynamic.length === 1 ? 'it' : 'them'} act with a lag of one interval.`, variables: dynamic });
+  }
+  for (const d of ordering.diagnostics) lines.push({ topic: 'diagnostic', text: `${d.level === 'error' ? 'Problem' : 'Note'}: ${d.message}`, variables: [...d.variables] });
+
+  if (design.interval !== undefined && breakpoints.length) {
+    const sorted = [...breakpoints].sort((a, b) => a.interval - b.interval);
+    const above = sorted.find((b) => b.interval > design.interval!);
+    const below = [...sorted].reverse().find((b) => b.interval <= design.interval!);
+    if (below) {
+      const undo = below.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.from]}`);
+      lines.push({ topic: 'nearby', text: `Below ${formatDuration(below.interval, u)}: ${listWords(undo)}.`, variables: below.changes.map((c) => c.variable) });
+    }
+    if (above) {
+      const next = above.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.to]}`);
+      lines.push({ topic: 'nearby', text: `From ${formatDuration(above.interval, u)} on: ${listWords(next)}.`, variables: above.changes.map((c) => c.variable) });
+    }
+  }
+  return lines;
+}

@@ -1,0 +1,4 @@
+export * from './types';
+export * from './derive';
+export * from './explain';
+export * from './interval';

@@ -1,0 +1,212 @@
+/**
+ * The one drawing of a view: a small tree of SVG elements built from the
+ * view model and its layout. `svg.ts` writes it as a self-contained SVG
+ * string (export, command line); the app turns the same tree into React
+ * elements, so the screen and the exported figure are one picture.
+ */
+import type { ViewEdge, ViewModel, ViewNode } from '../core/view/types';
+import type { Box, Layout } from '../layout/types';
+import { ACCUMULATOR_FLOOR, BLOCK_STYLE, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, PAPER, ROLE_STYLE, shapePath } from '../theme/visual';
+
+export type Attr = string | number | undefined;
+export interface El {
+  tag: string;
+  attrs: Record<string, Attr>;
+  children?: (El | string)[];
+}
+
+export interface SceneOptions {
+  /** A caption under the figure stating the interval and the study length. */
+  caption?: boolean;
+  /** Draw the legend of the roles and link kinds present (default true). */
+  legend?: boolean;
+  /** Draw the title line (default true). */
+  title?: boolean;
+  /** The caption text (the caller words the interval and study; default: the view's title). */
+  captionText?: string;
+}
+
+const HEADER = 40;
+const SLICE_NAMES: Record<string, string> = { '-1': 't − 1', '0': 't', '1': 't + 1' };
+
+const r1 = (x: number) => Math.round(x * 10) / 10;
+const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
+
+function markerDefs(): El {
+  const head = (id: string, color: string, hollow: boolean) =>
+    el('marker', { id, viewBox: '0 0 12 12', refX: 11, refY: 6, markerWidth: 11, markerHeight: 11, markerUnits: 'userSpaceOnUse', orient: 'auto-start-reverse' }, [
+      el('path', { d: 'M1,1.5 L11,6 L1,10.5 Z', fill: hollow ? PAPER : color, stroke: color, 'stroke-width': 1.4, 'stroke-linejoin': 'round' }),
+    ]);
+  return el('defs', {}, [
+    head('lf-head-instantaneous', LINK_STYLE.instantaneous.stroke, false),
+    head('lf-head-integrating', LINK_STYLE.integrating.stroke, true),
+    head('lf-head-simultaneous', BLOCK_STYLE.stroke, false),
+  ]);
+}
+
+/** Where the segment from the centre of `b` towards (tx, ty) leaves the box. */
+function exitPoint(b: Box, tx: number, ty: number, pad = 2): { x: number; y: number } {
+  const cx = b.x + b.width / 2, cy = b.y + b.height / 2;
+  const dx = tx - cx, dy = ty - cy;
+  if (dx === 0 && dy === 0) return { x: cx, y: cy };
+  const sx = dx === 0 ? Infinity : (b.width / 2 + pad) / Math.abs(dx);
+  const sy = dy === 0 ? Infinity : (b.height / 2 + pad) / Math.abs(dy);
+  const s = Math.min(sx, sy);
+  return { x: cx + dx * s, y: cy + dy * s };
+}
+
+function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
+  const style = LINK_STYLE[e.kind];
+  const ac = { x: a.x + a.width / 2, y: a.y + a.height / 2 };
+  const bc = { x: b.x + b.width / 2, y: b.y + b.height / 2 };
+  const len = Math.hypot(bc.x - ac.x, bc.y - ac.y) || 1;
+  const nx = -(bc.y - ac.y) / len, ny = (bc.x - ac.x) / len;
+  const mid = { x: (ac.x + bc.x) / 2 + nx * bend, y: (ac.y + bc.y) / 2 + ny * bend };
+  const p0 = exitPoint(a, mid.x, mid.y);
+  const p1 = exitPoint(b, mid.x, mid.y, 3);
+  const ctrl = { x: 2 * mid.x - (p0.x + p1.x) / 2, y: 2 * mid.y - (p0.y + p1.y) / 2 };
+  const d = bend === 0 ? `M${r1(p0.x)},${r1(p0.y)} L${r1(p1.x)},${r1(p1.y)}` : `M${r1(p0.x)},${r1(p0.y)} Q${r1(ctrl.x)},${r1(ctrl.y)} ${r1(p1.x)},${r1(p1.y)}`;
+  const sim = e.simultaneous;
+  const color = sim ? BLOCK_STYLE.stroke : style.stroke;
+  const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
+  const kids: (El | string)[] = [
+    el('title', {}, [`${e.pairs.map((p) => `${p.from} → ${p.to}`).join(', ')}: ${style.label}${sim ? ', within a simultaneous block' : ''}`]),
+    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
+  ];
+  if (e.sign) {
+    // the sign glyph near the head, off the line
+    const t = 0.78;
+    const q = bend === 0
+      ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
+      : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
+    kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color }, [e.sign === '-' ? '−' : '+']));
+  }
+  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
+}
+
+function nodeEl(n: ViewNode, b: Box): El {
+  const at = `translate(${r1(b.x)},${r1(b.y)})`;
+  if (n.count !== undefined) {
+    const s = BLOCK_STYLE;
+    const card = (o: number) => el('rect', { x: o, y: o, width: r1(b.width - 8), height: r1(b.height - 8), rx: 8, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 });
+    return el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, transform: at, class: 'lf-toggle' }, [
+      el('title', {}, [`${n.label} — a simultaneous block, folded; click to show its members`]),
+      card(8), card(4), card(0),
+      el('circle', { cx: 20, cy: r1((b.height - 8) / 2), r: 12, fill: s.stroke }),
+      el('text', { x: 20, y: r1((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
+      el('text', { x: 38, y: r1((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
+    ]);
+  }
+  const style = ROLE_STYLE[n.role];
+  const shape = KIND_SHAPE[n.kind];
+  const kids: (El | string)[] = [
+    el('title', {}, [`${n.label} (${n.variable}): ${style.label}`]),
+    el('path', { d: shapePath(shape, b.width, b.height), fill: style.fill, stroke: style.stroke, 'stroke-width': style.strokeWidth, 'stroke-dasharray': style.dash }),
+  ];
+  if (shape === 'accumulator') kids.push(el('rect', { x: 0, y: r1(b.height - ACCUMULATOR_FLOOR), width: r1(b.width), height: ACCUMULATOR_FLOOR, fill: style.stroke }));
+  const glyph = style.glyph;
+  const textY = r1((shape === 'accumulator' ? b.height - ACCUMULATOR_FLOOR : b.height) / 2 + 4.5);
+  if (glyph) kids.push(el('text', { x: 14, y: textY, 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: style.stroke }, [glyph]));
+  const textX = r1(glyph ? 22 + (b.width - 22 - (shape === 'tag' ? 10 : 0)) / 2 : (b.width - (shape === 'tag' ? 10 : 0)) / 2);
+  kids.push(el('text', { x: textX, y: textY, 'text-anchor': 'middle', 'font-size': 13, fill: INK }, [n.label]));
+  return el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}), transform: at }, kids);
+}
+
+function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: number } {
+  const items: El[] = [];
+  let x = 0;
+  let row = 0;
+  const place = (w: number) => { if (x + w > width - 24 && x > 0) { x = 0; row++; } const p = { x, y: row * 30 }; x += w; return p; };
+  for (const role of vm.rolesShown) {
+    const s = ROLE_STYLE[role];
+    const kind = role === 'input' ? 'input' : role === 'derived' ? 'derived' : 'state';
+    const shape = KIND_SHAPE[kind];
+    const w = 26 + s.label.length * 6.6 + 22;
+    const p = place(w);
+    const kids: El[] = [el('path', { d: shapePath(shape, 22, 16), fill: s.fill, stroke: s.stroke, 'stroke-width': Math.min(2.2, s.strokeWidth), 'stroke-dasharray': s.dash ? '3 2' : undefined })];
+    if (shape === 'accumulator') kids.push(el('rect', { x: 0, y: 13, width: 22, height: 3, fill: s.stroke }));
+    if (s.glyph) kids.push(el('text', { x: 11, y: 12.5, 'text-anchor': 'middle', 'font-size': 11, 'font-weight': 700, fill: s.stroke }, [s.glyph]));
+    kids.push(el('text', { x: 28, y: 12.5, 'font-size': 11.5, fill: INK }, [s.label]));
+    items.push(el('g', { transform: `translate(${r1(p.x)},${p.y})`, 'data-legend': role }, kids));
+  }
+  for (const kind of vm.kindsShown) {
+    const s = LINK_STYLE[kind];
+    const w = 44 + s.label.length * 6.6 + 22;
+    const p = place(w);
+    items.push(el('g', { transform: `translate(${r1(p.x)},${p.y})`, 'data-legend': kind }, [
+      el('path', { d: 'M0,8 L32,8', stroke: s.stroke, 'stroke-width': 1.8, 'stroke-dasharray': s.dash, 'marker-end': `url(#lf-head-${kind})`, fill: 'none' }),
+      el('text', { x: 40, y: 12.5, 'font-size': 11.5, fill: INK }, [s.label]),
+    ]));
+  }
+  if (vm.groups.length || vm.folded.length) {
+    const w = 30 + BLOCK_STYLE.label.length * 6.6 + 22;
+    const p = place(w);
+    items.push(el('g', { transform: `translate(${r1(p.x)},${p.y})`, 'data-legend': 'block' }, [
+      el('rect', { x: 0, y: 0, width: 24, height: 16, rx: 5, fill: BLOCK_STYLE.fill, stroke: BLOCK_STYLE.stroke, 'stroke-width': 1.2 }),
+      el('rect', { x: 3, y: 3, width: 18, height: 10, rx: 3, fill: 'none', stroke: BLOCK_STYLE.stroke, 'stroke-width': 1 }),
+      el('text', { x: 30, y: 12.5, 'font-size': 11.5, fill: INK }, [BLOCK_STYLE.label]),
+    ]));
+  }
+  return { el: el('g', { transform: `translate(24,${r1(y)})`, 'data-part': 'legend' }, items), height: items.length ? (row + 1) * 30 + 10 : 0 };
+}
+
+/** The drawing of a view: a root `<svg>` element tree. */
+export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {}): El {
+  const showTitle = opts.title !== false;
+  const top = showTitle ? HEADER : 0;
+  const width = Math.max(layout.width, 520);
+  const body: (El | string)[] = [];
+
+  for (const [s, box] of Object.entries(layout.slices ?? {})) {
+    body.push(el('g', { 'data-slice-frame': s }, [
+      el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
+      el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + 24), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
+    ]));
+  }
+  for (const g of vm.groups) {
+    const b = layout.groups[g.id];
+    if (!b) continue;
+    const s = BLOCK_STYLE;
+    body.push(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
+      el('rect', { x: r1(b.x), y: r1(b.y), width: r1(b.width), height: r1(b.height), rx: s.radius, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 }),
+      el('rect', { x: r1(b.x + s.gap), y: r1(b.y + s.gap), width: r1(b.width - 2 * s.gap), height: r1(b.height - 2 * s.gap), rx: s.radius - s.gap, fill: 'none', stroke: s.stroke, 'stroke-width': 1 }),
+      el('g', { class: 'lf-toggle', 'data-block': g.key }, [
+        el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
+        el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
+        el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
+        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke }, [`${g.variables.length} determined together`]),
+      ]),
+    ]));
+  }
+  const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
+  for (const e of vm.edges) {
+    const a = layout.nodes[e.from], b = layout.nodes[e.to];
+    if (!a || !b) continue;
+    const bend = pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
+    body.push(edgeEl(e, a, b, bend));
+  }
+  for (const n of vm.nodes) {
+    const b = layout.nodes[n.id];
+    if (b) body.push(nodeEl(n, b));
+  }
+
+  const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
+  if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, [vm.title]));
+  children.push(el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body));
+  let y = top + layout.height;
+  if (opts.legend !== false) {
+    const lg = legendEl(vm, y, width);
+    children.push(lg.el);
+    y += lg.height;
+  }
+  if (opts.caption) {
+    const lines = [opts.captionText ?? vm.title, ...(vm.caution ? [vm.caution] : [])];
+    children.push(el('g', { 'data-part': 'caption' }, lines.map((t, i) => el('text', { x: 24, y: r1(y + 16 + i * 18), 'font-size': i ? 11.5 : 13, fill: i ? MUTED : INK, 'font-style': i ? 'italic' : undefined }, [t]))));
+    y += 16 + lines.length * 18;
+  }
+  const height = Math.ceil(y + 12);
+  return el('svg', {
+    xmlns: 'http://www.w3.org/2000/svg', width: Math.ceil(width), height, viewBox: `0 0 ${Math.ceil(width)} ${height}`,
+    'font-family': FONT_STACK, role: 'img', 'aria-label': vm.title, 'data-view': vm.mode,
+  }, children);
+}

@@ -1,0 +1,132 @@
+/**
+ * ELK layered layout of a view model: blocks become compound nodes, the
+ * previous positions seed the order inside layers (so the picture stays put
+ * when the interval moves), and the unrolled view lays out one instant and
+ * repeats it. Works with any ELK instance (worker in the browser, bundled in Node).
+ */
+import type { ViewModel } from '../core/view/types';
+import { center, finishLayout } from './geometry';
+import { GROUP_PAD, SLICE_GAP, SLICE_PAD, type Box, type Layout } from './types';
+
+/** The part of elkjs's API used here. */
+export interface ElkRunner {
+  layout(graph: ElkGraph): Promise<ElkGraph>;
+}
+export interface ElkGraph {
+  id: string;
+  x?: number;
+  y?: number;
+  width?: number;
+  height?: number;
+  layoutOptions?: Record<string, string>;
+  children?: ElkGraph[];
+  edges?: { id: string; sources: string[]; targets: string[] }[];
+}
+
+/**
+ * Options measured to halve ELK's time on graphs with cycles (see STACK-NOTES):
+ * one pass of thoroughness, no greedy switch, polyline routing.
+ */
+export const TUNED_OPTIONS: Record<string, string> = {
+  'elk.algorithm': 'layered',
+  'elk.layered.thoroughness': '1',
+  'elk.layered.crossingMinimization.greedySwitch.type': 'OFF',
+  'elk.edgeRouting': 'POLYLINE',
+};
+export const DEFAULT_OPTIONS: Record<string, string> = { 'elk.algorithm': 'layered' };
+
+const COMMON: Record<string, string> = {
+  'elk.hierarchyHandling': 'INCLUDE_CHILDREN',
+  'elk.spacing.nodeNode': '26',
+  'elk.layered.spacing.nodeNodeBetweenLayers': '64',
+  'elk.spacing.componentComponent': '40',
+  'elk.layered.crossingMinimization.semiInteractive': 'true',
+};
+
+export interface ElkLayoutOptions {
+  /** Previous layout: its positions seed the order within layers. */
+  previous?: Layout;
+  tuned?: boolean;
+}
+
+/** The ELK graph for a view model (the instant t only, for the unrolled view). */
+export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph {
+  const unrolled = vm.mode === 'unrolled';
+  const nodes = unrolled ? vm.nodes.filter((n) => n.slice === 0) : vm.nodes;
+  const groups = unrolled ? vm.groups.filter((g) => g.slice === 0) : vm.groups;
+  const inGroup = new Map<string, string>();
+  for (const g of groups) for (const m of g.members) inGroup.set(m, g.id);
+  const seed = (id: string): { x?: number; y?: number } => {
+    const b = opts.previous?.nodes[id] ?? opts.previous?.nodes[id.replace(/@0$/, '')];
+    return b ? { x: b.x, y: b.y } : {};
+  };
+  const leaf = (id: string, w: number, h: number): ElkGraph => ({ id, width: w, height: h, ...seed(id) });
+  const children: ElkGraph[] = [];
+  for (const g of groups) {
+    children.push({
+      id: g.id,
+      layoutOptions: { 'elk.padding': `[top=${GROUP_PAD.top},left=${GROUP_PAD.left},bottom=${GROUP_PAD.bottom},right=${GROUP_PAD.right}]` },
+      children: g.members.map((m) => { const n = nodes.find((x) => x.id === m)!; return leaf(n.id, n.width, n.height); }),
+    });
+  }
+  for (const n of nodes) if (!inGroup.has(n.id)) children.push(leaf(n.id, n.width, n.height));
+  const ids = new Set(nodes.map((n) => n.id));
+  const edges = vm.edges.filter((e) => ids.has(e.from) && ids.has(e.to)).map((e) => ({ id: e.id, sources: [e.from], targets: [e.to] }));
+  return {
+    id: 'root',
+    layoutOptions: { ...(opts.tuned === false ? DEFAULT_OPTIONS : TUNED_OPTIONS), ...COMMON, 'elk.direction': unrolled ? 'DOWN' : 'RIGHT' },
+    children,
+    edges,
+  };
+}
+
+/** Absolute boxes from ELK's result (children are relative to their parent). */
+function readBoxes(g: ElkGraph, dx: number, dy: number, out: Record<string, Box>): void {
+  for (const c of g.children ?? []) {
+    const x = dx + (c.x ?? 0);
+    const y = dy + (c.y ?? 0);
+    out[c.id] = { x, y, width: c.width ?? 0, height: c.height ?? 0 };
+    if (c.children?.length) readBoxes(c, x, y, out);
+  }
+}
+
+/**
+ * Lay out a view model with ELK. `await elkLayout(elk, vm)` → positions of every node and block.
+ * The unrolled view: the instant t is laid out, the instants t−1 and t+1 are copies beside it.
+ */
+export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOptions = {}): Promise<Layout> {
+  const graph = elkGraphOf(vm, opts);
+  const done = await elk.layout(graph);
+  const boxes: Record<string, Box> = {};
+  readBoxes(done, 0, 0, boxes);
+  const nodes: Record<string, Box> = {};
+  const groups: Record<string, Box> = {};
+  const groupIds = new Set(vm.groups.map((g) => g.id));
+  if (vm.mode !== 'unrolled') {
+    for (const n of vm.nodes) if (boxes[n.id]) nodes[n.id] = boxes[n.id];
+    for (const g of vm.groups) if (boxes[g.id]) groups[g.id] = boxes[g.id];
+    return finishLayout(vm, nodes, 'elk', groups);
+  }
+  const width = Math.max(0, ...Object.values(boxes).map((b) => b.x + b.width)) + SLICE_PAD.left + SLICE_PAD.right;
+  for (const [id, b] of Object.entries(boxes)) {
+    const base = id.replace(/@0$/, '');
+    for (const s of [-1, 0, 1]) {
+      const target = `${base}@${s}`;
+      const box = { ...b, x: b.x + (s + 1) * (width + SLICE_GAP) };
+      if (groupIds.has(target)) groups[target] = box;
+      else nodes[target] = box;
+    }
+  }
+  return finishLayout(vm, nodes, 'elk', groups);
+}
+
+/** Whether two layouts put every shared node within `tol` px of each other (after their own normalisation). */
+export function sameCenters(a: Layout, b: Layout, tol = 0.5): boolean {
+  for (const [k, box] of Object.entries(a.nodes)) {
+    const o = b.nodes[k];
+    if (!o) continue;
+    const p = center(box), q = center(o);
+    if (Math.abs(p.x - q.x) > tol || Math.abs(p.y - q.y) > tol) return false;
+  }
+  return true;
+}
