@@ -93,6 +93,11 @@ export const equationId = {
 export interface Breakpoint {
   /** The interval Δ (model time unit) at which the change happens; the new role holds from here on (inclusive). */
   interval: number;
+  /**
+   * The new role holds only for intervals strictly above `interval`; at `interval` itself the old role still
+   * holds (a frozen state thaws once Δ > τ/(k·N)). Omitted: inclusive, as above.
+   */
+  exclusive?: boolean;
   changes: { variable: VariableId; from: Role; to: Role; reason: string }[];
 }
 
@@ -100,5 +105,9 @@ export interface Breakpoint {
 export interface Band {
   from: number;
   to: number;
+  /** `from` itself is not in the band (it follows an exclusive breakpoint). */
+  excludesFrom?: boolean;
+  /** `to` itself is in the band (an exclusive breakpoint, or the end of a fixed study window). */
+  includesTo?: boolean;
   roles: Record<VariableId, Role>;
 }

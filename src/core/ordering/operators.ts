@@ -1,0 +1,163 @@
+/**
+ * Operators on equation structures (Iwasaki & Simon, "Causality and model
+ * abstraction", Artificial Intelligence 67, 1994): equilibration (a fast
+ * state settles: its rate equation becomes a balance equation), exogenization
+ * (a slow state is held constant: its equation is dropped), and the
+ * do-operator (an intervention fixes a variable; Pearl, Causality, 2000,
+ * §3.2.1). Each is pure: it returns a new structure and what changed.
+ */
+import type { EquationId, VariableId } from '../model/types';
+import { equationId } from './types';
+import { cloneStructure, compareIds, derivativeOf, type EquationStructure } from './structure';
+import { orderStructure } from './order';
+import { bipartiteFromLists, hopcroftKarp } from './matching';
+
+export interface StructureChange {
+  operator: 'equilibrate' | 'exogenize' | 'hold';
+  variable: VariableId;
+  /** Equations taken out of the structure. */
+  removed: EquationId[];
+  /** Equations added (hold(x)). */
+  added: EquationId[];
+  /** Equations kept with other variables (a rate that became a balance equation). */
+  changed: EquationId[];
+  /** The intervention's value (hold only). */
+  value?: number;
+  /** Set when the equation to drop was a choice among several (x in a simultaneous block). */
+  ambiguous?: { candidates: EquationId[] };
+  /** What happened, in words. */
+  note: string;
+}
+
+export interface OperatorResult {
+  structure: EquationStructure;
+  change: StructureChange;
+}
+
+function requireVariable(s: EquationStructure, x: VariableId, op: string): void {
+  if (!s.variables.includes(x)) throw new Error(`${op}: no variable "${x}" in this structure`);
+}
+
+/**
+ * Settle the dynamic state x: x' disappears, rate(x) becomes the balance
+ * equation 0 = f(…) over the rate's other variables, and x becomes an
+ * unknown. The re-ordering may let the balance equation determine a variable
+ * other than x. Example: `equilibrate(s, 'x1')`.
+ */
+export function equilibrate(s: EquationStructure, x: VariableId): OperatorResult {
+  return equilibrateAll(s, [x]);
+}
+
+/** Settle several dynamic states at once (the same result as one after another, in any order). */
+export function equilibrateAll(s: EquationStructure, xs: VariableId[]): OperatorResult {
+  const out = cloneStructure(s);
+  const changed: EquationId[] = [];
+  for (const x of [...new Set(xs)].sort(compareIds)) {
+    requireVariable(out, x, 'equilibrate');
+    const eq = out.derivatives[x];
+    if (eq === undefined) throw new Error(`equilibrate: "${x}" is not a dynamic state, so it cannot settle`);
+    const d = derivativeOf(x);
+    for (const e of out.equations) if (e.id === eq) e.variables = e.variables.filter((v) => v !== d);
+    delete out.derivatives[x];
+    out.exogenous = out.exogenous.filter((v) => v !== x);
+    changed.push(eq);
+  }
+  return {
+    structure: out,
+    change: {
+      operator: 'equilibrate',
+      variable: xs.length === 1 ? xs[0] : [...new Set(xs)].sort(compareIds).join(', '),
+      removed: [],
+      added: [],
+      changed: changed.sort(compareIds),
+      note: `${changed.length > 1 ? 'rate equations' : 'the rate equation'} ${changed.join(', ')} now ${changed.length > 1 ? 'act as balance equations' : 'acts as a balance equation'}`,
+    },
+  };
+}
+
+/**
+ * The equation that determines x, to be dropped when x is fixed from
+ * outside: its rate (dynamic state), its formula, or else the equation
+ * paired with x in the current ordering; in a simultaneous block that is a
+ * choice, recorded with its candidates.
+ */
+function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId | null; candidates?: EquationId[] } {
+  if (s.derivatives[x] !== undefined) return { eq: s.derivatives[x] };
+  if (s.exogenous.includes(x)) return { eq: null };
+  const ids = new Set(s.equations.map((e) => e.id));
+  for (const own of [equationId.hold(x), equationId.formula(x), equationId.rate(x)]) if (ids.has(own)) return { eq: own };
+  const ordered = orderStructure(s);
+  const bi = ordered.causal.blockOf[x];
+  if (bi === undefined) return { eq: null };
+  const block = ordered.causal.blocks[bi];
+  const eqVars = new Map(s.equations.map((e) => [e.id, e.variables]));
+  const containing = block.equations.filter((e) => eqVars.get(e)!.includes(x));
+  if (block.variables.length <= 1) return { eq: containing[0] ?? Object.keys(ordered.causal.matching).find((e) => ordered.causal.matching[e] === x) ?? null };
+  // Candidates: equations whose removal leaves the rest of the block able to determine the rest of its variables.
+  const rest = block.variables.filter((v) => v !== x);
+  const col = new Map(rest.map((v, i) => [v, i]));
+  const candidates = containing.filter((drop) => {
+    const lists = block.equations.filter((e) => e !== drop).map((e) => eqVars.get(e)!.filter((v) => col.has(v)).map((v) => col.get(v)!));
+    return hopcroftKarp(bipartiteFromLists(rest.length, lists)).size === rest.length;
+  });
+  const pool = candidates.length > 0 ? candidates : containing;
+  return { eq: pool[0] ?? null, candidates: pool };
+}
+
+function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure; removed: EquationId[]; candidates?: EquationId[] } {
+  const { eq, candidates } = equationToDrop(s, x);
+  const out = cloneStructure(s);
+  if (eq !== null) out.equations = out.equations.filter((e) => e.id !== eq);
+  delete out.derivatives[x];
+  return { out, removed: eq !== null ? [eq] : [], candidates };
+}
+
+/**
+ * Hold x constant from outside (a slow state frozen over the study): the
+ * equation that determined it is dropped and x becomes exogenous.
+ * Example: `exogenize(s, 'x3')`.
+ */
+export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
+  requireVariable(s, x, 'exogenize');
+  const { out, removed, candidates } = dropFor(s, x);
+  if (!out.exogenous.includes(x)) out.exogenous = [...out.exogenous, x].sort(compareIds);
+  const change: StructureChange = {
+    operator: 'exogenize',
+    variable: x,
+    removed,
+    added: [],
+    changed: [],
+    note: removed.length ? `${x} is constant; equation ${removed[0]} is dropped` : `${x} was already given from outside`,
+  };
+  if (candidates && candidates.length > 1) change.ambiguous = { candidates };
+  return { structure: out, change };
+}
+
+/**
+ * The do-operator: fix x at `value`. x is then determined by the equation
+ * hold(x) alone; the equation that determined it before is dropped (a
+ * state's rate, a derived variable's formula, or for a variable determined
+ * by relations the one paired with it now — a choice when x is in a
+ * simultaneous block). Example: `hold(s, 'x2', 0)`.
+ */
+export function hold(s: EquationStructure, x: VariableId, value: number): OperatorResult {
+  requireVariable(s, x, 'hold');
+  const { out, removed, candidates } = dropFor(s, x);
+  const h = equationId.hold(x);
+  out.exogenous = out.exogenous.filter((v) => v !== x);
+  out.equations = [...out.equations.filter((e) => e.id !== h), { id: h, variables: [x] }].sort((a, b) => compareIds(a.id, b.id));
+  const change: StructureChange = {
+    operator: 'hold',
+    variable: x,
+    removed: removed.filter((e) => e !== h),
+    added: [h],
+    changed: [],
+    value,
+    note: removed.length && removed[0] !== h ? `${x} is held at ${value}; equation ${removed[0]} is dropped` : `${x} is held at ${value}`,
+  };
+  if (candidates && candidates.length > 1) {
+    change.ambiguous = { candidates };
+    change.note += ` (a choice: ${x} is determined together with others, and any of ${candidates.join(', ')} could be the one dropped)`;
+  }
+  return { structure: out, change };
+}
