@@ -1,0 +1,45 @@
+import { ReactFlowProvider } from '@xyflow/react';
+import '@xyflow/react/dist/base.css';
+import './styles.css';
+import { TopBar } from './TopBar';
+import { ModelCanvas } from './canvas/ModelCanvas';
+import { RightPane } from './RightPane';
+import { StatusBar } from './StatusBar';
+import { GalleryDialog } from './GalleryDialog';
+import { NoticeDialog } from './NoticeDialog';
+import { CautionBanner } from './CautionBanner';
+import { Toast } from './Toast';
+import { IntervalStrip } from './interval/IntervalStrip';
+import { useShortcuts } from './useShortcuts';
+
+function Shell() {
+  useShortcuts();
+  return (
+    <div className="lf-app">
+      <TopBar />
+      <CautionBanner />
+      <main className="lf-main">
+        <div className="lf-left">
+          <ModelCanvas />
+          <div id="interval-strip">
+            <IntervalStrip />
+          </div>
+        </div>
+        <RightPane />
+      </main>
+      <StatusBar />
+      <GalleryDialog />
+      <NoticeDialog />
+      <Toast />
+    </div>
+  );
+}
+
+/** The Loopfold editor. */
+export function App() {
+  return (
+    <ReactFlowProvider>
+      <Shell />
+    </ReactFlowProvider>
+  );
+}

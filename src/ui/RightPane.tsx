@@ -1,0 +1,53 @@
+import { useUi, uiStore, type RightPane as Pane } from '../state/ui';
+import { TimescalePane } from './views/TimescalePane';
+import { Inspector } from './inspector/Inspector';
+import { DiagnosticsList } from './diagnostics/DiagnosticsList';
+import { EquationsView } from './equations/EquationsView';
+
+const TABS: { id: Pane; name: string }[] = [
+  { id: 'edit', name: 'Edit' },
+  { id: 'equations', name: 'Equations' },
+  { id: 'timescales', name: 'Timescales' },
+];
+
+/** The pane beside the canvas: editing and checks, the equation structure, or the timescale views. */
+export function RightPane() {
+  const pane = useUi((s) => s.pane);
+  return (
+    <aside className="lf-right" aria-label="Side pane">
+      <div role="tablist" aria-label="Side pane view" className="lf-tabs">
+        {TABS.map((t) => (
+          <button
+            key={t.id}
+            type="button"
+            role="tab"
+            id={`lf-tab-${t.id}`}
+            aria-selected={pane === t.id}
+            aria-controls={`lf-panel-${t.id}`}
+            tabIndex={pane === t.id ? 0 : -1}
+            onClick={() => uiStore.getState().set({ pane: t.id })}
+            onKeyDown={(e) => {
+              if (e.key !== 'ArrowRight' && e.key !== 'ArrowLeft') return;
+              const i = TABS.findIndex((x) => x.id === pane);
+              const next = TABS[(i + (e.key === 'ArrowRight' ? 1 : TABS.length - 1)) % TABS.length];
+              uiStore.getState().set({ pane: next.id });
+              document.getElementById(`lf-tab-${next.id}`)?.focus();
+            }}
+          >
+            {t.name}
+          </button>
+        ))}
+      </div>
+      <div role="tabpanel" id={`lf-panel-${pane}`} aria-labelledby={`lf-tab-${pane}`} className="lf-panel">
+        {pane === 'edit' && (
+          <>
+            <Inspector />
+            <DiagnosticsList />
+          </>
+        )}
+        {pane === 'equations' && <EquationsView />}
+        {pane === 'timescales' && <TimescalePane />}
+      </div>
+    </aside>
+  );
+}

@@ -1,0 +1,14 @@
+import { useAnalysisState } from '../state/analysis';
+import { useUi } from '../state/ui';
+
+/** The bottom line: the standing note on what results are, and where the core runs. */
+export function StatusBar() {
+  const where = useAnalysisState((s) => s.where);
+  const autosaved = useUi((s) => s.autosaved);
+  return (
+    <footer className="lf-status">
+      <span className="lf-hypotheses">Results are hypotheses that follow from the model as drawn — not findings about the world.</span>
+      <span className="lf-hint">{autosaved ? `Kept in this browser ${autosaved}` : ''}{where ? ` · core: ${where}` : ''}</span>
+    </footer>
+  );
+}

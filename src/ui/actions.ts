@@ -1,0 +1,247 @@
+/**
+ * Editor commands shared by the toolbar, the keyboard and the canvas:
+ * adding, deleting, copying and pasting, and the file actions.
+ */
+import type { Link, Model, Position, Relation, Variable, VariableKind } from '../core/model/types';
+import { EXAMPLES } from '../examples/index';
+import { emptyModel, freshId, preparePaste, usedIds } from '../state/changes';
+import { documentStore, editDocument, selectDirty, selectModel } from '../state/document';
+import { describeIssues, fileNameFor, readModelText, readShareFragment, serializeModel, shareFragment, type OpenResult } from '../state/files';
+import { parseModel } from '../core/model/schema';
+import { selectionStore } from '../state/selection';
+import { showNotice, uiStore } from '../state/ui';
+
+const model = () => selectModel(documentStore.getState());
+
+/** Where a new item goes when no pointer position is given; the canvas sets it to the view centre. */
+let viewCentre: () => Position = () => ({ x: 200, y: 150 });
+export function setViewCentreProvider(f: () => Position): void {
+  viewCentre = f;
+}
+
+export function addVariable(kind: VariableKind = 'derived', at?: Position): string {
+  const m = model();
+  const id = freshId('v', usedIds(m));
+  const n = m.variables.length + 1;
+  const p = at ?? viewCentre();
+  const v: Variable = { id, label: `Variable ${n}`, kind, position: { x: Math.round(p.x - 60), y: Math.round(p.y - 23) } };
+  if (kind === 'state') v.timescale = '1 ' + m.timeUnit;
+  documentStore.getState().stopGesture();
+  editDocument({ type: 'addVariable', variable: v });
+  selectionStore.getState().select({ nodes: [id] });
+  return id;
+}
+
+export function addRelation(at?: Position): string {
+  const m = model();
+  const id = freshId('rel', usedIds(m));
+  const p = at ?? viewCentre();
+  const ids = m.variables.slice(0, 2).map((v) => v.id);
+  const equation = ids.length === 2 ? `${ids[0]} = ${ids[1]}` : '0 = 0';
+  documentStore.getState().stopGesture();
+  editDocument({ type: 'addRelation', relation: { id, equation, position: { x: Math.round(p.x), y: Math.round(p.y) } } });
+  selectionStore.getState().select({ nodes: [id] });
+  return id;
+}
+
+/** Draw a link; a state target makes it integrating, otherwise instantaneous. */
+export function addLink(from: string, to: string): string | null {
+  const m = model();
+  if (from === to) return null;
+  const target = m.variables.find((v) => v.id === to);
+  if (!target || !m.variables.some((v) => v.id === from)) return null;
+  const taken = new Set(m.links.map((l) => l.id).filter((x): x is string => !!x));
+  const id = freshId(`${from}_${to}_`, taken);
+  const link: Link = { id, from, to, kind: target.kind === 'state' ? 'integrating' : 'instantaneous', sign: '+' };
+  documentStore.getState().stopGesture();
+  editDocument({ type: 'addLink', link });
+  selectionStore.getState().select({ links: [id] });
+  return id;
+}
+
+export function deleteSelection(): void {
+  const { nodes, links } = selectionStore.getState();
+  if (nodes.length + links.length === 0) return;
+  const m = model();
+  const rel = new Set((m.relations ?? []).map((r) => r.id));
+  documentStore.getState().stopGesture();
+  editDocument({ type: 'remove', variables: nodes.filter((n) => !rel.has(n)), relations: nodes.filter((n) => rel.has(n)), links });
+  selectionStore.getState().clear();
+}
+
+interface Clip {
+  variables: Variable[];
+  links: Link[];
+  relations: Relation[];
+}
+let clipboard: Clip | null = null;
+let pasteCount = 0;
+
+export function copySelection(): boolean {
+  const { nodes } = selectionStore.getState();
+  if (nodes.length === 0) return false;
+  const m = model();
+  const sel = new Set(nodes);
+  clipboard = {
+    variables: m.variables.filter((v) => sel.has(v.id)),
+    relations: (m.relations ?? []).filter((r) => sel.has(r.id)),
+    links: m.links.filter((l) => sel.has(l.from) && sel.has(l.to)),
+  };
+  pasteCount = 0;
+  return true;
+}
+
+export function pasteClipboard(): void {
+  if (!clipboard) return;
+  pasteCount++;
+  const change = preparePaste(model(), clipboard, { x: 40 * pasteCount, y: 40 * pasteCount });
+  documentStore.getState().stopGesture();
+  editDocument(change);
+  selectionStore.getState().select({ nodes: [...change.variables.map((v) => v.id), ...change.relations.map((r) => r.id)], links: change.links.map((l) => l.id!) });
+}
+
+export function selectAll(): void {
+  const m = model();
+  selectionStore.getState().select({ nodes: [...m.variables.map((v) => v.id), ...(m.relations ?? []).map((r) => r.id)], links: m.links.map((l) => l.id!) });
+}
+
+function confirmDiscard(): boolean {
+  if (!selectDirty(documentStore.getState()) || documentStore.getState().fileName === undefined) return true;
+  return window.confirm('The model has changes that are not saved to its file. Discard them?');
+}
+
+/** Open a validated model as the new document; a failure leaves the current one untouched. */
+export function openResult(r: OpenResult, source: string, fileName?: string): boolean {
+  if (!r.ok) {
+    showNotice({ tone: 'error', title: `${source} could not be opened; your current model is unchanged`, lines: describeIssues(r.issues) });
+    return false;
+  }
+  if (!confirmDiscard()) return false;
+  documentStore.getState().load(r.model, { fileName });
+  selectionStore.getState().clear();
+  if (r.warnings.length > 0) showNotice({ tone: 'info', title: `${source} opened with warnings`, lines: describeIssues(r.warnings) });
+  return true;
+}
+
+export function newModel(): void {
+  if (!confirmDiscard()) return;
+  documentStore.getState().load(emptyModel());
+  selectionStore.getState().clear();
+}
+
+export function openExample(id: string): boolean {
+  const ex = EXAMPLES.find((e) => e.id === id);
+  if (!ex) {
+    showNotice({ tone: 'error', title: `There is no example "${id}"`, lines: [`Known examples: ${EXAMPLES.map((e) => e.id).join(', ')}`] });
+    return false;
+  }
+  const r = parseModel(ex.model);
+  return openResult(r.ok ? { ok: true, model: r.model, warnings: r.warnings } : r, `The example "${ex.title}"`);
+}
+
+export async function openFile(file: File): Promise<boolean> {
+  let text: string;
+  try {
+    text = await file.text();
+  } catch (e) {
+    showNotice({ tone: 'error', title: `"${file.name}" could not be read; your current model is unchanged`, lines: [(e as Error).message] });
+    return false;
+  }
+  return openResult(readModelText(text), `"${file.name}"`, file.name);
+}
+
+export function openShareFragment(hash: string): boolean | null {
+  const r = readShareFragment(hash);
+  if (r === null) return null;
+  return openResult(r, 'The share link');
+}
+
+interface SaveHandle {
+  createWritable(): Promise<{ write(data: string): Promise<void>; close(): Promise<void> }>;
+  name: string;
+}
+let fileHandle: SaveHandle | null = null;
+
+type SavePicker = (opts: unknown) => Promise<SaveHandle>;
+function savePicker(): SavePicker | null {
+  const w = window as unknown as { showSaveFilePicker?: SavePicker };
+  // Under automation the native picker cannot be answered: download instead.
+  if (typeof w.showSaveFilePicker !== 'function' || navigator.webdriver) return null;
+  return w.showSaveFilePicker.bind(window);
+}
+
+function download(text: string, name: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
+export async function saveAs(): Promise<void> {
+  const m = model();
+  const text = serializeModel(m);
+  const suggested = documentStore.getState().fileName ?? fileNameFor(m.name);
+  const picker = savePicker();
+  if (picker) {
+    try {
+      const handle = await picker({ suggestedName: suggested, types: [{ description: 'Loopfold model', accept: { 'application/json': ['.json'] } }] });
+      const w = await handle.createWritable();
+      await w.write(text);
+      await w.close();
+      fileHandle = handle;
+      documentStore.getState().markSaved(handle.name);
+      uiStore.getState().set({ toast: `Saved to ${handle.name}` });
+      return;
+    } catch (e) {
+      if ((e as Error).name === 'AbortError') return;
+      // fall through to a download
+    }
+  }
+  download(text, suggested);
+  documentStore.getState().markSaved(suggested);
+  uiStore.getState().set({ toast: `Downloaded ${suggested}` });
+}
+
+export async function save(): Promise<void> {
+  if (fileHandle) {
+    try {
+      const w = await fileHandle.createWritable();
+      await w.write(serializeModel(model()));
+      await w.close();
+      documentStore.getState().markSaved(fileHandle.name);
+      uiStore.getState().set({ toast: `Saved to ${fileHandle.name}` });
+      return;
+    } catch {
+      fileHandle = null;
+    }
+  }
+  await saveAs();
+}
+
+/** Forget the file a model was saved to (a new document was loaded). */
+documentStore.subscribe((s, prev) => {
+  if (s.history.past.length === 0 && s.history.present !== prev.history.present && s.fileName !== prev.fileName) fileHandle = null;
+});
+
+export function shareLink(): string {
+  const url = `${location.origin}${location.pathname}${shareFragment(model())}`;
+  return url;
+}
+
+export async function copyShareLink(): Promise<void> {
+  const url = shareLink();
+  try {
+    await navigator.clipboard.writeText(url);
+    uiStore.getState().set({ toast: 'Share link copied: it carries the whole model' });
+  } catch {
+    showNotice({ tone: 'info', title: 'Share link (copy it from here)', lines: [url] });
+  }
+}
+
+export function describeModel(m: Model): string {
+  return `${m.variables.length} variables, ${m.links.length} links`;
+}

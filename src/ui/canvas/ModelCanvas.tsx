@@ -1,0 +1,172 @@
+import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type MouseEvent as ReactMouseEvent } from 'react';
+import {
+  Background,
+  BackgroundVariant,
+  ConnectionMode,
+  Controls,
+  MiniMap,
+  ReactFlow,
+  applyNodeChanges,
+  useReactFlow,
+  type EdgeChange,
+  type FinalConnectionState,
+  type NodeChange,
+} from '@xyflow/react';
+import { documentStore, editDocument, useModel } from '../../state/document';
+import { selectionStore, useSelection } from '../../state/selection';
+import { KIND_SHAPE, ROLE_STYLE } from '../../theme/visual';
+import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
+import { badgesOf } from '../diagnostics/collect';
+import { useProblems } from '../diagnostics/useProblems';
+import { buildEdges, buildNodes, type FlowNode } from './flow';
+import { Legend } from './Legend';
+import { LinkEdge, MemberEdge } from './LinkEdge';
+import { LinkMarkers } from './Markers';
+import { RelationNode } from './RelationNode';
+import { VariableNode } from './VariableNode';
+
+const nodeTypes = { variable: VariableNode, relation: RelationNode };
+const edgeTypes = { link: LinkEdge, member: MemberEdge };
+function applyPicks(current: readonly string[], picks: readonly { id: string; selected: boolean }[]): string[] {
+  const set = new Set(current);
+  for (const p of picks) {
+    if (p.selected) set.add(p.id);
+    else set.delete(p.id);
+  }
+  return [...set];
+}
+const sameList = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x, i) => x === b[i]);
+
+/** The mechanism canvas: variables, links and relations of the document, edited in place. */
+export function ModelCanvas() {
+  const model = useModel();
+  const selNodes = useSelection((s) => s.nodes);
+  const selLinks = useSelection((s) => s.links);
+  const problems = useProblems();
+  const badges = useMemo(() => badgesOf(problems), [problems]);
+  const selectedNodes = useMemo(() => new Set(selNodes), [selNodes]);
+  const selectedLinks = useMemo(() => new Set(selLinks), [selLinks]);
+  const [nodes, setNodes] = useState<FlowNode[]>([]);
+  const flow = useReactFlow();
+  const wrapper = useRef<HTMLDivElement>(null);
+
+  useEffect(() => {
+    setNodes((prev) => buildNodes(model, undefined, badges, selectedNodes, prev));
+  }, [model, badges, selectedNodes]);
+  const edges = useMemo(() => buildEdges(model, selectedLinks), [model, selectedLinks]);
+
+  useEffect(() => {
+    setViewCentreProvider(() => {
+      const r = wrapper.current?.getBoundingClientRect();
+      if (!r) return { x: 200, y: 150 };
+      return flow.screenToFlowPosition({ x: r.left + r.width / 2, y: r.top + r.height / 2 });
+    });
+  }, [flow]);
+
+  const onNodesChange = useCallback((changes: NodeChange<FlowNode>[]) => {
+    // removals go through the document (onDelete); selection goes to the selection store
+    const picks = changes.filter((c) => c.type === 'select');
+    if (picks.length > 0) {
+      const s = selectionStore.getState();
+      const next = applyPicks(s.nodes, picks);
+      if (!sameList(next, s.nodes)) s.select({ nodes: next, links: s.links });
+    }
+    setNodes((nds) => applyNodeChanges(changes.filter((c) => c.type !== 'remove'), nds));
+  }, []);
+  const onEdgesChange = useCallback((changes: EdgeChange[]) => {
+    const picks = changes.filter((c) => c.type === 'select');
+    if (picks.length === 0) return;
+    const s = selectionStore.getState();
+    const next = applyPicks(s.links, picks);
+    if (!sameList(next, s.links)) s.select({ nodes: s.nodes, links: next });
+  }, []);
+  const onNodeDragStart = useCallback(() => documentStore.getState().stopGesture(), []);
+  const onNodeDragStop = useCallback((_e: unknown, _n: FlowNode, dragged: FlowNode[]) => {
+    const positions = Object.fromEntries(dragged.map((d) => [d.id, d.position]));
+    editDocument({ type: 'move', positions });
+    documentStore.getState().stopGesture();
+  }, []);
+  const onDelete = useCallback(() => deleteSelection(), []);
+  const onConnectEnd = useCallback((event: MouseEvent | TouchEvent, state: FinalConnectionState) => {
+    const from = state.fromNode?.id;
+    if (!from) return;
+    let to = state.toNode?.id;
+    if (!to || to === from) {
+      const pt = 'changedTouches' in event ? event.changedTouches[0] : event;
+      const el = document.elementsFromPoint(pt.clientX, pt.clientY).find((x) => x.classList.contains('react-flow__node'));
+      to = el?.getAttribute('data-id') ?? undefined;
+    }
+    if (to && to !== from && model.variables.some((v) => v.id === to)) addLink(from, to);
+  }, [model]);
+
+  const onDoubleClick = useCallback((e: ReactMouseEvent) => {
+    if (!(e.target as HTMLElement).classList.contains('react-flow__pane')) return;
+    addVariable('derived', flow.screenToFlowPosition({ x: e.clientX, y: e.clientY }));
+  }, [flow]);
+  const onDragOver = useCallback((e: DragEvent) => {
+    if (e.dataTransfer.types.includes('Files')) {
+      e.preventDefault();
+      e.dataTransfer.dropEffect = 'copy';
+    }
+  }, []);
+  const onDrop = useCallback((e: DragEvent) => {
+    const file = e.dataTransfer.files[0];
+    if (!file) return;
+    e.preventDefault();
+    void openFile(file);
+  }, []);
+
+  return (
+    <div className="lf-canvas" ref={wrapper} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
+      <LinkMarkers />
+      <ReactFlow
+        nodes={nodes}
+        edges={edges}
+        nodeTypes={nodeTypes}
+        edgeTypes={edgeTypes}
+        onNodesChange={onNodesChange}
+        onEdgesChange={onEdgesChange}
+        onNodeDragStart={onNodeDragStart}
+        onNodeDragStop={onNodeDragStop}
+        onDelete={onDelete}
+        onConnectEnd={onConnectEnd}
+        connectionMode={ConnectionMode.Strict}
+        connectionRadius={30}
+        deleteKeyCode={['Delete', 'Backspace']}
+        multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
+        selectionKeyCode="Shift"
+        zoomOnDoubleClick={false}
+        minZoom={0.1}
+        maxZoom={3}
+        fitView
+        fitViewOptions={{ padding: 0.2, maxZoom: 1.2 }}
+        onlyRenderVisibleElements={model.variables.length > 200}
+        proOptions={{ hideAttribution: true }}
+        ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' }}
+      >
+        <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
+        <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" />
+        <MiniMap
+          position="bottom-right"
+          pannable
+          zoomable
+          ariaLabel="Overview of the canvas"
+          nodeColor={(n) => {
+            const d = (n as FlowNode).data as { variable?: { kind: 'input' | 'state' | 'derived' } };
+            return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
+          }}
+          nodeStrokeWidth={2}
+        />
+        <Legend />
+      </ReactFlow>
+      {model.variables.length === 0 && (
+        <div className="lf-empty" role="note">
+          <p><strong>An empty canvas.</strong> Double-click anywhere (or press <kbd>N</kbd>) to add a variable, then drag from its right edge to another variable to draw a link.</p>
+          <p>Or open an example from the gallery.</p>
+        </div>
+      )}
+    </div>
+  );
+}
+
+export { KIND_SHAPE };

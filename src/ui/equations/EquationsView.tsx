@@ -1,0 +1,40 @@
+import { useModel } from '../../state/document';
+import { useAnalysisState } from '../../state/analysis';
+import { selectionStore } from '../../state/selection';
+import { nodeOfEquation } from '../diagnostics/collect';
+
+/** The equation–variable structure: which equations determine which variables, block by block, in causal order. */
+export function EquationsView() {
+  const model = useModel();
+  const ordering = useAnalysisState((s) => s.analysis?.ordering);
+  const status = useAnalysisState((s) => s.status);
+  const message = useAnalysisState((s) => s.message);
+  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  if (!ordering) return <section className="lf-equations" aria-label="Equations"><p className="lf-hint">{status === 'running' ? 'Working…' : message ?? 'No analysis yet.'}</p></section>;
+  const blocks = [...ordering.blocks].sort((a, b) => a.level - b.level);
+  return (
+    <section className="lf-equations" aria-labelledby="lf-eq-title">
+      <h2 id="lf-eq-title">Equations and what they determine</h2>
+      <p className="lf-hint">Each row is a block of the causal ordering: its equations are matched to the variables they determine. Level 0 blocks depend on nothing else.</p>
+      <table>
+        <thead>
+          <tr><th scope="col">Level</th><th scope="col">Equations</th><th scope="col">Determine</th><th scope="col">Status</th></tr>
+        </thead>
+        <tbody>
+          {blocks.map((b, i) => (
+            <tr key={i} className={b.determination !== 'well' ? 'is-bad' : undefined}>
+              <td>{b.level}</td>
+              <td>
+                {b.equations.length === 0 ? <span className="lf-hint">(exogenous)</span> : b.equations.map((e) => (
+                  <button key={e} type="button" className="lf-linkish lf-mono" onClick={() => selectionStore.getState().select({ nodes: [nodeOfEquation(e)] })}>{e}</button>
+                ))}
+              </td>
+              <td>{b.variables.map((v) => <button key={v} type="button" className="lf-linkish" onClick={() => selectionStore.getState().select({ nodes: [v] })}>{label(v)}</button>)}</td>
+              <td>{b.determination === 'well' ? (b.variables.length > 1 ? 'together' : 'ok') : b.determination === 'over' ? 'over-determined' : 'under-determined'}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </section>
+  );
+}

@@ -1,0 +1,74 @@
+import { useId } from 'react';
+import type { Model } from '../../core/model/types';
+import { checkFormula, checkRelation, symbolsOf } from '../../state/validate';
+import { selectionStore } from '../../state/selection';
+
+interface Props {
+  label: string;
+  value: string;
+  model: Model;
+  relation?: boolean;
+  placeholder?: string;
+  hint?: string;
+  onChange(text: string): void;
+  onBlur?(): void;
+}
+
+/** A formula in the restricted syntax, checked as it is typed: where the error is, which names are unknown, which are used. */
+export function ExpressionField({ label, value, model, relation, placeholder, hint, onChange, onBlur }: Props) {
+  const id = useId();
+  const blank = value.trim() === '';
+  const error = blank ? null : relation ? checkRelation(value, model) : checkFormula(value, model);
+  const symbols = error ? [] : symbolsOf(value, relation);
+  const names = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
+  return (
+    <div className="lf-field lf-expr">
+      <label htmlFor={id}>{label}</label>
+      <input
+        id={id}
+        className={`lf-mono${error ? ' is-invalid' : ''}`}
+        value={value}
+        placeholder={placeholder}
+        spellCheck={false}
+        autoComplete="off"
+        aria-invalid={error ? true : undefined}
+        aria-describedby={`${id}-msg`}
+        onChange={(e) => onChange(e.target.value)}
+        onBlur={onBlur}
+      />
+      <div id={`${id}-msg`} aria-live="polite">
+        {error && (
+          <div className="lf-expr-error" role="alert">
+            {error.position !== undefined && (
+              <pre className="lf-caret" aria-hidden="true">
+                {value}
+                {'\n'}
+                {' '.repeat(Math.min(error.position, value.length))}^
+              </pre>
+            )}
+            <p>
+              {error.position !== undefined ? `At character ${error.position + 1}: ` : ''}
+              {error.message}
+            </p>
+            {error.unknown && error.unknown.length > 0 && (
+              <p className="lf-unknown">
+                Not in this model: {error.unknown.map((u) => <code key={u}>{u}</code>)}. Names are the variables’ “name in formulas”.
+              </p>
+            )}
+          </div>
+        )}
+        {!error && symbols.length > 0 && (
+          <p className="lf-symbols">
+            Uses:{' '}
+            {symbols.map((s) => (
+              <button key={s} type="button" className="lf-linkish" onClick={() => selectionStore.getState().select({ nodes: [s] })} title={`Select ${names.get(s) ?? s}`}>
+                {names.get(s) ?? s}
+              </button>
+            ))}
+          </p>
+        )}
+        {blank && hint && <p className="lf-hint">{hint}</p>}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,27 @@
+/**
+ * The core call the worker hosts, as plain code shared by the worker and the
+ * main-thread fallback. Exceptions become a message; nothing is thrown across.
+ */
+import type { Model } from '../core/model/types';
+import type { StudyDesign } from '../core/ordering/types';
+import { bands, breakpoints, equationMatching, orderingAt } from '../core/ordering/index';
+import type { AnalysisResult, CoreApi } from './protocol';
+
+const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+/** Ordering at the design, the interval axis (breakpoints, bands) and the equation matching. */
+export function analyzeModel(model: Model, design: StudyDesign): AnalysisResult {
+  const t0 = now();
+  try {
+    const ordering = orderingAt(model, design);
+    const axis = design.window !== undefined ? { window: design.window } : { samples: design.samples };
+    const bps = breakpoints(model, axis);
+    const bds = bands(model, axis);
+    const matching = equationMatching(model, design);
+    return { ok: true, analysis: { ordering, breakpoints: bps, bands: bds, matching, elapsedMs: now() - t0 } };
+  } catch (e) {
+    return { ok: false, message: `the analysis failed: ${(e as Error).message}` };
+  }
+}
+
+export const localCore: CoreApi = { analyze: async (model, design) => analyzeModel(model, design) };
