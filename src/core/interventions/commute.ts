@@ -132,11 +132,10 @@ export function pairedEquation(s: EquationStructure, v: VariableId): { equation:
   const h = equationId.hold(v);
   if (s.equations.some((e) => e.id === h)) return { equation: h, candidates: [h] };
   const causal = orderStructure(s).causal;
-  const bi = causal.blockOf[v];
-  if (bi === undefined) return { equation: null, candidates: [] };
-  const block = causal.blocks[bi];
+  const block = causal.blocks.find((b) => b.variables.includes(v));
+  if (block === undefined) return { equation: null, candidates: [] };
   const eqVars = new Map(s.equations.map((e) => [e.id, e.variables]));
-  const paired = Object.keys(causal.matching).find((e) => causal.matching[e] === v) ?? null;
+  const paired = matchedEquation(causal.matching, v);
   const containing = block.equations.filter((e) => eqVars.get(e)!.includes(v));
   if (block.variables.length <= 1) {
     const eq = paired ?? containing[0] ?? null;
@@ -152,6 +151,13 @@ export function pairedEquation(s: EquationStructure, v: VariableId): { equation:
   const pool = candidates.length > 0 ? candidates : containing;
   const eq = paired !== null && pool.includes(paired) ? paired : (pool[0] ?? null);
   return { equation: eq, candidates: pool };
+}
+
+/** The equation a maximum matching pairs with v (the matching is a map or a plain record, depending on the ordering core's version). */
+function matchedEquation(matching: unknown, v: VariableId): EquationId | null {
+  const pairs: [string, unknown][] = matching instanceof Map ? [...(matching as Map<string, unknown>).entries()] : Object.entries(matching as Record<string, unknown>);
+  for (const [e, x] of pairs) if (x === v) return e;
+  return null;
 }
 
 /** The do-operator on an equilibrium model: replace the equation its ordering pairs with v by hold(v). */
