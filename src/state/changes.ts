@@ -173,6 +173,7 @@ export function applyChange(model: Model, change: Change): Model {
         links: model.links.filter((l) => !(l.id !== undefined && links.has(l.id)) && !vars.has(l.from) && !vars.has(l.to)),
       };
       if (model.relations) out.relations = model.relations.filter((r) => !rels.has(r.id));
+      if (out.variables.length === model.variables.length && out.links.length === model.links.length && (out.relations?.length ?? 0) === (model.relations?.length ?? 0)) return model;
       if (model.settings?.noise && [...vars].some((v) => v in model.settings!.noise!)) {
         const noise = Object.fromEntries(Object.entries(model.settings.noise).filter(([k]) => !vars.has(k)));
         out.settings = { ...model.settings, noise };

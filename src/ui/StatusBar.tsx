@@ -8,7 +8,7 @@ export function StatusBar() {
   return (
     <footer className="lf-status">
       <span className="lf-hypotheses">Results are hypotheses that follow from the model as drawn — not findings about the world.</span>
-      <span className="lf-hint">{autosaved ? `Kept in this browser ${autosaved}` : ''}{where ? ` · core: ${where}` : ''}</span>
+      <span className="lf-hint">{[autosaved ? `kept in this browser at ${autosaved}` : '', where ? `core: ${where}` : ''].filter(Boolean).join(' · ')}</span>
     </footer>
   );
 }

@@ -1,7 +1,8 @@
 import { memo } from 'react';
-import { BaseEdge, EdgeLabelRenderer, getBezierPath, getStraightPath, type EdgeProps } from '@xyflow/react';
+import { BaseEdge, EdgeLabelRenderer, useInternalNode, type EdgeProps, type InternalNode } from '@xyflow/react';
 import { LINK_STYLE, MUTED } from '../../theme/visual';
 import { HEAD_MARKER } from './Markers';
+import { linkPath, type Box } from './geometry';
 import type { LinkFlowEdge } from './flow';
 
 /** Line width from the link strength |weight| (default 1). */
@@ -10,23 +11,30 @@ export function strokeForWeight(weight: number | undefined): number {
   return 1.2 + w * 0.9;
 }
 
+function boxOf(n: InternalNode | undefined): Box | null {
+  if (!n) return null;
+  const w = n.measured.width ?? 0;
+  const h = n.measured.height ?? 0;
+  if (!w || !h) return null;
+  return { x: n.internals.positionAbsolute.x, y: n.internals.positionAbsolute.y, w, h };
+}
+
 /** A link: instantaneous = solid with a filled head, integrating = dashed with a hollow head; sign near the head. */
-export const LinkEdge = memo(function LinkEdge(props: EdgeProps<LinkFlowEdge>) {
-  const { sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, data, selected } = props;
+export const LinkEdge = memo(function LinkEdge({ source, target, data, selected }: EdgeProps<LinkFlowEdge>) {
+  const a = boxOf(useInternalNode(source));
+  const b = boxOf(useInternalNode(target));
+  if (!a || !b) return null;
   const link = data!.link;
   const style = LINK_STYLE[link.kind];
-  const [path] = getBezierPath({ sourceX, sourceY, targetX, targetY, sourcePosition, targetPosition, curvature: 0.3 });
-  // the sign sits near the head, offset to the side of the line
-  const t = 0.8;
-  const gx = sourceX + (targetX - sourceX) * t;
-  const gy = sourceY + (targetY - sourceY) * t;
+  const { path, glyph } = linkPath(a, b);
+  const width = strokeForWeight(link.weight);
   return (
     <>
-      {selected && <BaseEdge path={path} style={{ stroke: '#c77d0a', strokeOpacity: 0.4, strokeWidth: strokeForWeight(link.weight) + 6 }} />}
-      <BaseEdge path={path} markerEnd={HEAD_MARKER[link.kind]} style={{ stroke: style.stroke, strokeWidth: strokeForWeight(link.weight), strokeDasharray: style.dash }} interactionWidth={16} />
+      {selected && <BaseEdge path={path} style={{ stroke: '#c77d0a', strokeOpacity: 0.45, strokeWidth: width + 7 }} />}
+      <BaseEdge path={path} markerEnd={HEAD_MARKER[link.kind]} style={{ stroke: style.stroke, strokeWidth: width, strokeDasharray: style.dash }} interactionWidth={18} />
       {link.sign && (
         <EdgeLabelRenderer>
-          <span className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} style={{ transform: `translate(-50%, -50%) translate(${gx}px, ${gy - 12}px)` }} aria-hidden="true">
+          <span className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} style={{ transform: `translate(-50%, -50%) translate(${glyph.x}px, ${glyph.y}px)` }} aria-hidden="true">
             {link.sign === '-' ? '−' : '+'}
           </span>
         </EdgeLabelRenderer>
@@ -36,7 +44,12 @@ export const LinkEdge = memo(function LinkEdge(props: EdgeProps<LinkFlowEdge>) {
 });
 
 /** A relation joined to one of its variables: dotted, no head (a relation has no direction). */
-export const MemberEdge = memo(function MemberEdge(props: EdgeProps) {
-  const [path] = getStraightPath({ sourceX: props.sourceX, sourceY: props.sourceY + 15, targetX: props.targetX, targetY: props.targetY });
-  return <BaseEdge path={path} style={{ stroke: MUTED, strokeWidth: 1.4, strokeDasharray: '1.5 3', strokeLinecap: 'round' }} />;
+export const MemberEdge = memo(function MemberEdge({ source, target }: EdgeProps) {
+  const a = boxOf(useInternalNode(source));
+  const b = boxOf(useInternalNode(target));
+  if (!a || !b) return null;
+  // relation ring is the left 30 px of its node
+  const ring: Box = { x: a.x, y: a.y, w: 30, h: 30 };
+  const { path } = linkPath(ring, b, 0);
+  return <BaseEdge path={path} style={{ stroke: MUTED, strokeWidth: 1.5, strokeDasharray: '1.5 3.5', strokeLinecap: 'round' }} />;
 });

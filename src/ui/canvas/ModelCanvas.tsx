@@ -141,7 +141,7 @@ export function ModelCanvas() {
         fitView
         fitViewOptions={{ padding: 0.2, maxZoom: 1.2 }}
         onlyRenderVisibleElements={model.variables.length > 200}
-        proOptions={{ hideAttribution: true }}
+        attributionPosition="top-right"
         ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' }}
       >
         <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
@@ -156,6 +156,7 @@ export function ModelCanvas() {
             return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
           }}
           nodeStrokeWidth={2}
+          style={{ width: 150, height: 96 }}
         />
         <Legend />
       </ReactFlow>

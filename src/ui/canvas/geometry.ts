@@ -1,0 +1,47 @@
+/** Where a link meets the outline of a node: the straight line between centres, clipped to each node's box. */
+export interface Box {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+/** The point where the ray from the centre of `b` towards (tx, ty) leaves the box. */
+export function boxExit(b: Box, tx: number, ty: number): { x: number; y: number } {
+  const cx = b.x + b.w / 2;
+  const cy = b.y + b.h / 2;
+  const dx = tx - cx;
+  const dy = ty - cy;
+  if (dx === 0 && dy === 0) return { x: cx, y: cy };
+  const sx = dx === 0 ? Infinity : b.w / 2 / Math.abs(dx);
+  const sy = dy === 0 ? Infinity : b.h / 2 / Math.abs(dy);
+  const s = Math.min(sx, sy);
+  return { x: cx + dx * s, y: cy + dy * s };
+}
+
+/**
+ * A gently bowed path from box `a` to box `b`. The bow always lies to the
+ * left of the direction of travel, so links a→b and b→a never overlap.
+ * Returns the SVG path and a point near the head for the sign glyph.
+ */
+export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x: number; y: number }; mid: { x: number; y: number } } {
+  const acx = a.x + a.w / 2;
+  const acy = a.y + a.h / 2;
+  const bcx = b.x + b.w / 2;
+  const bcy = b.y + b.h / 2;
+  const len = Math.hypot(bcx - acx, bcy - acy) || 1;
+  // normal to the left of a→b
+  const nx = (bcy - acy) / len;
+  const ny = -(bcx - acx) / len;
+  const off = Math.min(60, len * bow);
+  const mx = (acx + bcx) / 2 + nx * off;
+  const my = (acy + bcy) / 2 + ny * off;
+  const s = boxExit(a, mx, my);
+  const t = boxExit(b, mx, my);
+  // quadratic control so that the curve passes through (mx, my) at its middle
+  const qx = 2 * mx - (s.x + t.x) / 2;
+  const qy = 2 * my - (s.y + t.y) / 2;
+  const at = (u: number) => ({ x: (1 - u) * (1 - u) * s.x + 2 * (1 - u) * u * qx + u * u * t.x, y: (1 - u) * (1 - u) * s.y + 2 * (1 - u) * u * qy + u * u * t.y });
+  const g = at(0.78);
+  return { path: `M${s.x},${s.y} Q${qx},${qy} ${t.x},${t.y}`, glyph: { x: g.x + nx * 11, y: g.y + ny * 11 }, mid: at(0.5) };
+}
