@@ -160,7 +160,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
     body.push(el('g', { 'data-slice-frame': s }, [
       el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
-      el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + 24), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
+      el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + box.height - 12), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
     ]));
   }
   for (const g of vm.groups) {
@@ -174,7 +174,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
         el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
         el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
         el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
-        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke }, [`${g.variables.length} determined together`]),
+        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
       ]),
     ]));
   }
@@ -182,7 +182,8 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   for (const e of vm.edges) {
     const a = layout.nodes[e.from], b = layout.nodes[e.to];
     if (!a || !b) continue;
-    const bend = pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
+    // carried states arc over their row in the unrolled view; opposite pairs bend apart
+    const bend = e.carry ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
     body.push(edgeEl(e, a, b, bend));
   }
   for (const n of vm.nodes) {

@@ -30,12 +30,12 @@ export function browserElk(): Promise<ElkRunner> {
 }
 
 /** A layout queue for one view: each request gets a ticket; results of old tickets resolve to null. */
-export function createLayoutQueue() {
+export function createLayoutQueue(getElk: () => Promise<ElkRunner> = browserElk) {
   let ticket = 0;
   return {
     async request(vm: ViewModel, opts: ElkLayoutOptions): Promise<Layout | null> {
       const mine = ++ticket;
-      const elk = await browserElk();
+      const elk = await getElk();
       if (mine !== ticket) return null;
       const result = await elkLayout(elk, vm, opts);
       return mine === ticket ? result : null;

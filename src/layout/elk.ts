@@ -6,7 +6,7 @@
  */
 import type { ViewModel } from '../core/view/types';
 import { center, finishLayout } from './geometry';
-import { GROUP_PAD, SLICE_GAP, SLICE_PAD, type Box, type Layout } from './types';
+import { GROUP_MIN_WIDTH, GROUP_PAD, SLICE_GAP, SLICE_PAD, type Box, type Layout } from './types';
 
 /** The part of elkjs's API used here. */
 export interface ElkRunner {
@@ -41,6 +41,7 @@ const COMMON: Record<string, string> = {
   'elk.layered.spacing.nodeNodeBetweenLayers': '64',
   'elk.spacing.componentComponent': '40',
   'elk.layered.crossingMinimization.semiInteractive': 'true',
+  'elk.layered.considerModelOrder.strategy': 'NODES_AND_EDGES',
 };
 
 export interface ElkLayoutOptions {
@@ -65,11 +66,21 @@ export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph
   for (const g of groups) {
     children.push({
       id: g.id,
-      layoutOptions: { 'elk.padding': `[top=${GROUP_PAD.top},left=${GROUP_PAD.left},bottom=${GROUP_PAD.bottom},right=${GROUP_PAD.right}]` },
+      layoutOptions: {
+        'elk.padding': `[top=${GROUP_PAD.top},left=${GROUP_PAD.left},bottom=${GROUP_PAD.bottom},right=${GROUP_PAD.right}]`,
+        'elk.nodeSize.constraints': 'MINIMUM_SIZE',
+        'elk.nodeSize.minimum': `(${GROUP_MIN_WIDTH},60)`,
+      },
       children: g.members.map((m) => { const n = nodes.find((x) => x.id === m)!; return leaf(n.id, n.width, n.height); }),
     });
   }
   for (const n of nodes) if (!inGroup.has(n.id)) children.push(leaf(n.id, n.width, n.height));
+  if (opts.previous) {
+    // model order = previous vertical order: ELK keeps it where crossings allow
+    const y = (c: ElkGraph) => c.y ?? (c.children?.length ? Math.min(...c.children.map((k) => k.y ?? Infinity)) : Infinity);
+    children.sort((a, b) => y(a) - y(b));
+    for (const c of children) c.children?.sort((a, b) => (a.y ?? Infinity) - (b.y ?? Infinity));
+  }
   const ids = new Set(nodes.map((n) => n.id));
   const edges = vm.edges.filter((e) => ids.has(e.from) && ids.has(e.to)).map((e) => ({ id: e.id, sources: [e.from], targets: [e.to] }));
   return {

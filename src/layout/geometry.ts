@@ -1,6 +1,6 @@
 /** Small pure helpers over layouts: bounding boxes, group boxes, normalising, interpolation. */
 import type { ViewModel } from '../core/view/types';
-import { GROUP_PAD, MARGIN, SLICE_PAD, type Box, type Layout } from './types';
+import { GROUP_MIN_WIDTH, GROUP_PAD, MARGIN, SLICE_PAD, type Box, type Layout } from './types';
 
 export function center(b: Box): { x: number; y: number } {
   return { x: b.x + b.width / 2, y: b.y + b.height / 2 };
@@ -23,7 +23,8 @@ export function finishLayout(vm: ViewModel, nodes: Record<string, Box>, source: 
     const given = groupsIn?.[g.id];
     const u = given ?? union(g.members.map((m) => nodes[m]).filter(Boolean));
     if (!u) continue;
-    groups[g.id] = given ?? { x: u.x - GROUP_PAD.left, y: u.y - GROUP_PAD.top, width: u.width + GROUP_PAD.left + GROUP_PAD.right, height: u.height + GROUP_PAD.top + GROUP_PAD.bottom };
+    const w = Math.max(GROUP_MIN_WIDTH, u.width + GROUP_PAD.left + GROUP_PAD.right);
+    groups[g.id] = given ?? { x: u.x + u.width / 2 - w / 2, y: u.y - GROUP_PAD.top, width: w, height: u.height + GROUP_PAD.top + GROUP_PAD.bottom };
   }
   let slices: Record<string, Box> | undefined;
   if (vm.mode === 'unrolled') {

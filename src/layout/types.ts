@@ -22,6 +22,8 @@ export interface Layout {
 }
 
 export const GROUP_PAD = { top: 30, left: 14, bottom: 14, right: 14 };
-export const SLICE_PAD = { top: 40, left: 20, bottom: 20, right: 20 };
+export const SLICE_PAD = { top: 70, left: 20, bottom: 40, right: 20 };
+/** A block is at least this wide, so its header fits. */
+export const GROUP_MIN_WIDTH = 200;
 export const SLICE_GAP = 110;
 export const MARGIN = 24;

@@ -19,7 +19,7 @@ export const RANGE_MARGIN = 4;
 
 /**
  * A range that holds every breakpoint and every state's timescale with a
- * margin of RANGE_MARGIN on both sides, clamped to one second … fifty years.
+ * margin of RANGE_MARGIN on both sides, clamped to a tenth of a second … fifty years.
  */
 export function intervalRange(model: Model, breakpoints: readonly Breakpoint[]): IntervalRange {
   const values: number[] = breakpoints.map((b) => b.interval).filter((x) => x > 0 && Number.isFinite(x));
@@ -28,7 +28,7 @@ export function intervalRange(model: Model, breakpoints: readonly Breakpoint[]):
     if (t !== undefined && t > 0) values.push(t);
   }
   const unit = SECONDS_PER_UNIT[model.timeUnit];
-  const floor = 1 / unit;
+  const floor = 0.1 / unit;
   const ceil = (50 * SECONDS_PER_UNIT.year) / unit;
   if (!values.length) return { min: Math.max(floor, 0.01), max: Math.min(ceil, 100) };
   const lo = Math.min(...values) / RANGE_MARGIN;
@@ -54,19 +54,33 @@ export function bandIndex(bands: readonly Band[], interval: number): number {
   return bands.length ? (interval < bands[0].from ? 0 : bands.length - 1) : -1;
 }
 
+/** A place on the axis where the band changes; `exclusive`: the upper band starts just above `at`. */
+export interface Cut {
+  at: number;
+  exclusive?: boolean;
+}
+
+export function cutsOf(breakpoints: readonly Breakpoint[]): Cut[] {
+  return breakpoints.map((b) => ({ at: b.interval, ...(b.exclusive ? { exclusive: true } : {}) })).sort((a, b) => a.at - b.at);
+}
+
+/** Whether an interval lies in the band above a cut. */
+export function passed(c: Cut, interval: number): boolean {
+  return c.exclusive ? interval > c.at : interval >= c.at;
+}
+
+/** The first interval above the cut, and the last one below it. */
+const enter = (c: Cut) => (c.exclusive ? c.at * (1 + 1e-9) : c.at);
+const leave = (c: Cut) => (c.exclusive ? c.at : c.at * (1 - 1e-9));
+
 /**
- * Index of the band for a sorted list of breakpoint intervals: the number of
- * breakpoints at or below the interval (a breakpoint's new role holds from it on).
+ * Band number of an interval: how many cuts it has passed (a breakpoint's
+ * new role holds from it on, or just above it when exclusive).
  */
-export function bandOfBreakpoints(sortedIntervals: readonly number[], interval: number): number {
-  let lo = 0;
-  let hi = sortedIntervals.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (sortedIntervals[mid] <= interval) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
+export function bandOfCuts(cuts: readonly Cut[], interval: number): number {
+  let n = 0;
+  for (const c of cuts) if (passed(c, interval)) n++;
+  return n;
 }
 
 export type IntervalKey = 'ArrowLeft' | 'ArrowRight' | 'ArrowUp' | 'ArrowDown' | 'PageUp' | 'PageDown' | 'Home' | 'End';
@@ -76,27 +90,28 @@ export const ARROW_STEP = 1 / 60;
 
 /**
  * The interval after a key press on the control. Arrows move by a fine
- * step but stop at a breakpoint on the way (so no band is skipped);
- * PageUp/PageDown jump to the next/previous breakpoint; Home/End go to the ends.
- * Going down, a breakpoint is left just below it, into the lower band.
+ * step but stop where the next band begins (so no band is skipped);
+ * PageUp/PageDown jump to the start of the next/previous band; Home/End go
+ * to the ends of the control.
  */
-export function stepInterval(range: IntervalRange, breakpoints: readonly number[], interval: number, key: IntervalKey): number {
-  const bps = [...breakpoints].filter((b) => b > range.min && b < range.max).sort((a, b) => a - b);
-  const up = key === 'ArrowRight' || key === 'ArrowUp' || key === 'PageUp';
+export function stepInterval(range: IntervalRange, cutsIn: readonly Cut[], interval: number, key: IntervalKey): number {
+  const cuts = cutsIn.filter((c) => c.at > range.min && c.at < range.max);
   if (key === 'Home') return range.min;
   if (key === 'End') return range.max;
-  const below = (b: number) => b * (1 - 1e-9);
-  if (key === 'PageUp') return bps.find((b) => b > interval) ?? range.max;
-  if (key === 'PageDown') {
-    // from inside band [b_i, b_i+1) to b_i−1, the start of the band below (or the bottom)
-    const lower = bps.filter((b) => b <= interval);
-    return lower.length > 1 ? lower[lower.length - 2] : range.min;
+  if (key === 'PageUp') {
+    const c = cuts.find((x) => !passed(x, interval));
+    return c ? enter(c) : range.max;
   }
+  if (key === 'PageDown') {
+    const done = cuts.filter((x) => passed(x, interval));
+    return done.length > 1 ? enter(done[done.length - 2]) : range.min;
+  }
+  const up = key === 'ArrowRight' || key === 'ArrowUp';
   const next = fromPosition(range, toPosition(range, interval) + (up ? ARROW_STEP : -ARROW_STEP));
   if (up) {
-    const b = bps.find((x) => x > interval && x < next);
-    return b ?? next;
+    const c = cuts.find((x) => !passed(x, interval) && passed(x, next));
+    return c ? enter(c) : next;
   }
-  const b = [...bps].reverse().find((x) => x <= interval && below(x) > next);
-  return b !== undefined ? below(b) : next;
+  const c = [...cuts].reverse().find((x) => passed(x, interval) && !passed(x, next));
+  return c ? leave(c) : next;
 }

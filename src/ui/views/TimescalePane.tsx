@@ -1,4 +1,106 @@
-/** Placeholder until the timescale views land: the ordering at the chosen sampling interval. */
+/**
+ * The timescale views: the mechanism as drawn beside the ordering at the
+ * chosen sampling interval (or the three instants t−1, t, t+1), the
+ * explanation of what differs and why, and the figure export.
+ */
+import { useCallback, useMemo, useRef } from 'react';
+import type { Model } from '../../core/model/types';
+import { explainOrdering } from '../../core/view/explain';
+import { mechanismView, orderingView, simultaneousBlocks, blockKey, studyText } from '../../core/view/derive';
+import type { ViewModel } from '../../core/view/types';
+import { drawnPositions } from '../../layout/instant';
+import type { Layout } from '../../layout/types';
+import { useValidatedModel } from '../../state/document';
+import { foldedKeys, studyStore, useStudy } from '../../state/study';
+import { formatDuration } from '../../core/model/units';
+import { useBandCache } from './bandCache';
+import { exportPng, exportSvg } from './exportFigure';
+import { ViewCanvas } from './ViewCanvas';
+import './views.css';
+
 export function TimescalePane() {
-  return <section aria-label="Ordering at the sampling interval"><p>The view at a sampling interval is being built.</p></section>;
+  const model = useValidatedModel();
+  if (!model) return <section className="lf-timescale" aria-label="Ordering at the sampling interval"><p>Fix the model's problems to see its ordering at a sampling interval.</p></section>;
+  return <TimescalePaneFor model={model} />;
+}
+
+export function TimescalePaneFor({ model }: { model: Model }) {
+  const length = useStudy((s) => s.length);
+  const interval = useStudy((s) => s.interval);
+  const folded = useStudy((s) => s.folded);
+  const view = useStudy((s) => s.view);
+  const sideBySide = useStudy((s) => s.sideBySide);
+  const bc = useBandCache(model, length);
+  const cache = bc.status === 'ready' ? bc.cache : null;
+  const band = cache && interval !== null ? cache.band(interval) : -1;
+  const ordering = useMemo(() => (cache && interval !== null ? cache.orderingAt(interval) : null), [cache, band]); // eslint-disable-line react-hooks/exhaustive-deps
+  const foldedList = useMemo(() => foldedKeys(folded), [folded]);
+  const study = length.by === 'window' ? { window: length.window } : { samples: length.samples };
+  // the view changes only with the band, the fold state, the mode or the study (not with every pixel of a drag)
+  const bandInterval = useRef<number | null>(null);
+  const vm = useMemo<ViewModel | null>(() => {
+    if (!ordering || interval === null) return null;
+    bandInterval.current = interval;
+    return orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
+  }, [model, ordering, view, foldedList, length]); // eslint-disable-line react-hooks/exhaustive-deps
+  const mech = useMemo(() => mechanismView(model), [model]);
+  const drawn = useMemo(() => drawnPositions(model.variables), [model]);
+  const settled = useRef<Layout | null>(null);
+  const onLayout = useCallback((l: Layout) => { settled.current = l; }, []);
+  const toggle = useCallback((key: string) => studyStore.getState().toggleFold(key), []);
+
+  const lines = useMemo(() => (ordering && interval !== null && cache ? explainOrdering(model, ordering, cache.design(interval), cache.breakpoints) : []), [model, ordering, interval, cache]);
+
+  if (bc.status === 'missing') return <section className="lf-timescale"><p>The ordering core is not part of this build.</p></section>;
+  if (bc.status === 'failed') return <section className="lf-timescale"><p role="alert">The ordering could not be computed: {bc.message}</p></section>;
+  if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval"><p>Finding the model's timescales…</p></section>;
+
+  const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
+  const caption = `Sampling interval every ${formatDuration(interval, model.timeUnit)} · ${studyText(model, interval, study.window, study.samples)}`;
+  const doExport = (kind: 'svg' | 1 | 2 | 4) => {
+    const figure = view === 'ordering' || view === 'unrolled' ? vm : mech;
+    const name = `${model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model'}-${view}`;
+    if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name);
+    else void exportPng(figure, { caption: true, captionText: caption }, name, kind);
+  };
+  return (
+    <section className="lf-timescale" aria-label="Ordering at the sampling interval" data-band={band}>
+      <div className="lf-timescale-bar" role="toolbar" aria-label="Timescale view">
+        <div className="lf-seg" role="group" aria-label="View at the interval">
+          <button type="button" aria-pressed={view === 'ordering'} onClick={() => studyStore.getState().setView('ordering')}>Ordering</button>
+          <button type="button" aria-pressed={view === 'unrolled'} onClick={() => studyStore.getState().setView('unrolled')}>Three instants</button>
+        </div>
+        <label><input type="checkbox" checked={sideBySide} onChange={(e) => studyStore.getState().setSideBySide(e.target.checked)} /> beside the mechanism</label>
+        {blocks.length > 0 && (
+          <>
+            <button type="button" onClick={() => blocks.forEach((k) => studyStore.getState().setFolded(k, true))}>Fold blocks</button>
+            <button type="button" onClick={() => blocks.forEach((k) => studyStore.getState().setFolded(k, false))}>Unfold blocks</button>
+          </>
+        )}
+        <span className="lf-spacer" />
+        <span className="lf-export-label">Export figure</span>
+        <button type="button" onClick={() => doExport('svg')}>SVG</button>
+        <button type="button" onClick={() => doExport(1)}>PNG 1×</button>
+        <button type="button" onClick={() => doExport(2)}>2×</button>
+        <button type="button" onClick={() => doExport(4)}>4×</button>
+      </div>
+      <div className={`lf-timescale-views ${sideBySide ? 'lf-two' : ''}`}>
+        {sideBySide && (
+          <div className="lf-view lf-view-mechanism">
+            <ViewCanvas vm={mech} drawn={drawn} label="The mechanism as drawn" />
+          </div>
+        )}
+        <div className="lf-view lf-view-ordering">
+          <ViewCanvas vm={vm} onToggleBlock={toggle} onLayout={onLayout} label={view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval'} />
+        </div>
+      </div>
+      <aside className="lf-explain" aria-label="What changes at this interval">
+        <h3>What changes at this interval</h3>
+        <ul>
+          {lines.map((l, i) => <li key={i} data-topic={l.topic}>{l.text}</li>)}
+        </ul>
+        {model.caution && <p className="lf-caution">{model.caution}</p>}
+      </aside>
+    </section>
+  );
 }

@@ -1,0 +1,92 @@
+/**
+ * `loopfold render MODEL.json --interval D [--window W | --samples N] [--view …] [--caption] --out fig.svg`:
+ * the figure the app exports, from the same view model, the same layout
+ * function and the same SVG renderer.
+ */
+import type { Model } from '../../core/model/types';
+import { formatDuration } from '../../core/model/units';
+import { orderingAt } from '../../core/ordering/index';
+import type { StudyDesign } from '../../core/ordering/types';
+import { mechanismView, orderingView, studyText } from '../../core/view/derive';
+import type { ViewMode, ViewModel } from '../../core/view/types';
+import { renderSvg } from '../../export/svg';
+import { figureLayout } from '../../layout/figure';
+import { drawnPositions } from '../../layout/instant';
+import { nodeElk } from '../../layout/node';
+import { durationOption, loadModel } from '../load';
+import { CliError, type CliArgs, type CliCommand } from './types';
+
+const VIEWS: readonly ViewMode[] = ['ordering', 'mechanism', 'unrolled'];
+
+export interface RenderRequest {
+  model: Model;
+  view: ViewMode;
+  design: StudyDesign;
+  caption: boolean;
+  /** Keys of simultaneous blocks to fold. */
+  folded?: string[];
+}
+
+/** The caption the app and the command line put under a figure at an interval. */
+export function figureCaption(model: Model, design: StudyDesign): string | undefined {
+  if (design.interval === undefined) return undefined;
+  return `Sampling interval every ${formatDuration(design.interval, model.timeUnit)} · ${studyText(model, design.interval, design.window, design.samples)}`;
+}
+
+/** The view model of a render request. */
+export function renderView(req: RenderRequest): ViewModel {
+  if (req.view === 'mechanism') return mechanismView(req.model);
+  const ordering = orderingAt(req.model, req.design);
+  return orderingView(req.model, ordering, { mode: req.view, folded: req.folded, interval: req.design.interval, window: req.design.window, samples: req.design.samples });
+}
+
+/** The SVG text of a render request. */
+export async function renderFigure(req: RenderRequest): Promise<string> {
+  const vm = renderView(req);
+  const layout = await figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
+  return renderSvg(vm, layout, { caption: req.caption, captionText: figureCaption(req.model, req.design) });
+}
+
+function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
+  const view = (args.options.view ?? 'ordering') as string;
+  if (!VIEWS.includes(view as ViewMode)) throw new CliError(`--view must be ordering, mechanism or unrolled, not "${view}"`, 2);
+  const design: StudyDesign = {};
+  const interval = durationOption(args, 'interval', model);
+  if (interval === undefined && view !== 'mechanism') throw new CliError('--interval is needed for the ordering and unrolled views, e.g. --interval 3h', 2);
+  if (interval !== undefined) design.interval = interval;
+  const window = durationOption(args, 'window', model);
+  const samples = args.options.samples;
+  if (window !== undefined && samples !== undefined) throw new CliError('give either --window or --samples, not both', 2);
+  if (window !== undefined) design.window = window;
+  if (samples !== undefined) {
+    const n = Number(samples);
+    if (samples === true || !Number.isInteger(n) || n < 2) throw new CliError(`--samples must be a whole number of at least 2, not "${samples}"`, 2);
+    design.samples = n;
+  }
+  const fold = args.options.fold;
+  return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded: typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').sort().join('+')) : undefined };
+}
+
+export const renderCommand: CliCommand = {
+  name: 'render',
+  summary: 'write the figure of a view at a sampling interval as SVG (the same as the app exports)',
+  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--fold a+b,…] [--caption] --out fig.svg',
+  options: { interval: true, window: true, samples: true, view: true, caption: false, out: true, fold: true },
+  async run(args, io) {
+    const model = loadModel(args, io);
+    const req = requestFromArgs(args, model);
+    const out = args.options.out;
+    if (out === undefined || out === true) throw new CliError('--out FILE.svg is needed (use --out - to print the SVG)', 2);
+    const svg = await renderFigure(req);
+    if (out === '-') io.out(svg);
+    else {
+      try {
+        io.writeFile(out, svg);
+      } catch (e) {
+        throw new CliError(`cannot write ${out}: ${(e as Error).message}`);
+      }
+      io.err(`wrote ${out} (${svg.length} bytes)`);
+    }
+    return 0;
+  },
+};

@@ -1,0 +1,149 @@
+/**
+ * The sampling-interval control: a logarithmic track from the model's
+ * fastest to its slowest timescale (with a margin), ticks at breakpoints,
+ * keys that stop at every breakpoint; beside it the study length, as a
+ * duration or a number of samples.
+ */
+import { useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
+import type { Model, TimeUnit } from '../../core/model/types';
+import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
+import { fromPosition, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
+import { setStudyDesign } from '../../state/analysis';
+import { useValidatedModel } from '../../state/document';
+import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
+import { useBandCache } from '../views/bandCache';
+import './interval.css';
+
+const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
+
+/** Round unit marks inside the range: 1 s, 1 min, 1 h, 1 day, 1 week, 1 month, 1 year, 10 years. */
+function unitMarks(range: IntervalRange, unit: TimeUnit): { at: number; label: string }[] {
+  const marks: [number, string][] = [[1, '1 s'], [60, '1 min'], [3600, '1 h'], [86400, '1 day'], [7 * 86400, '1 week'], [SECONDS_PER_UNIT.month, '1 month'], [SECONDS_PER_UNIT.year, '1 year'], [10 * SECONDS_PER_UNIT.year, '10 years']];
+  return marks.map(([s, label]) => ({ at: s / SECONDS_PER_UNIT[unit], label })).filter((m) => m.at >= range.min && m.at <= range.max);
+}
+
+export function IntervalStrip() {
+  const model = useValidatedModel();
+  return model ? <IntervalStripFor model={model} /> : <div className="lf-interval" aria-label="Sampling interval">Fix the model's problems to choose a sampling interval.</div>;
+}
+
+export function IntervalStripFor({ model }: { model: Model }) {
+  const length = useStudy((s) => s.length);
+  const interval = useStudy((s) => s.interval);
+  const bc = useBandCache(model, length);
+  const track = useRef<HTMLDivElement>(null);
+  const unit = model.timeUnit;
+  const cache = bc.status === 'ready' ? bc.cache : null;
+
+  // an interval inside the range once the range is known
+  useEffect(() => {
+    if (!cache) return;
+    const { min, max } = cache.range;
+    if (interval === null || interval < min || interval > max) studyStore.getState().setInterval(Math.sqrt(min * max));
+  }, [cache, interval]);
+
+  // the analysis store follows the design (the core worker answers the other panes)
+  useEffect(() => {
+    if (interval !== null) setStudyDesign(designOf({ interval, length }));
+  }, [cache ? cache.band(interval ?? 0) : -1, length]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  if (bc.status === 'missing') return <div className="lf-interval">The ordering core is not part of this build.</div>;
+  if (bc.status === 'failed') return <div className="lf-interval" role="alert">The breakpoints could not be computed: {bc.message}</div>;
+  if (!cache || interval === null) return <div className="lf-interval">Finding the model's timescales…</div>;
+  const { range, cuts, breakpoints } = cache;
+  const pos = toPosition(range, interval);
+  const set = (v: number) => studyStore.getState().setInterval(v);
+  const fromPointer = (ev: PointerEvent) => {
+    const r = track.current!.getBoundingClientRect();
+    set(fromPosition(range, (ev.clientX - r.left) / r.width));
+  };
+  const onKey = (ev: KeyboardEvent) => {
+    if (!KEYS.has(ev.key)) return;
+    ev.preventDefault();
+    set(stepInterval(range, cuts, interval, ev.key as IntervalKey));
+  };
+  const band = cache.band(interval);
+  const edges = [range.min, ...cuts.map((c) => c.at).filter((c) => c > range.min && c < range.max), range.max];
+  const name = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const valueText = `every ${formatDuration(interval, unit)}`;
+  return (
+    <div className="lf-interval" aria-label="Sampling interval and study length">
+      <div className="lf-interval-head">
+        <span className="lf-interval-title" id="lf-interval-label">Sampling interval</span>
+        <output className="lf-interval-value" aria-live="polite">{valueText}</output>
+        <span className="lf-interval-band">band {band + 1} of {cuts.length + 1}</span>
+      </div>
+      <div
+        ref={track}
+        className="lf-interval-track"
+        role="slider"
+        tabIndex={0}
+        aria-labelledby="lf-interval-label"
+        aria-valuemin={0}
+        aria-valuemax={1000}
+        aria-valuenow={Math.round(pos * 1000)}
+        aria-valuetext={valueText}
+        data-band={band}
+        onKeyDown={onKey}
+        onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); fromPointer(ev); }}
+        onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}
+      >
+        {edges.slice(0, -1).map((from, i) => (
+          <div key={i} className={`lf-band ${i === band ? 'lf-band-current' : ''} ${i % 2 ? 'lf-band-odd' : ''}`}
+            style={{ left: `${toPosition(range, from) * 100}%`, width: `${(toPosition(range, edges[i + 1]) - toPosition(range, from)) * 100}%` }} />
+        ))}
+        {breakpoints.filter((b) => b.interval > range.min && b.interval < range.max).map((b) => (
+          <div key={b.interval} className="lf-tick" data-breakpoint={b.interval} style={{ left: `${toPosition(range, b.interval) * 100}%` }}
+            title={`${formatDuration(b.interval, unit)}: ${b.changes.map((c) => `${name(c.variable)} ${c.from} → ${c.to}`).join('; ')}`} />
+        ))}
+        <div className="lf-thumb" style={{ left: `${pos * 100}%` }} />
+      </div>
+      <div className="lf-interval-scale" aria-hidden="true">
+        {unitMarks(range, unit).map((m) => <span key={m.label} style={{ left: `${toPosition(range, m.at) * 100}%` }}>{m.label}</span>)}
+      </div>
+      <StudyLengthField unit={unit} interval={interval} length={length} />
+    </div>
+  );
+}
+
+function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval: number; length: StudyLength }) {
+  const [text, setText] = useState(length.by === 'window' ? formatDuration(length.window, unit) : String(length.samples));
+  const [problem, setProblem] = useState<string | null>(null);
+  const by = length.by;
+  const apply = (value: string, as: StudyLength['by']) => {
+    setText(value);
+    if (as === 'samples') {
+      const n = Number(value);
+      if (!Number.isInteger(n) || n < 2) { setProblem('Study length: give a whole number of samples, 2 or more'); return; }
+      setProblem(null);
+      studyStore.getState().setLength({ by: 'samples', samples: n });
+    } else {
+      const d = parseDuration(value, unit);
+      if (!d.ok) { setProblem(`Study length: ${d.message}`); return; }
+      setProblem(null);
+      studyStore.getState().setLength({ by: 'window', window: d.value });
+    }
+  };
+  const switchTo = (as: StudyLength['by']) => {
+    if (as === by) return;
+    const next = as === 'window'
+      ? formatDuration((length.by === 'samples' ? length.samples : 50) * interval, unit)
+      : String(Math.max(2, Math.round((length.by === 'window' ? length.window : 50 * interval) / interval)));
+    apply(next, as);
+  };
+  const other = by === 'window' ? `${Math.max(1, Math.round(length.window / interval))} samples` : `lasts ${formatDuration(length.samples * interval, unit)}`;
+  return (
+    <div className="lf-study">
+      <label>
+        Study length
+        <select value={by} onChange={(e) => switchTo(e.target.value as StudyLength['by'])} aria-label="Study length given as">
+          <option value="samples">in samples</option>
+          <option value="window">as a duration</option>
+        </select>
+      </label>
+      <input aria-label={by === 'samples' ? 'Number of samples' : 'Study duration'} value={text} onChange={(e) => apply(e.target.value, by)} aria-invalid={problem ? true : undefined} size={9} />
+      <span className="lf-study-other">{other}</span>
+      {problem && <span className="lf-problem" role="alert">{problem}</span>}
+    </div>
+  );
+}
