@@ -4,15 +4,18 @@
  * Diepen & Mooij, JMLR 22, 2021, Algorithm 1): maximum matching → coarse
  * Dulmage–Mendelsohn parts → orientation of the well-determined part by the
  * matching → strongly connected components = Simon's minimal complete
- * subsets → levels. Everything below is defined without reference to the
- * matching found, and the output is sorted, so it is the same for every
- * maximum matching and every order of the input.
+ * subsets → levels. Everything is defined without reference to the matching
+ * found, and the output is sorted, so it is the same for every maximum
+ * matching and every order of the input.
+ *
+ * Two layers: `orderIndexed` works on integer arrays only (the hot path),
+ * `causalOrder` maps string ids to ranks in id order and back.
  */
 import type { EquationId, VariableId } from '../model/types';
 import type { Determination, OrderingBlock, OrderingEdge } from './types';
-import { compareIds, type EquationSystem } from './structure';
-import { bipartiteFromLists, hopcroftKarp, type BipartiteGraph, type Matching } from './matching';
-import { dulmageMendelsohn, PART_OVER, PART_UNDER, PART_WELL, transpose } from './dm';
+import type { EquationSystem } from './structure';
+import { hopcroftKarp, type BipartiteGraph, type Matching } from './matching';
+import { dulmageMendelsohn, PART_OVER as OVER, PART_UNDER as UNDER, PART_WELL as WELL, transpose } from './dm';
 import { stronglyConnected } from './scc';
 
 export interface CausalOrderOptions {
@@ -20,29 +23,58 @@ export interface CausalOrderOptions {
   matcher?: (g: BipartiteGraph) => Matching;
 }
 
+/** Input of the integer layer: row r involves columns colIdx[rowPtr[r] .. rowPtr[r+1]), sorted, without repeats. */
+export interface IndexedSystem {
+  rows: number;
+  cols: number;
+  rowPtr: Int32Array;
+  colIdx: Int32Array;
+  /** 1 for exogenous columns. */
+  exogenous: Uint8Array;
+}
+
+export const DET_WELL = 0;
+export const DET_OVER = 1;
+export const DET_UNDER = 2;
+
+/** Output of the integer layer. Blocks are numbered in causal order: (level, smallest column). */
+export interface IndexedOrder {
+  blockCount: number;
+  blockOfCol: Int32Array;
+  /** Block of each row (every row belongs to exactly one block). */
+  blockOfRow: Int32Array;
+  level: Int32Array;
+  /** DET_* of each block. */
+  determination: Uint8Array;
+  /** Columns of block b: blockCols[blockColPtr[b] .. blockColPtr[b+1]), increasing. */
+  blockColPtr: Int32Array;
+  blockCols: Int32Array;
+  blockRowPtr: Int32Array;
+  blockRows: Int32Array;
+  /** Edges sorted by (to, from); each carried by its smallest row. */
+  edgeCount: number;
+  edgeFrom: Int32Array;
+  edgeTo: Int32Array;
+  edgeRow: Int32Array;
+  /** 1 when both ends are in one block. */
+  edgeSimultaneous: Uint8Array;
+  matching: Matching;
+}
+
 export interface CausalOrder {
   /** Blocks in causal order: by level, then by smallest id. Exogenous variables are level-0 blocks without equations. */
   blocks: OrderingBlock[];
   /** Instantaneous edges, sorted by (to, from). */
   edges: OrderingEdge[];
-  /** One maximum matching, equation → the unknown it is paired with (well- and over-determined parts only complete). */
-  matching: Record<EquationId, VariableId>;
+  /** One maximum matching: equation → the unknown paired with it (built on first access). */
+  readonly matching: Record<EquationId, VariableId>;
   /** Size of the maximum matching. */
   matchingSize: number;
-  /** The block index of every variable. */
-  blockOf: Record<VariableId, number>;
+  /** The index in `blocks` of every variable (built on first access). */
+  readonly blockOf: Record<VariableId, number>;
 }
 
-class Ids {
-  readonly ids: string[];
-  readonly index = new Map<string, number>();
-  constructor(set: Iterable<string>) {
-    this.ids = [...set].sort(compareIds);
-    this.ids.forEach((id, i) => this.index.set(id, i));
-  }
-}
-
-/** Union–find with path halving, for connected components of the over- and under-determined parts. */
+/** Union–find root with path halving. */
 function find(parent: Int32Array, a: number): number {
   while (parent[a] !== a) {
     parent[a] = parent[parent[a]];
@@ -51,98 +83,83 @@ function find(parent: Int32Array, a: number): number {
   return a;
 }
 
-/**
- * Causal order of an equation system.
- * Example: `causalOrder({ equations: [{ id: 'f1', variables: ['x1'] }, { id: 'f2', variables: ['x1', 'x2'] }] })`
- * gives blocks {x1}/[f1] at level 0 and {x2}/[f2] at level 1, with edge x1 → x2 carried by f2.
- */
-export function causalOrder(system: EquationSystem, options: CausalOrderOptions = {}): CausalOrder {
-  const eqs = [...system.equations].sort((a, b) => compareIds(a.id, b.id));
-  for (let i = 1; i < eqs.length; i++) if (eqs[i].id === eqs[i - 1].id) throw new Error(`equation id "${eqs[i].id}" is used twice`);
-  const exoSet = new Set(system.exogenous ?? []);
-  const all = new Set<string>(exoSet);
-  for (const e of eqs) for (const v of e.variables) all.add(v);
-  for (const v of system.variables ?? []) all.add(v);
-  const vars = new Ids(all);
-  const nv = vars.ids.length;
-  const ne = eqs.length;
-  const isExo = new Uint8Array(nv);
-  for (const v of exoSet) isExo[vars.index.get(v)!] = 1;
-  const active = new Uint8Array(nv);
-  for (let c = 0; c < nv; c++) active[c] = isExo[c] ? 0 : 1;
+/** Stable counting sort of `items` by key[item] ∈ [0, range). */
+function countingSort(items: Int32Array, key: (i: number) => number, range: number): Int32Array {
+  const count = new Int32Array(range + 1);
+  for (let i = 0; i < items.length; i++) count[key(items[i]) + 1]++;
+  for (let k = 0; k < range; k++) count[k + 1] += count[k];
+  const out = new Int32Array(items.length);
+  for (let i = 0; i < items.length; i++) out[count[key(items[i])]++] = items[i];
+  return out;
+}
 
-  // Each equation's variables as sorted, de-duplicated indices; unknowns only for the graph.
-  const eqAll: Int32Array[] = new Array(ne);
-  const eqUnknown: Int32Array[] = new Array(ne);
+/**
+ * The integer layer. `blockKey` (optional) orders blocks of equal level: by
+ * default the smallest column, and for blocks without columns the row index
+ * plus cols (callers with string ids pass a key that interleaves them by id).
+ */
+export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & { constraintKey?: (row: number) => number } = {}): IndexedOrder {
+  const { rows: ne, cols: nv, rowPtr, colIdx, exogenous: isExo } = sys;
+  // Local copies: imported bindings can be slow accessors in hot loops under some module loaders.
+  const PART_OVER = OVER;
+  const PART_UNDER = UNDER;
+  const PART_WELL = WELL;
+  // The bipartite graph of unknowns: exogenous columns left out.
+  const uPtr = new Int32Array(ne + 1);
   for (let r = 0; r < ne; r++) {
-    const vs = eqs[r].variables;
-    const idx = new Int32Array(vs.length);
-    for (let i = 0; i < vs.length; i++) idx[i] = vars.index.get(vs[i])!;
-    idx.sort();
-    let k = 0;
-    for (let i = 0; i < idx.length; i++) if (i === 0 || idx[i] !== idx[i - 1]) idx[k++] = idx[i];
-    const uniq = idx.subarray(0, k);
-    eqAll[r] = uniq;
     let u = 0;
-    for (let i = 0; i < k; i++) if (!isExo[uniq[i]]) u++;
-    if (u === k) eqUnknown[r] = uniq;
-    else {
-      const un = new Int32Array(u);
-      for (let i = 0, j = 0; i < k; i++) if (!isExo[uniq[i]]) un[j++] = uniq[i];
-      eqUnknown[r] = un;
-    }
+    for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) if (!isExo[colIdx[k]]) u++;
+    uPtr[r + 1] = uPtr[r] + u;
   }
-  const g = bipartiteFromLists(nv, eqUnknown);
+  let uIdx = colIdx;
+  if (uPtr[ne] !== rowPtr[ne]) {
+    uIdx = new Int32Array(uPtr[ne]);
+    for (let r = 0, p = 0; r < ne; r++) for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) if (!isExo[colIdx[k]]) uIdx[p++] = colIdx[k];
+  }
+  const g: BipartiteGraph = { rows: ne, cols: nv, rowPtr: uPtr, colIdx: uIdx };
   const m = (options.matcher ?? hopcroftKarp)(g);
   const t = transpose(g);
+  const active = new Uint8Array(nv);
+  for (let c = 0; c < nv; c++) active[c] = isExo[c] ? 0 : 1;
   const { rowPart, colPart } = dulmageMendelsohn(g, m, t, active);
 
-  // Blocks, as lists of variable and equation indices.
-  const blockOfVar = new Int32Array(nv).fill(-1);
-  const blockVars: number[][] = [];
-  const blockEqs: number[][] = [];
-  const blockDet: Determination[] = [];
-  const addBlock = (vs: number[], es: number[], det: Determination): number => {
-    const b = blockVars.length;
-    blockVars.push(vs);
-    blockEqs.push(es);
-    blockDet.push(det);
-    for (const v of vs) blockOfVar[v] = b;
-    return b;
-  };
-  for (let c = 0; c < nv; c++) if (isExo[c]) addBlock([c], [], 'well');
+  // Provisional blocks (numbered in a topological order), as column and row owners.
+  const blockOfCol = new Int32Array(nv).fill(-1);
+  const blockOfRow = new Int32Array(ne).fill(-1);
+  const det: number[] = [];
+  let nb = 0;
+  for (let c = 0; c < nv; c++) if (isExo[c]) { blockOfCol[c] = nb++; det.push(DET_WELL); }
 
-  // Over- and under-determined parts: one block per connected component.
-  const componentsOf = (part: number, det: Determination): void => {
+  const components = (part: number, d: number): void => {
+    let any = false;
+    for (let r = 0; r < ne && !any; r++) if (rowPart[r] === part) any = true;
+    for (let c = 0; c < nv && !any; c++) if (active[c] && colPart[c] === part) any = true;
+    if (!any) return;
     const parent = new Int32Array(ne + nv);
     for (let i = 0; i < parent.length; i++) parent[i] = i;
-    let any = false;
     for (let r = 0; r < ne; r++) {
       if (rowPart[r] !== part) continue;
-      any = true;
-      for (let k = g.rowPtr[r]; k < g.rowPtr[r + 1]; k++) {
-        const c = g.colIdx[k];
+      for (let k = uPtr[r]; k < uPtr[r + 1]; k++) {
+        const c = uIdx[k];
         if (colPart[c] !== part) continue;
         const a = find(parent, r);
         const b = find(parent, ne + c);
         if (a !== b) parent[a] = b;
       }
     }
-    for (let c = 0; c < nv; c++) if (active[c] && colPart[c] === part) any = true;
-    if (!any) return;
-    const byRoot = new Map<number, { vs: number[]; es: number[] }>();
-    const get = (root: number) => {
-      let x = byRoot.get(root);
-      if (!x) byRoot.set(root, (x = { vs: [], es: [] }));
-      return x;
+    const blockOfRoot = new Map<number, number>();
+    const take = (node: number): number => {
+      const root = find(parent, node);
+      let b = blockOfRoot.get(root);
+      if (b === undefined) { blockOfRoot.set(root, (b = nb++)); det.push(d); }
+      return b;
     };
-    for (let r = 0; r < ne; r++) if (rowPart[r] === part) get(find(parent, r)).es.push(r);
-    for (let c = 0; c < nv; c++) if (active[c] && colPart[c] === part) get(find(parent, ne + c)).vs.push(c);
-    for (const x of byRoot.values()) addBlock(x.vs, x.es, det);
+    for (let c = 0; c < nv; c++) if (active[c] && colPart[c] === part) blockOfCol[c] = take(ne + c);
+    for (let r = 0; r < ne; r++) if (rowPart[r] === part) blockOfRow[r] = take(r);
   };
-  componentsOf(PART_OVER, 'over');
+  components(PART_OVER, DET_OVER);
 
-  // Well-determined part: orient u → mate-variable of each equation containing u, then SCCs.
+  // Well-determined part: u → mate(e) for each well row e containing u (u ≠ mate(e)); SCCs.
   const wellPtr = new Int32Array(nv + 1);
   for (let u = 0; u < nv; u++) {
     let d = 0;
@@ -154,135 +171,242 @@ export function causalOrder(system: EquationSystem, options: CausalOrderOptions 
     wellPtr[u + 1] = wellPtr[u] + d;
   }
   const wellAdj = new Int32Array(wellPtr[nv]);
+  const wellActive = new Uint8Array(nv);
   for (let u = 0, p = 0; u < nv; u++) {
     if (!(active[u] && colPart[u] === PART_WELL)) continue;
+    wellActive[u] = 1;
     for (let k = t.colPtr[u]; k < t.colPtr[u + 1]; k++) {
       const r = t.rowIdx[k];
       if (rowPart[r] === PART_WELL && m.rowMate[r] !== u) wellAdj[p++] = m.rowMate[r];
     }
   }
-  const wellActive = new Uint8Array(nv);
-  for (let c = 0; c < nv; c++) wellActive[c] = active[c] && colPart[c] === PART_WELL ? 1 : 0;
   const scc = stronglyConnected(nv, wellPtr, wellAdj, wellActive);
-  // Tarjan numbers components sinks first: count-1 … 0 is a causal (topological) order.
-  const sccVars: number[][] = Array.from({ length: scc.count }, () => []);
-  for (let c = 0; c < nv; c++) if (scc.comp[c] >= 0) sccVars[scc.comp[c]].push(c);
-  for (let s = scc.count - 1; s >= 0; s--) {
-    const vs = sccVars[s];
-    const es = vs.map((v) => m.colMate[v]).sort((a, b) => a - b);
-    addBlock(vs, es, 'well');
-  }
-  componentsOf(PART_UNDER, 'under');
+  // Tarjan completes sinks first: component count-1 … 0 is a causal order.
+  const base = nb;
+  for (let c = 0; c < nv; c++) if (scc.comp[c] >= 0) blockOfCol[c] = base + (scc.comp[c] === -1 ? 0 : scc.count - 1 - scc.comp[c]);
+  for (let s = 0; s < scc.count; s++) det.push(DET_WELL);
+  nb += scc.count;
+  for (let r = 0; r < ne; r++) if (rowPart[r] === PART_WELL) blockOfRow[r] = blockOfCol[m.rowMate[r]];
+  components(PART_UNDER, DET_UNDER);
 
-  // Levels, in the order the blocks were made (exogenous, over, well in causal order, under), which is topological.
-  const nb = blockVars.length;
-  const level = new Int32Array(nb);
+  // Levels, in provisional order (exogenous, over, well in causal order, under), which is topological.
+  const rowsOfBlockPtr = new Int32Array(nb + 1);
+  for (let r = 0; r < ne; r++) rowsOfBlockPtr[blockOfRow[r] + 1]++;
+  for (let b = 0; b < nb; b++) rowsOfBlockPtr[b + 1] += rowsOfBlockPtr[b];
+  const rowsOfBlock = new Int32Array(ne);
+  {
+    const fill = rowsOfBlockPtr.slice(0, nb);
+    for (let r = 0; r < ne; r++) rowsOfBlock[fill[blockOfRow[r]]++] = r;
+  }
+  const lv = new Int32Array(nb);
   for (let b = 0; b < nb; b++) {
-    let lv = 0;
-    for (const r of blockEqs[b]) {
-      const vs = eqAll[r];
-      for (let i = 0; i < vs.length; i++) {
-        const p = blockOfVar[vs[i]];
-        if (p !== b && level[p] + 1 > lv) lv = level[p] + 1;
+    let l = 0;
+    for (let i = rowsOfBlockPtr[b]; i < rowsOfBlockPtr[b + 1]; i++) {
+      const r = rowsOfBlock[i];
+      for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) {
+        const p = blockOfCol[colIdx[k]];
+        if (p !== b && lv[p] + 1 > l) l = lv[p] + 1;
       }
     }
-    level[b] = lv;
+    lv[b] = l;
   }
 
-  // Edges (matching-independent): for e in block B, u in e outside B → every v in e ∩ B;
-  // u, v both in B and in e → one simultaneous edge per pair. Equations are scanned in id order,
-  // so the first equation seen for a pair is the smallest id.
-  const edgeFrom: number[] = [];
-  const edgeTo: number[] = [];
-  const edgeEq: number[] = [];
-  const blockOfEq = new Int32Array(ne).fill(-1);
-  for (let b = 0; b < nb; b++) for (const r of blockEqs[b]) blockOfEq[r] = b;
+  // Final numbering: by level, then by key (smallest column; constraint blocks by constraintKey).
+  const minKey = new Float64Array(nb).fill(Infinity);
+  for (let c = nv - 1; c >= 0; c--) if (blockOfCol[c] >= 0) minKey[blockOfCol[c]] = c;
   for (let r = 0; r < ne; r++) {
-    const b = blockOfEq[r];
-    const vs = eqAll[r];
-    for (let i = 0; i < vs.length; i++) {
-      const v = vs[i];
-      if (blockOfVar[v] !== b) continue;
-      for (let j = 0; j < vs.length; j++) {
-        const u = vs[j];
-        if (u === v) continue;
-        if (blockOfVar[u] !== b) {
-          edgeFrom.push(u);
-          edgeTo.push(v);
-          edgeEq.push(r);
-        } else if (u < v) {
-          edgeFrom.push(u);
-          edgeTo.push(v);
-          edgeEq.push(r);
-        }
+    const b = blockOfRow[r];
+    if (minKey[b] === Infinity || minKey[b] >= nv) {
+      const k = options.constraintKey ? options.constraintKey(r) : nv + r;
+      if (!(minKey[b] < k)) minKey[b] = k;
+    }
+  }
+  const order = Array.from({ length: nb }, (_, b) => b).sort((a, b) => lv[a] - lv[b] || minKey[a] - minKey[b]);
+  const renum = new Int32Array(nb);
+  order.forEach((old, i) => { renum[old] = i; });
+  const level = new Int32Array(nb);
+  const determination = new Uint8Array(nb);
+  for (let b = 0; b < nb; b++) { level[renum[b]] = lv[b]; determination[renum[b]] = det[b]; }
+  for (let c = 0; c < nv; c++) if (blockOfCol[c] >= 0) blockOfCol[c] = renum[blockOfCol[c]];
+  for (let r = 0; r < ne; r++) blockOfRow[r] = renum[blockOfRow[r]];
+  const blockColPtr = new Int32Array(nb + 1);
+  for (let c = 0; c < nv; c++) if (blockOfCol[c] >= 0) blockColPtr[blockOfCol[c] + 1]++;
+  for (let b = 0; b < nb; b++) blockColPtr[b + 1] += blockColPtr[b];
+  const blockCols = new Int32Array(blockColPtr[nb]);
+  {
+    const fill = blockColPtr.slice(0, nb);
+    for (let c = 0; c < nv; c++) if (blockOfCol[c] >= 0) blockCols[fill[blockOfCol[c]]++] = c;
+  }
+  const blockRowPtr = new Int32Array(nb + 1);
+  for (let r = 0; r < ne; r++) blockRowPtr[blockOfRow[r] + 1]++;
+  for (let b = 0; b < nb; b++) blockRowPtr[b + 1] += blockRowPtr[b];
+  const blockRows = new Int32Array(ne);
+  {
+    const fill = blockRowPtr.slice(0, nb);
+    for (let r = 0; r < ne; r++) blockRows[fill[blockOfRow[r]]++] = r;
+  }
+
+  // Edges (matching-independent): for row e in block B, u in e outside B → every v in e ∩ B;
+  // u, v both in e ∩ B → one simultaneous edge per pair (u < v). Generated in row order, then
+  // stably sorted by from and by to, so the first of each (to, from) run has the smallest row.
+  let cap = 0;
+  for (let r = 0; r < ne; r++) { const k = rowPtr[r + 1] - rowPtr[r]; cap += k * (k - 1); }
+  const eFrom = new Int32Array(cap);
+  const eTo = new Int32Array(cap);
+  const eRow = new Int32Array(cap);
+  let n = 0;
+  for (let r = 0; r < ne; r++) {
+    const b = blockOfRow[r];
+    const k0 = rowPtr[r];
+    const k1 = rowPtr[r + 1];
+    for (let i = k0; i < k1; i++) {
+      const v = colIdx[i];
+      if (blockOfCol[v] !== b) continue;
+      for (let j = k0; j < k1; j++) {
+        const u = colIdx[j];
+        if (u === v || (blockOfCol[u] === b && u > v)) continue;
+        eFrom[n] = u;
+        eTo[n] = v;
+        eRow[n] = r;
+        n++;
       }
     }
   }
-  const order = sortEdges(edgeFrom, edgeTo, edgeEq, nv, ne);
-  const edges: OrderingEdge[] = [];
-  let lastFrom = -1;
-  let lastTo = -1;
-  for (const k of order) {
-    const f = edgeFrom[k];
-    const to = edgeTo[k];
-    if (f === lastFrom && to === lastTo) continue;
-    lastFrom = f;
-    lastTo = to;
-    const e: OrderingEdge = { from: vars.ids[f], to: vars.ids[to], kind: 'instantaneous', equation: eqs[edgeEq[k]].id };
-    if (blockOfVar[f] === blockOfVar[to]) e.simultaneous = true;
-    edges.push(e);
+  let idx: Int32Array = new Int32Array(n);
+  for (let i = 0; i < n; i++) idx[i] = i;
+  const fromA = eFrom;
+  const toA = eTo;
+  idx = countingSort(idx, (i) => fromA[i], nv);
+  idx = countingSort(idx, (i) => toA[i], nv);
+  let w = 0;
+  const oFrom = new Int32Array(n);
+  const oTo = new Int32Array(n);
+  const oRow = new Int32Array(n);
+  const oSim = new Uint8Array(n);
+  for (let q = 0; q < n; q++) {
+    const i = idx[q];
+    if (w > 0 && oFrom[w - 1] === eFrom[i] && oTo[w - 1] === eTo[i]) continue;
+    oFrom[w] = eFrom[i];
+    oTo[w] = eTo[i];
+    oRow[w] = eRow[i];
+    oSim[w] = blockOfCol[eFrom[i]] === blockOfCol[eTo[i]] ? 1 : 0;
+    w++;
   }
+  return {
+    blockCount: nb,
+    blockOfCol,
+    blockOfRow,
+    level,
+    determination,
+    blockColPtr,
+    blockCols,
+    blockRowPtr,
+    blockRows,
+    edgeCount: w,
+    edgeFrom: oFrom.subarray(0, w),
+    edgeTo: oTo.subarray(0, w),
+    edgeRow: oRow.subarray(0, w),
+    edgeSimultaneous: oSim.subarray(0, w),
+    matching: m,
+  };
+}
 
-  // Output blocks sorted by (level, smallest id); ids within blocks are already in rank order.
-  const out: { block: OrderingBlock; key: string }[] = new Array(nb);
-  for (let b = 0; b < nb; b++) {
-    const vs = blockVars[b].sort((x, y) => x - y).map((i) => vars.ids[i]);
-    const es = blockEqs[b].sort((x, y) => x - y).map((i) => eqs[i].id);
-    out[b] = { block: { variables: vs, equations: es, level: level[b], determination: blockDet[b] }, key: vs[0] ?? es[0] };
+const DETERMINATION: Determination[] = ['well', 'over', 'under'];
+
+/** Smallest index i with ids[i] >= key (ids sorted by compareIds). */
+function lowerBound(ids: string[], key: string): number {
+  let lo = 0;
+  let hi = ids.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (ids[mid] < key) lo = mid + 1;
+    else hi = mid;
   }
-  const perm = out.map((_, i) => i).sort((a, b) => level[a] - level[b] || compareIds(out[a].key, out[b].key));
-  const blocks = perm.map((i) => out[i].block);
-  const blockOf: Record<VariableId, number> = {};
-  perm.forEach((old, i) => { for (const v of out[old].block.variables) blockOf[v] = i; });
-  const matching: Record<EquationId, VariableId> = {};
-  for (let r = 0; r < ne; r++) if (m.rowMate[r] >= 0) matching[eqs[r].id] = vars.ids[m.rowMate[r]];
-  return { blocks, edges, matching, matchingSize: m.size, blockOf };
+  return lo;
 }
 
 /**
- * Edge indices sorted by (to, from, equation) — numerically, since ids were
- * ranked in id order. A packed Float64 key is exact while below 2^53.
+ * Causal order of an equation system.
+ * Example: `causalOrder({ equations: [{ id: 'f1', variables: ['x1'] }, { id: 'f2', variables: ['x1', 'x2'] }] })`
+ * gives blocks {x1}/[f1] at level 0 and {x2}/[f2] at level 1, with edge x1 → x2 carried by f2.
  */
-function sortEdges(from: number[], to: number[], eq: number[], nv: number, ne: number): number[] {
-  const n = from.length;
-  if (nv * nv * Math.max(ne, 1) < 2 ** 52) {
-    const keys = new Float64Array(n);
-    for (let k = 0; k < n; k++) keys[k] = (to[k] * nv + from[k]) * ne + eq[k];
-    keys.sort();
-    const idx: number[] = new Array(n);
-    // Decode back to one representative triple per key: rebuild arrays in sorted order.
-    const f2: number[] = new Array(n);
-    const t2: number[] = new Array(n);
-    const e2: number[] = new Array(n);
-    for (let k = 0; k < n; k++) {
-      const key = keys[k];
-      const e = key % ne;
-      const rest = (key - e) / ne;
-      const fr = rest % nv;
-      f2[k] = fr;
-      t2[k] = (rest - fr) / nv;
-      e2[k] = e;
-      idx[k] = k;
+export function causalOrder(system: EquationSystem, options: CausalOrderOptions = {}): CausalOrder {
+  // Rank equations and variables in id order; all later work is on the ranks.
+  const eqIds = system.equations.map((e) => e.id).sort();
+  for (let i = 1; i < eqIds.length; i++) if (eqIds[i] === eqIds[i - 1]) throw new Error(`equation id "${eqIds[i]}" is used twice`);
+  const eqRank = new Map<string, number>();
+  for (let i = 0; i < eqIds.length; i++) eqRank.set(eqIds[i], i);
+  const varIndex = new Map<string, number>();
+  const seen: string[] = [];
+  const note = (v: string) => { if (!varIndex.has(v)) { varIndex.set(v, 0); seen.push(v); } };
+  for (const v of system.exogenous ?? []) note(v);
+  for (const e of system.equations) for (const v of e.variables) note(v);
+  for (const v of system.variables ?? []) note(v);
+  const varIds = seen.sort();
+  for (let i = 0; i < varIds.length; i++) varIndex.set(varIds[i], i);
+  const ne = eqIds.length;
+  const nv = varIds.length;
+  const exogenous = new Uint8Array(nv);
+  for (const v of system.exogenous ?? []) exogenous[varIndex.get(v)!] = 1;
+  const byRank: EquationSystem['equations'] = new Array(ne);
+  for (const e of system.equations) byRank[eqRank.get(e.id)!] = e;
+  const rowPtr = new Int32Array(ne + 1);
+  let total = 0;
+  for (let r = 0; r < ne; r++) total += byRank[r].variables.length;
+  const colIdx = new Int32Array(total);
+  let p = 0;
+  for (let r = 0; r < ne; r++) {
+    const start = p;
+    for (const v of byRank[r].variables) {
+      const c = varIndex.get(v)!;
+      // insertion into the sorted segment, skipping repeats (rows are short)
+      let j = p - 1;
+      while (j >= start && colIdx[j] > c) j--;
+      if (j >= start && colIdx[j] === c) continue;
+      for (let q = p; q > j + 1; q--) colIdx[q] = colIdx[q - 1];
+      colIdx[j + 1] = c;
+      p++;
     }
-    for (let k = 0; k < n; k++) {
-      from[k] = f2[k];
-      to[k] = t2[k];
-      eq[k] = e2[k];
-    }
-    return idx;
+    rowPtr[r + 1] = p;
   }
-  const idx = Array.from({ length: n }, (_, k) => k);
-  idx.sort((a, b) => to[a] - to[b] || from[a] - from[b] || eq[a] - eq[b]);
-  return idx;
+  const o = orderIndexed(
+    { rows: ne, cols: nv, rowPtr, colIdx: colIdx.subarray(0, p), exogenous },
+    { ...options, constraintKey: (r) => lowerBound(varIds, eqIds[r]) - 0.5 },
+  );
+  const blocks: OrderingBlock[] = new Array(o.blockCount);
+  for (let b = 0; b < o.blockCount; b++) {
+    const vs: string[] = new Array(o.blockColPtr[b + 1] - o.blockColPtr[b]);
+    for (let i = o.blockColPtr[b], j = 0; i < o.blockColPtr[b + 1]; i++, j++) vs[j] = varIds[o.blockCols[i]];
+    const es: string[] = new Array(o.blockRowPtr[b + 1] - o.blockRowPtr[b]);
+    for (let i = o.blockRowPtr[b], j = 0; i < o.blockRowPtr[b + 1]; i++, j++) es[j] = eqIds[o.blockRows[i]];
+    blocks[b] = { variables: vs, equations: es, level: o.level[b], determination: DETERMINATION[o.determination[b]] };
+  }
+  const edges: OrderingEdge[] = new Array(o.edgeCount);
+  for (let i = 0; i < o.edgeCount; i++) {
+    const e: OrderingEdge = { from: varIds[o.edgeFrom[i]], to: varIds[o.edgeTo[i]], kind: 'instantaneous', equation: eqIds[o.edgeRow[i]] };
+    if (o.edgeSimultaneous[i]) e.simultaneous = true;
+    edges[i] = e;
+  }
+  let matching: Record<EquationId, VariableId> | null = null;
+  let blockOf: Record<VariableId, number> | null = null;
+  return {
+    blocks,
+    edges,
+    matchingSize: o.matching.size,
+    get matching() {
+      if (!matching) {
+        matching = {};
+        for (let r = 0; r < ne; r++) if (o.matching.rowMate[r] >= 0) matching[eqIds[r]] = varIds[o.matching.rowMate[r]];
+      }
+      return matching;
+    },
+    get blockOf() {
+      if (!blockOf) {
+        blockOf = {};
+        for (let c = 0; c < nv; c++) if (o.blockOfCol[c] >= 0) blockOf[varIds[c]] = o.blockOfCol[c];
+      }
+      return blockOf;
+    },
+  };
 }
 

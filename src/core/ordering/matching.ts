@@ -36,86 +36,154 @@ export function bipartiteFromLists(cols: number, lists: ArrayLike<number>[]): Bi
 }
 
 /**
- * Hopcroft–Karp maximum matching.
+ * Karp–Sipser start (Karp & Sipser, "Maximum matchings in sparse random
+ * graphs", FOCS 1981): while some vertex has exactly one free neighbour, the
+ * pair is forced (some maximum matching contains it); otherwise match any free
+ * row greedily. On sparse systems it leaves only a handful of rows for the
+ * augmenting phases. Fills rowMate/colMate, returns the number of pairs.
+ */
+function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array): number {
+  const { rows, cols, rowPtr, colIdx } = g;
+  const colPtr = new Int32Array(cols + 1);
+  for (let k = 0; k < colIdx.length; k++) colPtr[colIdx[k] + 1]++;
+  for (let c = 0; c < cols; c++) colPtr[c + 1] += colPtr[c];
+  const rowIdx = new Int32Array(colIdx.length);
+  {
+    const fill = colPtr.slice(0, cols);
+    for (let r = 0; r < rows; r++) for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) rowIdx[fill[colIdx[k]]++] = r;
+  }
+  const rowDeg = new Int32Array(rows);
+  const colDeg = new Int32Array(cols);
+  for (let r = 0; r < rows; r++) rowDeg[r] = rowPtr[r + 1] - rowPtr[r];
+  for (let c = 0; c < cols; c++) colDeg[c] = colPtr[c + 1] - colPtr[c];
+  // Vertices whose free degree dropped to one: rows as r, columns as ~c.
+  const stack = new Int32Array(rows + cols + colIdx.length + 1);
+  let sp = 0;
+  for (let c = 0; c < cols; c++) if (colDeg[c] === 1) stack[sp++] = ~c;
+  for (let r = 0; r < rows; r++) if (rowDeg[r] === 1) stack[sp++] = r;
+  let size = 0;
+  const match = (r: number, c: number): void => {
+    rowMate[r] = c;
+    colMate[c] = r;
+    size++;
+    for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) {
+      const c2 = colIdx[k];
+      if (colMate[c2] < 0 && --colDeg[c2] === 1) stack[sp++] = ~c2;
+    }
+    for (let k = colPtr[c]; k < colPtr[c + 1]; k++) {
+      const r2 = rowIdx[k];
+      if (rowMate[r2] < 0 && --rowDeg[r2] === 1) stack[sp++] = r2;
+    }
+  };
+  let scan = 0;
+  for (;;) {
+    while (sp > 0) {
+      const x = stack[--sp];
+      if (x >= 0) {
+        if (rowMate[x] >= 0) continue;
+        for (let k = rowPtr[x]; k < rowPtr[x + 1]; k++) if (colMate[colIdx[k]] < 0) { match(x, colIdx[k]); break; }
+      } else {
+        const c = ~x;
+        if (colMate[c] >= 0) continue;
+        for (let k = colPtr[c]; k < colPtr[c + 1]; k++) if (rowMate[rowIdx[k]] < 0) { match(rowIdx[k], c); break; }
+      }
+    }
+    while (scan < rows && rowMate[scan] >= 0) scan++;
+    if (scan >= rows) break;
+    const r = scan++;
+    for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) if (colMate[colIdx[k]] < 0) { match(r, colIdx[k]); break; }
+  }
+  return size;
+}
+
+/**
+ * Hopcroft–Karp maximum matching, started from a Karp–Sipser matching.
+ * Each phase layers the rows by BFS from the free rows up to the shortest
+ * augmenting length, then augments along vertex-disjoint shortest paths.
  * Example: rows 0:{0,1}, 1:{0} → size 2 with rowMate [1, 0].
  */
 export function hopcroftKarp(g: BipartiteGraph): Matching {
   const { rows, cols, rowPtr, colIdx } = g;
   const rowMate = new Int32Array(rows).fill(-1);
   const colMate = new Int32Array(cols).fill(-1);
-  let size = 0;
-  // Greedy start: usually matches most rows of a sparse system at once.
-  for (let r = 0; r < rows; r++) {
-    for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) {
-      const c = colIdx[k];
-      if (colMate[c] < 0) {
-        colMate[c] = r;
-        rowMate[r] = c;
-        size++;
-        break;
-      }
-    }
-  }
+  let size = karpSipser(g, rowMate, colMate);
   const INF = 0x7fffffff;
-  const dist = new Int32Array(rows);
+  const dist = new Int32Array(rows).fill(INF);
   const queue = new Int32Array(rows);
   const it = new Int32Array(rows);
   const stack = new Int32Array(rows);
-  for (;;) {
-    // BFS: layer the rows by the length of the shortest alternating path from a free row.
+  const free = new Int32Array(rows);
+  let nFree = 0;
+  for (let r = 0; r < rows; r++) if (rowMate[r] < 0) free[nFree++] = r;
+  while (nFree > 0) {
+    // BFS from the free rows; `limit` is the length of the shortest augmenting path.
     let qh = 0;
     let qt = 0;
-    for (let r = 0; r < rows; r++) {
-      if (rowMate[r] < 0) {
-        dist[r] = 0;
-        queue[qt++] = r;
-      } else dist[r] = INF;
+    for (let i = 0; i < nFree; i++) {
+      dist[free[i]] = 0;
+      queue[qt++] = free[i];
     }
-    let found = false;
+    let limit = INF;
     while (qh < qt) {
       const r = queue[qh++];
-      const d = dist[r] + 1;
+      const d = dist[r];
+      if (d >= limit) break;
       for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) {
         const r2 = colMate[colIdx[k]];
-        if (r2 < 0) found = true;
-        else if (dist[r2] === INF) {
-          dist[r2] = d;
+        if (r2 < 0) {
+          if (limit === INF) limit = d + 1;
+        } else if (dist[r2] === INF) {
+          dist[r2] = d + 1;
           queue[qt++] = r2;
         }
       }
     }
-    if (!found) break;
-    // DFS along the layers, one augmenting path per free row at most.
-    for (let r = 0; r < rows; r++) it[r] = rowPtr[r];
-    for (let s = 0; s < rows; s++) {
-      if (rowMate[s] >= 0) continue;
+    const touched = qt; // queue[0 .. touched) holds every row whose dist was set
+    if (limit === INF) {
+      for (let i = 0; i < touched; i++) dist[queue[i]] = INF;
+      break;
+    }
+    for (let i = 0; i < touched; i++) it[queue[i]] = rowPtr[queue[i]];
+    // DFS along the layers from each free row.
+    let stillFree = 0;
+    for (let i = 0; i < nFree; i++) {
+      const s = free[i];
       let top = 0;
       stack[0] = s;
+      let augmented = false;
       while (top >= 0) {
         const r = stack[top];
         if (it[r] === rowPtr[r + 1]) {
-          dist[r] = INF; // dead end: never try this row again in this phase
+          dist[r] = INF; // dead end for this phase
           top--;
           continue;
         }
         const c = colIdx[it[r]];
         const r2 = colMate[c];
         if (r2 < 0) {
-          // Augment: every row on the stack takes the column its pointer shows.
-          for (let i = top; i >= 0; i--) {
-            const row = stack[i];
+          if (dist[r] + 1 !== limit) {
+            it[r]++;
+            continue;
+          }
+          // Augment: each row on the stack takes the column its pointer shows.
+          for (let j = top; j >= 0; j--) {
+            const row = stack[j];
             const col = colIdx[it[row]];
             rowMate[row] = col;
             colMate[col] = row;
           }
+          for (let j = 0; j <= top; j++) dist[stack[j]] = INF; // vertex-disjoint paths within a phase
           size++;
-          for (let i = 0; i <= top; i++) it[stack[i]]++;
+          augmented = true;
           break;
         }
-        if (dist[r2] === dist[r] + 1) stack[++top] = r2;
+        if (dist[r2] === dist[r] + 1 && dist[r2] < limit) stack[++top] = r2;
         else it[r]++;
       }
+      if (!augmented) free[stillFree++] = s;
     }
+    for (let i = 0; i < touched; i++) dist[queue[i]] = INF;
+    nFree = stillFree;
   }
   return { rowMate, colMate, size };
 }
