@@ -4,3 +4,5 @@ import { renderCommand } from './render';
 /** Every command of the command line; each module adds its own entries here. */
 export const COMMANDS: CliCommand[] = [];
 COMMANDS.push(renderCommand);
+import { interventionCommands } from './interventions';
+COMMANDS.push(...interventionCommands);

@@ -1,0 +1,139 @@
+/**
+ * Commands about interventions and reports: `commute` (does holding a
+ * variable commute with the settling at this interval?), `adaptation`
+ * (which variables perfectly adapt to which inputs) and `report` (the
+ * self-contained HTML report of the interval axis).
+ */
+import type { Model } from '../../core/model/types';
+import { formatDuration } from '../../core/model/units';
+import type { Ordering, StudyDesign } from '../../core/ordering/types';
+import { commutationAt, InterventionError, perfectAdaptation, type Commutation } from '../../core/interventions/index';
+import { buildReport } from '../../report/html';
+import { layoutInNode } from '../../layout/node';
+import { durationOption, loadModel } from '../load';
+import { CliError, type CliArgs, type CliCommand } from './types';
+
+/** `x=3,y=0.5` → { x: 3, y: 0.5 }, checking each variable and value. */
+export function parseHoldOption(text: string | true | undefined, model: Model): Record<string, number> {
+  if (text === undefined || text === true) throw new CliError('--hold needs VARIABLE=VALUE, e.g. --hold x=3', 2);
+  const out: Record<string, number> = {};
+  for (const part of text.split(',')) {
+    const m = /^\s*([^=\s]+)\s*=\s*(\S*)\s*$/.exec(part);
+    if (!m) throw new CliError(`--hold: "${part}" is not VARIABLE=VALUE`, 2);
+    const [, id, raw] = m;
+    if (!model.variables.some((v) => v.id === id)) throw new CliError(`--hold: the model has no variable "${id}" (variables: ${model.variables.map((v) => v.id).join(', ')})`, 2);
+    const value = raw === '' ? NaN : Number(raw);
+    if (!Number.isFinite(value)) throw new CliError(`--hold: "${raw}" is not a number (for ${id})`, 2);
+    out[id] = value;
+  }
+  return out;
+}
+
+function studyOptions(args: CliArgs, model: Model): { window?: number; samples?: number } {
+  const window = durationOption(args, 'window', model);
+  const s = args.options.samples;
+  if (s !== undefined && window !== undefined) throw new CliError('give either --window or --samples, not both', 2);
+  if (s === undefined) return window !== undefined ? { window } : {};
+  const n = Number(s);
+  if (s === true || !Number.isInteger(n) || n < 2) throw new CliError(`--samples must be a whole number of at least 2, not "${String(s)}"`, 2);
+  return { samples: n };
+}
+
+function orderingLines(model: Model, o: Ordering): string[] {
+  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const lines: string[] = [];
+  for (const b of o.blocks) {
+    if (b.equations.length === 0) continue;
+    const tag = b.determination === 'well' ? '' : `  ${b.determination.toUpperCase()}-DETERMINED`;
+    lines.push(`    ${b.variables.map(label).join(', ') || '(no unknown)'}  by ${b.equations.join(', ')}${tag}`);
+  }
+  for (const e of o.edges) lines.push(`    ${label(e.from)} ${e.kind === 'integrating' ? '=>' : e.simultaneous ? '<->' : '->'} ${label(e.to)}`);
+  return lines;
+}
+
+/** Readable text for `commute` without --json. */
+export function commutationText(model: Model, design: StudyDesign, c: Commutation): string {
+  const held = Object.entries(c.hold).map(([k, v]) => `${k} = ${v}`).join(', ');
+  const at = design.interval !== undefined ? `sampling every ${formatDuration(design.interval, model.timeUnit)}` : 'the mechanism';
+  const lines = [`${model.name}: holding ${held} at ${at}`, '', c.agree ? 'AGREE: hold then settle = settle then hold' : 'DIFFER: hold then settle ≠ settle then hold', ''];
+  for (const l of c.explanation) lines.push(`  ${l}`);
+  lines.push('', '  hold then settle (the running system, held):', ...orderingLines(model, c.holdThenSettle));
+  lines.push('', '  settle then hold (the equilibrium model, held):', ...orderingLines(model, c.settleThenHold));
+  if (c.differences.length > 0) {
+    lines.push('', `  differences (${c.differences.length}):`);
+    for (const d of c.differences) {
+      const what = d.edge ? `${d.edge.from} ${d.edge.kind === 'integrating' ? '=>' : '->'} ${d.edge.to} (${d.edge.equation})` : d.equation ?? (d.variables ?? []).join(', ');
+      lines.push(`    only in ${d.only === 'holdThenSettle' ? 'hold-then-settle' : 'settle-then-hold'}: ${d.kind} ${what}`);
+    }
+  }
+  return lines.join('\n');
+}
+
+function intervention<T>(f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof InterventionError) throw new CliError(e.message, 2);
+    throw e;
+  }
+}
+
+export const interventionCommands: CliCommand[] = [
+  {
+    name: 'commute',
+    summary: 'does holding a variable commute with the settling at this interval?',
+    usage: 'MODEL.json --hold x=v[,y=w] --interval D [--window W | --samples N] [--json]',
+    options: { hold: true, interval: true, window: true, samples: true, json: false },
+    run(args, io) {
+      const model = loadModel(args, io);
+      const hold = parseHoldOption(args.options.hold, model);
+      const interval = durationOption(args, 'interval', model);
+      if (interval === undefined) throw new CliError('name the sampling interval, e.g. --interval 1h', 2);
+      if (!(interval > 0)) throw new CliError(`--interval must be positive, not ${interval}`, 2);
+      const design: StudyDesign = { interval, ...studyOptions(args, model), hold };
+      const c = intervention(() => commutationAt(model, design));
+      if (args.options.json) io.out(JSON.stringify({ agree: c.agree, interval, hold: c.hold, holdThenSettle: c.holdThenSettle, settleThenHold: c.settleThenHold, differences: c.differences, ambiguous: c.ambiguous, drift: c.drift, explanation: c.explanation }, null, 2));
+      else io.out(commutationText(model, design, c));
+      return 0;
+    },
+  },
+  {
+    name: 'adaptation',
+    summary: 'variables that return to the same equilibrium after a persistent change of an input',
+    usage: 'MODEL.json [--json]',
+    options: { json: false },
+    run(args, io) {
+      const model = loadModel(args, io);
+      const r = perfectAdaptation(model);
+      if (args.options.json) {
+        io.out(JSON.stringify({ adapted: r.adapted, unjudged: r.unjudged }, null, 2));
+        return 0;
+      }
+      const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+      if (r.adapted.length === 0) io.out(`${model.name}: no variable perfectly adapts to an input`);
+      else io.out([`${model.name}: perfect adaptation (the variable answers a lasting change of the input for a while, then returns):`, ...r.adapted.map((a) => `  ${label(a.variable)} adapts to ${label(a.input)}`)].join('\n'));
+      if (r.unjudged.length) io.out(`  not judged (no well-determined equilibrium): ${r.unjudged.join(', ')}`);
+      return 0;
+    },
+  },
+  {
+    name: 'report',
+    summary: 'a self-contained, printable HTML report of the interval axis, band by band',
+    usage: 'MODEL.json --out report.html [--window W | --samples N] [--hold x=v] [--no-figures]',
+    options: { out: true, window: true, samples: true, hold: true, 'no-figures': false },
+    async run(args, io) {
+      const model = loadModel(args, io);
+      const out = args.options.out;
+      if (out === undefined || out === true) throw new CliError('name the output file, e.g. --out report.html', 2);
+      const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : undefined;
+      const html = await buildReport(model, { ...studyOptions(args, model), hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
+      try {
+        io.writeFile(out, html);
+      } catch (e) {
+        throw new CliError(`cannot write ${out}: ${(e as Error).message}`);
+      }
+      io.out(`wrote ${out} (${html.length} characters)`);
+      return 0;
+    },
+  },
+];

@@ -1,0 +1,173 @@
+/**
+ * The printable report: one self-contained HTML file (inline CSS and SVG, no
+ * scripts, no external resources) that walks the interval axis band by band.
+ * For each band: the ordering as a figure, what changed at the breakpoint
+ * that opens it and why, the diagnostics, the blocks and links as text; then
+ * perfect adaptation and, when asked, the commutation check of holds.
+ * Every piece of model text is escaped: model files are untrusted.
+ */
+import type { Model } from '../core/model/types';
+import { formatDuration } from '../core/model/units';
+import { bands, breakpoints, orderingAt, type Band, type Breakpoint, type Ordering, type StudyDesign } from '../core/ordering/index';
+import { explainOrdering } from '../core/view/explain';
+import { orderingView, studyText } from '../core/view/derive';
+import type { ViewModel } from '../core/view/types';
+import type { Layout } from '../layout/types';
+import { renderSvg } from '../export/svg';
+import { perfectAdaptation } from '../core/interventions/adaptation';
+import { commutationAt } from '../core/interventions/index';
+
+export interface ReportOptions {
+  /** A fixed study length W (model time unit). */
+  window?: number;
+  /** Or a study of N samples per interval. */
+  samples?: number;
+  /** Lays out a view for its figure (ELK in Node, the app's layout in the browser). Without it the report lists the ordering in text only. */
+  layout?: (vm: ViewModel) => Promise<Layout>;
+  /** Interventions to check for commutation in every band. */
+  hold?: Record<string, number>;
+  /** The date line printed under the title (left out when absent, so reports compare byte for byte). */
+  generated?: string;
+}
+
+/** Escape text for HTML content and attribute values. */
+export function htmlEscape(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+/** A representative interval inside a band: the geometric middle of a finite band, twice the start of the last one. */
+export function bandInterval(b: Band): number {
+  if (b.to === Infinity) return b.from > 0 ? b.from * 2 : 1;
+  if (b.from === 0) return b.to / 2;
+  if (b.from === b.to) return b.from;
+  return Math.sqrt(b.from * b.to);
+}
+
+/** Give each inline SVG its own id space, so that several figures in one page never share marker ids. */
+export function prefixSvgIds(svg: string, prefix: string): string {
+  return svg
+    .replace(/<\?xml[^>]*\?>\s*/, '')
+    .replace(/\bid="([^"]+)"/g, (_m, id: string) => `id="${prefix}${id}"`)
+    .replace(/url\(#([^)]+)\)/g, (_m, id: string) => `url(#${prefix}${id})`)
+    .replace(/href="#([^"]+)"/g, (_m, id: string) => `href="#${prefix}${id}"`);
+}
+
+const CSS = `
+body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",sans-serif;color:#1d1d1f;margin:2rem auto;max-width:60rem;padding:0 1rem}
+h1{font-size:1.6rem;margin-bottom:.2rem}h2{font-size:1.25rem;margin-top:2.2rem;border-bottom:2px solid #1d1d1f}h3{font-size:1.05rem}
+.sub{color:#555}.caution{border:2px solid #1d1d1f;padding:.5rem .8rem;font-weight:600}
+table{border-collapse:collapse;margin:.5rem 0}td,th{border:1px solid #999;padding:.2rem .5rem;text-align:left;vertical-align:top}
+.figure svg{max-width:100%;height:auto}.error::before{content:"✖ "}.warning::before{content:"▲ "}
+.agree::before{content:"= "}.differ::before{content:"≠ "}
+code{font-family:ui-monospace,Menlo,Consolas,monospace;font-size:.9em}
+@media print{body{margin:0;max-width:none}section.band{break-before:page}h2{break-after:avoid}.figure{break-inside:avoid}}
+`;
+
+function rangeText(model: Model, b: Band): string {
+  const u = model.timeUnit;
+  const from = b.from === 0 ? '0' : formatDuration(b.from, u);
+  const to = b.to === Infinity ? '∞' : formatDuration(b.to, u);
+  const open = b.excludesFrom ? '(' : '[';
+  const close = b.includesTo ? ']' : ')';
+  return `${open}${from}, ${to}${close}`;
+}
+
+function label(model: Model, id: string): string {
+  return model.variables.find((v) => v.id === id)?.label ?? id;
+}
+
+function orderingTables(model: Model, o: Ordering): string {
+  const e = htmlEscape;
+  const rows = o.blocks.map((b) => {
+    const vars = b.variables.map((v) => `${e(label(model, v))} <span class="sub">(${e(o.roles[v] ?? '')})</span>`).join(', ');
+    const eqs = b.equations.length ? b.equations.map((q) => `<code>${e(q)}</code>`).join(', ') : '<span class="sub">given</span>';
+    return `<tr><td>${b.level}</td><td>${vars}</td><td>${eqs}</td><td>${e(b.determination)}</td></tr>`;
+  });
+  const within = o.edges.filter((x) => x.kind === 'instantaneous').map((x) => `<li>${e(label(model, x.from))} ${x.simultaneous ? '↔' : '→'} ${e(label(model, x.to))} <span class="sub">by <code>${e(x.equation)}</code></span></li>`);
+  const across = o.edges.filter((x) => x.kind === 'integrating').map((x) => `<li>${e(label(model, x.from))} ⇒ ${e(label(model, x.to))} <span class="sub">across time, by <code>${e(x.equation)}</code></span></li>`);
+  return [
+    '<table><thead><tr><th>level</th><th>variables</th><th>determined by</th><th>determination</th></tr></thead><tbody>',
+    ...rows,
+    '</tbody></table>',
+    `<h4>Within the instant (${within.length})</h4>`,
+    within.length ? `<ul>${within.join('')}</ul>` : '<p class="sub">none</p>',
+    `<h4>Across time (${across.length})</h4>`,
+    across.length ? `<ul>${across.join('')}</ul>` : '<p class="sub">none</p>',
+  ].join('\n');
+}
+
+function diagnosticsList(o: Ordering): string {
+  if (o.diagnostics.length === 0) return '<p class="sub">No diagnostics.</p>';
+  return `<ul>${o.diagnostics.map((d) => `<li class="${d.level}">${htmlEscape(d.message)}</li>`).join('')}</ul>`;
+}
+
+function changesAt(model: Model, bp: Breakpoint | undefined): string {
+  if (!bp) return '<p class="sub">The start of the interval axis: the ordering of the shortest intervals.</p>';
+  const items = bp.changes.map((c) => `<li><strong>${htmlEscape(label(model, c.variable))}</strong>: ${htmlEscape(c.from)} → ${htmlEscape(c.to)} — ${htmlEscape(c.reason)}</li>`);
+  return `<p>At ${htmlEscape(formatDuration(bp.interval, model.timeUnit))}${bp.exclusive ? ' (just above it)' : ''}:</p><ul>${items.join('')}</ul>`;
+}
+
+/**
+ * The report as one HTML string.
+ * Example: `await buildReport(model, { samples: 50, layout: (vm) => layoutInNode(vm) })`.
+ */
+export async function buildReport(model: Model, options: ReportOptions = {}): Promise<string> {
+  const e = htmlEscape;
+  const axis = options.window !== undefined ? { window: options.window } : { samples: options.samples ?? model.settings?.samples };
+  const bps = breakpoints(model, axis);
+  const bds = bands(model, axis);
+  const parts: string[] = [];
+  parts.push(`<h1>${e(model.name)}</h1>`);
+  parts.push(`<p class="sub">How the causal ordering changes with the sampling interval · time unit ${e(model.timeUnit)}${options.generated ? ` · ${e(options.generated)}` : ''}</p>`);
+  if (model.caution) parts.push(`<p class="caution">${e(model.caution)}</p>`);
+  if (model.description) parts.push(`<p>${e(model.description)}</p>`);
+  parts.push('<p class="sub">The orderings are model-based hypotheses: they say what the model implies at each sampling interval, not what the measured system does.</p>');
+
+  parts.push('<h2>Bands of the interval axis</h2><table><thead><tr><th>band</th><th>intervals</th><th>settled</th><th>frozen</th><th>dynamic</th></tr></thead><tbody>');
+  bds.forEach((b, i) => {
+    const ids = (r: string) => Object.keys(b.roles).filter((v) => b.roles[v] === r).map((v) => e(label(model, v))).join(', ') || '—';
+    parts.push(`<tr><td><a href="#band-${i + 1}">${i + 1}</a></td><td>${e(rangeText(model, b))}</td><td>${ids('settled')}</td><td>${ids('frozen')}</td><td>${ids('state')}</td></tr>`);
+  });
+  parts.push('</tbody></table>');
+
+  if (!options.layout) parts.push('<p class="sub">Figures were left out (no layout engine was given); the orderings are listed as text.</p>');
+  for (let i = 0; i < bds.length; i++) {
+    const b = bds[i];
+    const interval = bandInterval(b);
+    const design: StudyDesign = options.window !== undefined ? { interval, window: options.window } : { interval, samples: axis.samples };
+    const o = orderingAt(model, design);
+    const opening = i === 0 ? undefined : bps.find((p) => p.interval === b.from && Boolean(p.exclusive) === Boolean(b.excludesFrom));
+    parts.push(`<section class="band" id="band-${i + 1}">`);
+    parts.push(`<h2>Band ${i + 1}: intervals ${e(rangeText(model, b))}</h2>`);
+    parts.push(`<p class="sub">Shown at ${e(formatDuration(interval, model.timeUnit))}, ${e(studyText(model, interval, design.window, design.samples))}.</p>`);
+    parts.push('<h3>What changed and why</h3>', changesAt(model, opening));
+    if (options.layout) {
+      const vm = orderingView(model, o, { mode: 'ordering', interval, window: design.window, samples: design.samples });
+      const layout = await options.layout(vm);
+      parts.push(`<div class="figure">${prefixSvgIds(renderSvg(vm, layout, { caption: true }), `b${i + 1}-`)}</div>`);
+    }
+    parts.push('<h3>Reading</h3>', `<ul>${explainOrdering(model, o, design, bps).map((l) => `<li>${e(l.text)}</li>`).join('')}</ul>`);
+    parts.push('<h3>The ordering</h3>', orderingTables(model, o));
+    parts.push('<h3>Diagnostics</h3>', diagnosticsList(o));
+    if (options.hold && Object.keys(options.hold).length > 0) {
+      const c = commutationAt(model, { ...design, hold: options.hold });
+      parts.push('<h3>Holding ' + e(Object.entries(options.hold).map(([k, v]) => `${label(model, k)} = ${v}`).join(', ')) + '</h3>');
+      parts.push(`<p class="${c.agree ? 'agree' : 'differ'}">${c.agree ? 'Hold then settle and settle then hold agree.' : 'Hold then settle and settle then hold differ.'}</p>`);
+      parts.push(`<ul>${c.explanation.map((l) => `<li>${e(l)}</li>`).join('')}</ul>`);
+    }
+    parts.push('</section>');
+  }
+
+  const pa = perfectAdaptation(model);
+  parts.push('<section><h2>Perfect adaptation</h2>');
+  if (pa.adapted.length === 0) parts.push('<p>No variable returns to the same equilibrium after a persistent change of an input.</p>');
+  else {
+    parts.push('<p>These variables answer a persistent change of the input for a while, then return to the same equilibrium value: the input reaches them in the running mechanism, but not in the equilibrium model.</p>');
+    parts.push(`<table><thead><tr><th>variable</th><th>adapts to</th></tr></thead><tbody>${pa.adapted.map((a) => `<tr><td>${e(label(model, a.variable))}</td><td>${e(label(model, a.input))}</td></tr>`).join('')}</tbody></table>`);
+  }
+  if (pa.unjudged.length) parts.push(`<p class="sub">Not judged (no well-determined equilibrium): ${e(pa.unjudged.map((v) => label(model, v)).join(', '))}.</p>`);
+  parts.push('</section>');
+  parts.push('<section><h2>Numbers</h2><p class="sub">Equilibrium values and derived timescales are not part of this report yet.</p></section>');
+
+  return `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n<title>${e(model.name)} — Loopfold report</title>\n<style>${CSS}</style>\n</head>\n<body>\n${parts.join('\n')}\n</body>\n</html>\n`;
+}

@@ -1,0 +1,113 @@
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../../src/cli/run';
+import type { Model } from '../../../src/core/model/types';
+import { warehouseIntegral } from './scenarios';
+
+function memoryIo(files: Record<string, string>) {
+  const out: string[] = [];
+  const err: string[] = [];
+  return {
+    out,
+    err,
+    files,
+    io: {
+      out: (t: string) => out.push(t),
+      err: (t: string) => err.push(t),
+      readFile: (p: string) => {
+        if (!(p in files)) throw Object.assign(new Error('no such file'), { code: 'ENOENT' });
+        return files[p];
+      },
+      writeFile: (p: string, c: string) => { files[p] = c; },
+    },
+  };
+}
+
+/** The chain-regulated stock of Dash 2005 (§2, rebuilt from memory) as a sketch with neutral names: x′ = u − q, p = f(x), q = g(p, k). */
+const chain: Model = {
+  format: 'loopfold-model',
+  version: 1,
+  name: 'Chain-regulated stock',
+  timeUnit: 'h',
+  variables: [
+    { id: 'u', kind: 'input' },
+    { id: 'k', kind: 'input' },
+    { id: 'x', kind: 'state', timescale: 2, selfRegulating: false },
+    { id: 'p', kind: 'derived' },
+    { id: 'q', kind: 'derived' },
+  ],
+  links: [
+    { from: 'u', to: 'x', kind: 'integrating' },
+    { from: 'q', to: 'x', kind: 'integrating' },
+    { from: 'x', to: 'p', kind: 'instantaneous' },
+    { from: 'p', to: 'q', kind: 'instantaneous' },
+    { from: 'k', to: 'q', kind: 'instantaneous' },
+  ],
+};
+
+const files = () => ({ 'chain.json': JSON.stringify(chain), 'warehouse.json': JSON.stringify(warehouseIntegral) });
+
+describe('loopfold commute', () => {
+  it('prints one JSON object with agree, both orderings in the Ordering shape, and the differences', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'chain.json', '--hold', 'p=2', '--interval', '1 day', '--json'], m.io)).toBe(0);
+    expect(m.out).toHaveLength(1);
+    const r = JSON.parse(m.out[0]);
+    expect(r.agree).toBe(false);
+    for (const side of ['holdThenSettle', 'settleThenHold']) {
+      expect(Object.keys(r[side]).sort()).toEqual(['blocks', 'diagnostics', 'edges', 'integrations', 'roles']);
+      expect(r[side].roles.p).toBe('held');
+      expect(r[side].roles.x).toBe('settled');
+    }
+    expect(r.differences.length).toBeGreaterThan(0);
+    // Dash 2005 §3 (from memory): holding a variable on the loop of a non-self-regulating stock leaves it no equilibrium.
+    expect(r.drift.states).toEqual(['x']);
+  });
+
+  it('agrees when nothing settles at the interval (x: 2 h timescale, sampled every 10 min)', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'chain.json', '--hold', 'p=2', '--interval', '10 min', '--json'], m.io)).toBe(0);
+    expect(JSON.parse(m.out[0]).agree).toBe(true);
+  });
+
+  it('prints readable text without --json', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'chain.json', '--hold', 'x=1', '--interval', '1 day'], m.io)).toBe(0);
+    expect(m.out.join('\n')).toMatch(/DIFFER/);
+    expect(m.out.join('\n')).toMatch(/settle then hold/);
+  });
+
+  it('refuses bad input with a one-line reason and a non-zero exit', async () => {
+    const cases: [string[], RegExp][] = [
+      [['commute', 'chain.json', '--hold', 'nope=1', '--interval', '1 day'], /no variable "nope"/],
+      [['commute', 'chain.json', '--hold', 'p=lots', '--interval', '1 day'], /"lots" is not a number \(for p\)/],
+      [['commute', 'chain.json', '--hold', 'p', '--interval', '1 day'], /"p" is not VARIABLE=VALUE/],
+      [['commute', 'chain.json', '--hold', 'p=1'], /name the sampling interval/],
+      [['commute', 'chain.json', '--interval', '1 day'], /--hold needs VARIABLE=VALUE/],
+      [['commute', 'chain.json', '--hold', 'p=1', '--interval', 'soon'], /--interval/],
+      [['commute', 'missing.json', '--hold', 'p=1', '--interval', '1 day'], /cannot read missing.json/],
+    ];
+    for (const [argv, msg] of cases) {
+      const m = memoryIo(files());
+      const code = await runCli(argv, m.io);
+      expect(code, argv.join(' ')).not.toBe(0);
+      expect(m.err).toHaveLength(1);
+      expect(m.err[0]).toMatch(msg);
+      expect(m.err[0]).not.toMatch(/\n/);
+    }
+  });
+});
+
+describe('loopfold adaptation', () => {
+  it('prints { adapted: [{ variable, input }] }', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['adaptation', 'warehouse.json', '--json'], m.io)).toBe(0);
+    // Hand-derived: at balance orders = demand and stock = target (integral correction).
+    expect(JSON.parse(m.out[0]).adapted).toEqual([{ variable: 'orders', input: 'target' }, { variable: 'stock', input: 'demand' }]);
+  });
+
+  it('says so in words without --json', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['adaptation', 'warehouse.json'], m.io)).toBe(0);
+    expect(m.out.join('\n')).toMatch(/stock adapts to demand/);
+  });
+});
