@@ -6,3 +6,5 @@ export const COMMANDS: CliCommand[] = [];
 COMMANDS.push(renderCommand);
 import { interventionCommands } from './interventions';
 COMMANDS.push(...interventionCommands);
+import { orderingCommands } from './ordering';
+COMMANDS.unshift(...orderingCommands);
