@@ -42,6 +42,14 @@ export function buildStructure(model: Model): ModelStructure {
     list.push({ from: l.from, kind: l.kind });
   }
 
+  // A derived variable with neither a formula nor incoming links, named in a
+  // relation, is determined by the relations alone: it has no equation of its own.
+  const inRelation = new Set<VariableId>();
+  for (const r of model.relations ?? []) {
+    const parsed = parseRelation(r.equation);
+    if (parsed.ok) for (const s of parsed.symbols) inRelation.add(s);
+  }
+
   const equations: { id: EquationId; variables: VariableId[] }[] = [];
   const exogenous: VariableId[] = [];
   const derivatives: Record<VariableId, EquationId> = {};
@@ -92,6 +100,8 @@ export function buildStructure(model: Model): ModelStructure {
           if (symbols.includes(l.from))
             warn('link-kind', `the link ${l.from} → ${v.id} is drawn integrating, but ${v.id} is derived and follows its formula at once: mark the link instantaneous, or make ${v.id} a state`, [l.from, v.id], [eq]);
         equations.push({ id: eq, variables: sortedUnique([v.id, ...symbols]) });
+      } else if (v.formula === undefined && links.length === 0 && inRelation.has(v.id)) {
+        // Determined by the relations that name it (see inRelation above).
       } else {
         if (inst.length > 0 && integ.length > 0)
           warn('mixed-links', `the links into ${v.id} are of mixed kind (instantaneous from ${inst.map((l) => l.from).sort(compareIds).join(', ')}; integrating from ${integ.map((l) => l.from).sort(compareIds).join(', ')}): make ${v.id} a state, or mark the links instantaneous; the integrating ones are left out for now`, [v.id, ...links.map((l) => l.from)], [eq]);
