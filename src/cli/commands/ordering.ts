@@ -120,7 +120,7 @@ export const orderingCommands: CliCommand[] = [
       }
       const lines = [`${model.name}: the ordering changes at ${bps.length} interval(s)`];
       for (const b of bps) {
-        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${b.interval} ${model.timeUnit}):`);
+        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${Number(b.interval.toPrecision(6))} ${model.timeUnit}):`);
         for (const c of b.changes) lines.push(`    ${c.reason}`);
       }
       io.out(lines.join('\n'));
