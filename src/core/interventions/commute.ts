@@ -255,18 +255,22 @@ function reach(edges: OrderingEdge[], from: VariableId[], reverse = false): Set<
 }
 
 /**
- * The feedback set of a state x in the mechanism (after Dash 2005, from
- * memory): the variables that x acts on within the instant and that act,
- * within the instant, on x's own rate. Holding one of them cuts the loop
- * through which x settles.
+ * The feedback set of a state x (after Dash 2005, from memory): the
+ * variables that x acts on within the instant and that act, within the
+ * instant, on x's own rate. States that settle at the same interval act
+ * within the instant too (their balance links their sources to them), so a
+ * loop may pass through them. Holding a member cuts the loop through which
+ * x settles. Example: for x′ = u − q, p = f(x), q = g(p), the set of x is {p, q}.
  */
-export function feedbackSet(mechanism: EquationStructure, x: VariableId): VariableId[] {
+export function feedbackSet(mechanism: EquationStructure, x: VariableId, settledWith: readonly VariableId[] = []): VariableId[] {
   const eq = mechanism.derivatives[x];
   if (eq === undefined) return [];
   const o = orderStructure(mechanism);
-  const sources = (mechanism.equations.find((e) => e.id === eq)?.variables ?? []).filter((v) => stateOfDerivative(v) === null);
-  const down = reach(o.edges, [x]);
-  const up = reach(o.edges, sources, true);
+  const sourcesOf = (s: VariableId) => (mechanism.equations.find((e) => e.id === mechanism.derivatives[s])?.variables ?? []).filter((v) => stateOfDerivative(v) === null && v !== s);
+  const edges: OrderingEdge[] = [...o.edges];
+  for (const s of settledWith) if (s !== x && mechanism.derivatives[s] !== undefined) for (const v of sourcesOf(s)) edges.push({ from: v, to: s, kind: 'instantaneous', equation: mechanism.derivatives[s] });
+  const down = reach(edges, [x]);
+  const up = reach(edges, sourcesOf(x), true);
   return [...down].filter((v) => v !== x && up.has(v)).sort(compareIds);
 }
 
@@ -274,8 +278,10 @@ function detectDrift(held: EquationStructure, before: EquationStructure, settled
   const o = orderStructure(held).causal;
   const bad = o.blocks.filter((b) => b.determination !== 'well');
   if (bad.length === 0) return null;
-  const baseBad = new Set(orderStructure(before).causal.blocks.filter((b) => b.determination !== 'well').flatMap((b) => [...b.variables, ...b.equations]));
-  const equations = [...new Set(bad.filter((b) => b.determination === 'over').flatMap((b) => b.equations))].filter((e) => !baseBad.has(e)).sort(compareIds);
+  const baseBad = new Set(orderStructure(before).causal.blocks.filter((b) => b.determination !== 'well').flatMap((b) => [...b.variables.map((v) => stateOfDerivative(v) ?? v), ...b.equations]));
+  const overEqs = [...new Set(bad.filter((b) => b.determination === 'over').flatMap((b) => b.equations))].sort(compareIds);
+  // Only what the hold brings: an over-determined part made of equations that were already in conflict is not new.
+  const equations = overEqs.some((e) => !e.startsWith('hold(') && !baseBad.has(e)) ? overEqs : [];
   const variables = [...new Set(bad.filter((b) => b.determination === 'under').flatMap((b) => b.variables))]
     .map((v) => stateOfDerivative(v) ?? v)
     .filter((v) => !baseBad.has(v))
@@ -341,9 +347,9 @@ export function commutation(input: CommutationInput): Commutation {
   for (const [k, e] of eb) if (!ea.has(k)) differences.push({ kind: 'edge', only: 'settleThenHold', edge: e, reason: `the equilibrium model, held, predicts ${e.from} → ${e.to} through ${e.equation}; the running system, held, does not have it` });
 
   const drift = detectDrift(hts.structure, equilibrium, settled);
-  if (drift) differences.push({ kind: 'determination', only: 'settleThenHold', variables: [...new Set([...drift.states, ...drift.variables])].sort(compareIds), reason: `the equilibrium model, held, still settles; ${drift.message}` });
-
   const same = sameStructure(hts.structure, sth.structure);
+  if (drift && !same) differences.push({ kind: 'determination', only: 'settleThenHold', variables: [...new Set([...drift.states, ...drift.variables])].sort(compareIds), reason: `the equilibrium model, held, still settles; ${drift.message}` });
+
   const agree = same && ambiguous.length === 0;
   const explanation = explain({ mechanism, equilibrium, heldIds, holds, settled, sth, agree, same, ambiguous, drift });
   return { agree, hold: { ...holds }, holdThenSettle: htsOrdering, settleThenHold: sthOrdering, differences, ambiguous, drift, explanation };
@@ -377,6 +383,7 @@ function explain(x: ExplainInput): string[] {
     lines.push(x.settled.length === 0
       ? `no state settles at this interval, so holding ${held} and settling cannot conflict: both orders give the same structure`
       : `holding ${held} and letting ${listNames(x.settled)} settle give the same structure in either order: the equilibrium model pairs each held variable with its own equation`);
+    if (x.drift) lines.push(x.drift.message);
     return lines;
   }
   for (const c of x.sth.changes) {
@@ -396,7 +403,7 @@ function explain(x: ExplainInput): string[] {
           : `at equilibrium, ${v} is determined by ${replaced}, not by its own equation ${own ?? '(none)'}; the equilibrium model, held, loses ${replaced}, while the running system, held, loses ${own ?? 'nothing of its own'} and ${replaced} keeps acting`,
       );
     }
-    const loops = x.settled.filter((s) => s !== v && feedbackSet(x.mechanism, s).includes(v));
+    const loops = x.settled.filter((s) => s !== v && feedbackSet(x.mechanism, s, x.settled).includes(v));
     for (const s of loops)
       lines.push(`${v} lies on the loop ${s} → … → ${v} → d(${s})/dt through which ${s} settles: holding ${v} breaks the feedback through which ${s} settles, so the system reaches a different equilibrium than the equilibrium model predicts${x.drift ? ', or none' : ''}`);
     if (x.settled.includes(v)) lines.push(`${v} settles at this interval, but held it no longer moves: its rate equation ${equationId.rate(v)} is gone from the running system, while the equilibrium model keeps it as a balance equation unless it pairs it with ${v}`);
