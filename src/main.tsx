@@ -6,6 +6,7 @@ import { startAnalysis } from './state/analysis';
 import { createAppCoreClient } from './worker/transport';
 import { documentStore } from './state/document';
 import type { Model } from './core/model/types';
+import { parseModel } from './core/model/schema';
 
 declare global {
   interface Window {
@@ -18,7 +19,15 @@ async function start() {
   await openInitialDocument();
   startAutosave();
   startAnalysis(createAppCoreClient());
-  window.__loopfold = { load: (m) => documentStore.getState().load(m), model: () => documentStore.getState().history.present };
+  window.__loopfold = {
+    load: (m) => {
+      // the hook takes the same road as a file: validated, never executed
+      const r = parseModel(m);
+      if (!r.ok) throw new Error(r.issues.map((i) => `${i.path}: ${i.message}`).join('; '));
+      documentStore.getState().load(r.model);
+    },
+    model: () => documentStore.getState().history.present,
+  };
   createRoot(document.getElementById('root')!).render(
     <StrictMode>
       <App />

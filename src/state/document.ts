@@ -17,6 +17,8 @@ export interface DocumentState {
   fileName?: string;
   /** The model as it was at the last open or save; `dirty` compares with it. */
   savedModel: Model | null;
+  /** Counts the documents loaded (open, new, example): views refit when it changes. */
+  generation: number;
   apply(change: Change | Change[], opts?: { squash?: string }): void;
   /** End the current gesture (pointer-down, blur): the next edit is a new undo step. */
   stopGesture(): void;
@@ -34,6 +36,7 @@ export function createDocumentStore(initial: Model = emptyModel()): DocumentStor
   return createStore<DocumentState>()((set, get) => ({
     history: startHistory(start),
     savedModel: start,
+    generation: 0,
     apply(change, opts) {
       const h = get().history;
       const list = Array.isArray(change) ? change : [change];
@@ -55,7 +58,7 @@ export function createDocumentStore(initial: Model = emptyModel()): DocumentStor
     },
     load(model, opts) {
       const m = withLinkIds(model);
-      set({ history: startHistory(m), fileName: opts?.fileName, savedModel: opts?.dirty ? null : m });
+      set((st) => ({ history: startHistory(m), fileName: opts?.fileName, savedModel: opts?.dirty ? null : m, generation: st.generation + 1 }));
     },
     markSaved(fileName) {
       set((s) => ({ savedModel: s.history.present, fileName: fileName ?? s.fileName }));

@@ -23,7 +23,9 @@ export function addVariable(kind: VariableKind = 'derived', at?: Position): stri
   const m = model();
   const id = freshId('v', usedIds(m));
   const n = m.variables.length + 1;
-  const p = at ?? viewCentre();
+  // several new variables at the view centre would hide each other: fan them out
+  const fan = (n % 6) * 28;
+  const p = at ?? { x: viewCentre().x + fan, y: viewCentre().y + fan };
   const v: Variable = { id, label: `Variable ${n}`, kind, position: { x: Math.round(p.x - 60), y: Math.round(p.y - 23) } };
   if (kind === 'state') v.timescale = '1 ' + m.timeUnit;
   documentStore.getState().stopGesture();

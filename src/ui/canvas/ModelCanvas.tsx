@@ -12,7 +12,7 @@ import {
   type FinalConnectionState,
   type NodeChange,
 } from '@xyflow/react';
-import { documentStore, editDocument, useModel } from '../../state/document';
+import { documentStore, editDocument, useDocument, useModel } from '../../state/document';
 import { selectionStore, useSelection } from '../../state/selection';
 import { KIND_SHAPE, ROLE_STYLE } from '../../theme/visual';
 import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
@@ -49,6 +49,16 @@ export function ModelCanvas() {
   const [nodes, setNodes] = useState<FlowNode[]>([]);
   const flow = useReactFlow();
   const wrapper = useRef<HTMLDivElement>(null);
+  // fit the view once per loaded document, not when the first node of an empty canvas appears
+  const generation = useDocument((s) => s.generation);
+  const [fitOnMount] = useState(() => model.variables.length > 0);
+  const fitted = useRef(generation);
+  useEffect(() => {
+    if (fitted.current === generation) return;
+    fitted.current = generation;
+    const t = setTimeout(() => void flow.fitView({ padding: 0.2, maxZoom: 1.2 }), 60);
+    return () => clearTimeout(t);
+  }, [generation, flow]);
 
   useEffect(() => {
     setNodes((prev) => buildNodes(model, undefined, badges, selectedNodes, prev));
@@ -138,7 +148,7 @@ export function ModelCanvas() {
         zoomOnDoubleClick={false}
         minZoom={0.1}
         maxZoom={3}
-        fitView
+        fitView={fitOnMount}
         fitViewOptions={{ padding: 0.2, maxZoom: 1.2 }}
         onlyRenderVisibleElements={model.variables.length > 200}
         attributionPosition="top-right"

@@ -1,0 +1,175 @@
+import { expect, test, type Page } from '@playwright/test';
+
+/** Centre of an element on the page. */
+async function centre(page: Page, selector: string): Promise<{ x: number; y: number }> {
+  const box = await page.locator(selector).boundingBox();
+  if (!box) throw new Error(`${selector} is not on the page`);
+  return { x: box.x + box.width / 2, y: box.y + box.height / 2 };
+}
+
+/** Draw a link with the mouse: from the connector on the right of one variable to the body of another. */
+async function dragLink(page: Page, from: string, to: string): Promise<void> {
+  const node = `.react-flow__node[data-id="${from}"]`;
+  await page.locator(node).hover();
+  const a = await centre(page, `${node} .lf-handle-out`);
+  const b = await centre(page, `.react-flow__node[data-id="${to}"]`);
+  await page.mouse.move(a.x, a.y);
+  await page.mouse.down();
+  await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 6 });
+  await page.mouse.move(b.x, b.y, { steps: 6 });
+  await page.mouse.up();
+}
+
+/** Wait until the document has been kept in IndexedDB. */
+async function waitForAutosave(page: Page): Promise<void> {
+  await expect(page.locator('.lf-status')).toContainText('kept in this browser');
+}
+
+async function shot(page: Page, path: string): Promise<void> {
+  await page.waitForTimeout(150);
+  await page.screenshot({ path });
+}
+
+test.describe('editing a model on the canvas', () => {
+  test('a new user builds a four-variable model with mouse and keyboard, fixes a formula, undoes, redoes and reloads', async ({ page }, testInfo) => {
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto('/');
+    await expect(page.getByText('An empty canvas.')).toBeVisible();
+    await shot(page, testInfo.outputPath('01-empty.png'));
+
+    const pane = await centre(page, '.react-flow__pane');
+    const inspector = page.locator('.lf-inspector');
+
+    // 1. double-click the empty canvas: a variable appears, selected, in the inspector
+    await page.mouse.dblclick(pane.x - 330, pane.y - 120);
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(1);
+    await inspector.getByLabel('Label', { exact: true }).fill('Irrigation');
+    await inspector.getByRole('radio', { name: /Input/ }).check();
+
+    // 2. second variable, a state with a timescale
+    await page.mouse.dblclick(pane.x - 60, pane.y - 120);
+    await inspector.getByLabel('Label', { exact: true }).fill('Soil water');
+    await inspector.getByRole('radio', { name: /State/ }).check();
+    await inspector.getByLabel('Timescale τ').fill('2 days');
+    await expect(inspector.getByText('= 2 days (48 h)')).toBeVisible();
+
+    // 3. third variable with the keyboard shortcut N (focus on the canvas, not in a field)
+    await page.mouse.click(pane.x + 250, pane.y + 160);
+    await page.keyboard.press('n');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(3);
+    await inspector.getByLabel('Label', { exact: true }).fill('Leaf wetness');
+    await inspector.getByLabel('Label', { exact: true }).press('Tab');
+
+    // 4. fourth variable from the toolbar, moved by dragging it
+    await page.getByRole('button', { name: '+ Variable' }).click();
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(4);
+    await inspector.getByLabel('Label', { exact: true }).fill('Fungal risk');
+    const v4 = await centre(page, '.react-flow__node[data-id="v4"]');
+    await page.mouse.move(v4.x, v4.y);
+    await page.mouse.down();
+    await page.mouse.move(pane.x + 260, pane.y - 10, { steps: 8 });
+    await page.mouse.up();
+    await shot(page, testInfo.outputPath('02-four-variables.png'));
+
+    // 5. links: three drawn with the mouse, one added from the inspector with the keyboard
+    await dragLink(page, 'v1', 'v2');
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(1);
+    await expect(inspector.getByRole('heading', { name: 'Link' })).toBeVisible();
+    // a link into a state integrates
+    await expect(inspector.getByRole('radio', { name: /Integrating/ })).toBeChecked();
+    await dragLink(page, 'v2', 'v3');
+    await dragLink(page, 'v3', 'v4');
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(3);
+    await page.locator('.react-flow__node[data-id="v2"]').click();
+    await inspector.getByLabel('New link to').selectOption({ label: 'Fungal risk' });
+    await inspector.getByRole('button', { name: 'Add link' }).click();
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(4);
+    await inspector.getByRole('radio', { name: /decreases/ }).check();
+    await expect(page.locator('.lf-sign.is-minus')).toHaveCount(1);
+
+    // 6. a formula with a syntax error: the message says where; then an unknown name; then fixed
+    await page.locator('.react-flow__node[data-id="v4"]').click();
+    const formula = inspector.getByLabel('Formula', { exact: true });
+    await formula.fill('v3 * (0.5 + ');
+    await expect(inspector.getByRole('alert')).toContainText('syntax error');
+    await expect(inspector.locator('.lf-caret')).toBeVisible();
+    await expect(page.locator('.react-flow__node[data-id="v4"] .lf-badge.is-error')).toBeVisible();
+    await shot(page, testInfo.outputPath('03-formula-error.png'));
+    await formula.fill('v3 * (0.5 + humidity)');
+    await expect(inspector.getByRole('alert')).toContainText('unknown name: humidity');
+    await formula.fill('v3 * (0.5 + v2)');
+    await expect(inspector.getByRole('alert')).toHaveCount(0);
+    await expect(inspector.getByRole('button', { name: 'Soil water', exact: true })).toBeVisible(); // symbols used, as links
+    await expect(page.locator('.react-flow__node[data-id="v4"] .lf-badge.is-error')).toHaveCount(0);
+    await formula.blur();
+    await shot(page, testInfo.outputPath('04-formula-fixed.png'));
+
+    // 7. undo and redo from the keyboard: typing the formula was one step
+    await page.mouse.click(pane.x + 300, pane.y + 200);
+    await page.keyboard.press('Control+z');
+    await page.locator('.react-flow__node[data-id="v4"]').click();
+    await expect(inspector.getByLabel('Formula', { exact: true })).toHaveValue('');
+    await page.mouse.click(pane.x + 300, pane.y + 200);
+    await page.keyboard.press('Control+z'); // the sign of the last link
+    await expect(page.locator('.lf-sign.is-minus')).toHaveCount(0);
+    await page.keyboard.press('Control+Shift+z');
+    await expect(page.locator('.lf-sign.is-minus')).toHaveCount(1);
+    await page.keyboard.press('Control+y');
+    await page.locator('.react-flow__node[data-id="v4"]').click();
+    await expect(inspector.getByLabel('Formula', { exact: true })).toHaveValue('v3 * (0.5 + v2)');
+    await shot(page, testInfo.outputPath('05-after-redo.png'));
+
+    // 8. reload: the model is restored from the browser's storage
+    await waitForAutosave(page);
+    const before = await page.evaluate(() => window.__loopfold!.model());
+    await page.reload();
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(4);
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(4);
+    expect(await page.evaluate(() => window.__loopfold!.model())).toEqual(before);
+    await expect(page.locator('[aria-label="Fungal risk: derived variable"]')).toHaveCount(1);
+    await shot(page, testInfo.outputPath('06-after-reload.png'));
+    expect(errors).toEqual([]);
+  });
+
+  test('a variable whose incoming links are of mixed kind is flagged with how to fix it; clicking the check selects it', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    // make one of the two instantaneous links into the derived "rumination" integrating: its incoming links are now mixed
+    const inspector = page.locator('.lf-inspector');
+    await page.locator('.react-flow__node[data-id="rumination"]').click();
+    await inspector.getByRole('button', { name: 'from Stress' }).click();
+    await expect(inspector.getByRole('heading', { name: 'Link' })).toBeVisible();
+    await inspector.getByRole('radio', { name: /Integrating/ }).check();
+    const check = page.locator('.lf-diag', { hasText: 'mixed kind' });
+    await expect(check).toBeVisible();
+    await expect(check).toContainText('make rumination a state, or mark the links instantaneous');
+    await expect(page.locator('.react-flow__node[data-id="rumination"] .lf-badge')).toBeVisible();
+    await page.mouse.click(5, 400); // nothing selected
+    await check.getByRole('button').click();
+    await expect(page.locator('.react-flow__node[data-id="rumination"]')).toHaveClass(/selected/);
+    await shot(page, testInfo.outputPath('mixed-links.png'));
+  });
+
+  test('copy, paste, select all, delete and the legend work from the keyboard', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.locator('.react-flow__node[data-id="stress"]').click();
+    await page.locator('.react-flow__node[data-id="cortisol"]').click({ modifiers: ['Shift'] });
+    await page.keyboard.press('Control+c');
+    await page.keyboard.press('Control+v');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(9);
+    // the copied link between the two comes along
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(12);
+    await page.keyboard.press('Delete');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.keyboard.press('Control+z');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(9);
+    await page.getByRole('button', { name: /Notation/ }).click();
+    await expect(page.getByText('integrating link')).toHaveCount(0);
+    await page.getByRole('button', { name: /Notation/ }).click();
+    await expect(page.getByText(/integrating link/)).toBeVisible();
+    await page.keyboard.press('f');
+    await shot(page, testInfo.outputPath('pasted.png'));
+  });
+});
