@@ -1,0 +1,73 @@
+/**
+ * The commutation panel: at the current sampling interval, does holding the
+ * chosen variables and letting the fast states settle give the same
+ * structure in either order? Shows the verdict with a glyph and words (not
+ * colour alone), the reasons, ambiguity and drift, and the differing links.
+ */
+import { useMemo } from 'react';
+import type { Model } from '../../core/model/types';
+import { formatDuration } from '../../core/model/units';
+import type { StudyDesign } from '../../core/ordering/types';
+import { commutationAt, type Commutation } from '../../core/interventions/index';
+import { useAnalysisState } from '../../state/analysis';
+import { useValidatedModel } from '../../state/document';
+import './interventions.css';
+
+export function CommutationPanel() {
+  const model = useValidatedModel();
+  const design = useAnalysisState((s) => s.design);
+  if (!model) return <section className="lf-commute" aria-label="Hold and settle"><p>Fix the model's problems first.</p></section>;
+  return <CommutationPanelFor model={model} design={design} />;
+}
+
+type Outcome = { ok: true; result: Commutation } | { ok: false; message: string };
+
+export function CommutationPanelFor({ model, design }: { model: Model; design: StudyDesign }) {
+  const holds = design.hold ?? {};
+  const held = Object.keys(holds);
+  const outcome = useMemo<Outcome | null>(() => {
+    if (held.length === 0 || design.interval === undefined) return null;
+    try {
+      return { ok: true, result: commutationAt(model, design) };
+    } catch (e) {
+      return { ok: false, message: (e as Error).message };
+    }
+  }, [model, design]); // eslint-disable-line react-hooks/exhaustive-deps
+  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  if (held.length === 0) return <section className="lf-commute" aria-label="Hold and settle"><p>Hold a variable to compare holding it before and after the fast states settle.</p></section>;
+  if (design.interval === undefined || !outcome) return <section className="lf-commute" aria-label="Hold and settle"><p>Choose a sampling interval to compare the two orders.</p></section>;
+  if (!outcome.ok) return <section className="lf-commute" aria-label="Hold and settle"><p role="alert">{outcome.message}</p></section>;
+  const c = outcome.result;
+  return (
+    <section className="lf-commute" aria-label="Hold and settle">
+      <h3>Hold then settle, or settle then hold?</h3>
+      <p className="lf-commute-where">Holding {held.map((h) => `${label(h)} = ${holds[h]}`).join(', ')}, sampled every {formatDuration(design.interval, model.timeUnit)}.</p>
+      <p className={c.agree ? 'lf-commute-verdict lf-agree' : 'lf-commute-verdict lf-differ'} data-agree={c.agree}>
+        <span aria-hidden="true">{c.agree ? '=' : '≠'}</span> {c.agree ? 'The two orders agree.' : 'The two orders differ.'}
+      </p>
+      <ul className="lf-commute-why">{c.explanation.map((l, i) => <li key={i}>{l}</li>)}</ul>
+      {c.ambiguous.length > 0 && (
+        <div className="lf-commute-ambiguous">
+          <h4>Ambiguous in the equilibrium model</h4>
+          <ul>{c.ambiguous.map((a) => <li key={a.variable}>{label(a.variable)}: any of {a.candidates.join(', ')} could be replaced (shown: {a.chosen})</li>)}</ul>
+        </div>
+      )}
+      {c.drift && <p className="lf-commute-drift" role="note"><span aria-hidden="true">↗</span> {c.drift.message}</p>}
+      {c.differences.some((d) => d.kind === 'edge') && (
+        <table className="lf-commute-diff">
+          <caption>Links that differ</caption>
+          <thead><tr><th>link</th><th>only in</th><th>why</th></tr></thead>
+          <tbody>
+            {c.differences.filter((d) => d.kind === 'edge').map((d, i) => (
+              <tr key={i}>
+                <td>{label(d.edge!.from)} {d.edge!.kind === 'integrating' ? '⇒' : '→'} {label(d.edge!.to)}</td>
+                <td>{d.only === 'holdThenSettle' ? 'hold then settle (the running system)' : 'settle then hold (the equilibrium model)'}</td>
+                <td>{d.reason}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,105 @@
+// @vitest-environment happy-dom
+import { afterEach, describe, expect, it } from 'vitest';
+import { act } from 'react';
+import { createRoot, type Root } from 'react-dom/client';
+import { renderToStaticMarkup } from 'react-dom/server';
+import { CommutationPanelFor, HoldControl } from '../../../src/ui/interventions/index';
+import { holdStore, startHoldSync } from '../../../src/ui/interventions/holds';
+import { analysisStore, setStudyDesign } from '../../../src/state/analysis';
+import { documentStore } from '../../../src/state/document';
+import { parseModel } from '../../../src/core/model/schema';
+import greenhouse from '../../../src/examples/greenhouse.json';
+
+(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
+
+const model = (() => {
+  const r = parseModel(greenhouse);
+  if (!r.ok) throw new Error('example does not load');
+  return r.model;
+})();
+
+let root: Root | null = null;
+let host: HTMLElement | null = null;
+afterEach(() => {
+  act(() => root?.unmount());
+  host?.remove();
+  root = null;
+  holdStore.getState().releaseAll();
+  setStudyDesign({});
+});
+
+function mount(node: React.ReactNode) {
+  host = document.createElement('div');
+  document.body.append(host);
+  root = createRoot(host);
+  act(() => root!.render(node));
+  return host;
+}
+
+describe('HoldControl', () => {
+  it('holds the chosen variable at the typed value and puts it into the study design', () => {
+    act(() => documentStore.getState().load(model));
+    const el = mount(<HoldControl />);
+    const select = el.querySelector('select')!;
+    const input = el.querySelector('input')!;
+    act(() => {
+      select.value = 'heater';
+      select.dispatchEvent(new Event('change', { bubbles: true }));
+    });
+    act(() => {
+      const set = Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, 'value')!.set!;
+      set.call(input, '0');
+      input.dispatchEvent(new Event('input', { bubbles: true }));
+    });
+    act(() => el.querySelector('form')!.dispatchEvent(new Event('submit', { bubbles: true, cancelable: true })));
+    expect(holdStore.getState().holds).toEqual({ heater: 0 });
+    expect(analysisStore.getState().design.hold).toEqual({ heater: 0 });
+    expect(el.textContent).toMatch(/Heating power = 0/);
+    // Another writer of the design (the interval control) sets it without holds: they come back.
+    act(() => setStudyDesign({ interval: 60, samples: 50 }));
+    expect(analysisStore.getState().design).toEqual({ interval: 60, samples: 50, hold: { heater: 0 } });
+    act(() => (el.querySelector('button[aria-label="Release Heating power"]') as HTMLButtonElement).click());
+    expect(analysisStore.getState().design.hold).toBeUndefined();
+  });
+
+  it('refuses a value that is not a number, in words', () => {
+    act(() => documentStore.getState().load(model));
+    const el = mount(<HoldControl />);
+    const input = el.querySelector('input')!;
+    act(() => {
+      const set = Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, 'value')!.set!;
+      set.call(input, 'warm');
+      input.dispatchEvent(new Event('input', { bubbles: true }));
+    });
+    expect(el.querySelector('[role="alert"]')!.textContent).toMatch(/must be a number/);
+    expect((el.querySelector('button[type="submit"]') as HTMLButtonElement).disabled).toBe(true);
+  });
+});
+
+describe('CommutationPanel', () => {
+  it('shows the verdict in words and glyph, the ambiguity and the differing links (greenhouse heater held, hourly)', () => {
+    const html = renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 60, samples: 50, hold: { heater: 0 } }} />);
+    expect(html).toMatch(/The two orders differ\./);
+    expect(html).toContain('≠');
+    expect(html).toMatch(/Ambiguous in the equilibrium model/);
+    expect(html).toMatch(/Links that differ/);
+  });
+
+  it('says the orders agree where nothing settles (every minute)', () => {
+    const html = renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 1, samples: 50, hold: { heater: 0 } }} />);
+    expect(html).toMatch(/The two orders agree\./);
+  });
+
+  it('asks for a hold first', () => {
+    expect(renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 60 }} />)).toMatch(/Hold a variable/);
+  });
+
+  it('the hold sync stops when asked', () => {
+    const stop = startHoldSync();
+    holdStore.getState().setHold('vent', 1);
+    expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
+    stop();
+    holdStore.getState().setHold('vent', 2);
+    expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
+  });
+});
