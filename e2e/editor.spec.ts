@@ -172,4 +172,31 @@ test.describe('editing a model on the canvas', () => {
     await page.keyboard.press('f');
     await shot(page, testInfo.outputPath('pasted.png'));
   });
+
+  test('a relation joins its variables on the canvas and appears in the equations view with the matching', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.getByRole('button', { name: '+ Relation' }).click();
+    const inspector = page.locator('.lf-inspector');
+    const eq = inspector.getByLabel('Equation', { exact: true });
+    await eq.fill('rumination * 2 = mood +');
+    await expect(inspector.getByRole('alert')).toContainText('syntax error');
+    await eq.fill('rumination * 2 = mood + coping');
+    await expect(inspector.getByRole('alert')).toHaveCount(0);
+    // one dotted member line per variable of the relation
+    await expect(page.locator('.react-flow__edge-member')).toHaveCount(3);
+    await page.getByRole('tab', { name: 'Equations' }).click();
+    const grid = page.locator('.lf-grid');
+    await expect(grid).toBeVisible();
+    await expect(grid.getByRole('button', { name: 'rel1' })).toBeVisible();
+    await expect(grid.getByRole('button', { name: 'rate(stress)' })).toBeVisible();
+    // the grid marks each matched pair once: never more rings than equations or unknowns
+    const rings = await grid.locator('td.is-match').count();
+    const rows = await grid.locator('tbody tr').count();
+    expect(rings).toBeGreaterThan(0);
+    expect(rings).toBeLessThanOrEqual(rows);
+    await shot(page, testInfo.outputPath('equations.png'));
+    await grid.getByRole('button', { name: 'rel1' }).click();
+    await expect(page.locator('.react-flow__node[data-id="rel1"]')).toHaveClass(/selected/);
+  });
 });

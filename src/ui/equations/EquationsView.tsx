@@ -2,11 +2,13 @@ import { useModel } from '../../state/document';
 import { useAnalysisState } from '../../state/analysis';
 import { selectionStore } from '../../state/selection';
 import { nodeOfEquation } from '../diagnostics/collect';
+import { MatchingGrid } from './MatchingGrid';
 
 /** The equation–variable structure: which equations determine which variables, block by block, in causal order. */
 export function EquationsView() {
   const model = useModel();
   const ordering = useAnalysisState((s) => s.analysis?.ordering);
+  const matching = useAnalysisState((s) => s.analysis?.matching);
   const status = useAnalysisState((s) => s.status);
   const message = useAnalysisState((s) => s.message);
   const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
@@ -14,7 +16,9 @@ export function EquationsView() {
   const blocks = [...ordering.blocks].sort((a, b) => a.level - b.level);
   return (
     <section className="lf-equations" aria-labelledby="lf-eq-title">
-      <h2 id="lf-eq-title">Equations and what they determine</h2>
+      <h2 id="lf-eq-title">Equations and unknowns</h2>
+      {matching && <MatchingGrid matching={matching} />}
+      <h2>Blocks in causal order</h2>
       <p className="lf-hint">Each row is a block of the causal ordering: its equations are matched to the variables they determine. Level 0 blocks depend on nothing else.</p>
       <table>
         <thead>
