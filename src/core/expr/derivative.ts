@@ -45,7 +45,7 @@ export function partials(node: MathNode, symbols: readonly string[], slots: Slot
     const slot = slots.get(symbol);
     if (slot === undefined) continue;
     const fd = finiteDifference(value, slot);
-    let symbolicFn: CompiledExpression | null = null;
+    let symbolicFn: CompiledExpression | null;
     try {
       const d = math.derivative(node, symbol, { simplify: false }) as MathNode;
       symbolicFn = compileExpression(d, slots);

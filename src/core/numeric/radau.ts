@@ -294,7 +294,7 @@ export function integrateRadau(problem: OdeProblem, t0: number, y0: Float64Array
         else Z[s].fill(0);
       }
       for (let i = 0; i < n; i++) scale[i] = atol[i] + Math.abs(y[i]) * rtol;
-      let converged = false;
+      let converged: boolean;
       for (;;) {
         if (luR === null || luC === null) {
           if (!factor(h)) { converged = false; luR = null; luC = null; break; }
