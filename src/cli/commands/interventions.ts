@@ -9,6 +9,7 @@ import { formatDuration } from '../../core/model/units';
 import type { Ordering, StudyDesign } from '../../core/ordering/types';
 import { commutationAt, InterventionError, perfectAdaptation, type Commutation } from '../../core/interventions/index';
 import { buildReport } from '../../report/html';
+import { bandsCsv, breakpointsCsv } from '../../report/tables';
 import { layoutInNode } from '../../layout/node';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -119,20 +120,31 @@ export const interventionCommands: CliCommand[] = [
   {
     name: 'report',
     summary: 'a self-contained, printable HTML report of the interval axis, band by band',
-    usage: 'MODEL.json --out report.html [--window W | --samples N] [--hold x=v] [--no-figures]',
-    options: { out: true, window: true, samples: true, hold: true, 'no-figures': false },
+    usage: 'MODEL.json --out report.html [--window W | --samples N] [--hold x=v] [--no-figures] [--bands-csv bands.csv] [--breakpoints-csv breakpoints.csv]',
+    options: { out: true, window: true, samples: true, hold: true, 'no-figures': false, 'bands-csv': true, 'breakpoints-csv': true },
     async run(args, io) {
       const model = loadModel(args, io);
       const out = args.options.out;
       if (out === undefined || out === true) throw new CliError('name the output file, e.g. --out report.html', 2);
       const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : undefined;
-      const html = await buildReport(model, { ...studyOptions(args, model), hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
-      try {
-        io.writeFile(out, html);
-      } catch (e) {
-        throw new CliError(`cannot write ${out}: ${(e as Error).message}`);
+      const study = studyOptions(args, model);
+      const html = await buildReport(model, { ...study, hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
+      const write = (path: string, text: string) => {
+        try {
+          io.writeFile(path, text);
+        } catch (e) {
+          throw new CliError(`cannot write ${path}: ${(e as Error).message}`);
+        }
+        io.out(`wrote ${path} (${text.length} characters)`);
+      };
+      write(out, html);
+      const axis = study.window !== undefined ? { window: study.window } : { samples: study.samples ?? model.settings?.samples };
+      for (const [opt, table] of [['bands-csv', bandsCsv], ['breakpoints-csv', breakpointsCsv]] as const) {
+        const path = args.options[opt];
+        if (path === undefined) continue;
+        if (path === true) throw new CliError(`--${opt} needs a file name`, 2);
+        write(path, table(model, axis));
       }
-      io.out(`wrote ${out} (${html.length} characters)`);
       return 0;
     },
   },
