@@ -84,12 +84,12 @@ function find(parent: Int32Array, a: number): number {
 }
 
 /** Stable counting sort of `items` by key[item] ∈ [0, range). */
-function countingSort(items: Int32Array, key: (i: number) => number, range: number): Int32Array {
+function countingSort(items: Int32Array, key: Int32Array, range: number): Int32Array {
   const count = new Int32Array(range + 1);
-  for (let i = 0; i < items.length; i++) count[key(items[i]) + 1]++;
+  for (let i = 0; i < items.length; i++) count[key[items[i]] + 1]++;
   for (let k = 0; k < range; k++) count[k + 1] += count[k];
   const out = new Int32Array(items.length);
-  for (let i = 0; i < items.length; i++) out[count[key(items[i])]++] = items[i];
+  for (let i = 0; i < items.length; i++) out[count[key[items[i]]]++] = items[i];
   return out;
 }
 
@@ -221,9 +221,30 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
       if (!(minKey[b] < k)) minKey[b] = k;
     }
   }
-  const order = Array.from({ length: nb }, (_, b) => b).sort((a, b) => lv[a] - lv[b] || minKey[a] - minKey[b]);
+  // Keys are columns (integers) or, for blocks without columns, a half-integer or nv + row: rank them, then
+  // stable counting sorts by key and by level.
+  const keyRank = new Int32Array(nb);
+  {
+    const all = Float64Array.from(minKey).sort();
+    for (let b = 0; b < nb; b++) {
+      let lo = 0;
+      let hi = nb;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (all[mid] < minKey[b]) lo = mid + 1;
+        else hi = mid;
+      }
+      keyRank[b] = lo;
+    }
+  }
+  let maxLevel = 0;
+  for (let b = 0; b < nb; b++) if (lv[b] > maxLevel) maxLevel = lv[b];
+  let order: Int32Array = new Int32Array(nb);
+  for (let b = 0; b < nb; b++) order[b] = b;
+  order = countingSort(order, keyRank, nb);
+  order = countingSort(order, lv, maxLevel + 1);
   const renum = new Int32Array(nb);
-  order.forEach((old, i) => { renum[old] = i; });
+  for (let i = 0; i < nb; i++) renum[order[i]] = i;
   const level = new Int32Array(nb);
   const determination = new Uint8Array(nb);
   for (let b = 0; b < nb; b++) { level[renum[b]] = lv[b]; determination[renum[b]] = det[b]; }
@@ -274,10 +295,8 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
   }
   let idx: Int32Array = new Int32Array(n);
   for (let i = 0; i < n; i++) idx[i] = i;
-  const fromA = eFrom;
-  const toA = eTo;
-  idx = countingSort(idx, (i) => fromA[i], nv);
-  idx = countingSort(idx, (i) => toA[i], nv);
+  idx = countingSort(idx, eFrom, nv);
+  idx = countingSort(idx, eTo, nv);
   let w = 0;
   const oFrom = new Int32Array(n);
   const oTo = new Int32Array(n);
@@ -332,38 +351,50 @@ function lowerBound(ids: string[], key: string): number {
  */
 export function causalOrder(system: EquationSystem, options: CausalOrderOptions = {}): CausalOrder {
   // Rank equations and variables in id order; all later work is on the ranks.
+  const ne = system.equations.length;
   const eqIds = system.equations.map((e) => e.id).sort();
-  for (let i = 1; i < eqIds.length; i++) if (eqIds[i] === eqIds[i - 1]) throw new Error(`equation id "${eqIds[i]}" is used twice`);
+  for (let i = 1; i < ne; i++) if (eqIds[i] === eqIds[i - 1]) throw new Error(`equation id "${eqIds[i]}" is used twice`);
   const eqRank = new Map<string, number>();
-  for (let i = 0; i < eqIds.length; i++) eqRank.set(eqIds[i], i);
-  const varIndex = new Map<string, number>();
+  for (let i = 0; i < ne; i++) eqRank.set(eqIds[i], i);
+  // Variables: number them in order of first mention, then rank the numbers by id.
+  const firstSeen = new Map<string, number>();
   const seen: string[] = [];
-  const note = (v: string) => { if (!varIndex.has(v)) { varIndex.set(v, 0); seen.push(v); } };
-  for (const v of system.exogenous ?? []) note(v);
-  for (const e of system.equations) for (const v of e.variables) note(v);
-  for (const v of system.variables ?? []) note(v);
-  const varIds = seen.sort();
-  for (let i = 0; i < varIds.length; i++) varIndex.set(varIds[i], i);
-  const ne = eqIds.length;
-  const nv = varIds.length;
-  const exogenous = new Uint8Array(nv);
-  for (const v of system.exogenous ?? []) exogenous[varIndex.get(v)!] = 1;
+  const mention = (v: string): number => {
+    let i = firstSeen.get(v);
+    if (i === undefined) {
+      i = seen.length;
+      firstSeen.set(v, i);
+      seen.push(v);
+    }
+    return i;
+  };
+  const exoList = system.exogenous ?? [];
+  for (const v of exoList) mention(v);
   const byRank: EquationSystem['equations'] = new Array(ne);
   for (const e of system.equations) byRank[eqRank.get(e.id)!] = e;
-  const rowPtr = new Int32Array(ne + 1);
   let total = 0;
   for (let r = 0; r < ne; r++) total += byRank[r].variables.length;
+  const raw = new Int32Array(total);
+  for (let r = 0, p = 0; r < ne; r++) for (const v of byRank[r].variables) raw[p++] = mention(v);
+  for (const v of system.variables ?? []) mention(v);
+  const varIds = [...seen].sort();
+  const nv = varIds.length;
+  const rankOf = new Int32Array(nv);
+  for (let i = 0; i < nv; i++) rankOf[firstSeen.get(varIds[i])!] = i;
+  const exogenous = new Uint8Array(nv);
+  for (let i = 0; i < exoList.length; i++) exogenous[rankOf[firstSeen.get(exoList[i])!]] = 1;
+  const rowPtr = new Int32Array(ne + 1);
   const colIdx = new Int32Array(total);
   let p = 0;
-  for (let r = 0; r < ne; r++) {
+  for (let r = 0, q = 0; r < ne; r++) {
     const start = p;
-    for (const v of byRank[r].variables) {
-      const c = varIndex.get(v)!;
+    for (let n = byRank[r].variables.length; n > 0; n--) {
+      const c = rankOf[raw[q++]];
       // insertion into the sorted segment, skipping repeats (rows are short)
       let j = p - 1;
       while (j >= start && colIdx[j] > c) j--;
       if (j >= start && colIdx[j] === c) continue;
-      for (let q = p; q > j + 1; q--) colIdx[q] = colIdx[q - 1];
+      for (let k = p; k > j + 1; k--) colIdx[k] = colIdx[k - 1];
       colIdx[j + 1] = c;
       p++;
     }

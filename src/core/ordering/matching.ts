@@ -62,7 +62,29 @@ function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array)
   for (let c = 0; c < cols; c++) if (colDeg[c] === 1) stack[sp++] = ~c;
   for (let r = 0; r < rows; r++) if (rowDeg[r] === 1) stack[sp++] = r;
   let size = 0;
-  const match = (r: number, c: number): void => {
+  let scan = 0;
+  for (;;) {
+    // Pick a pair: a forced one from the stack if any, else the next free row greedily.
+    let r = -1;
+    let c = -1;
+    while (sp > 0 && r < 0) {
+      const x = stack[--sp];
+      if (x >= 0) {
+        if (rowMate[x] >= 0) continue;
+        for (let k = rowPtr[x]; k < rowPtr[x + 1]; k++) if (colMate[colIdx[k]] < 0) { r = x; c = colIdx[k]; break; }
+      } else {
+        const y = ~x;
+        if (colMate[y] >= 0) continue;
+        for (let k = colPtr[y]; k < colPtr[y + 1]; k++) if (rowMate[rowIdx[k]] < 0) { r = rowIdx[k]; c = y; break; }
+      }
+    }
+    if (r < 0) {
+      while (scan < rows && rowMate[scan] >= 0) scan++;
+      if (scan >= rows) break;
+      const x = scan++;
+      for (let k = rowPtr[x]; k < rowPtr[x + 1]; k++) if (colMate[colIdx[k]] < 0) { r = x; c = colIdx[k]; break; }
+      if (r < 0) continue;
+    }
     rowMate[r] = c;
     colMate[c] = r;
     size++;
@@ -74,24 +96,6 @@ function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array)
       const r2 = rowIdx[k];
       if (rowMate[r2] < 0 && --rowDeg[r2] === 1) stack[sp++] = r2;
     }
-  };
-  let scan = 0;
-  for (;;) {
-    while (sp > 0) {
-      const x = stack[--sp];
-      if (x >= 0) {
-        if (rowMate[x] >= 0) continue;
-        for (let k = rowPtr[x]; k < rowPtr[x + 1]; k++) if (colMate[colIdx[k]] < 0) { match(x, colIdx[k]); break; }
-      } else {
-        const c = ~x;
-        if (colMate[c] >= 0) continue;
-        for (let k = colPtr[c]; k < colPtr[c + 1]; k++) if (rowMate[rowIdx[k]] < 0) { match(rowIdx[k], c); break; }
-      }
-    }
-    while (scan < rows && rowMate[scan] >= 0) scan++;
-    if (scan >= rows) break;
-    const r = scan++;
-    for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) if (colMate[colIdx[k]] < 0) { match(r, colIdx[k]); break; }
   }
   return size;
 }
