@@ -150,7 +150,6 @@ export function ModelCanvas() {
         maxZoom={3}
         fitView={fitOnMount}
         fitViewOptions={{ padding: 0.2, maxZoom: 1.2 }}
-        onlyRenderVisibleElements={model.variables.length > 200}
         attributionPosition="top-right"
         ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' }}
       >
