@@ -154,6 +154,17 @@ test.describe('editing a model on the canvas', () => {
   test('copy, paste, select all, delete and the legend work from the keyboard', async ({ page }, testInfo) => {
     await page.goto('/?example=sleep-stress');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    // a mouse drag of many small moves is one undo step
+    const pos = () => page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'coping')!.position!);
+    const start = await pos();
+    const c = await centre(page, '.react-flow__node[data-id="coping"]');
+    await page.mouse.move(c.x, c.y);
+    await page.mouse.down();
+    for (let i = 1; i <= 10; i++) await page.mouse.move(c.x + 12 * i, c.y - 5 * i);
+    await page.mouse.up();
+    await expect.poll(pos).not.toEqual(start);
+    await page.keyboard.press('Control+z');
+    await expect.poll(pos).toEqual(start);
     await page.locator('.react-flow__node[data-id="stress"]').click();
     await page.locator('.react-flow__node[data-id="cortisol"]').click({ modifiers: ['Shift'] });
     await page.keyboard.press('Control+c');
@@ -198,5 +209,26 @@ test.describe('editing a model on the canvas', () => {
     await shot(page, testInfo.outputPath('equations.png'));
     await grid.getByRole('button', { name: 'rel1' }).click();
     await expect(page.locator('.react-flow__node[data-id="rel1"]')).toHaveClass(/selected/);
+  });
+
+  test('a variable can be reached, moved and deleted with the keyboard alone', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    const before = await page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'workload')!.position!);
+    const node = page.locator('.react-flow__node[data-id="workload"]');
+    await node.focus();
+    await page.keyboard.press('Enter'); // select the focused variable
+    await expect(node).toHaveClass(/selected/);
+    await expect(page.locator('.lf-inspector h2')).toHaveText('Variable: Workload');
+    for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowRight');
+    await expect.poll(() => page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'workload')!.position!.x)).toBeGreaterThan(before.x);
+    await page.keyboard.press('Control+z'); // the three steps are one move
+    await expect.poll(() => page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'workload')!.position!.x)).toBe(before.x);
+    await node.focus();
+    await page.keyboard.press('Enter');
+    await page.keyboard.press('Delete');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(6);
+    await expect(page.locator('.react-flow__edge-link')).toHaveCount(10);
+    await shot(page, testInfo.outputPath('keyboard-delete.png'));
   });
 });

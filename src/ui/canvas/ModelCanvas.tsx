@@ -11,6 +11,8 @@ import {
   type EdgeChange,
   type FinalConnectionState,
   type NodeChange,
+  type NodePositionChange,
+  type XYPosition,
 } from '@xyflow/react';
 import { documentStore, editDocument, useDocument, useModel } from '../../state/document';
 import { selectionStore, useSelection } from '../../state/selection';
@@ -82,6 +84,13 @@ export function ModelCanvas() {
       if (!sameList(next, s.nodes)) s.select({ nodes: next, links: s.links });
     }
     setNodes((nds) => applyNodeChanges(changes.filter((c) => c.type !== 'remove'), nds));
+    // a position that is no longer moving (end of a drag, an arrow-key step) goes to the document;
+    // positions during a drag stay on the canvas, so a drag is one undo step
+    const settled = changes.filter((c): c is NodePositionChange & { position: XYPosition } => c.type === 'position' && c.dragging === false && c.position !== undefined);
+    if (settled.length > 0) {
+      const positions = Object.fromEntries(settled.map((c) => [c.id, c.position]));
+      editDocument({ type: 'move', positions }, { squash: `move:${Object.keys(positions).sort().join(',')}` });
+    }
   }, []);
   const onEdgesChange = useCallback((changes: EdgeChange[]) => {
     const picks = changes.filter((c) => c.type === 'select');
@@ -91,11 +100,7 @@ export function ModelCanvas() {
     if (!sameList(next, s.links)) s.select({ nodes: s.nodes, links: next });
   }, []);
   const onNodeDragStart = useCallback(() => documentStore.getState().stopGesture(), []);
-  const onNodeDragStop = useCallback((_e: unknown, _n: FlowNode, dragged: FlowNode[]) => {
-    const positions = Object.fromEntries(dragged.map((d) => [d.id, d.position]));
-    editDocument({ type: 'move', positions });
-    documentStore.getState().stopGesture();
-  }, []);
+  const onNodeDragStop = useCallback(() => documentStore.getState().stopGesture(), []);
   const onDelete = useCallback(() => deleteSelection(), []);
   const onConnectEnd = useCallback((event: MouseEvent | TouchEvent, state: FinalConnectionState) => {
     const from = state.fromNode?.id;
