@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
 
 test('the app loads the sleep–stress example without console errors', async ({ page }, testInfo) => {
@@ -12,4 +13,32 @@ test('the app loads the sleep–stress example without console errors', async ({
   await expect(page.getByText('Results are hypotheses')).toBeVisible();
   await page.screenshot({ path: testInfo.outputPath('app.png') });
   expect(errors).toEqual([]);
+});
+
+test('the gallery lists every example; opening one replaces the canvas and shows its caution only when it has one', async ({ page }, testInfo) => {
+  await page.goto('/');
+  await page.getByRole('button', { name: 'Examples' }).click();
+  const gallery = page.getByRole('dialog', { name: 'Examples' });
+  await expect(gallery).toBeVisible();
+  // the registry's titles and ids, read from its source (the JSON models need a bundler to import)
+  const source = readFileSync(new URL('../src/examples/index.ts', import.meta.url), 'utf8');
+  const EXAMPLES = [...source.matchAll(/id: '([^']+)',\s*title: '([^']+)'/g)].map((m) => ({ id: m[1], title: m[2] }));
+  expect(EXAMPLES.length).toBeGreaterThan(0);
+  await expect(gallery.locator('.lf-gallery li')).toHaveCount(EXAMPLES.length);
+  for (const e of EXAMPLES) await expect(gallery.getByRole('heading', { name: e.title })).toBeVisible();
+  await page.screenshot({ path: testInfo.outputPath('gallery.png') });
+  const other = EXAMPLES.find((e) => e.id !== 'sleep-stress');
+  if (other) {
+    await gallery.getByRole('button', { name: `Open the example ${other.title}` }).click();
+    await expect(gallery).toBeHidden();
+    await expect(page.locator('.react-flow__node-variable').first()).toBeVisible();
+    const hasCaution = await page.evaluate(() => window.__loopfold!.model().caution !== undefined);
+    await expect(page.getByRole('note', { name: 'Caution' })).toHaveCount(hasCaution ? 1 : 0);
+    await page.screenshot({ path: testInfo.outputPath(`${other.id}.png`) });
+  }
+  await page.getByRole('button', { name: 'Examples' }).click();
+  await gallery.getByRole('button', { name: 'Open the example Sleep, stress and mood' }).click();
+  await expect(page.getByRole('note', { name: 'Caution' })).toContainText('no clinical advice');
+  await page.getByRole('tab', { name: 'Timescales' }).click();
+  await page.screenshot({ path: testInfo.outputPath('timescales-tab.png') });
 });

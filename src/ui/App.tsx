@@ -11,14 +11,16 @@ import { CautionBanner } from './CautionBanner';
 import { Toast } from './Toast';
 import { IntervalStrip } from './interval/IntervalStrip';
 import { useShortcuts } from './useShortcuts';
+import { useUi } from '../state/ui';
 
 function Shell() {
   useShortcuts();
+  const wide = useUi((s) => s.pane !== 'edit');
   return (
     <div className="lf-app">
       <TopBar />
       <CautionBanner />
-      <main className="lf-main">
+      <main className={`lf-main${wide ? ' is-wide' : ''}`}>
         <div className="lf-left">
           <ModelCanvas />
           <div id="interval-strip">
