@@ -262,16 +262,41 @@ function reach(edges: OrderingEdge[], from: VariableId[], reverse = false): Set<
  * loop may pass through them. Holding a member cuts the loop through which
  * x settles. Example: for x′ = u − q, p = f(x), q = g(p), the set of x is {p, q}.
  */
-export function feedbackSet(mechanism: EquationStructure, x: VariableId, settledWith: readonly VariableId[] = []): VariableId[] {
-  const eq = mechanism.derivatives[x];
-  if (eq === undefined) return [];
-  const o = orderStructure(mechanism);
-  const sourcesOf = (s: VariableId) => (mechanism.equations.find((e) => e.id === mechanism.derivatives[s])?.variables ?? []).filter((v) => stateOfDerivative(v) === null && v !== s);
-  const edges: OrderingEdge[] = [...o.edges];
-  for (const s of settledWith) if (s !== x && mechanism.derivatives[s] !== undefined) for (const v of sourcesOf(s)) edges.push({ from: v, to: s, kind: 'instantaneous', equation: mechanism.derivatives[s] });
-  const down = reach(edges, [x]);
-  const up = reach(edges, sourcesOf(x), true);
+export function feedbackSet(mechanism: EquationStructure, x: VariableId, settledWith: readonly VariableId[] = [], mechanismEdges?: OrderingEdge[]): VariableId[] {
+  if (mechanism.derivatives[x] === undefined) return [];
+  const g = loopGraph(mechanism, settledWith.filter((s) => s !== x), mechanismEdges);
+  const down = reach(g.edges, [x]);
+  const up = reach(g.edges, g.sources.get(x) ?? [], true);
   return [...down].filter((v) => v !== x && up.has(v)).sort(compareIds);
+}
+
+/** The mechanism's within-instant links plus, for each state settling with the others, links from what its rate reads to it. */
+function loopGraph(mechanism: EquationStructure, settled: readonly VariableId[], mechanismEdges?: OrderingEdge[]): { edges: OrderingEdge[]; sources: Map<VariableId, VariableId[]> } {
+  const eqVars = new Map(mechanism.equations.map((e) => [e.id, e.variables]));
+  const sources = new Map<VariableId, VariableId[]>();
+  for (const [s, eq] of Object.entries(mechanism.derivatives)) sources.set(s, (eqVars.get(eq) ?? []).filter((v) => stateOfDerivative(v) === null && v !== s));
+  const edges: OrderingEdge[] = [...(mechanismEdges ?? orderStructure(mechanism).edges)];
+  for (const s of settled) for (const v of sources.get(s) ?? []) edges.push({ from: v, to: s, kind: 'instantaneous', equation: mechanism.derivatives[s] });
+  return { edges, sources };
+}
+
+/**
+ * The settled states whose feedback loop passes through v (v in their
+ * feedback set), found with two searches from v instead of one per state:
+ * s qualifies when s reaches v and v reaches something s's rate reads.
+ */
+export function loopsThrough(mechanism: EquationStructure, v: VariableId, settled: readonly VariableId[], mechanismEdges?: OrderingEdge[]): VariableId[] {
+  const out: VariableId[] = [];
+  const g = loopGraph(mechanism, settled, mechanismEdges);
+  const up = reach(g.edges, [v], true);
+  const down = reach(g.edges, [v]);
+  for (const s of settled) {
+    if (s === v || !up.has(s)) continue;
+    const src = g.sources.get(s) ?? [];
+    // s's own balance link (its sources → s) never shortens these paths: a path through it already met a source of s.
+    if (src.some((w) => down.has(w))) out.push(s);
+  }
+  return out.sort(compareIds);
 }
 
 function detectDrift(held: EquationStructure, before: EquationStructure, settled: VariableId[]): Drift | null {
@@ -378,6 +403,8 @@ interface ExplainInput {
 
 function explain(x: ExplainInput): string[] {
   const lines: string[] = [];
+  let mechanismEdges: OrderingEdge[] | undefined;
+  const edgesOnce = () => (mechanismEdges ??= orderStructure(x.mechanism).edges);
   const held = listNames(x.heldIds.map((v) => `${v} = ${x.holds[v]}`));
   if (x.agree) {
     lines.push(x.settled.length === 0
@@ -403,7 +430,7 @@ function explain(x: ExplainInput): string[] {
           : `at equilibrium, ${v} is determined by ${replaced}, not by its own equation ${own ?? '(none)'}; the equilibrium model, held, loses ${replaced}, while the running system, held, loses ${own ?? 'nothing of its own'} and ${replaced} keeps acting`,
       );
     }
-    const loops = x.settled.filter((s) => s !== v && feedbackSet(x.mechanism, s, x.settled).includes(v));
+    const loops = loopsThrough(x.mechanism, v, x.settled, edgesOnce());
     for (const s of loops)
       lines.push(`${v} lies on the loop ${s} → … → ${v} → d(${s})/dt through which ${s} settles: holding ${v} breaks the feedback through which ${s} settles, so the system reaches a different equilibrium than the equilibrium model predicts${x.drift ? ', or none' : ''}`);
     if (x.settled.includes(v)) lines.push(`${v} settles at this interval, but held it no longer moves: its rate equation ${equationId.rate(v)} is gone from the running system, while the equilibrium model keeps it as a balance equation unless it pairs it with ${v}`);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { commutation, commutesByCriterion, feedbackSet } from '../../../src/core/interventions/commute';
+import { commutation, commutesByCriterion, feedbackSet, loopsThrough } from '../../../src/core/interventions/commute';
 import { mech, rolesOf, type AbstractSystem } from './systems';
 
 /** Random mechanisms: inputs, states whose rates read anything, derived variables with acyclic formulas; a random settle/freeze plan. */
@@ -79,6 +79,16 @@ describe('random systems (fast-check, seeded)', () => {
         }
       }),
       { seed: 7, numRuns: 200 },
+    );
+  });
+
+  it('the loops through a variable, found from the variable, are the feedback sets that contain it', () => {
+    fc.assert(
+      fc.property(systems, ({ sys, settle, all }) => {
+        const m = mech(sys);
+        for (const v of all) expect(loopsThrough(m, v, settle), v).toEqual(settle.filter((s) => s !== v && feedbackSet(m, s, settle).includes(v)).sort());
+      }),
+      { seed: 99, numRuns: 200 },
     );
   });
 });
