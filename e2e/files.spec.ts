@@ -92,4 +92,24 @@ test.describe('files and share links', () => {
     await expect(damaged.getByRole('dialog', { name: /share link could not be opened/i })).toBeVisible();
     await shot(damaged, testInfo.outputPath('damaged-link.png'));
   });
+
+  test('unsaved changes to a file ask before the page is left', async ({ page }, testInfo) => {
+    await page.goto('/');
+    const text = JSON.stringify({ format: 'loopfold-model', version: 1, name: 'Shop', timeUnit: 'day', variables: [{ id: 'stock', kind: 'state', timescale: 3, position: { x: 0, y: 0 } }], links: [] });
+    await page.getByTestId('open-file-input').setInputFiles({ name: 'shop.loopfold.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+    await expect(nodes(page)).toHaveCount(1);
+    await page.locator('.react-flow__node[data-id="stock"]').click();
+    await page.locator('.lf-inspector').getByLabel('Label', { exact: true }).fill('Stock on hand');
+    await expect(page.locator('.lf-dirty')).toBeVisible();
+    await shot(page, testInfo.outputPath('unsaved.png'));
+    const asked = new Promise<string>((resolve) => page.once('dialog', (d) => { resolve(d.type()); void d.dismiss(); }));
+    await page.close({ runBeforeUnload: true });
+    expect(await asked).toBe('beforeunload');
+  });
+
+  test('without a worker the core runs on the main thread', async ({ page }) => {
+    await page.goto('/?noworker&example=sleep-stress');
+    await expect(page.locator('.lf-status')).toContainText('core: main thread');
+    await expect(page.locator('.lf-diagnostics')).toContainText('no problems found');
+  });
 });
