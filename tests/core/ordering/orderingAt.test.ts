@@ -7,7 +7,11 @@
  * equilibrium the ordering reverses (inflow → outflow → pressure → level).
  */
 import { describe, expect, it } from 'vitest';
-import { equationMatching, orderingAt } from '../../../src/core/ordering/index';
+import fc from 'fast-check';
+import { bands, equationMatching, orderingAt } from '../../../src/core/ordering/index';
+import { EXAMPLES } from '../../../src/examples/index';
+import { parseModel } from '../../../src/core/model/schema';
+import { permute, SEED } from './generators';
 import type { Model, Variable, Link, Relation } from '../../../src/core/model/types';
 
 function model(variables: Variable[], links: Link[] = [], relations?: Relation[]): Model {
@@ -152,5 +156,24 @@ describe('equationMatching', () => {
   it('at an interval where x4 settles, the rate equation is paired with x5', () => {
     const em = equationMatching(level, { interval: 1 });
     expect(em.equations.find((e) => e.id === 'rate(x4)')).toEqual({ id: 'rate(x4)', variables: ['u1', 'x5'], determines: 'x5' });
+  });
+});
+
+describe('orderingAt: byte-identical output for any order of the model file (every gallery example, fast-check, seeded)', () => {
+  it('shuffled variables, links and relations give the same JSON at every band of the interval axis', () => {
+    for (const ex of EXAMPLES) {
+      const parsed = parseModel(ex.model);
+      if (!parsed.ok) throw new Error(`${ex.id}: ${parsed.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
+      const m = parsed.model;
+      const intervals = bands(m).map((b) => (b.to === Infinity ? b.from * 2 : (b.from + b.to) / 2));
+      const expected = intervals.map((interval) => JSON.stringify(orderingAt(m, { interval })));
+      fc.assert(
+        fc.property(fc.array(fc.nat(), { minLength: 6, maxLength: 6 }), (keys) => {
+          const shuffled: Model = { ...m, variables: permute(m.variables, keys), links: permute(m.links, keys.slice(1)), relations: m.relations ? permute(m.relations, keys.slice(2)) : undefined };
+          intervals.forEach((interval, i) => expect(JSON.stringify(orderingAt(shuffled, { interval }))).toBe(expected[i]));
+        }),
+        { seed: SEED, numRuns: 10 },
+      );
+    }
   });
 });
