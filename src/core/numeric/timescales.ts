@@ -1,0 +1,110 @@
+/**
+ * Timescales of a linearized system: eigenvalues of the drift, their
+ * characteristic times 1/|Re λ|, and each state's share in each mode by
+ * participation factors p_ki = |v_ki w_ik| (right eigenvector v, left
+ * eigenvector w, wᵀv = 1), normalised per mode to sum 1: Pérez-Arriaga,
+ * Verghese & Schweppe (1982), "Selective modal analysis with applications to
+ * electric power systems, Part I", IEEE Trans. PAS-101(9).
+ */
+import type { VariableId } from '../model/types';
+import { eigen, inverse, type Mat } from './dense';
+import type { StateTimescale } from './system';
+
+export interface Mode {
+  re: number;
+  im: number;
+  /** 1/|Re λ| (Infinity when Re λ = 0). */
+  time: number;
+  /** 2π/|Im λ| for an oscillating mode. */
+  period?: number;
+  stable: boolean;
+  /** Participation of each state (in `states` order), summing to 1. */
+  participation: number[];
+}
+
+export interface StateTimescaleReport {
+  state: VariableId;
+  /** The timescale the modeller gave, if any. */
+  given?: number;
+  /** The characteristic time of the mode the state participates in most. */
+  derived: number;
+  /** Index into modes. */
+  mode: number;
+  /** Share of the state in that mode. */
+  share: number;
+}
+
+export interface TimescaleReport {
+  states: VariableId[];
+  modes: Mode[];
+  perState: StateTimescaleReport[];
+  warnings: string[];
+}
+
+/**
+ * Modes and per-state timescales of drift A over `states`.
+ * Example: `timescalesOf(fromRows([[-1, 0], [0, -0.1]]), ['a', 'b'])` gives times 1 and 10.
+ */
+export function timescalesOf(a: Mat, states: VariableId[], given: Record<VariableId, StateTimescale> = {}): TimescaleReport {
+  const n = states.length;
+  if (n === 0) return { states, modes: [], perState: [], warnings: [] };
+  const e = eigen(a);
+  const V = e.vectors;
+  let W: Mat | null = inverse(V);
+  if (!W.data.every(Number.isFinite)) W = null;
+  const modes: Mode[] = [];
+  const part: number[][] = [];
+  // Column where each eigenvalue's (real-packed) eigenvector starts: a complex pair occupies two columns.
+  const startCol = new Int32Array(n);
+  for (let j = 0; j < n; ) {
+    startCol[j] = j;
+    if (e.im[j] !== 0 && j + 1 < n) { startCol[j + 1] = j; j += 2; } else j++;
+  }
+  for (let j = 0; j < n; j++) {
+    const re = e.re[j], im = e.im[j];
+    const p = new Array<number>(n).fill(0);
+    if (W) {
+      if (im === 0) {
+        for (let k = 0; k < n; k++) p[k] = Math.abs(V.data[k * n + j] * W.data[j * n + k]);
+      } else {
+        // Columns (c, c+1) hold Re v and Im v of the eigenvalue at c; the left eigenvector row is (W_c − i W_{c+1})/2.
+        const c = startCol[j];
+        for (let k = 0; k < n; k++) {
+          const vr = V.data[k * n + c], vi = V.data[k * n + c + 1];
+          const wr = W.data[c * n + k] / 2, wi = -W.data[(c + 1) * n + k] / 2;
+          p[k] = Math.hypot(vr * wr - vi * wi, vr * wi + vi * wr);
+        }
+      }
+    } else p.fill(1);
+    const total = p.reduce((s, x) => s + x, 0) || 1;
+    const norm = p.map((x) => x / total);
+    part.push(norm);
+    modes.push({
+      re, im,
+      time: re === 0 ? Infinity : 1 / Math.abs(re),
+      ...(im !== 0 ? { period: (2 * Math.PI) / Math.abs(im) } : {}),
+      stable: re < 0,
+      participation: norm,
+    });
+  }
+  const perState: StateTimescaleReport[] = states.map((s, k) => {
+    let best = 0;
+    for (let j = 1; j < n; j++) if (part[j][k] > part[best][k] + 1e-12) best = j;
+    const g = given[s];
+    return { state: s, ...(g?.given ? { given: g.value } : {}), derived: modes[best].time, mode: best, share: part[best][k] };
+  });
+  const warnings: string[] = [];
+  modes.forEach((m) => {
+    if (m.stable) return;
+    const main = states.filter((_, k) => m.participation[k] >= 0.1);
+    warnings.push(
+      `a mode with eigenvalue ${fmt(m.re)}${m.im !== 0 ? ` ± ${fmt(Math.abs(m.im))}i` : ''} is ${m.re === 0 ? 'neutral (it neither grows nor decays)' : 'unstable (it grows)'}, carried mostly by ${main.join(', ')}: ` +
+        'these states do not settle, so treating them as settled at any interval is not valid',
+    );
+  });
+  return { states, modes, perState, warnings };
+}
+
+function fmt(x: number): string {
+  return Number(x.toPrecision(4)).toString();
+}
