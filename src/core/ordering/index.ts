@@ -30,16 +30,18 @@ function sortDiagnostics(ds: Diagnostic[]): Diagnostic[] {
   return ds.sort((a, b) => rank(a) - rank(b) || compareIds(a.code, b.code) || compareIds(a.message, b.message));
 }
 
-/** The equation structure at a design, with the diagnostics of building it. */
+/**
+ * The equation structure at a design, with the diagnostics of building it.
+ * Holds are applied before anything settles: an intervention replaces the
+ * mechanism of the held variable, and only then does the rest reach balance
+ * (manipulate, then equilibrate: Dash 2005, AISTATS, from memory).
+ */
 function structureAt(model: Model, design: StudyDesign): { structure: EquationStructure; diagnostics: Diagnostic[]; settled: VariableId[]; roles: Ordering['roles'] } {
   const built = buildStructure(model);
   const r = rolesAt(model, design);
   const diagnostics = [...built.diagnostics, ...r.diagnostics];
   let s = built.structure;
   const ids = Object.keys(r.roles).sort(compareIds);
-  const settled = ids.filter((x) => r.roles[x] === 'settled' && s.derivatives[x] !== undefined);
-  if (settled.length > 0) s = equilibrateAll(s, settled).structure;
-  for (const x of ids) if (r.roles[x] === 'frozen') s = exogenize(s, x).structure;
   for (const x of ids) {
     if (r.roles[x] !== 'held') continue;
     const res = hold(s, x, design.hold![x]);
@@ -53,6 +55,9 @@ function structureAt(model: Model, design: StudyDesign): { structure: EquationSt
         equations: res.change.ambiguous.candidates,
       });
   }
+  const settled = ids.filter((x) => r.roles[x] === 'settled' && s.derivatives[x] !== undefined);
+  if (settled.length > 0) s = equilibrateAll(s, settled).structure;
+  for (const x of ids) if (r.roles[x] === 'frozen') s = exogenize(s, x).structure;
   return { structure: s, diagnostics, settled, roles: r.roles };
 }
 

@@ -126,6 +126,15 @@ describe('orderingAt: interventions (do-operator)', () => {
     expect(o.blocks.find((b) => b.variables.includes('x4'))!.equations).toEqual(['hold(x4)']);
   });
 
+  it('holding a state at an interval where it would settle: the intervention replaces its mechanism first, then nothing settles it', () => {
+    // Manipulate, then equilibrate (Dash 2005, "Restructuring dynamic causal systems in equilibrium", AISTATS; from
+    // memory): fixing x4 removes its rate equation, so the balance equation that re-oriented the ordering is gone.
+    const o = orderingAt(level, { interval: 1, hold: { x4: 1 } });
+    expect(o.roles.x4).toBe('held');
+    expect(blocksOf(level, { interval: 1, hold: { x4: 1 } })).toEqual(['0:u1/', '0:u2/', '0:x4/hold(x4)', '1:x3/formula(x3)', '2:x5/formula(x5)']);
+    expect(o.diagnostics).toEqual([]);
+  });
+
   it('holding a variable determined together with another by relations: the dropped equation is a choice, and the warning names the candidates', () => {
     const m = model(
       [{ id: 'u', kind: 'input' }, { id: 'a', kind: 'derived' }, { id: 'b', kind: 'derived' }],
