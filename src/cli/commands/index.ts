@@ -8,3 +8,5 @@ import { interventionCommands } from './interventions';
 COMMANDS.push(...interventionCommands);
 import { orderingCommands } from './ordering';
 COMMANDS.unshift(...orderingCommands);
+import { numericCommands } from './numeric';
+COMMANDS.push(...numericCommands);
