@@ -30,6 +30,19 @@ const HEADER = 40;
 const SLICE_NAMES: Record<string, string> = { '-1': 't − 1', '0': 't', '1': 't + 1' };
 
 const r1 = (x: number) => Math.round(x * 10) / 10;
+
+/** Break text into lines of at most `width` px, at an average glyph width of `em` px (estimate). */
+export function wrapText(text: string, width: number, em: number): string[] {
+  const max = Math.max(12, Math.floor(width / em));
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    if (line && (line + ' ' + word).length > max) { lines.push(line); line = word; }
+    else line = line ? `${line} ${word}` : word;
+  }
+  if (line) lines.push(line);
+  return lines;
+}
 const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
 
 function markerDefs(): El {
@@ -53,6 +66,27 @@ function exitPoint(b: Box, tx: number, ty: number, pad = 2): { x: number; y: num
   const sy = dy === 0 ? Infinity : (b.height / 2 + pad) / Math.abs(dy);
   const s = Math.min(sx, sy);
   return { x: cx + dx * s, y: cy + dy * s };
+}
+
+/** An edge along a routed polyline (ELK's route, border to border). */
+function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El {
+  const style = LINK_STYLE[e.kind];
+  const sim = e.simultaneous;
+  const color = sim ? BLOCK_STYLE.stroke : style.stroke;
+  const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
+  const d = ps.map((p, i) => `${i ? 'L' : 'M'}${r1(p.x)},${r1(p.y)}`).join(' ');
+  const kids: (El | string)[] = [
+    el('title', {}, [`${e.pairs.map((p) => `${p.from} → ${p.to}`).join(', ')}: ${style.label}${sim ? ', within a simultaneous block' : ''}`]),
+    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
+  ];
+  if (e.sign && ps.length >= 2) {
+    const p0 = ps[ps.length - 2], p1 = ps[ps.length - 1];
+    const len = Math.hypot(p1.x - p0.x, p1.y - p0.y) || 1;
+    const t = Math.max(0.3, 1 - 22 / len);
+    const nx = -(p1.y - p0.y) / len, ny = (p1.x - p0.x) / len;
+    kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color }, [e.sign === '-' ? '−' : '+']));
+  }
+  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
 
 function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
@@ -153,8 +187,9 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
 /** The drawing of a view: a root `<svg>` element tree. */
 export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {}): El {
   const showTitle = opts.title !== false;
-  const top = showTitle ? HEADER : 0;
-  const width = Math.max(layout.width, 520);
+  const width = Math.max(layout.width, 560);
+  const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
+  const top = showTitle ? HEADER + (titleLines.length - 1) * 21 : 0;
   const body: (El | string)[] = [];
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
@@ -182,8 +217,12 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   for (const e of vm.edges) {
     const a = layout.nodes[e.from], b = layout.nodes[e.to];
     if (!a || !b) continue;
-    // carried states arc over their row in the unrolled view; opposite pairs bend apart
-    const bend = e.carry ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
+    const route = layout.edges?.[e.id];
+    if (route && route.length >= 2) { body.push(routedEdgeEl(e, route)); continue; }
+    // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
+    const across = vm.mode === 'unrolled' && e.kind === 'integrating';
+    const sameRow = Math.abs(a.y + a.height / 2 - (b.y + b.height / 2)) < 30;
+    const bend = across && sameRow ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
     body.push(edgeEl(e, a, b, bend));
   }
   for (const n of vm.nodes) {
@@ -192,7 +231,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   }
 
   const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
-  if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, [vm.title]));
+  if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, titleLines.map((t, i) => el('tspan', { x: 24, dy: i ? 21 : 0 }, [t]))));
   children.push(el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body));
   let y = top + layout.height;
   if (opts.legend !== false) {
@@ -201,9 +240,13 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
     y += lg.height;
   }
   if (opts.caption) {
-    const lines = [opts.captionText ?? vm.title, ...(vm.caution ? [vm.caution] : [])];
-    children.push(el('g', { 'data-part': 'caption' }, lines.map((t, i) => el('text', { x: 24, y: r1(y + 16 + i * 18), 'font-size': i ? 11.5 : 13, fill: i ? MUTED : INK, 'font-style': i ? 'italic' : undefined }, [t]))));
-    y += 16 + lines.length * 18;
+    const main = wrapText(opts.captionText ?? vm.title, width - 48, 7.4);
+    const caution = vm.caution ? wrapText(vm.caution, width - 48, 6.4) : [];
+    const texts: El[] = [];
+    main.forEach((t, i) => texts.push(el('text', { x: 24, y: r1(y + 16 + i * 18), 'font-size': 13, fill: INK }, [t])));
+    caution.forEach((t, i) => texts.push(el('text', { x: 24, y: r1(y + 16 + (main.length + i) * 17), 'font-size': 11.5, fill: MUTED, 'font-style': 'italic' }, [t])));
+    children.push(el('g', { 'data-part': 'caption' }, texts));
+    y += 16 + main.length * 18 + caution.length * 17;
   }
   const height = Math.ceil(y + 12);
   return el('svg', {

@@ -6,7 +6,7 @@
  */
 import type { ViewModel } from '../core/view/types';
 import { center, finishLayout } from './geometry';
-import { GROUP_MIN_WIDTH, GROUP_PAD, SLICE_GAP, SLICE_PAD, type Box, type Layout } from './types';
+import { GROUP_MIN_WIDTH, GROUP_PAD, SLICE_GAP, SLICE_PAD, type Box, type Layout, type Point } from './types';
 
 /** The part of elkjs's API used here. */
 export interface ElkRunner {
@@ -20,7 +20,14 @@ export interface ElkGraph {
   height?: number;
   layoutOptions?: Record<string, string>;
   children?: ElkGraph[];
-  edges?: { id: string; sources: string[]; targets: string[] }[];
+  edges?: ElkEdge[];
+}
+interface ElkEdge {
+  id: string;
+  sources: string[];
+  targets: string[];
+  container?: string;
+  sections?: { startPoint: Point; endPoint: Point; bendPoints?: Point[] }[];
 }
 
 /**
@@ -76,16 +83,16 @@ export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph
   }
   for (const n of nodes) if (!inGroup.has(n.id)) children.push(leaf(n.id, n.width, n.height));
   if (opts.previous) {
-    // model order = previous vertical order: ELK keeps it where crossings allow
-    const y = (c: ElkGraph) => c.y ?? (c.children?.length ? Math.min(...c.children.map((k) => k.y ?? Infinity)) : Infinity);
-    children.sort((a, b) => y(a) - y(b));
-    for (const c of children) c.children?.sort((a, b) => (a.y ?? Infinity) - (b.y ?? Infinity));
+    // model order = previous order within layers (left to right, the layers running down): ELK keeps it where crossings allow
+    const x = (c: ElkGraph) => c.x ?? (c.children?.length ? Math.min(...c.children.map((k) => k.x ?? Infinity)) : Infinity);
+    children.sort((a, b) => x(a) - x(b));
+    for (const c of children) c.children?.sort((a, b) => (a.x ?? Infinity) - (b.x ?? Infinity));
   }
   const ids = new Set(nodes.map((n) => n.id));
   const edges = vm.edges.filter((e) => ids.has(e.from) && ids.has(e.to)).map((e) => ({ id: e.id, sources: [e.from], targets: [e.to] }));
   return {
     id: 'root',
-    layoutOptions: { ...(opts.tuned === false ? DEFAULT_OPTIONS : TUNED_OPTIONS), ...COMMON, 'elk.direction': unrolled ? 'DOWN' : 'RIGHT' },
+    layoutOptions: { ...(opts.tuned === false ? DEFAULT_OPTIONS : TUNED_OPTIONS), ...COMMON, 'elk.direction': 'DOWN' },
     children,
     edges,
   };
@@ -113,11 +120,21 @@ export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOp
   const nodes: Record<string, Box> = {};
   const groups: Record<string, Box> = {};
   const groupIds = new Set(vm.groups.map((g) => g.id));
+  // edge sections are relative to the edge's container
+  const routes: Record<string, Point[]> = {};
+  for (const e of done.edges ?? []) {
+    const sec = e.sections?.[0];
+    if (!sec || (e.sections?.length ?? 0) > 1) continue;
+    const off = e.container && e.container !== 'root' ? boxes[e.container] : undefined;
+    const dx = off?.x ?? 0, dy = off?.y ?? 0;
+    routes[e.id] = [sec.startPoint, ...(sec.bendPoints ?? []), sec.endPoint].map((p) => ({ x: p.x + dx, y: p.y + dy }));
+  }
   if (vm.mode !== 'unrolled') {
     for (const n of vm.nodes) if (boxes[n.id]) nodes[n.id] = boxes[n.id];
     for (const g of vm.groups) if (boxes[g.id]) groups[g.id] = boxes[g.id];
-    return finishLayout(vm, nodes, 'elk', groups);
+    return finishLayout(vm, nodes, 'elk', groups, routes);
   }
+  const sliceRoutes: Record<string, Point[]> = {};
   const width = Math.max(0, ...Object.values(boxes).map((b) => b.x + b.width)) + SLICE_PAD.left + SLICE_PAD.right;
   for (const [id, b] of Object.entries(boxes)) {
     const base = id.replace(/@0$/, '');
@@ -128,7 +145,11 @@ export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOp
       else nodes[target] = box;
     }
   }
-  return finishLayout(vm, nodes, 'elk', groups);
+  // within-instant edges: the route at t, repeated in each instant
+  for (const [id, ps] of Object.entries(routes)) {
+    for (const s of [-1, 0, 1]) sliceRoutes[id.replace(/@0(?=->|:)/g, `@${s}`)] = ps.map((p) => ({ x: p.x + (s + 1) * (width + SLICE_GAP), y: p.y }));
+  }
+  return finishLayout(vm, nodes, 'elk', groups, sliceRoutes);
 }
 
 /** Whether two layouts put every shared node within `tol` px of each other (after their own normalisation). */

@@ -1,6 +1,6 @@
 /** Small pure helpers over layouts: bounding boxes, group boxes, normalising, interpolation. */
 import type { ViewModel } from '../core/view/types';
-import { GROUP_MIN_WIDTH, GROUP_PAD, MARGIN, SLICE_PAD, type Box, type Layout } from './types';
+import { GROUP_MIN_WIDTH, GROUP_PAD, MARGIN, SLICE_PAD, type Box, type Layout, type Point } from './types';
 
 export function center(b: Box): { x: number; y: number } {
   return { x: b.x + b.width / 2, y: b.y + b.height / 2 };
@@ -17,7 +17,7 @@ export function union(boxes: readonly Box[]): Box | undefined {
 }
 
 /** Group and slice boxes from their members, then shift everything so the figure starts at MARGIN. */
-export function finishLayout(vm: ViewModel, nodes: Record<string, Box>, source: Layout['source'], groupsIn?: Record<string, Box>): Layout {
+export function finishLayout(vm: ViewModel, nodes: Record<string, Box>, source: Layout['source'], groupsIn?: Record<string, Box>, edgesIn?: Record<string, Point[]>): Layout {
   const groups: Record<string, Box> = {};
   for (const g of vm.groups) {
     const given = groupsIn?.[g.id];
@@ -44,10 +44,12 @@ export function finishLayout(vm: ViewModel, nodes: Record<string, Box>, source: 
   const dy = MARGIN - everything.y;
   const shift = (b: Box): Box => ({ x: b.x + dx, y: b.y + dy, width: b.width, height: b.height });
   const map = (r: Record<string, Box>) => Object.fromEntries(Object.entries(r).map(([k, b]) => [k, shift(b)]));
+  const edges = edgesIn ? Object.fromEntries(Object.entries(edgesIn).map(([k, ps]) => [k, ps.map((p) => ({ x: p.x + dx, y: p.y + dy }))])) : undefined;
   return {
     nodes: map(nodes),
     groups: map(groups),
     ...(slices ? { slices: map(slices) } : {}),
+    ...(edges ? { edges } : {}),
     width: everything.width + 2 * MARGIN,
     height: everything.height + 2 * MARGIN,
     source,

@@ -1,5 +1,10 @@
 import type { ViewNodeId } from '../core/view/types';
 
+export interface Point {
+  x: number;
+  y: number;
+}
+
 /** A box in world coordinates (the figure's own pixels, before any zoom): top-left corner and size. */
 export interface Box {
   x: number;
@@ -15,6 +20,8 @@ export interface Layout {
   groups: Record<string, Box>;
   /** The unrolled view: one column per instant, by slice ("-1", "0", "1"). */
   slices?: Record<string, Box>;
+  /** Routed edges (ELK's polylines, node border to node border), by edge id; others are drawn straight. */
+  edges?: Record<string, Point[]>;
   width: number;
   height: number;
   /** 'instant': placed at once from the previous positions; 'elk': the tuned layout. */

@@ -34,7 +34,7 @@ export function createStudyStore() {
     length: { by: 'samples', samples: 50 },
     folded: {},
     view: 'ordering',
-    sideBySide: true,
+    sideBySide: false,
     setInterval: (interval) => set((s) => (s.interval === interval || !(interval > 0) ? s : { interval })),
     setLength: (length) => set({ length }),
     toggleFold: (key) => set((s) => ({ folded: { ...s.folded, [key]: !s.folded[key] } })),

@@ -91,7 +91,7 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
   for (const s of frozen) {
     const tau = timescaleOf(model, s);
     const why = tau !== undefined && W !== undefined ? ` (timescale ${formatDuration(tau, u)} ≥ ${k} × study = ${formatDuration(k * W, u)})` : ' (slow against the study)';
-    const study = W !== undefined ? `a ${formatDuration(W, u).replace(/s$/, '')} study` : 'the study';
+    const study = W !== undefined ? `the ${formatDuration(W, u)} of the study` : 'the study';
     lines.push({ topic: 'frozen', text: `${name(s)} is frozen, held constant over ${study}${why}: it changes too little to see, so it acts as a fixed background and the links into it drop out.`, variables: [s] });
   }
   for (const v of held) {

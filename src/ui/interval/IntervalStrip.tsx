@@ -84,6 +84,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
         aria-valuenow={Math.round(pos * 1000)}
         aria-valuetext={valueText}
         data-band={band}
+        data-interval={interval}
         onKeyDown={onKey}
         onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); fromPointer(ev); }}
         onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}

@@ -11,7 +11,11 @@ function propName(k: string): string {
 export function toReact(node: El | string, key?: string | number): ReactNode {
   if (typeof node === 'string') return node;
   const props: Record<string, unknown> = { key };
-  for (const [k, v] of Object.entries(node.attrs)) if (v !== undefined) props[propName(k)] = v;
+  for (const [k, v] of Object.entries(node.attrs)) {
+    if (v === undefined) continue;
+    if (k === 'style') props.style = Object.fromEntries(String(v).split(';').filter(Boolean).map((d) => { const [a, b] = d.split(':'); return [propName(a.trim()), b.trim()]; }));
+    else props[propName(k)] = v;
+  }
   const kid = (c: El | string, i: number) => {
     const k = typeof c === 'string' ? i : (c.attrs['data-node'] ?? c.attrs['data-edge'] ?? c.attrs['data-group'] ?? i);
     return toReact(c, String(k));

@@ -13,6 +13,10 @@ import type { Layout } from '../../layout/types';
 import { toReact } from './SceneSvg';
 
 const ANIMATION_MS = 320;
+/** The figure shrinks to fit its pane down to this scale, then scrolls (labels stay legible). */
+const MIN_SCALE = 0.8;
+/** The three instants are wide: fitting them shows the whole sequence first. */
+const FIT_SCALE_UNROLLED = 0.45;
 /** Above this many nodes, positions jump instead of moving (keeps the page responsive). */
 const ANIMATE_UP_TO = 400;
 
@@ -71,15 +75,27 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label }: ViewCa
 
   useEffect(() => () => cancelAnimationFrame(frame.current), []);
 
-  const scene = useMemo(() => (shown ? buildScene(vm, shown, { legend: true, title: true }) : null), [vm, shown]);
+  const [zoom, setZoom] = useState<'fit' | number>('fit');
+  // the pane has its own heading and summary: the figure's title line is for exported files
+  const scene = useMemo(() => (shown ? buildScene(vm, shown, { legend: true, title: false }) : null), [vm, shown]);
+  const natural = scene ? Number(scene.attrs.width) : 0;
+  const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE))}px` : `width:${Math.round(natural * zoom)}px`;
+  const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
     const key = t?.getAttribute('data-block');
     if (key && onToggleBlock) onToggleBlock(key);
   };
   return (
-    <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} onClick={onClick}>
-      {scene ? toReact({ ...scene, attrs: { ...scene.attrs, width: '100%', height: undefined, preserveAspectRatio: 'xMidYMin meet' } }) : <p>Placing the variables…</p>}
+    <div className="lf-view-wrap">
+      <div className="lf-zoom" role="group" aria-label={`Zoom: ${label}`}>
+        <button type="button" aria-label="Zoom out" onClick={() => zoomBy(1 / 1.25)}>−</button>
+        <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
+        <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
+      </div>
+      <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} onClick={onClick}>
+        {scene ? toReact({ ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } }) : <p>Placing the variables…</p>}
+      </div>
     </div>
   );
 }

@@ -28,7 +28,7 @@ describe('explanation text', () => {
     const lines = explainOrdering(m, o, design);
     const frozen = lines.filter((l) => l.topic === 'frozen');
     expect(frozen.map((l) => l.variables[0])).toEqual(['coping']);
-    expect(frozen[0].text).toContain('held constant over a 2 week study');
+    expect(frozen[0].text).toContain('held constant over the 2 weeks of the study');
     // 5 × 14 days = 70 days = 2.3 months of 30.44 days (units.ts: month = 1/12 Julian year, common practice)
     expect(frozen[0].text).toContain('timescale 4 months ≥ 5 × study = 2.3 months');
     const blocks = o.blocks.filter((b) => b.variables.length > 1);
