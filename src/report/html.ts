@@ -15,7 +15,7 @@ import type { ViewModel } from '../core/view/types';
 import type { Layout } from '../layout/types';
 import { renderSvg } from '../export/svg';
 import { perfectAdaptation } from '../core/interventions/adaptation';
-import { commutationAt } from '../core/interventions/index';
+import { commutationAt, hasFormulas, modelNumbers } from '../core/interventions/index';
 
 export interface ReportOptions {
   /** A fixed study length W (model time unit). */
@@ -107,6 +107,34 @@ function changesAt(model: Model, bp: Breakpoint | undefined): string {
   return `<p>At ${htmlEscape(formatDuration(bp.interval, model.timeUnit))}${bp.exclusive ? ' (just above it)' : ''}:</p><ul>${items.join('')}</ul>`;
 }
 
+/** Round for reading: 4 significant digits. */
+function num(x: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
+}
+
+function numbersSection(model: Model): string {
+  const e = htmlEscape;
+  if (!hasFormulas(model)) return '<p class="sub">The model is a sketch without formulas: no equilibrium values or derived timescales.</p>';
+  const n = modelNumbers(model);
+  const out: string[] = [];
+  if (n.equilibrium) {
+    out.push('<h3>Equilibrium (every state settled)</h3><table><thead><tr><th>variable</th><th>value</th><th>unit</th></tr></thead><tbody>');
+    for (const v of model.variables) out.push(`<tr><td>${e(v.label ?? v.id)}</td><td>${e(num(n.equilibrium[v.id]))}</td><td>${e(v.unit ?? '')}</td></tr>`);
+    out.push('</tbody></table>');
+  }
+  if (n.timescales) {
+    const u = model.timeUnit;
+    out.push('<h3>Timescales derived at the equilibrium</h3><p class="sub">From the mechanism linearized at the equilibrium: the characteristic time of the mode each state takes most part in, beside the timescale the model gives.</p>');
+    out.push('<table><thead><tr><th>state</th><th>given</th><th>derived</th><th>share in its mode</th></tr></thead><tbody>');
+    for (const r of n.timescales.perState) out.push(`<tr><td>${e(label(model, r.state))}</td><td>${r.given !== undefined ? e(formatDuration(r.given, u)) : '—'}</td><td>${Number.isFinite(r.derived) ? e(formatDuration(r.derived, u)) : 'none (does not settle)'}</td><td>${e(num(r.share))}</td></tr>`);
+    out.push('</tbody></table>');
+    if (n.timescales.warnings.length) out.push(`<ul>${n.timescales.warnings.map((w) => `<li class="warning">${e(w)}</li>`).join('')}</ul>`);
+  }
+  if (n.messages.length) out.push(`<ul>${n.messages.map((m) => `<li class="error">${e(m)}</li>`).join('')}</ul>`);
+  return out.join('\n');
+}
+
 /**
  * The report as one HTML string.
  * Example: `await buildReport(model, { samples: 50, layout: (vm) => layoutInNode(vm) })`.
@@ -167,7 +195,7 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
   }
   if (pa.unjudged.length) parts.push(`<p class="sub">Not judged (no well-determined equilibrium): ${e(pa.unjudged.map((v) => label(model, v)).join(', '))}.</p>`);
   parts.push('</section>');
-  parts.push('<section><h2>Numbers</h2><p class="sub">Equilibrium values and derived timescales are not part of this report yet.</p></section>');
+  parts.push('<section><h2>Numbers</h2>', numbersSection(model), '</section>');
 
   return `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n<title>${e(model.name)} — Loopfold report</title>\n<style>${CSS}</style>\n</head>\n<body>\n${parts.join('\n')}\n</body>\n</html>\n`;
 }

@@ -59,6 +59,17 @@ describe('the HTML report', () => {
     expect(htmlEscape(`<a href="x">'&'</a>`)).toBe('&lt;a href=&quot;x&quot;&gt;&#39;&amp;&#39;&lt;/a&gt;');
   });
 
+  it('gives the equilibrium and the derived timescales of a model with formulas, and says a sketch has none', async () => {
+    const html = await buildReport(example('greenhouse'));
+    const r = read(html);
+    expect(r.titles).toContain('Numbers');
+    // Hand-derived from the example's formulas: 0 = (8 − T)/12 + 0.04·2·(21 − T) + 0.3·0.6·(1 − 0.4) ⇒ T = 2.4547/0.163333 = 15.03.
+    expect(r.text).toMatch(/Air temperature\s*15\.03/);
+    expect(r.text).toMatch(/Timescales derived at the equilibrium/);
+    const sketch: Model = { format: 'loopfold-model', version: 1, name: 'Sketch', timeUnit: 'h', variables: [{ id: 'a', kind: 'input' }, { id: 'b', kind: 'derived' }], links: [{ from: 'a', to: 'b', kind: 'instantaneous' }] };
+    expect(read(await buildReport(sketch)).text).toMatch(/sketch without formulas/);
+  });
+
   it('lists the commutation check of a hold in each band', async () => {
     const html = await buildReport(example('greenhouse'), { hold: { heater: 0 } });
     expect(html).toMatch(/Holding Heating power = 0/);

@@ -7,7 +7,7 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import type { Ordering, StudyDesign } from '../../core/ordering/types';
-import { commutationAt, InterventionError, perfectAdaptation, type Commutation } from '../../core/interventions/index';
+import { commutationAt, confirmAdaptation, hasFormulas, interventionEffect, InterventionError, perfectAdaptation, type Commutation, type InterventionEffect } from '../../core/interventions/index';
 import { buildReport } from '../../report/html';
 import { bandsCsv, breakpointsCsv } from '../../report/tables';
 import { layoutInNode } from '../../layout/node';
@@ -52,8 +52,22 @@ function orderingLines(model: Model, o: Ordering): string[] {
   return lines;
 }
 
+function effectLines(model: Model, effect: InterventionEffect): string[] {
+  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const r = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : String(x));
+  const lines = ['', '  with the formulas (the running system, held):'];
+  if (effect.equilibrium) {
+    const moved = effect.equilibrium.filter((e) => Math.abs(e.change) > 1e-9 * (1 + Math.abs(e.before)));
+    lines.push(moved.length ? '    equilibrium, without → with the hold:' : '    the equilibrium values do not change');
+    for (const e of moved) lines.push(`      ${label(e.variable)}: ${r(e.before)} → ${r(e.after)} (${e.change > 0 ? '+' : ''}${r(e.change)})`);
+  }
+  for (const d of effect.drifting) lines.push(`    ${label(d.variable)} keeps moving at ${r(d.slope)} per ${model.timeUnit} at the end of the held run: no equilibrium`);
+  for (const m of effect.messages) lines.push(`    ${m}`);
+  return lines;
+}
+
 /** Readable text for `commute` without --json. */
-export function commutationText(model: Model, design: StudyDesign, c: Commutation): string {
+export function commutationText(model: Model, design: StudyDesign, c: Commutation, effect?: InterventionEffect): string {
   const held = Object.entries(c.hold).map(([k, v]) => `${k} = ${v}`).join(', ');
   const at = design.interval !== undefined ? `sampling every ${formatDuration(design.interval, model.timeUnit)}` : 'the mechanism';
   const lines = [`${model.name}: holding ${held} at ${at}`, '', c.agree ? 'AGREE: hold then settle = settle then hold' : 'DIFFER: hold then settle ≠ settle then hold', ''];
@@ -67,6 +81,7 @@ export function commutationText(model: Model, design: StudyDesign, c: Commutatio
       lines.push(`    only in ${d.only === 'holdThenSettle' ? 'hold-then-settle' : 'settle-then-hold'}: ${d.kind} ${what}`);
     }
   }
+  if (effect) lines.push(...effectLines(model, effect));
   return lines.join('\n');
 }
 
@@ -93,8 +108,11 @@ export const interventionCommands: CliCommand[] = [
       if (!(interval > 0)) throw new CliError(`--interval must be positive, not ${interval}`, 2);
       const design: StudyDesign = { interval, ...studyOptions(args, model), hold };
       const c = intervention(() => commutationAt(model, design));
-      if (args.options.json) io.out(JSON.stringify({ agree: c.agree, interval, hold: c.hold, holdThenSettle: c.holdThenSettle, settleThenHold: c.settleThenHold, differences: c.differences, ambiguous: c.ambiguous, drift: c.drift, explanation: c.explanation }, null, 2));
-      else io.out(commutationText(model, design, c));
+      // With formulas: the numbers of the running system held (equilibrium shift, states that keep moving).
+      const numeric = hasFormulas(model) ? interventionEffect(model, hold) : undefined;
+      const effect = numeric ? { equilibrium: numeric.equilibrium, drifting: numeric.drifting, messages: numeric.messages } : undefined;
+      if (args.options.json) io.out(JSON.stringify({ agree: c.agree, interval, hold: c.hold, holdThenSettle: c.holdThenSettle, settleThenHold: c.settleThenHold, differences: c.differences, ambiguous: c.ambiguous, drift: c.drift, explanation: c.explanation, ...(effect ? { effect } : {}) }, null, 2));
+      else io.out(commutationText(model, design, c, numeric));
       return 0;
     },
   },
@@ -106,13 +124,22 @@ export const interventionCommands: CliCommand[] = [
     run(args, io) {
       const model = loadModel(args, io);
       const r = perfectAdaptation(model);
+      // With formulas: each pair confirmed by a simulated step of the input, from rest.
+      const checks = hasFormulas(model) ? r.adapted.map((a) => confirmAdaptation(model, a)) : null;
       if (args.options.json) {
-        io.out(JSON.stringify({ adapted: r.adapted, unjudged: r.unjudged }, null, 2));
+        const adapted = checks ? checks.map((c) => ({ variable: c.variable, input: c.input, confirmed: c.confirmed, before: c.before, end: c.end, maxDeviation: c.maxDeviation, ...(c.message ? { message: c.message } : {}) })) : r.adapted;
+        io.out(JSON.stringify({ adapted, unjudged: r.unjudged }, null, 2));
         return 0;
       }
       const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+      const note = (i: number) => {
+        if (!checks) return '';
+        const c = checks[i];
+        if (c.message) return ` (not confirmed by simulation: ${c.message})`;
+        return c.confirmed ? ` (simulated step: moves by up to ${Number(c.maxDeviation.toPrecision(3))}, returns to ${Number(c.before.toPrecision(4))})` : ' (the simulated step did NOT confirm it)';
+      };
       if (r.adapted.length === 0) io.out(`${model.name}: no variable perfectly adapts to an input`);
-      else io.out([`${model.name}: perfect adaptation (the variable answers a lasting change of the input for a while, then returns):`, ...r.adapted.map((a) => `  ${label(a.variable)} adapts to ${label(a.input)}`)].join('\n'));
+      else io.out([`${model.name}: perfect adaptation (the variable answers a lasting change of the input for a while, then returns):`, ...r.adapted.map((a, i) => `  ${label(a.variable)} adapts to ${label(a.input)}${note(i)}`)].join('\n'));
       if (r.unjudged.length) io.out(`  not judged (no well-determined equilibrium): ${r.unjudged.join(', ')}`);
       return 0;
     },

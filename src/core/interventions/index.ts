@@ -10,6 +10,8 @@ import { commutation, type Commutation } from './commute';
 
 export * from './commute';
 export * from './adaptation';
+export * from './transform';
+export * from './effects';
 
 /** A bad intervention, worded for the modeller (the command line shows it as the one-line reason). */
 export class InterventionError extends Error {}

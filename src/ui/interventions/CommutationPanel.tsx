@@ -8,7 +8,8 @@ import { useMemo } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import type { StudyDesign } from '../../core/ordering/types';
-import { commutationAt, type Commutation } from '../../core/interventions/index';
+import { commutationAt, hasFormulas, type Commutation } from '../../core/interventions/index';
+import { solveEquilibrium } from '../../core/numeric/equilibrium';
 import { useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import './interventions.css';
@@ -20,7 +21,20 @@ export function CommutationPanel() {
   return <CommutationPanelFor model={model} design={design} />;
 }
 
-type Outcome = { ok: true; result: Commutation } | { ok: false; message: string };
+type Shift = { variable: string; before: number; after: number };
+type Outcome = { ok: true; result: Commutation; shifts: Shift[] | null; noEquilibrium?: string } | { ok: false; message: string };
+
+/** Equilibrium without and with the holds (the running system held), when the model has formulas. */
+function equilibriumShifts(model: Model, hold: Record<string, number>): { shifts: Shift[] | null; noEquilibrium?: string } {
+  if (!hasFormulas(model)) return { shifts: null };
+  const before = solveEquilibrium(model);
+  const after = solveEquilibrium(model, { hold });
+  if (!before.ok) return { shifts: null };
+  if (!after.ok) return { shifts: null, noEquilibrium: after.diagnostics.find((d) => d.level === 'error')?.message ?? 'no equilibrium with the hold' };
+  return { shifts: model.variables.map((v) => ({ variable: v.id, before: before.values[v.id], after: after.values[v.id] })).filter((r) => Math.abs(r.after - r.before) > 1e-9 * (1 + Math.abs(r.before))) };
+}
+
+const r4 = (x: number) => String(Number(x.toPrecision(4)));
 
 export function CommutationPanelFor({ model, design }: { model: Model; design: StudyDesign }) {
   const holds = design.hold ?? {};
@@ -28,7 +42,7 @@ export function CommutationPanelFor({ model, design }: { model: Model; design: S
   const outcome = useMemo<Outcome | null>(() => {
     if (held.length === 0 || design.interval === undefined) return null;
     try {
-      return { ok: true, result: commutationAt(model, design) };
+      return { ok: true, result: commutationAt(model, design), ...equilibriumShifts(model, design.hold ?? {}) };
     } catch (e) {
       return { ok: false, message: (e as Error).message };
     }
@@ -53,6 +67,15 @@ export function CommutationPanelFor({ model, design }: { model: Model; design: S
         </div>
       )}
       {c.drift && <p className="lf-commute-drift" role="note"><span aria-hidden="true">↗</span> {c.drift.message}</p>}
+      {outcome.shifts && (
+        <div className="lf-commute-numbers">
+          <h4>With the formulas: the equilibrium held</h4>
+          {outcome.shifts.length === 0 ? <p>The equilibrium values do not change.</p> : (
+            <ul>{outcome.shifts.map((r) => <li key={r.variable}>{label(r.variable)}: {r4(r.before)} → {r4(r.after)}</li>)}</ul>
+          )}
+        </div>
+      )}
+      {outcome.noEquilibrium && <p className="lf-commute-drift" role="note">With the formulas, held: {outcome.noEquilibrium}</p>}
       {c.differences.some((d) => d.kind === 'edge') && (
         <table className="lf-commute-diff">
           <caption>Links that differ</caption>

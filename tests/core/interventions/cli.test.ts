@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/run';
 import type { Model } from '../../../src/core/model/types';
-import { warehouseIntegral } from './scenarios';
+import { greenhouseIntegral, warehouseIntegral } from './scenarios';
 
 function memoryIo(files: Record<string, string>) {
   const out: string[] = [];
@@ -44,7 +44,7 @@ const chain: Model = {
   ],
 };
 
-const files = () => ({ 'chain.json': JSON.stringify(chain), 'warehouse.json': JSON.stringify(warehouseIntegral) });
+const files = () => ({ 'chain.json': JSON.stringify(chain), 'warehouse.json': JSON.stringify(warehouseIntegral), 'greenhouse.json': JSON.stringify(greenhouseIntegral) });
 
 describe('loopfold commute', () => {
   it('prints one JSON object with agree, both orderings in the Ordering shape, and the differences', async () => {
@@ -97,12 +97,33 @@ describe('loopfold commute', () => {
   });
 });
 
+describe('loopfold commute with formulas', () => {
+  it('adds the numbers of the running system held: the integrating heater winds up at 0.02·(20 − 18) per minute', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'greenhouse.json', '--hold', 'airTemp=18', '--interval', '10h', '--json'], m.io)).toBe(0);
+    const r = JSON.parse(m.out[0]);
+    expect(r.agree).toBe(false);
+    expect(r.drift.states).toEqual(['heat']);
+    expect(r.effect.drifting.map((d: { variable: string }) => d.variable)).toEqual(['heat']);
+    expect(r.effect.drifting[0].slope).toBeCloseTo(0.04, 6);
+    const t = memoryIo(files());
+    expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h'], t.io)).toBe(0);
+    // Hand-derived: held heat 50 ⇒ 0 = (5 − T)/10 + 2.5 ⇒ T = 30; unheld, the integral balance puts T at the setpoint 20.
+    expect(t.out.join('\n')).toMatch(/airTemp: 20 → 30 \(\+10\)/);
+  });
+});
+
 describe('loopfold adaptation', () => {
   it('prints { adapted: [{ variable, input }] }', async () => {
     const m = memoryIo(files());
     expect(await runCli(['adaptation', 'warehouse.json', '--json'], m.io)).toBe(0);
     // Hand-derived: at balance orders = demand and stock = target (integral correction).
-    expect(JSON.parse(m.out[0]).adapted).toEqual([{ variable: 'orders', input: 'target' }, { variable: 'stock', input: 'demand' }]);
+    const adapted = JSON.parse(m.out[0]).adapted;
+    expect(adapted.map((a: { variable: string; input: string }) => [a.variable, a.input])).toEqual([['orders', 'target'], ['stock', 'demand']]);
+    // With formulas each pair is confirmed by a simulated step: orders return to demand (100), the stock to the target (500).
+    expect(adapted.every((a: { confirmed: boolean }) => a.confirmed)).toBe(true);
+    expect(adapted[0].before).toBeCloseTo(100, 6);
+    expect(adapted[1].before).toBeCloseTo(500, 6);
   });
 
   it('says so in words without --json', async () => {

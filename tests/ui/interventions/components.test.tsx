@@ -90,6 +90,13 @@ describe('CommutationPanel', () => {
     expect(html).toMatch(/The two orders agree\./);
   });
 
+  it('with formulas, shows how the equilibrium moves when held (greenhouse heater off: the air cools)', () => {
+    const html = renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 60, samples: 50, hold: { heater: 0 } }} />);
+    expect(html).toMatch(/the equilibrium held/);
+    // Hand-derived from the example: heater off ⇒ 0 = (8 − T)/12 + 0.3·0.36 ⇒ T = 9.296 (from 15.03).
+    expect(html).toMatch(/Air temperature: 15\.03 → 9\.296/);
+  });
+
   it('asks for a hold first', () => {
     expect(renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 60 }} />)).toMatch(/Hold a variable/);
   });
