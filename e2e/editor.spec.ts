@@ -176,10 +176,13 @@ test.describe('editing a model on the canvas', () => {
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
     await page.keyboard.press('Control+z');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(9);
-    await page.getByRole('button', { name: /Notation/ }).click();
-    await expect(page.getByText('integrating link')).toHaveCount(0);
-    await page.getByRole('button', { name: /Notation/ }).click();
-    await expect(page.getByText(/integrating link/)).toBeVisible();
+    const toggle = page.getByRole('button', { name: /Notation/ });
+    await expect(page.locator('.lf-legend-items')).toContainText('integrating accumulates over time');
+    await toggle.click();
+    await expect(toggle).toHaveAttribute('aria-expanded', 'false');
+    await expect(page.locator('.lf-legend-items')).toHaveCount(0);
+    await toggle.click();
+    await expect(page.locator('.lf-legend-items')).toBeVisible();
     await page.keyboard.press('f');
     await shot(page, testInfo.outputPath('pasted.png'));
   });

@@ -43,7 +43,7 @@ export function useShortcuts(): void {
         addVariable('derived');
       } else if (!mod && !e.altKey && k === 'f') {
         e.preventDefault();
-        void flow.fitView({ padding: 0.2, duration: 200 });
+        void flow.fitView({ padding: { top: '84px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2, duration: 200 });
       }
     };
     window.addEventListener('keydown', onKey);

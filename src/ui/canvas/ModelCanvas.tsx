@@ -9,6 +9,7 @@ import {
   applyNodeChanges,
   useReactFlow,
   type EdgeChange,
+  type FitViewOptions,
   type FinalConnectionState,
   type NodeChange,
   type NodePositionChange,
@@ -16,6 +17,7 @@ import {
 } from '@xyflow/react';
 import { documentStore, editDocument, useDocument, useModel } from '../../state/document';
 import { selectionStore, useSelection } from '../../state/selection';
+import { useUi } from '../../state/ui';
 import { KIND_SHAPE, ROLE_STYLE } from '../../theme/visual';
 import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
 import { badgesOf } from '../diagnostics/collect';
@@ -53,14 +55,39 @@ export function ModelCanvas() {
   const wrapper = useRef<HTMLDivElement>(null);
   // fit the view once per loaded document, not when the first node of an empty canvas appears
   const generation = useDocument((s) => s.generation);
+  const legendOpen = useUi((s) => s.legendOpen);
+  // keep the fitted drawing clear of the legend strip (top) and the overview map (bottom right)
+  const fitOptions = useMemo<FitViewOptions>(() => ({ padding: { top: legendOpen ? '84px' : '44px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2 }), [legendOpen]);
   const [fitOnMount] = useState(() => model.variables.length > 0);
   const fitted = useRef(generation);
+  // until the modeller pans or zooms, the view keeps the drawing fitted (new document, resized pane)
+  const autoFit = useRef(fitOnMount);
   useEffect(() => {
     if (fitted.current === generation) return;
     fitted.current = generation;
-    const t = setTimeout(() => void flow.fitView({ padding: 0.2, maxZoom: 1.2 }), 60);
+    autoFit.current = true;
+    const t = setTimeout(() => void flow.fitView(fitOptions), 60);
     return () => clearTimeout(t);
-  }, [generation, flow]);
+  }, [generation, flow, fitOptions]);
+  useEffect(() => {
+    const el = wrapper.current;
+    if (!el || typeof ResizeObserver === 'undefined') return;
+    let t: ReturnType<typeof setTimeout> | undefined;
+    const ro = new ResizeObserver(() => {
+      clearTimeout(t);
+      t = setTimeout(() => {
+        if (autoFit.current) void flow.fitView(fitOptions);
+      }, 50);
+    });
+    ro.observe(el);
+    return () => {
+      clearTimeout(t);
+      ro.disconnect();
+    };
+  }, [flow, fitOptions]);
+  const onMoveStart = useCallback((e: MouseEvent | TouchEvent | null) => {
+    if (e) autoFit.current = false;
+  }, []);
 
   useEffect(() => {
     setNodes((prev) => buildNodes(model, undefined, badges, selectedNodes, prev));
@@ -145,6 +172,7 @@ export function ModelCanvas() {
         onNodeDragStop={onNodeDragStop}
         onDelete={onDelete}
         onConnectEnd={onConnectEnd}
+        onMoveStart={onMoveStart}
         connectionMode={ConnectionMode.Strict}
         connectionRadius={30}
         deleteKeyCode={['Delete', 'Backspace']}
@@ -154,7 +182,7 @@ export function ModelCanvas() {
         minZoom={0.1}
         maxZoom={3}
         fitView={fitOnMount}
-        fitViewOptions={{ padding: 0.2, maxZoom: 1.2 }}
+        fitViewOptions={fitOptions}
         attributionPosition="top-right"
         ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' }}
       >

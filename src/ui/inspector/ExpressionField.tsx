@@ -24,16 +24,24 @@ export function ExpressionField({ label, value, model, relation, placeholder, hi
   return (
     <div className="lf-field lf-expr">
       <label htmlFor={id}>{label}</label>
-      <input
+      <textarea
         id={id}
-        className={`lf-mono${error ? ' is-invalid' : ''}`}
+        rows={value.length > 40 ? 3 : 1}
+        className={`lf-mono lf-expr-input${error ? ' is-invalid' : ''}`}
         value={value}
         placeholder={placeholder}
         spellCheck={false}
         autoComplete="off"
         aria-invalid={error ? true : undefined}
         aria-describedby={`${id}-msg`}
-        onChange={(e) => onChange(e.target.value)}
+        onChange={(e) => onChange(e.target.value.replace(/\n/g, ' '))}
+        onKeyDown={(e) => {
+          // one expression per field: Enter finishes instead of starting a second line
+          if (e.key === 'Enter') {
+            e.preventDefault();
+            (e.target as HTMLTextAreaElement).blur();
+          }
+        }}
         onBlur={onBlur}
       />
       <div id={`${id}-msg`} aria-live="polite">

@@ -148,5 +148,8 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
 function timescaleHint(v: Variable, model: Model): string {
   if (v.timescale === undefined) return 'How fast the state responds, such as "90 min" or "2 days".';
   const d = parseDuration(v.timescale, model.timeUnit);
-  return d.ok ? `= ${formatDuration(d.value, model.timeUnit)} (${+d.value.toPrecision(4)} ${model.timeUnit})` : '';
+  if (!d.ok) return '';
+  const words = formatDuration(d.value, model.timeUnit);
+  const inUnit = `${+d.value.toPrecision(4)} ${model.timeUnit}`;
+  return words === inUnit ? `= ${words}` : `= ${words} (${inUnit})`;
 }
