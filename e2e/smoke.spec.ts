@@ -10,7 +10,7 @@ test('the app loads the sleep–stress example without console errors', async ({
   // seven variables of the example, drawn as canvas nodes with accessible names
   await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
   await expect(page.getByRole('note', { name: 'Caution' })).toContainText('no clinical advice');
-  await expect(page.getByText('Results are hypotheses')).toBeVisible();
+  await expect(page.getByText('Results are model-based hypotheses')).toBeVisible();
   await page.screenshot({ path: testInfo.outputPath('app.png') });
   expect(errors).toEqual([]);
 });

@@ -7,7 +7,7 @@ export function StatusBar() {
   const autosaved = useUi((s) => s.autosaved);
   return (
     <footer className="lf-status">
-      <span className="lf-hypotheses">Results are hypotheses that follow from the model as drawn — not findings about the world.</span>
+      <span className="lf-hypotheses">Results are model-based hypotheses: they follow from the model as drawn, not from observations.</span>
       <span className="lf-hint">{[autosaved ? `kept in this browser at ${autosaved}` : '', where ? `core: ${where}` : ''].filter(Boolean).join(' · ')}</span>
     </footer>
   );

@@ -1,7 +1,7 @@
 import { useRef } from 'react';
 import { documentStore, selectCanRedo, selectCanUndo, selectDirty, useDocument } from '../state/document';
 import { uiStore } from '../state/ui';
-import { addRelation, addVariable, copyShareLink, newModel, openFile, save, saveAs } from './actions';
+import { addRelation, addVariable, copyShareLink, newModel, openFile, openWithPicker, save, saveAs } from './actions';
 
 const mod = typeof navigator !== 'undefined' && /Mac/.test(navigator.platform) ? '⌘' : 'Ctrl+';
 
@@ -26,7 +26,7 @@ export function TopBar() {
       <nav className="lf-toolbar" aria-label="File and edit">
         <div role="group" aria-label="File">
           <button type="button" onClick={newModel}>New</button>
-          <button type="button" onClick={() => input.current?.click()}>Open…</button>
+          <button type="button" onClick={() => void openWithPicker().then((used) => { if (!used) input.current?.click(); })}>Open…</button>
           <button type="button" onClick={() => void save()} title={`${mod}S`}>Save</button>
           <button type="button" onClick={() => void saveAs()}>Save as…</button>
           <button type="button" onClick={() => void copyShareLink()}>Share link</button>

@@ -165,6 +165,30 @@ interface SaveHandle {
 let fileHandle: SaveHandle | null = null;
 
 type SavePicker = (opts: unknown) => Promise<SaveHandle>;
+interface OpenHandle extends SaveHandle {
+  getFile(): Promise<File>;
+}
+type OpenPicker = (opts: unknown) => Promise<OpenHandle[]>;
+
+/**
+ * Open through the File System Access API where it can be used, so Save
+ * writes back to the same file; returns false when it cannot be used (the
+ * caller then shows the ordinary file input).
+ */
+export async function openWithPicker(): Promise<boolean> {
+  const w = window as unknown as { showOpenFilePicker?: OpenPicker };
+  if (typeof w.showOpenFilePicker !== 'function' || navigator.webdriver) return false;
+  let handles: OpenHandle[];
+  try {
+    handles = await w.showOpenFilePicker({ types: [{ description: 'Loopfold model', accept: { 'application/json': ['.json'] } }] });
+  } catch (e) {
+    return (e as Error).name === 'AbortError';
+  }
+  const handle = handles[0];
+  if (!handle) return true;
+  if (await openFile(await handle.getFile())) fileHandle = handle;
+  return true;
+}
 function savePicker(): SavePicker | null {
   const w = window as unknown as { showSaveFilePicker?: SavePicker };
   // Under automation the native picker cannot be answered: download instead.
