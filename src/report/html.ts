@@ -15,7 +15,7 @@ import type { ViewModel } from '../core/view/types';
 import type { Layout } from '../layout/types';
 import { renderSvg } from '../export/svg';
 import { perfectAdaptation } from '../core/interventions/adaptation';
-import { commutationAt, hasFormulas, modelNumbers } from '../core/interventions/index';
+import { commutationAt, hasFormulas, interventionEffect, modelNumbers } from '../core/interventions/index';
 
 export interface ReportOptions {
   /** A fixed study length W (model time unit). */
@@ -135,6 +135,20 @@ function numbersSection(model: Model): string {
   return out.join('\n');
 }
 
+function effectSection(model: Model, hold: Record<string, number>): string {
+  const e = htmlEscape;
+  const fx = interventionEffect(model, hold);
+  const out: string[] = [`<p>Holding ${e(Object.entries(hold).map(([k, v]) => `${label(model, k)} = ${v}`).join(', '))} in the running system, from the equilibrium without the hold.</p>`];
+  if (fx.equilibrium) {
+    out.push('<table><thead><tr><th>variable</th><th>equilibrium without</th><th>with the hold</th><th>change</th></tr></thead><tbody>');
+    for (const r of fx.equilibrium) out.push(`<tr><td>${e(label(model, r.variable))}</td><td>${e(num(r.before))}</td><td>${e(num(r.after))}</td><td>${e(num(r.change))}</td></tr>`);
+    out.push('</tbody></table>');
+  }
+  if (fx.drifting.length) out.push(`<ul>${fx.drifting.map((d) => `<li class="warning">${e(label(model, d.variable))} keeps moving at ${e(num(d.slope))} per ${e(model.timeUnit)} at the end of the held run: held, the system has no equilibrium</li>`).join('')}</ul>`);
+  if (fx.messages.length) out.push(`<ul>${fx.messages.map((m) => `<li class="error">${e(m)}</li>`).join('')}</ul>`);
+  return out.join('\n');
+}
+
 /**
  * The report as one HTML string.
  * Example: `await buildReport(model, { samples: 50, layout: (vm) => layoutInNode(vm) })`.
@@ -185,6 +199,8 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
     }
     parts.push('</section>');
   }
+
+  if (options.hold && Object.keys(options.hold).length > 0 && hasFormulas(model)) parts.push('<section><h2>The intervention with the formulas</h2>', effectSection(model, options.hold), '</section>');
 
   const pa = perfectAdaptation(model);
   parts.push('<section><h2>Perfect adaptation</h2>');

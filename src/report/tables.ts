@@ -7,6 +7,7 @@
 import type { Model } from '../core/model/types';
 import { bands, breakpoints, type AxisOptions } from '../core/ordering/index';
 import { toCsv, type CsvValue } from './csv';
+import type { Trajectories } from '../core/interventions/effects';
 
 /** `band,from,to,from_included,to_included,variable,label,role` — intervals in the model's time unit, "Infinity" for the open end. */
 export function bandsCsv(model: Model, axis: AxisOptions = {}): string {
@@ -21,5 +22,14 @@ export function bandsCsv(model: Model, axis: AxisOptions = {}): string {
 export function breakpointsCsv(model: Model, axis: AxisOptions = {}): string {
   const rows: CsvValue[][] = [['interval', 'exclusive', 'variable', 'from_role', 'to_role', 'reason']];
   for (const b of breakpoints(model, axis)) for (const c of b.changes) rows.push([b.interval, Boolean(b.exclusive), c.variable, c.from, c.to, c.reason]);
+  return toCsv(rows);
+}
+
+/** `time,variable,without,with` — the runs without and with an intervention, one row per time and variable (long format). */
+export function trajectoriesCsv(t: Trajectories, variables: readonly string[]): string {
+  const rows: CsvValue[][] = [['time', 'variable', 'without', 'with']];
+  t.times.forEach((time, k) => {
+    for (const v of variables) rows.push([time, v, t.without[v]?.[k], t.with[v]?.[k]]);
+  });
   return toCsv(rows);
 }

@@ -74,6 +74,10 @@ describe('the HTML report', () => {
     const html = await buildReport(example('greenhouse'), { hold: { heater: 0 } });
     expect(html).toMatch(/Holding Heating power = 0/);
     expect(html).toMatch(/differ\./);
+    // With formulas, the held equilibrium: heater off ⇒ 0 = (8 − T)/12 + 0.108 ⇒ T = 9.296 (hand-derived from the example).
+    const r = read(html);
+    expect(r.titles).toContain('The intervention with the formulas');
+    expect(r.text).toMatch(/Air temperature\s*15\.03\s*9\.296/);
   });
 
   it('picks a representative interval inside each band (common practice: the geometric middle on a log axis)', () => {

@@ -9,7 +9,7 @@ import { formatDuration } from '../../core/model/units';
 import type { Ordering, StudyDesign } from '../../core/ordering/types';
 import { commutationAt, confirmAdaptation, hasFormulas, interventionEffect, InterventionError, perfectAdaptation, type Commutation, type InterventionEffect } from '../../core/interventions/index';
 import { buildReport } from '../../report/html';
-import { bandsCsv, breakpointsCsv } from '../../report/tables';
+import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
 import { layoutInNode } from '../../layout/node';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -98,8 +98,8 @@ export const interventionCommands: CliCommand[] = [
   {
     name: 'commute',
     summary: 'does holding a variable commute with the settling at this interval?',
-    usage: 'MODEL.json --hold x=v[,y=w] --interval D [--window W | --samples N] [--json]',
-    options: { hold: true, interval: true, window: true, samples: true, json: false },
+    usage: 'MODEL.json --hold x=v[,y=w] --interval D [--window W | --samples N] [--json] [--until T] [--trajectory runs.csv]',
+    options: { hold: true, interval: true, window: true, samples: true, json: false, until: true, trajectory: true },
     run(args, io) {
       const model = loadModel(args, io);
       const hold = parseHoldOption(args.options.hold, model);
@@ -109,7 +109,20 @@ export const interventionCommands: CliCommand[] = [
       const design: StudyDesign = { interval, ...studyOptions(args, model), hold };
       const c = intervention(() => commutationAt(model, design));
       // With formulas: the numbers of the running system held (equilibrium shift, states that keep moving).
-      const numeric = hasFormulas(model) ? interventionEffect(model, hold) : undefined;
+      const until = durationOption(args, 'until', model);
+      if (until !== undefined && !(until > 0)) throw new CliError(`--until must be positive, not ${until}`, 2);
+      const numeric = hasFormulas(model) ? interventionEffect(model, hold, { until }) : undefined;
+      const trajectoryPath = args.options.trajectory;
+      if (trajectoryPath !== undefined) {
+        if (trajectoryPath === true) throw new CliError('--trajectory needs a file name, e.g. --trajectory runs.csv', 2);
+        if (!numeric) throw new CliError('--trajectory needs a model with formulas (rates and formulas to simulate)', 2);
+        if (!numeric.trajectories) throw new CliError(`cannot write the runs: ${numeric.messages.join('; ')}`);
+        try {
+          io.writeFile(trajectoryPath, trajectoriesCsv(numeric.trajectories, model.variables.map((v) => v.id)));
+        } catch (e) {
+          throw new CliError(`cannot write ${trajectoryPath}: ${(e as Error).message}`);
+        }
+      }
       const effect = numeric ? { equilibrium: numeric.equilibrium, drifting: numeric.drifting, messages: numeric.messages } : undefined;
       if (args.options.json) io.out(JSON.stringify({ agree: c.agree, interval, hold: c.hold, holdThenSettle: c.holdThenSettle, settleThenHold: c.settleThenHold, differences: c.differences, ambiguous: c.ambiguous, drift: c.drift, explanation: c.explanation, ...(effect ? { effect } : {}) }, null, 2));
       else io.out(commutationText(model, design, c, numeric));

@@ -8,6 +8,7 @@
 import type { Model, VariableId } from '../model/types';
 import { parseDuration } from '../model/units';
 import { compareIds } from '../ordering/structure';
+import { orderingAt } from '../ordering/index';
 import { solveEquilibrium } from '../numeric/equilibrium';
 import { simulate, type SimulationResult } from '../numeric/simulate';
 import { linearize } from '../numeric/linearize';
@@ -42,7 +43,7 @@ export interface InterventionEffect {
   /** Present when both equilibria could be computed. */
   equilibrium: EquilibriumShift[] | null;
   trajectories: Trajectories | null;
-  /** States still moving at the end of the held run without slowing down: no equilibrium to reach. */
+  /** States the held equilibrium model leaves undetermined that are still moving at the end of the held run without slowing down. */
   drifting: Mover[];
   /** What could not be computed, in words. */
   messages: string[];
@@ -111,7 +112,10 @@ export function interventionEffect(model: Model, hold: Record<VariableId, number
   let trajectories: Trajectories | null = null;
   if (without.ok && withHold.ok) trajectories = { times: withHold.times, without: without.series, with: withHold.series };
   else messages.push(`the simulation failed: ${[...without.diagnostics, ...withHold.diagnostics].find((d) => d.level === 'error')?.message ?? 'no reason given'}`);
-  const states = model.variables.filter((v) => v.kind === 'state' && !(v.id in hold)).map((v) => v.id);
+  // Only states that the held equilibrium model leaves undetermined can drift; the run confirms that they keep moving
+  // (a state still settling on a short run is not drifting).
+  const noEquilibrium = new Set(orderingAt(model, { settleAll: true, hold }).blocks.filter((b) => b.determination !== 'well').flatMap((b) => b.variables));
+  const states = model.variables.filter((v) => v.kind === 'state' && !(v.id in hold) && noEquilibrium.has(v.id)).map((v) => v.id);
   const drifting = withHold.ok ? driftingStates(withHold, states) : [];
   return { ok: equilibrium !== null && trajectories !== null, hold: { ...hold }, equilibrium, trajectories, drifting, messages };
 }

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import { fileURLToPath } from 'node:url';
 import { runCli } from '../../../src/cli/run';
+import { runPython } from '../../helpers/python';
 import type { Model } from '../../../src/core/model/types';
 import { greenhouseIntegral, warehouseIntegral } from './scenarios';
 
@@ -110,6 +112,28 @@ describe('loopfold commute with formulas', () => {
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h'], t.io)).toBe(0);
     // Hand-derived: held heat 50 ⇒ 0 = (5 − T)/10 + 2.5 ⇒ T = 30; unheld, the integral balance puts T at the setpoint 20.
     expect(t.out.join('\n')).toMatch(/airTemp: 20 → 30 \(\+10\)/);
+  });
+});
+
+describe('loopfold commute --trajectory', () => {
+  it('writes both runs as RFC 4180 CSV that Python reads back, ending where the closed form says', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h', '--until', '200 min', '--trajectory', 'runs.csv'], m.io)).toBe(0);
+    const script = fileURLToPath(new URL('../../report/csv_reference.py', import.meta.url));
+    const [{ parsed }] = runPython<{ parsed: string[][] }[]>(script, [{ rows: [], text: m.files['runs.csv'] }]);
+    expect(parsed[0]).toEqual(['time', 'variable', 'without', 'with']);
+    expect((parsed.length - 1) % greenhouseIntegral.variables.length).toBe(0);
+    const last = parsed.filter((r) => r[1] === 'airTemp').pop()!;
+    expect(Number(last[0])).toBe(200);
+    // T′ = (5 − T)/10 + 0.05·50 from the unheld rest T = 20: T(200) = 30 − 10·e^(−20) (hand-derived).
+    expect(Number(last[3])).toBeCloseTo(30 - 10 * Math.exp(-20), 5);
+    expect(Number(last[2])).toBeCloseTo(20, 5);
+  });
+
+  it('refuses --trajectory for a sketch without formulas', async () => {
+    const m = memoryIo(files());
+    expect(await runCli(['commute', 'chain.json', '--hold', 'p=1', '--interval', '1 day', '--trajectory', 'x.csv'], m.io)).toBe(2);
+    expect(m.err[0]).toMatch(/needs a model with formulas/);
   });
 });
 
