@@ -102,7 +102,7 @@ test.describe('files and share links', () => {
     await page.locator('.lf-inspector').getByLabel('Label', { exact: true }).fill('Stock on hand');
     await expect(page.locator('.lf-dirty')).toBeVisible();
     await shot(page, testInfo.outputPath('unsaved.png'));
-    const asked = new Promise<string>((resolve) => page.once('dialog', (d) => { resolve(d.type()); void d.dismiss(); }));
+    const asked = new Promise<string>((resolve) => page.once('dialog', (d) => { resolve(d.type()); void d.accept(); }));
     await page.close({ runBeforeUnload: true });
     expect(await asked).toBe('beforeunload');
   });
