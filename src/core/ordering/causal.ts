@@ -117,8 +117,8 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
     for (let r = 0, p = 0; r < ne; r++) for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) if (!isExo[colIdx[k]]) uIdx[p++] = colIdx[k];
   }
   const g: BipartiteGraph = { rows: ne, cols: nv, rowPtr: uPtr, colIdx: uIdx };
-  const m = (options.matcher ?? hopcroftKarp)(g);
   const t = transpose(g);
+  const m = options.matcher ? options.matcher(g) : hopcroftKarp(g, t);
   const active = new Uint8Array(nv);
   for (let c = 0; c < nv; c++) active[c] = isExo[c] ? 0 : 1;
   const { rowPart, colPart } = dulmageMendelsohn(g, m, t, active);
@@ -270,11 +270,6 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
   // Edges (matching-independent): for row e in block B, u in e outside B → every v in e ∩ B;
   // u, v both in e ∩ B → one simultaneous edge per pair (u < v). Generated in row order, then
   // stably sorted by from and by to, so the first of each (to, from) run has the smallest row.
-  let cap = 0;
-  for (let r = 0; r < ne; r++) { const k = rowPtr[r + 1] - rowPtr[r]; cap += k * (k - 1); }
-  const eFrom = new Int32Array(cap);
-  const eTo = new Int32Array(cap);
-  const eRow = new Int32Array(cap);
   let n = 0;
   for (let r = 0; r < ne; r++) {
     const b = blockOfRow[r];
@@ -285,31 +280,82 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
       if (blockOfCol[v] !== b) continue;
       for (let j = k0; j < k1; j++) {
         const u = colIdx[j];
-        if (u === v || (blockOfCol[u] === b && u > v)) continue;
-        eFrom[n] = u;
-        eTo[n] = v;
-        eRow[n] = r;
-        n++;
+        if (u !== v && !(blockOfCol[u] === b && u > v)) n++;
       }
     }
   }
-  let idx: Int32Array = new Int32Array(n);
-  for (let i = 0; i < n; i++) idx[i] = i;
-  idx = countingSort(idx, eFrom, nv);
-  idx = countingSort(idx, eTo, nv);
+  // Bucket by `to` (counting sort); rows are visited in increasing order, so each bucket is
+  // already sorted by row; a short insertion sort by `from` (stable) finishes it.
+  const toPtr = new Int32Array(nv + 1);
+  for (let r = 0; r < ne; r++) {
+    const b = blockOfRow[r];
+    for (let i = rowPtr[r]; i < rowPtr[r + 1]; i++) {
+      const v = colIdx[i];
+      if (blockOfCol[v] !== b) continue;
+      for (let j = rowPtr[r]; j < rowPtr[r + 1]; j++) {
+        const u = colIdx[j];
+        if (u !== v && !(blockOfCol[u] === b && u > v)) toPtr[v + 1]++;
+      }
+    }
+  }
+  for (let c = 0; c < nv; c++) toPtr[c + 1] += toPtr[c];
+  const eFrom = new Int32Array(n);
+  const eRow = new Int32Array(n);
+  {
+    const fill = toPtr.slice(0, nv);
+    for (let r = 0; r < ne; r++) {
+      const b = blockOfRow[r];
+      for (let i = rowPtr[r]; i < rowPtr[r + 1]; i++) {
+        const v = colIdx[i];
+        if (blockOfCol[v] !== b) continue;
+        for (let j = rowPtr[r]; j < rowPtr[r + 1]; j++) {
+          const u = colIdx[j];
+          if (u === v || (blockOfCol[u] === b && u > v)) continue;
+          const at = fill[v]++;
+          eFrom[at] = u;
+          eRow[at] = r;
+        }
+      }
+    }
+  }
   let w = 0;
   const oFrom = new Int32Array(n);
   const oTo = new Int32Array(n);
   const oRow = new Int32Array(n);
   const oSim = new Uint8Array(n);
-  for (let q = 0; q < n; q++) {
-    const i = idx[q];
-    if (w > 0 && oFrom[w - 1] === eFrom[i] && oTo[w - 1] === eTo[i]) continue;
-    oFrom[w] = eFrom[i];
-    oTo[w] = eTo[i];
-    oRow[w] = eRow[i];
-    oSim[w] = blockOfCol[eFrom[i]] === blockOfCol[eTo[i]] ? 1 : 0;
-    w++;
+  for (let v = 0; v < nv; v++) {
+    const lo = toPtr[v];
+    const hi = toPtr[v + 1];
+    if (hi - lo > 32) {
+      // A hub: sort packed (from, row) keys instead (exact below 2^53).
+      const keys = new Float64Array(hi - lo);
+      for (let i = lo; i < hi; i++) keys[i - lo] = eFrom[i] * ne + eRow[i];
+      keys.sort();
+      for (let i = lo; i < hi; i++) {
+        const rr = keys[i - lo] % ne;
+        eRow[i] = rr;
+        eFrom[i] = (keys[i - lo] - rr) / ne;
+      }
+    } else for (let i = lo + 1; i < hi; i++) {
+      const f = eFrom[i];
+      const rr = eRow[i];
+      let j = i - 1;
+      while (j >= lo && eFrom[j] > f) {
+        eFrom[j + 1] = eFrom[j];
+        eRow[j + 1] = eRow[j];
+        j--;
+      }
+      eFrom[j + 1] = f;
+      eRow[j + 1] = rr;
+    }
+    for (let i = lo; i < hi; i++) {
+      if (i > lo && eFrom[i] === eFrom[i - 1]) continue; // same (to, from): the first has the smallest row
+      oFrom[w] = eFrom[i];
+      oTo[w] = v;
+      oRow[w] = eRow[i];
+      oSim[w] = blockOfCol[eFrom[i]] === blockOfCol[v] ? 1 : 0;
+      w++;
+    }
   }
   return {
     blockCount: nb,

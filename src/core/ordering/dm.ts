@@ -9,7 +9,7 @@
  * - well-determined part: the rest, which the matching pairs up perfectly.
  * The parts do not depend on which maximum matching was found.
  */
-import type { BipartiteGraph, Matching } from './matching';
+import { transposeGraph, type BipartiteGraph, type Matching } from './matching';
 
 export const PART_WELL = 0;
 export const PART_OVER = 1;
@@ -23,15 +23,7 @@ export interface DmParts {
 }
 
 /** The transpose of a CSR graph: for each column, the rows that contain it (in increasing row order). */
-export function transpose(g: BipartiteGraph): { colPtr: Int32Array; rowIdx: Int32Array } {
-  const colPtr = new Int32Array(g.cols + 1);
-  for (let k = 0; k < g.colIdx.length; k++) colPtr[g.colIdx[k] + 1]++;
-  for (let c = 0; c < g.cols; c++) colPtr[c + 1] += colPtr[c];
-  const fill = colPtr.slice(0, g.cols);
-  const rowIdx = new Int32Array(g.colIdx.length);
-  for (let r = 0; r < g.rows; r++) for (let k = g.rowPtr[r]; k < g.rowPtr[r + 1]; k++) rowIdx[fill[g.colIdx[k]]++] = r;
-  return { colPtr, rowIdx };
-}
+export const transpose = transposeGraph;
 
 /** Coarse DM parts. `colActive[c]` marks the unknowns (exogenous columns are not unknowns). */
 export function dulmageMendelsohn(

@@ -35,6 +35,23 @@ export function bipartiteFromLists(cols: number, lists: ArrayLike<number>[]): Bi
   return { rows, cols, rowPtr, colIdx };
 }
 
+/** For each column, the rows that contain it (in increasing row order). */
+export interface Transposed {
+  colPtr: Int32Array;
+  rowIdx: Int32Array;
+}
+
+/** The transpose of a CSR graph. */
+export function transposeGraph(g: BipartiteGraph): Transposed {
+  const colPtr = new Int32Array(g.cols + 1);
+  for (let k = 0; k < g.colIdx.length; k++) colPtr[g.colIdx[k] + 1]++;
+  for (let c = 0; c < g.cols; c++) colPtr[c + 1] += colPtr[c];
+  const fill = colPtr.slice(0, g.cols);
+  const rowIdx = new Int32Array(g.colIdx.length);
+  for (let r = 0; r < g.rows; r++) for (let k = g.rowPtr[r]; k < g.rowPtr[r + 1]; k++) rowIdx[fill[g.colIdx[k]]++] = r;
+  return { colPtr, rowIdx };
+}
+
 /**
  * Karp–Sipser start (Karp & Sipser, "Maximum matchings in sparse random
  * graphs", FOCS 1981): while some vertex has exactly one free neighbour, the
@@ -42,16 +59,9 @@ export function bipartiteFromLists(cols: number, lists: ArrayLike<number>[]): Bi
  * row greedily. On sparse systems it leaves only a handful of rows for the
  * augmenting phases. Fills rowMate/colMate, returns the number of pairs.
  */
-function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array): number {
+function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array, t?: Transposed): number {
   const { rows, cols, rowPtr, colIdx } = g;
-  const colPtr = new Int32Array(cols + 1);
-  for (let k = 0; k < colIdx.length; k++) colPtr[colIdx[k] + 1]++;
-  for (let c = 0; c < cols; c++) colPtr[c + 1] += colPtr[c];
-  const rowIdx = new Int32Array(colIdx.length);
-  {
-    const fill = colPtr.slice(0, cols);
-    for (let r = 0; r < rows; r++) for (let k = rowPtr[r]; k < rowPtr[r + 1]; k++) rowIdx[fill[colIdx[k]]++] = r;
-  }
+  const { colPtr, rowIdx } = t ?? transposeGraph(g);
   const rowDeg = new Int32Array(rows);
   const colDeg = new Int32Array(cols);
   for (let r = 0; r < rows; r++) rowDeg[r] = rowPtr[r + 1] - rowPtr[r];
@@ -104,13 +114,14 @@ function karpSipser(g: BipartiteGraph, rowMate: Int32Array, colMate: Int32Array)
  * Hopcroft–Karp maximum matching, started from a Karp–Sipser matching.
  * Each phase layers the rows by BFS from the free rows up to the shortest
  * augmenting length, then augments along vertex-disjoint shortest paths.
+ * `transposed` may pass the graph's transpose when the caller has it already.
  * Example: rows 0:{0,1}, 1:{0} → size 2 with rowMate [1, 0].
  */
-export function hopcroftKarp(g: BipartiteGraph): Matching {
+export function hopcroftKarp(g: BipartiteGraph, transposed?: Transposed): Matching {
   const { rows, cols, rowPtr, colIdx } = g;
   const rowMate = new Int32Array(rows).fill(-1);
   const colMate = new Int32Array(cols).fill(-1);
-  let size = karpSipser(g, rowMate, colMate);
+  let size = karpSipser(g, rowMate, colMate, transposed);
   const INF = 0x7fffffff;
   const dist = new Int32Array(rows).fill(INF);
   const queue = new Int32Array(rows);

@@ -3,8 +3,42 @@ import fc from 'fast-check';
 import { causalOrder } from '../../../src/core/ordering/causal';
 import { equilibrateAll, equilibrate } from '../../../src/core/ordering/operators';
 import { orderStructure } from '../../../src/core/ordering/order';
-import { derivativeOf, type EquationStructure } from '../../../src/core/ordering/structure';
+import { derivativeOf, type EquationStructure, type EquationSystem } from '../../../src/core/ordering/structure';
 import { anySystem, kuhnMatcher, permute, SEED, selfContainedSystem, shuffled, simonOrder } from './generators';
+
+/** Checks causalOrder's edges against the definition computed here from its blocks. */
+function expectEdgesByDefinition(system: EquationSystem): ReturnType<typeof causalOrder> {
+  const o = causalOrder(system);
+  const blockOf = new Map<string, number>();
+  o.blocks.forEach((b, i) => b.variables.forEach((v) => blockOf.set(v, i)));
+  const expected = new Map<string, { eq: string; sim: boolean }>();
+  const eqBlock = new Map<string, number>();
+  o.blocks.forEach((b, i) => b.equations.forEach((e) => eqBlock.set(e, i)));
+  for (const e of [...system.equations].sort((a, b) => (a.id < b.id ? -1 : 1))) {
+    const B = eqBlock.get(e.id)!;
+    const vs = [...new Set(e.variables)];
+    for (const v of vs) {
+      if (blockOf.get(v) !== B) continue;
+      for (const u of vs) {
+        if (u === v) continue;
+        const sim = blockOf.get(u) === B;
+        if (sim && !(u < v)) continue;
+        const key = `${u}>${v}`;
+        if (!expected.has(key)) expected.set(key, { eq: e.id, sim });
+      }
+    }
+  }
+  const got = new Map(o.edges.map((x) => [`${x.from}>${x.to}`, { eq: x.equation, sim: x.simultaneous === true }]));
+  expect(got).toEqual(expected);
+  expect(got.size).toBe(o.edges.length);
+  for (const x of o.edges) expect(x.from).not.toBe(x.to);
+  for (let i = 1; i < o.edges.length; i++) {
+    const a = o.edges[i - 1];
+    const b = o.edges[i];
+    expect(a.to < b.to || (a.to === b.to && a.from < b.from)).toBe(true);
+  }
+  return o;
+}
 
 const byFirst = <T extends { variables: string[]; equations: string[] }>(a: T, b: T) =>
   (a.variables[0] ?? a.equations[0]).localeCompare(b.variables[0] ?? b.equations[0]);
@@ -87,37 +121,20 @@ describe('causal order: properties on random systems (fast-check, seeded)', () =
   it('edges follow the matching-independent definition, with no self-loops, sorted by (to, from)', () => {
     fc.assert(
       fc.property(anySystem(8), (system) => {
-        const o = causalOrder(system);
-        const blockOf = new Map<string, number>();
-        o.blocks.forEach((b, i) => b.variables.forEach((v) => blockOf.set(v, i)));
-        const expected = new Map<string, { eq: string; sim: boolean }>();
-        const eqBlock = new Map<string, number>();
-        o.blocks.forEach((b, i) => b.equations.forEach((e) => eqBlock.set(e, i)));
-        for (const e of [...system.equations].sort((a, b) => (a.id < b.id ? -1 : 1))) {
-          const B = eqBlock.get(e.id)!;
-          const vs = [...new Set(e.variables)];
-          for (const v of vs) {
-            if (blockOf.get(v) !== B) continue;
-            for (const u of vs) {
-              if (u === v) continue;
-              const sim = blockOf.get(u) === B;
-              if (sim && !(u < v)) continue;
-              const key = `${u}>${v}`;
-              if (!expected.has(key)) expected.set(key, { eq: e.id, sim });
-            }
-          }
-        }
-        const got = new Map(o.edges.map((x) => [`${x.from}>${x.to}`, { eq: x.equation, sim: x.simultaneous === true }]));
-        expect(got).toEqual(expected);
-        for (const x of o.edges) expect(x.from).not.toBe(x.to);
-        for (let i = 1; i < o.edges.length; i++) {
-          const a = o.edges[i - 1];
-          const b = o.edges[i];
-          expect(a.to < b.to || (a.to === b.to && a.from < b.from)).toBe(true);
-        }
+        expectEdgesByDefinition(system);
       }),
       { seed: SEED, numRuns: 300 },
     );
+  });
+
+  it('edges into a hub variable (one unknown in every equation of a large block) follow the same definition', () => {
+    const n = 80;
+    const equations = [
+      ...Array.from({ length: n }, (_, i) => ({ id: `f${String(i).padStart(3, '0')}`, variables: [`x${String(i).padStart(3, '0')}`, `x${String((i + 1) % n).padStart(3, '0')}`, 'z'] })),
+      { id: 'fz', variables: ['z', 'x000', 'w1'] },
+    ];
+    const o = expectEdgesByDefinition({ equations, exogenous: ['w1'] });
+    expect(o.edges.filter((e) => e.to === 'z').length).toBe(n + 1); // every x and w1
   });
 });
 
