@@ -60,11 +60,18 @@ export function mul(a: Mat, b: Mat): Mat {
   const n = a.rows, m = b.cols, p = a.cols;
   const c = new Float64Array(n * m);
   const ad = a.data, bd = b.data;
+  // Four rows of B per pass over a row of C: a quarter of the loads and stores of C.
+  const p4 = p - (p % 4);
   for (let i = 0; i < n; i++) {
     const ci = i * m;
-    for (let k = 0; k < p; k++) {
-      const aik = ad[i * p + k];
-      if (aik === 0) continue;
+    const ai = i * p;
+    for (let k = 0; k < p4; k += 4) {
+      const a0 = ad[ai + k], a1 = ad[ai + k + 1], a2 = ad[ai + k + 2], a3 = ad[ai + k + 3];
+      const b0 = k * m, b1 = b0 + m, b2 = b1 + m, b3 = b2 + m;
+      for (let j = 0; j < m; j++) c[ci + j] += a0 * bd[b0 + j] + a1 * bd[b1 + j] + a2 * bd[b2 + j] + a3 * bd[b3 + j];
+    }
+    for (let k = p4; k < p; k++) {
+      const aik = ad[ai + k];
       const bk = k * m;
       for (let j = 0; j < m; j++) c[ci + j] += aik * bd[bk + j];
     }
@@ -72,19 +79,10 @@ export function mul(a: Mat, b: Mat): Mat {
   return { rows: n, cols: m, data: c };
 }
 
-/** A·Bᵀ without forming the transpose. */
+/** A·Bᵀ (through an explicit transpose: the blocked product is faster than dot products). */
 export function mulT(a: Mat, b: Mat): Mat {
   if (a.cols !== b.cols) throw new Error(`cannot multiply ${a.rows}×${a.cols} by the transpose of ${b.rows}×${b.cols}`);
-  const n = a.rows, m = b.rows, p = a.cols;
-  const c = new Float64Array(n * m);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < m; j++) {
-      let s = 0;
-      for (let k = 0; k < p; k++) s += a.data[i * p + k] * b.data[j * p + k];
-      c[i * m + j] = s;
-    }
-  }
-  return { rows: n, cols: m, data: c };
+  return mul(a, transpose(b));
 }
 
 export function mulVec(a: Mat, x: ArrayLike<number>): Float64Array {

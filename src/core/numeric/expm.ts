@@ -119,8 +119,12 @@ export function vanLoan(a: Mat, diffusion: Mat, interval: number): NoiseOverInte
   const n = a.rows;
   if (!(interval > 0) || !Number.isFinite(interval)) throw new Error(`the interval must be a positive number, not ${interval}`);
   if (diffusion.rows !== n || diffusion.cols !== n) throw new Error(`G Gᵀ must be ${n}×${n}, not ${diffusion.rows}×${diffusion.cols}`);
-  const gg = diffusion;
-  const nrm = norm1(a) * interval;
+  // Q is linear in G Gᵀ: scale that block to the size of A so it does not inflate the norm of the
+  // block matrix (which would only cost extra squarings), and scale Q back at the end.
+  const an = norm1(a), gn = norm1(diffusion);
+  const sigma = gn > 0 && an > 0 ? an / gn : 1;
+  const gg = sigma === 1 ? diffusion : scale(diffusion, sigma);
+  const nrm = an * interval;
   // Keep ‖A‖h ≤ 1/2: the block matrix then has no large exponentials to cancel.
   const m = nrm > 0.5 ? Math.ceil(Math.log2(nrm / 0.5)) : 0;
   const h = interval / 2 ** m;
@@ -145,7 +149,7 @@ export function vanLoan(a: Mat, diffusion: Mat, interval: number): NoiseOverInte
     q = symmetrize(axpby(1, q, 1, mulT(mul(phi, q), phi)));
     phi = mul(phi, phi);
   }
-  return { phi, q };
+  return { phi, q: sigma === 1 ? q : scale(q, 1 / sigma) };
 }
 
 /** G Gᵀ for a diagonal G with the given intensities (standard deviations of the noise per unit time). */

@@ -36,6 +36,7 @@ const P = [
   [1 / 3, -8 / 3, 10 / 3],
 ];
 const NEWTON_MAXITER = 6;
+const NEWTON_KAPPA = 0.01;
 const MIN_FACTOR = 0.2;
 const MAX_FACTOR = 10;
 
@@ -211,7 +212,9 @@ export function integrateRadau(problem: OdeProblem, t0: number, y0: Float64Array
   let f = new Float64Array(n);
   fun(t, y, f);
   if (![...f].every(Number.isFinite)) return { status: 'failed', message: `the rates are not finite at the start (t = ${t0})`, times, values, stats };
-  const newtonTol = Math.max((10 * Number.EPSILON) / rtol, Math.min(0.03, Math.sqrt(rtol)));
+  // Newton stops when the predicted remaining error is κ·Tol with κ = 0.01, the low end of the range
+  // 0.01–0.1 recommended in Hairer & Wanner IV.8 (the norm here is already scaled by the tolerance).
+  const newtonTol = Math.max((10 * Number.EPSILON) / rtol, NEWTON_KAPPA);
 
   // Initial step (Hairer, Nørsett & Wanner, Solving ODEs I, Sec. II.4), for the embedded order 3.
   let hAbs: number;
@@ -232,6 +235,7 @@ export function integrateRadau(problem: OdeProblem, t0: number, y0: Float64Array
   hAbs = Math.min(hAbs, maxStep);
   let hAbsOld: number | null = null;
   let errorNormOld: number | null = null;
+  let carriedEta: number | null = null;
 
   jac(t, y, f);
   let currentJac = true;
@@ -335,7 +339,11 @@ export function integrateRadau(problem: OdeProblem, t0: number, y0: Float64Array
           if (rate !== null && (rate >= 1 || (rate ** (NEWTON_MAXITER - k) / (1 - rate)) * dwNorm > newtonTol)) break;
           for (let i = 0; i < n; i++) { W[0][i] += dwr[i]; W[1][i] += dwcr[i]; W[2][i] += dwci[i]; }
           for (let s = 0; s < 3; s++) for (let i = 0; i < n; i++) Z[s][i] = T[s][0] * W[0][i] + T[s][1] * W[1][i] + T[s][2] * W[2][i];
-          if (dwNorm === 0 || (rate !== null && (rate / (1 - rate)) * dwNorm < newtonTol)) { converged = true; break; }
+          // Converged when the predicted remaining error η·‖ΔW‖ is below the tolerance; on the first
+          // iteration η is carried over from the previous step, η ← max(η, eps)^0.8 (Hairer & Wanner IV.8,
+          // after (8.17): the RADAU5 rule that lets one iteration suffice).
+          const eta: number | null = rate !== null ? rate / (1 - rate) : carriedEta !== null ? Math.max(carriedEta, Number.EPSILON) ** 0.8 : null;
+          if (dwNorm === 0 || (eta !== null && eta * dwNorm < newtonTol)) { converged = true; carriedEta = eta; break; }
           dwNormOld = dwNorm;
         }
         nIter = k + 1;
