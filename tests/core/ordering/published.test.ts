@@ -58,9 +58,9 @@ describe('Simon (1953), "Causal ordering and identifiability", §3: a self-conta
 /**
  * Iwasaki & Simon (1994), "Causality and model abstraction", Artificial
  * Intelligence 67: a store with an inflow and a pressure-driven outflow,
- * rebuilt abstractly (reconstructed from memory; the same structure is the
- * running example of Blom, van Diepen & Mooij 2021, JMLR 22, in its
- * equilibrium form):
+ * rebuilt abstractly (reconstructed from memory; its equilibrium form, with
+ * the same reversed ordering, is re-read in Mooij's Example 6 below and was
+ * used by Blom, van Diepen & Mooij 2021, JMLR 22):
  *   g1: x1 (inflow, set from outside)      g2: x2 (outlet setting)
  *   g3: x3 with x4 (pressure from level)   g4: x5 with x2, x3 (outflow)
  *   rate(x4): x4' with x1, x5 (the level integrates inflow minus outflow)
@@ -118,5 +118,67 @@ describe('Iwasaki & Simon (1994) — dynamic causal ordering of a mixed structur
       '1:x4/g3',
       '1:x5/rate(x4)',
     ]);
+  });
+});
+
+/**
+ * Mooij, "Causal Reasoning with Bipartite Graphical Causal Models" (preprint,
+ * University of Amsterdam), Examples 2, 6 and 20 and Table 1: a simplified
+ * equilibrium of the Iwasaki & Simon (1994) store, rebuilt with neutral names:
+ *   exogenous w1 (inflow), w2 (outlet area), w3 (a constant of the medium)
+ *   f1: 0 = w1 − x1                 (x1: outflow; outflow equals inflow)
+ *   f2: 0 = w2·√x2 − x1             (x2: pressure)
+ *   f3: 0 = w3·x3 − x2              (x3: level)
+ * A hard intervention do(fj: xv = ξ) replaces equation fj by 0 = xv − ξ.
+ */
+describe('Mooij, bipartite graphical causal models: the equilibrium example and its hard interventions', () => {
+  const exogenous = ['w1', 'w2', 'w3'];
+  const f = { f1: ['w1', 'x1'], f2: ['w2', 'x2', 'x1'], f3: ['w3', 'x3', 'x2'] } as const;
+  const system = (replace?: { eq: keyof typeof f; target: string }): EquationSystem => ({
+    equations: (Object.keys(f) as (keyof typeof f)[]).map((id) => eq(id, ...(replace?.eq === id ? [replace.target] : f[id]))),
+    exogenous,
+  });
+  const order = (s: EquationSystem) =>
+    causalOrder(s)
+      .blocks.filter((b) => b.equations.length > 0)
+      .map((b) => `${b.equations.join(',')}→${b.variables.join(',')}`);
+
+  it('Example 6: f1 determines x1, f2 then x2, f3 last x3 (singleton clusters)', () => {
+    expect(order(system())).toEqual(['f1→x1', 'f2→x2', 'f3→x3']);
+    expect(causalOrder(system()).blocks.filter((b) => b.equations.length > 0).map((b) => b.level)).toEqual([1, 2, 3]);
+  });
+
+  it('Example 20 (i): do(f1: x3 = ξ) reverses the ordering — x3, then x2 by f3, then x1 by f2', () => {
+    expect(order(system({ eq: 'f1', target: 'x3' }))).toEqual(['f1→x3', 'f3→x2', 'f2→x1']);
+  });
+
+  it('Example 20 (ii): do(f2: x3 = ξ) — f1 still fixes x1, the replaced f2 fixes x3, f3 now gives x2', () => {
+    const o = causalOrder(system({ eq: 'f2', target: 'x3' }));
+    const by = Object.fromEntries(o.blocks.filter((b) => b.equations.length > 0).map((b) => [b.equations[0], b.variables.join(',')]));
+    expect(by).toEqual({ f1: 'x1', f2: 'x3', f3: 'x2' });
+  });
+
+  it('Example 20 (iii): do(f3: x3 = ξ) keeps the ordering; it is the one hold() chooses, since f3 is paired with x3', () => {
+    expect(order(system({ eq: 'f3', target: 'x3' }))).toEqual(['f3→x3', 'f1→x1', 'f2→x2']);
+    const s: EquationStructure = { ...system(), exogenous, variables: ['w1', 'w2', 'w3', 'x1', 'x2', 'x3'], derivatives: {} };
+    expect(hold(s, 'x3', 1).change.removed).toEqual(['f3']);
+  });
+
+  it('Table 1: which do(fj: xv = ξ) leave a uniquely solvable (self-contained) system', () => {
+    const feasible: Record<string, boolean> = {};
+    for (const target of ['x1', 'x2', 'x3'])
+      for (const e of ['f1', 'f2', 'f3'] as const)
+        feasible[`do(${e}: ${target})`] = causalOrder(system({ eq: e, target })).blocks.every((b) => b.determination === 'well');
+    expect(feasible).toEqual({
+      'do(f1: x1)': true,
+      'do(f2: x1)': false,
+      'do(f3: x1)': false,
+      'do(f1: x2)': true,
+      'do(f2: x2)': true,
+      'do(f3: x2)': false,
+      'do(f1: x3)': true,
+      'do(f2: x3)': true,
+      'do(f3: x3)': true,
+    });
   });
 });
