@@ -94,9 +94,12 @@ function countingSort(items: Int32Array, key: Int32Array, range: number): Int32A
 }
 
 /**
- * The integer layer. `blockKey` (optional) orders blocks of equal level: by
- * default the smallest column, and for blocks without columns the row index
- * plus cols (callers with string ids pass a key that interleaves them by id).
+ * The integer layer. Blocks of equal level are ordered by their smallest
+ * column; a block without columns (equations that only constrain exogenous
+ * variables) by `constraintKey(row)` of its smallest row — default cols + row,
+ * after every column; callers with string ids pass a key that interleaves
+ * such blocks by id. Example: rows [[0], [0, 1]] over 2 columns give blocks
+ * {0}/[0] at level 0 and {1}/[1] at level 1.
  */
 export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & { constraintKey?: (row: number) => number } = {}): IndexedOrder {
   const { rows: ne, cols: nv, rowPtr, colIdx, exogenous: isExo } = sys;
@@ -183,7 +186,7 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
   const scc = stronglyConnected(nv, wellPtr, wellAdj, wellActive);
   // Tarjan completes sinks first: component count-1 … 0 is a causal order.
   const base = nb;
-  for (let c = 0; c < nv; c++) if (scc.comp[c] >= 0) blockOfCol[c] = base + (scc.comp[c] === -1 ? 0 : scc.count - 1 - scc.comp[c]);
+  for (let c = 0; c < nv; c++) if (scc.comp[c] >= 0) blockOfCol[c] = base + scc.count - 1 - scc.comp[c];
   for (let s = 0; s < scc.count; s++) det.push(DET_WELL);
   nb += scc.count;
   for (let r = 0; r < ne; r++) if (rowPart[r] === PART_WELL) blockOfRow[r] = blockOfCol[m.rowMate[r]];
