@@ -1,0 +1,77 @@
+import { describe, expect, it } from 'vitest';
+import { buildEdges, buildNodes, type FlowNode } from '../../src/ui/canvas/flow';
+import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
+import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
+import { equationId } from '../../src/core/ordering/types';
+import { applyChange, emptyModel, withLinkIds } from '../../src/state/changes';
+import { validateModel } from '../../src/state/validate';
+import type { Model } from '../../src/core/model/types';
+
+const model: Model = withLinkIds({
+  ...emptyModel(),
+  variables: [
+    { id: 'a', kind: 'input', position: { x: 0, y: 0 } },
+    { id: 'b', kind: 'state', timescale: 1, position: { x: 200, y: 0 } },
+    { id: 'c', kind: 'derived', formula: 'a +', position: { x: 400, y: 0 } },
+  ],
+  links: [{ from: 'a', to: 'b', kind: 'integrating' }],
+  relations: [{ id: 'r', equation: 'a * b = c', position: { x: 100, y: 100 } }],
+});
+const none = { errors: new Map<string, number>(), warnings: new Map<string, number>() };
+
+describe('canvas nodes from the model', () => {
+  it('keeps the node object (and its measured size) of every variable an edit did not touch', () => {
+    const first = buildNodes(model, undefined, none, new Set(), []).map((n) => ({ ...n, measured: { width: 120, height: 46 } })) as FlowNode[];
+    const edited = applyChange(model, { type: 'updateVariable', id: 'b', patch: { label: 'Level' } });
+    const second = buildNodes(edited, undefined, none, new Set(), first);
+    expect(second[0]).toBe(first[0]);
+    expect(second[2]).toBe(first[2]);
+    expect(second[1]).not.toBe(first[1]);
+    expect(second[1].measured).toEqual({ width: 120, height: 46 });
+    expect(second[1].ariaLabel).toBe('Level: state');
+  });
+
+  it('joins a relation to each of its variables with an undirected member line', () => {
+    const edges = buildEdges(model, new Set());
+    expect(edges.filter((e) => e.type === 'link')).toHaveLength(1);
+    expect(edges.filter((e) => e.type === 'member').map((e) => e.target).sort()).toEqual(['a', 'b', 'c']);
+  });
+});
+
+describe('link geometry', () => {
+  // Common practice: the exit point of a ray from a rectangle's centre lies on its boundary, in the ray's direction.
+  it('meets the box outline in the direction of the target', () => {
+    const box = { x: 0, y: 0, w: 100, h: 40 };
+    for (const [tx, ty] of [[500, 20], [50, 300], [-200, -200], [51, 21]]) {
+      const p = boxExit(box, tx, ty);
+      const onEdge = Math.abs(p.x - 0) < 1e-9 || Math.abs(p.x - 100) < 1e-9 || Math.abs(p.y - 0) < 1e-9 || Math.abs(p.y - 40) < 1e-9;
+      expect(onEdge).toBe(true);
+      const cross = (p.x - 50) * (ty - 20) - (p.y - 20) * (tx - 50);
+      expect(Math.abs(cross)).toBeLessThan(1e-6);
+    }
+  });
+
+  it('bows a→b and b→a to opposite sides, so the two links never overlap', () => {
+    const a = { x: 0, y: 0, w: 100, h: 40 };
+    const b = { x: 400, y: 0, w: 100, h: 40 };
+    expect(linkPath(a, b).mid.y).toBeLessThan(20);
+    expect(linkPath(b, a).mid.y).toBeGreaterThan(20);
+  });
+});
+
+describe('problems on the canvas', () => {
+  it('maps every equation id of the ordering contract back to its node', () => {
+    expect(nodeOfEquation(equationId.formula('soil'))).toBe('soil');
+    expect(nodeOfEquation(equationId.rate('stock'))).toBe('stock');
+    expect(nodeOfEquation(equationId.hold('x'))).toBe('x');
+    expect(nodeOfEquation('transit')).toBe('transit');
+  });
+
+  it('badges the variables a formula error or a core diagnostic names', () => {
+    const problems = collectProblems(model, validateModel(model), [{ level: 'warning', code: 'x', message: 'check b', variables: [], equations: [equationId.rate('b')] }]);
+    const badges = badgesOf(problems);
+    expect(badges.errors.get('c')).toBe(1);
+    expect(badges.warnings.get('b')).toBe(1);
+    expect(badges.errors.get('a')).toBeUndefined();
+  });
+});
