@@ -100,8 +100,9 @@ export function solveBlock(system: NumericSystem, b: PreparedBlock, v: Float64Ar
   let fnorm = Math.hypot(...F);
   let best = { x: x0.slice(), f: Number.isFinite(fnorm) ? fnorm : Infinity };
   let singular = false;
+  let stagnated = false;
   let it = 0;
-  const converged = () => maxAbs(F) <= tol * Math.max(1, maxAbs(Float64Array.from(b.slots, (s) => v[s])));
+  const converged = () => stagnated || maxAbs(F) <= tol * Math.max(1, maxAbs(Float64Array.from(b.slots, (s) => v[s])));
   for (; it < maxIt && !converged(); it++) {
     if (!Number.isFinite(fnorm)) break;
     const J = blockJacobian(system, b, v);
@@ -149,6 +150,8 @@ export function solveBlock(system: NumericSystem, b: PreparedBlock, v: Float64Ar
     if (!accepted) {
       for (let j = 0; j < k; j++) v[b.slots[j]] = xOld[j];
       residuals(system, b, v, F);
+      // No decrease is possible any more: stagnation at rounding level counts as converged.
+      if (maxAbs(F) <= 1e-8 * Math.max(1, maxAbs(xOld))) stagnated = true;
       break;
     }
     if (fnorm < best.f) best = { x: Float64Array.from(b.slots, (s) => v[s]), f: fnorm };
