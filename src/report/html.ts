@@ -30,10 +30,10 @@ export interface ReportOptions {
   generated?: string;
 }
 
-/** Escape text for HTML content and attribute values. */
-export function htmlEscape(s: string): string {
-  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-}
+import { htmlEscape } from './html-escape';
+import { trajectoryChart } from './chart';
+
+export { htmlEscape };
 
 /** A representative interval inside a band: the geometric middle of a finite band, twice the start of the last one. */
 export function bandInterval(b: Band): number {
@@ -58,7 +58,7 @@ h1{font-size:1.6rem;margin-bottom:.2rem}h2{font-size:1.25rem;margin-top:2.2rem;b
 .sub{color:#555}.caution{border:2px solid #1d1d1f;padding:.5rem .8rem;font-weight:600}
 table{border-collapse:collapse;margin:.5rem 0}td,th{border:1px solid #999;padding:.2rem .5rem;text-align:left;vertical-align:top}
 .figure svg{max-width:100%;height:auto}.error::before{content:"✖ "}.warning::before{content:"▲ "}
-.agree::before{content:"= "}.differ::before{content:"≠ "}
+@media screen{.charts{display:flex;flex-wrap:wrap;gap:.5rem}}.agree::before{content:"= "}.differ::before{content:"≠ "}
 code{font-family:ui-monospace,Menlo,Consolas,monospace;font-size:.9em}
 @media print{body{margin:0;max-width:none}section.band{break-before:page}h2{break-after:avoid}.figure{break-inside:avoid}}
 `;
@@ -110,6 +110,7 @@ function changesAt(model: Model, bp: Breakpoint | undefined): string {
 /** Round for reading: 4 significant digits. */
 function num(x: number): string {
   if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return '0';
   return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
 }
 
@@ -143,6 +144,18 @@ function effectSection(model: Model, hold: Record<string, number>): string {
     out.push('<table><thead><tr><th>variable</th><th>equilibrium without</th><th>with the hold</th><th>change</th></tr></thead><tbody>');
     for (const r of fx.equilibrium) out.push(`<tr><td>${e(label(model, r.variable))}</td><td>${e(num(r.before))}</td><td>${e(num(r.after))}</td><td>${e(num(r.change))}</td></tr>`);
     out.push('</tbody></table>');
+  }
+  if (fx.trajectories) {
+    const t = fx.trajectories;
+    const moved = model.variables
+      .map((v) => v.id)
+      .filter((id) => (t.with[id] ?? []).some((y, k) => Math.abs(y - (t.without[id]?.[k] ?? y)) > 1e-9 * (1 + Math.abs(y))))
+      .slice(0, 8);
+    if (moved.length) {
+      out.push('<p class="sub">Runs from the equilibrium without the hold: dashed without, solid with the hold held from the start.</p><div class="charts">');
+      for (const id of moved) out.push(trajectoryChart(t, id, label(model, id), { timeUnit: model.timeUnit, crop: true }));
+      out.push('</div>');
+    }
   }
   if (fx.drifting.length) out.push(`<ul>${fx.drifting.map((d) => `<li class="warning">${e(label(model, d.variable))} keeps moving at ${e(num(d.slope))} per ${e(model.timeUnit)} at the end of the held run: held, the system has no equilibrium</li>`).join('')}</ul>`);
   if (fx.messages.length) out.push(`<ul>${fx.messages.map((m) => `<li class="error">${e(m)}</li>`).join('')}</ul>`);

@@ -87,14 +87,19 @@ export function driftingStates(run: SimulationResult, states: readonly VariableI
 
 /**
  * The numeric effect of holding `hold`, over `until` (default: 10 × the
- * longest timescale). Example: `interventionEffect(model, { heater: 0 }).equilibrium`.
+ * longest timescale of the states the hold moves), sampled 1000 times. Example: `interventionEffect(model, { heater: 0 }).equilibrium`.
  */
 export function interventionEffect(model: Model, hold: Record<VariableId, number>, options: { until?: number; every?: number } = {}): InterventionEffect {
   const messages: string[] = [];
-  const until = options.until ?? 10 * longestTimescale(model);
-  const every = options.every ?? until / 200;
   const base = solveEquilibrium(model);
   const held = solveEquilibrium(model, { hold });
+  // Only states that the held equilibrium model leaves undetermined can drift; the run confirms that they keep moving
+  // (a state still settling on a short run is not drifting).
+  const noEquilibrium = new Set(orderingAt(model, { settleAll: true, hold }).blocks.filter((b) => b.determination !== 'well').flatMap((b) => b.variables));
+  // The run lasts 10 timescales of the slowest state the hold moves (its equilibrium changes, or it has none).
+  const moved = model.variables.filter((v) => v.kind === 'state' && !(v.id in hold) && (noEquilibrium.has(v.id) || !base.ok || !held.ok || Math.abs(held.values[v.id] - base.values[v.id]) > 1e-9 * (1 + Math.abs(base.values[v.id]))));
+  const until = options.until ?? 10 * longestTimescale({ ...model, variables: moved.length ? moved : model.variables });
+  const every = options.every ?? until / 1000;
   let equilibrium: EquilibriumShift[] | null = null;
   if (base.ok && held.ok) {
     equilibrium = model.variables
@@ -112,9 +117,6 @@ export function interventionEffect(model: Model, hold: Record<VariableId, number
   let trajectories: Trajectories | null = null;
   if (without.ok && withHold.ok) trajectories = { times: withHold.times, without: without.series, with: withHold.series };
   else messages.push(`the simulation failed: ${[...without.diagnostics, ...withHold.diagnostics].find((d) => d.level === 'error')?.message ?? 'no reason given'}`);
-  // Only states that the held equilibrium model leaves undetermined can drift; the run confirms that they keep moving
-  // (a state still settling on a short run is not drifting).
-  const noEquilibrium = new Set(orderingAt(model, { settleAll: true, hold }).blocks.filter((b) => b.determination !== 'well').flatMap((b) => b.variables));
   const states = model.variables.filter((v) => v.kind === 'state' && !(v.id in hold) && noEquilibrium.has(v.id)).map((v) => v.id);
   const drifting = withHold.ok ? driftingStates(withHold, states) : [];
   return { ok: equilibrium !== null && trajectories !== null, hold: { ...hold }, equilibrium, trajectories, drifting, messages };
