@@ -141,6 +141,8 @@ export function ModelCanvas() {
     if (to && to !== from && model.variables.some((v) => v.id === to)) addLink(from, to);
   }, [model]);
 
+  // every pointer-down on the canvas starts a new undo step (history stop)
+  const onPointerDown = useCallback(() => documentStore.getState().stopGesture(), []);
   const onDoubleClick = useCallback((e: ReactMouseEvent) => {
     if (!(e.target as HTMLElement).classList.contains('react-flow__pane')) return;
     addVariable('derived', flow.screenToFlowPosition({ x: e.clientX, y: e.clientY }));
@@ -159,7 +161,7 @@ export function ModelCanvas() {
   }, []);
 
   return (
-    <div className="lf-canvas" ref={wrapper} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
+    <div className="lf-canvas" ref={wrapper} onPointerDownCapture={onPointerDown} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
       <LinkMarkers />
       <ReactFlow
         nodes={nodes}
