@@ -21,9 +21,8 @@ describe('the do-operator at a sampling interval', () => {
       const model = load(ex.model);
       for (const b of bands(model, { samples: model.settings?.samples })) {
         const interval = bandInterval(b);
-        // Variables with an equation of their own (inputs, states, formulas). A variable fixed only by a relation is
-        // held by the ordering core in the settled structure, where the relation's pairing can differ from the mechanism's.
-        for (const v of model.variables.filter((x) => x.kind !== 'derived' || x.formula !== undefined || (model.relations ?? []).length === 0)) {
+        // Every variable, including one fixed only by a relation (warehouse deliveries).
+        for (const v of model.variables) {
           const design = { interval, samples: model.settings?.samples, hold: { [v.id]: 1 } };
           const c = commutationAt(model, design);
           const o = orderingAt(model, design);
