@@ -67,13 +67,39 @@ export function createCoreClient(primary: (() => CoreApi & { dispose?: () => voi
     return mainApi().analyze(model, design);
   };
   const lw = latestWins(run);
+  // At most one request is with the core; a newer one waits, and replaces any
+  // older one still waiting (which is then never sent). An answer is delivered
+  // only if no newer request came meanwhile.
+  type Job = { model: Model; design: StudyDesign; resolve: (r: AnalysisResult | null) => void };
+  let waiting: Job | null = null;
+  let busy = false;
+  const pump = () => {
+    if (busy || !waiting) return;
+    const job = waiting;
+    waiting = null;
+    busy = true;
+    lw.call(job.model, job.design)
+      .then(
+        (d) => job.resolve(d.stale || waiting ? null : d.value),
+        (e: unknown) => job.resolve({ ok: false, message: `the analysis failed: ${(e as Error).message}` }),
+      )
+      .finally(() => {
+        busy = false;
+        pump();
+      });
+  };
   return {
-    async analyze(model, design) {
-      const d = await lw.call(model, design);
-      return d.stale ? null : d.value;
+    analyze(model, design) {
+      return new Promise((resolve) => {
+        waiting?.resolve(null);
+        waiting = { model, design, resolve };
+        pump();
+      });
     },
     where: () => (onMain ? 'main thread' : 'worker'),
     dispose() {
+      waiting?.resolve(null);
+      waiting = null;
       lw.invalidate();
       api?.dispose?.();
     },

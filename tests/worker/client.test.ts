@@ -16,21 +16,40 @@ function deferredTransport() {
   };
   return { api, pending };
 }
+const until = async (cond: () => boolean) => {
+  for (let i = 0; i < 200 && !cond(); i++) await new Promise((r) => setTimeout(r, 1));
+};
 const answer = (n: number): AnalysisResult => ({ ok: false, message: `answer ${n}` });
 
 // Latest-wins is common practice for request/response over an asynchronous channel:
 // an answer is delivered only if no newer request was made before it arrived.
 describe('latest-wins core client', () => {
-  it('drops an older answer that arrives after a newer one', async () => {
+  it('drops an answer when a newer request came while it was computed', async () => {
     const t = deferredTransport();
     const client = createCoreClient(() => t.api, () => t.api);
     const first = client.analyze(emptyModel(), {});
     const second = client.analyze(emptyModel(), {});
     await Promise.resolve();
-    t.pending[1].resolve(answer(1));
+    expect(t.pending).toHaveLength(1); // one request at a time with the core
     t.pending[0].resolve(answer(0));
-    expect(await second).toEqual(answer(1));
     expect(await first).toBeNull();
+    await until(() => t.pending.length === 2);
+    t.pending[1].resolve(answer(1));
+    expect(await second).toEqual(answer(1));
+  });
+
+  it('a request overtaken while waiting is never sent', async () => {
+    const t = deferredTransport();
+    const client = createCoreClient(() => t.api, () => t.api);
+    const calls = [0, 1, 2, 3].map(() => client.analyze(emptyModel(), {}));
+    await Promise.resolve();
+    expect(await calls[1]).toBeNull();
+    expect(await calls[2]).toBeNull();
+    t.pending[0].resolve(answer(0));
+    await until(() => t.pending.length === 2);
+    t.pending[1].resolve(answer(3));
+    expect(await Promise.all(calls)).toEqual([null, null, null, answer(3)]);
+    expect(t.pending).toHaveLength(2); // the two overtaken ones never reached the transport
   });
 
   it('for any order of arrival, only the last request is delivered (property test, seeded)', async () => {
