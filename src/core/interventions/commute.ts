@@ -376,7 +376,9 @@ export function commutation(input: CommutationInput): Commutation {
   if (drift && !same) differences.push({ kind: 'determination', only: 'settleThenHold', variables: [...new Set([...drift.states, ...drift.variables])].sort(compareIds), reason: `the equilibrium model, held, still settles; ${drift.message}` });
 
   const agree = same && ambiguous.length === 0;
-  const explanation = explain({ mechanism, equilibrium, heldIds, holds, settled, sth, agree, same, ambiguous, drift });
+  const runningDrops: Record<VariableId, EquationId | undefined> = {};
+  for (const ch of hts.changes) if (ch.operator === 'hold') runningDrops[ch.variable] = ch.removed[0];
+  const explanation = explain({ mechanism, equilibrium, heldIds, holds, settled, sth, agree, same, ambiguous, drift, runningDrops });
   return { agree, hold: { ...holds }, holdThenSettle: htsOrdering, settleThenHold: sthOrdering, differences, ambiguous, drift, explanation };
 }
 
@@ -399,6 +401,8 @@ interface ExplainInput {
   same: boolean;
   ambiguous: Ambiguity[];
   drift: Drift | null;
+  /** The equation the do-operator removes from the running mechanism, per held variable. */
+  runningDrops: Record<VariableId, EquationId | undefined>;
 }
 
 function explain(x: ExplainInput): string[] {
@@ -416,7 +420,7 @@ function explain(x: ExplainInput): string[] {
   for (const c of x.sth.changes) {
     if (c.operator !== 'hold') continue;
     const v = c.variable;
-    const own = ownEquation(x.mechanism, v);
+    const own = ownEquation(x.mechanism, v) ?? x.runningDrops[v] ?? null;
     const replaced = c.removed[0];
     if (c.ambiguous) {
       lines.push(`holding ${v} in the equilibrium model is ambiguous: ${v} is determined together with others, and any of ${listNames(c.ambiguous.candidates)} could be the equation the hold replaces (shown: ${replaced}); the equilibrium model alone cannot say which, the running system replaces ${own ?? 'none of them'}`);
