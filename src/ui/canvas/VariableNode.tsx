@@ -7,7 +7,7 @@ export const NODE_H = 46;
 const KIND_CAPTION = { input: 'input', state: 'state', derived: 'derived' } as const;
 
 export function variableWidth(label: string): number {
-  return Math.max(112, Math.min(260, Math.round(label.length * 7.6 + 44)));
+  return Math.max(112, Math.min(280, Math.round(label.length * 8.4 + 48)));
 }
 
 /** A variable drawn in the notation: tag = input, accumulator = state, pill = derived. */
