@@ -239,6 +239,8 @@ export function preparePaste(
   const shift = (p?: Position) => (p ? { x: p.x + offset.x, y: p.y + offset.y } : undefined);
   const variables = clip.variables.map((v) => {
     const w: Variable = { ...v, id: rename.get(v.id)! };
+    // a pasted copy beside its original must be told apart by its label too
+    if (w.id !== v.id) w.label = `${v.label ?? v.id} (copy)`;
     if (w.formula !== undefined) w.formula = fix(w.formula);
     if (w.rate !== undefined) w.rate = fix(w.rate);
     const p = shift(v.position);

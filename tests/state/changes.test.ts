@@ -111,5 +111,6 @@ describe('document edits reducer', () => {
     expect(mathjsSymbols(nc.formula!)).toEqual(['a1', nb.id].sort());
     expect(change.links[0]).toMatchObject({ from: nb.id, to: nc.id });
     expect(nb.position).toEqual({ x: 140, y: 40 });
+    expect(nb.label).toBe('b (copy)');
   });
 });
