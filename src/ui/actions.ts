@@ -2,7 +2,7 @@
  * Editor commands shared by the toolbar, the keyboard and the canvas:
  * adding, deleting, copying and pasting, and the file actions.
  */
-import type { Link, Model, Position, Relation, Variable, VariableKind } from '../core/model/types';
+import type { Link, Position, Relation, Variable, VariableKind } from '../core/model/types';
 import { EXAMPLES } from '../examples/index';
 import { emptyModel, freshId, preparePaste, usedIds } from '../state/changes';
 import { documentStore, editDocument, selectDirty, selectModel } from '../state/document';
@@ -266,8 +266,4 @@ export async function copyShareLink(): Promise<void> {
   } catch {
     showNotice({ tone: 'info', title: 'Share link (copy it from here)', lines: [url] });
   }
-}
-
-export function describeModel(m: Model): string {
-  return `${m.variables.length} variables, ${m.links.length} links`;
 }

@@ -18,7 +18,7 @@ import {
 import { documentStore, editDocument, useDocument, useModel } from '../../state/document';
 import { selectionStore, useSelection } from '../../state/selection';
 import { useUi } from '../../state/ui';
-import { KIND_SHAPE, ROLE_STYLE } from '../../theme/visual';
+import { ROLE_STYLE } from '../../theme/visual';
 import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
 import { badgesOf } from '../diagnostics/collect';
 import { useProblems } from '../diagnostics/useProblems';
@@ -214,4 +214,3 @@ export function ModelCanvas() {
   );
 }
 
-export { KIND_SHAPE };
