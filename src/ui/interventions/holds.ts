@@ -2,12 +2,14 @@
  * The interventions the modeller has set on the canvas: variable → value.
  * They reach the analysis through the study design's `hold`. Other writers
  * of the design (the interval control) set it without `hold`, so
- * `startHoldSync` puts the holds back whenever the design loses them.
+ * `startHoldSync` puts the holds back whenever the design loses them, and
+ * releases holds of variables the document no longer has.
  */
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
 import type { VariableId } from '../../core/model/types';
 import { analysisStore, setStudyDesign } from '../../state/analysis';
+import { documentStore, selectModel } from '../../state/document';
 
 export interface HoldState {
   holds: Record<VariableId, number>;
@@ -52,13 +54,23 @@ export function startHoldSync(store = holdStore): () => void {
     else delete next.hold;
     setStudyDesign(next);
   };
+  // A hold of a variable the document no longer has (renamed, deleted, another file opened) is released.
+  const prune = () => {
+    const ids = new Set(selectModel(documentStore.getState()).variables.map((v) => v.id));
+    for (const v of Object.keys(store.getState().holds)) if (!ids.has(v)) store.getState().release(v);
+  };
   const a = store.subscribe(apply);
   const b = analysisStore.subscribe((s, prev) => {
     if (s.design !== prev.design) apply();
   });
+  const c = documentStore.subscribe((s, prev) => {
+    if (selectModel(s) !== selectModel(prev)) prune();
+  });
+  prune();
   apply();
   return () => {
     a();
     b();
+    c();
   };
 }

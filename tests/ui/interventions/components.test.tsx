@@ -101,7 +101,19 @@ describe('CommutationPanel', () => {
     expect(renderToStaticMarkup(<CommutationPanelFor model={model} design={{ interval: 60 }} />)).toMatch(/Hold a variable/);
   });
 
+  it('releases a hold when the document no longer has the variable', () => {
+    act(() => documentStore.getState().load(model));
+    const stop = startHoldSync();
+    holdStore.getState().setHold('vent', 1);
+    const { variables, ...rest } = model;
+    act(() => documentStore.getState().load({ ...rest, variables: variables.filter((v) => v.id !== 'vent'), links: model.links.filter((l) => l.from !== 'vent' && l.to !== 'vent') }));
+    expect(holdStore.getState().holds).toEqual({});
+    expect(analysisStore.getState().design.hold).toBeUndefined();
+    stop();
+  });
+
   it('the hold sync stops when asked', () => {
+    act(() => documentStore.getState().load(model));
     const stop = startHoldSync();
     holdStore.getState().setHold('vent', 1);
     expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
