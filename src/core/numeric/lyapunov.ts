@@ -4,19 +4,22 @@
  * every eigenvalue of A has a negative real part.
  *
  * Method: for n ≤ KRONECKER_MAX a direct Kronecker solve of
- * (I ⊗ A + A ⊗ I) vec Σ = −vec(G Gᵀ); above it, the squared Smith iteration
- * (Smith 1968, "Matrix equation XA + BX = C", SIAM J. Appl. Math. 16(1)) on
- * the exact discretisation: Σ = Σ_k Φ^k Q Φ^kᵀ with Φ = e^{Ah}, Q = Q(h) from
- * Van Loan, summed by doubling (Σ ← Σ + Φ Σ Φᵀ, Φ ← Φ²) until Φ has died out,
- * followed by one step of residual correction.
+ * (I ⊗ A + A ⊗ I) vec Σ = −vec(G Gᵀ); above it Bartels & Stewart (1972),
+ * "Solution of the matrix equation AX + XB = C", Comm. ACM 15(9): with the
+ * real Schur form A = Z T Zᵀ, solve T Y + Y Tᵀ = −Zᵀ C Z block by block
+ * (1×1 and 2×2 diagonal blocks, from the bottom right) and return Z Y Zᵀ.
+ * Should the Schur iteration fail, the squared Smith iteration (Smith 1968,
+ * "Matrix equation XA + BX = C", SIAM J. Appl. Math. 16(1)) on the exact
+ * discretisation is the fallback: Σ = Σ_k Φ^k Q Φ^kᵀ summed by doubling.
  */
-import { axpby, eigenvalues, luFactor, luSolve, mul, mulT, normMax, symmetrize, zeros, type Mat } from './dense';
+import { axpby, eigenvalues, luFactor, luSolve, mul, mulT, normMax, symmetrize, transpose, zeros, type Mat } from './dense';
 import { vanLoan } from './expm';
+import { realSchur } from './schur';
 
 export const KRONECKER_MAX = 10;
 
 export type LyapunovResult =
-  | { ok: true; sigma: Mat; method: 'kronecker' | 'smith-doubling'; residual: number }
+  | { ok: true; sigma: Mat; method: 'kronecker' | 'bartels-stewart' | 'smith-doubling'; residual: number }
   | { ok: false; reason: string; unstable: { re: number; im: number }[] };
 
 /**
@@ -39,6 +42,8 @@ export function lyapunov(a: Mat, c: Mat): LyapunovResult {
     const sigma = kronecker(a, c);
     return { ok: true, sigma, method: 'kronecker', residual: residual(a, sigma, c) };
   }
+  const bs = bartelsStewart(a, c);
+  if (bs) return { ok: true, sigma: bs, method: 'bartels-stewart', residual: residual(a, bs, c) };
   let sigma = smith(a, c);
   const r = lyapunovResidual(a, sigma, c);
   sigma = symmetrize(axpby(1, sigma, 1, smith(a, r)));
@@ -91,4 +96,50 @@ function smith(a: Mat, c: Mat): Mat {
     phi = mul(phi, phi);
   }
   return q;
+}
+
+function bartelsStewart(a: Mat, c: Mat): Mat | null {
+  const n = a.rows;
+  let schur;
+  try {
+    schur = realSchur(a);
+  } catch {
+    return null;
+  }
+  const { t, z, blocks } = schur;
+  const T = t.data;
+  // F = −Zᵀ C Z
+  const F = mul(transpose(z), mul(c, z));
+  const Y = zeros(n);
+  const y = Y.data;
+  for (let bi = blocks.length - 1; bi >= 0; bi--) {
+    const { start: i0, size: p } = blocks[bi];
+    for (let bj = blocks.length - 1; bj >= 0; bj--) {
+      const { start: j0, size: q } = blocks[bj];
+      // R = F_ij − Σ_{k beyond block i} T_ik Y_kj − Σ_{l beyond block j} Y_il T_jlᵀ
+      const R = new Float64Array(p * q);
+      for (let a1 = 0; a1 < p; a1++)
+        for (let b1 = 0; b1 < q; b1++) {
+          const i = i0 + a1, j = j0 + b1;
+          let s = -F.data[i * n + j];
+          for (let k = i0 + p; k < n; k++) s -= T[i * n + k] * y[k * n + j];
+          for (let l = j0 + q; l < n; l++) s -= y[i * n + l] * T[j * n + l];
+          R[a1 * q + b1] = s;
+        }
+      // T_ii Y + Y T_jjᵀ = R as a (pq)×(pq) system over Y's entries (row-major).
+      const K = zeros(p * q);
+      for (let a1 = 0; a1 < p; a1++)
+        for (let b1 = 0; b1 < q; b1++) {
+          const row = (a1 * q + b1) * p * q;
+          for (let c1 = 0; c1 < p; c1++) K.data[row + c1 * q + b1] += T[(i0 + a1) * n + i0 + c1];
+          for (let d1 = 0; d1 < q; d1++) K.data[row + a1 * q + d1] += T[(j0 + b1) * n + j0 + d1];
+        }
+      const f = luFactor(K);
+      if (f.singular) return null;
+      const sol = luSolve(f, R);
+      for (let a1 = 0; a1 < p; a1++) for (let b1 = 0; b1 < q; b1++) y[(i0 + a1) * n + j0 + b1] = sol[a1 * q + b1];
+    }
+  }
+  const sigma = symmetrize(mulT(mul(z, Y), z));
+  return sigma.data.every(Number.isFinite) ? sigma : null;
 }

@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { eigen, fromRows, get, inverse, mul, rankQR, toRows } from '../../../src/core/numeric/dense';
 import { expm, vanLoan } from '../../../src/core/numeric/expm';
 import { lyapunov } from '../../../src/core/numeric/lyapunov';
+import { realSchur } from '../../../src/core/numeric/schur';
+import { axpby, identity, mulT, normMax, transpose } from '../../../src/core/numeric/dense';
 import { runPython } from '../../helpers/python';
 import { expectClose } from '../../helpers/tolerance';
 import { randomDiffusion, randomStable } from './random';
@@ -56,6 +58,7 @@ describe('dense numerics against SciPy/NumPy (seeded random stable systems, 2 to
       expect(ref.lyap, 'reference says the matrix is stable').toBeDefined();
       const r = lyapunov(A, C);
       if (!r.ok) throw new Error(r.reason);
+      expect(r.method).toBe(cs.n <= 10 ? 'kronecker' : 'bartels-stewart');
       expectNormwise(toRows(r.sigma), ref.lyap!, 1e-10, `Σ n=${cs.n} seed ${cs.seed}`);
     });
 
@@ -90,6 +93,22 @@ describe('dense numerics against SciPy/NumPy (seeded random stable systems, 2 to
       }
     });
   }
+});
+
+describe('real Schur decomposition', () => {
+  it('A = Z T Zᵀ with Z orthogonal and T quasi-triangular (definition, Golub & Van Loan Thm 7.4.1), on seeded 3 to 100 state drifts', () => {
+    for (const [n, seed] of [[3, 11], [17, 12], [60, 13], [100, 14]]) {
+      const A = fromRows(randomStable(n, seed, 1.5, 2));
+      const s = realSchur(A);
+      expect(normMax(axpby(1, mulT(mul(s.z, s.t), s.z), -1, A)) / normMax(A), `reconstruction n=${n}`).toBeLessThan(1e-13);
+      expect(normMax(axpby(1, mul(transpose(s.z), s.z), -1, identity(n))), `orthogonality n=${n}`).toBeLessThan(1e-13);
+      for (let i = 0; i < n; i++) for (let j = 0; j < i - 1; j++) expect(s.t.data[i * n + j]).toBe(0);
+      for (let b = 0; b + 1 < s.blocks.length; b++) {
+        const next = s.blocks[b + 1].start;
+        expect(s.t.data[next * n + next - 1], 'no coupling between blocks').toBe(0);
+      }
+    }
+  });
 });
 
 describe('hard cases for the exponential and the noise integral', () => {
