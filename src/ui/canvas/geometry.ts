@@ -42,6 +42,8 @@ export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x
   const qx = 2 * mx - (s.x + t.x) / 2;
   const qy = 2 * my - (s.y + t.y) / 2;
   const at = (u: number) => ({ x: (1 - u) * (1 - u) * s.x + 2 * (1 - u) * u * qx + u * u * t.x, y: (1 - u) * (1 - u) * s.y + 2 * (1 - u) * u * qy + u * u * t.y });
-  const g = at(0.78);
+  // the sign sits a fixed distance back from the head, so it never lands on the target's outline
+  const chord = Math.hypot(t.x - s.x, t.y - s.y) || 1;
+  const g = at(Math.max(0.5, 1 - 30 / chord));
   return { path: `M${s.x},${s.y} Q${qx},${qy} ${t.x},${t.y}`, glyph: { x: g.x + nx * 11, y: g.y + ny * 11 }, mid: at(0.5) };
 }
