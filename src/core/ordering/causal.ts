@@ -401,37 +401,40 @@ function lowerBound(ids: string[], key: string): number {
 export function causalOrder(system: EquationSystem, options: CausalOrderOptions = {}): CausalOrder {
   // Rank equations and variables in id order; all later work is on the ranks.
   const ne = system.equations.length;
-  const eqIds = system.equations.map((e) => e.id).sort();
+  const cmp = (a: { id: string }, b: { id: string }) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+  const byRank = [...system.equations].sort(cmp);
+  const eqIds: string[] = new Array(ne);
+  for (let i = 0; i < ne; i++) eqIds[i] = byRank[i].id;
   for (let i = 1; i < ne; i++) if (eqIds[i] === eqIds[i - 1]) throw new Error(`equation id "${eqIds[i]}" is used twice`);
-  const eqRank = new Map<string, number>();
-  for (let i = 0; i < ne; i++) eqRank.set(eqIds[i], i);
   // Variables: number them in order of first mention, then rank the numbers by id.
   const firstSeen = new Map<string, number>();
-  const seen: string[] = [];
+  const seen: { id: string; first: number }[] = [];
   const mention = (v: string): number => {
     let i = firstSeen.get(v);
     if (i === undefined) {
       i = seen.length;
       firstSeen.set(v, i);
-      seen.push(v);
+      seen.push({ id: v, first: i });
     }
     return i;
   };
   const exoList = system.exogenous ?? [];
-  for (const v of exoList) mention(v);
-  const byRank: EquationSystem['equations'] = new Array(ne);
-  for (const e of system.equations) byRank[eqRank.get(e.id)!] = e;
+  const exoFirst = exoList.map(mention);
   let total = 0;
   for (let r = 0; r < ne; r++) total += byRank[r].variables.length;
   const raw = new Int32Array(total);
   for (let r = 0, p = 0; r < ne; r++) for (const v of byRank[r].variables) raw[p++] = mention(v);
   for (const v of system.variables ?? []) mention(v);
-  const varIds = [...seen].sort();
-  const nv = varIds.length;
+  seen.sort(cmp);
+  const nv = seen.length;
+  const varIds: string[] = new Array(nv);
   const rankOf = new Int32Array(nv);
-  for (let i = 0; i < nv; i++) rankOf[firstSeen.get(varIds[i])!] = i;
+  for (let i = 0; i < nv; i++) {
+    varIds[i] = seen[i].id;
+    rankOf[seen[i].first] = i;
+  }
   const exogenous = new Uint8Array(nv);
-  for (let i = 0; i < exoList.length; i++) exogenous[rankOf[firstSeen.get(exoList[i])!]] = 1;
+  for (const f of exoFirst) exogenous[rankOf[f]] = 1;
   const rowPtr = new Int32Array(ne + 1);
   const colIdx = new Int32Array(total);
   let p = 0;
