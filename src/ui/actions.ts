@@ -52,6 +52,12 @@ export function addLink(from: string, to: string): string | null {
   if (from === to) return null;
   const target = m.variables.find((v) => v.id === to);
   if (!target || !m.variables.some((v) => v.id === from)) return null;
+  const existing = m.links.find((l) => l.from === from && l.to === to);
+  if (existing) {
+    selectionStore.getState().select({ links: [existing.id!] });
+    uiStore.getState().set({ toast: `There is already a link from ${m.variables.find((v) => v.id === from)?.label ?? from} to ${target.label ?? to}: it is selected` });
+    return null;
+  }
   const taken = new Set(m.links.map((l) => l.id).filter((x): x is string => !!x));
   const id = freshId(`${from}_${to}_`, taken);
   const link: Link = { id, from, to, kind: target.kind === 'state' ? 'integrating' : 'instantaneous', sign: '+' };
