@@ -6,7 +6,7 @@ import type { Link, Position, Relation, Variable, VariableKind } from '../core/m
 import { EXAMPLES } from '../examples/index';
 import { emptyModel, freshId, preparePaste, usedIds } from '../state/changes';
 import { documentStore, editDocument, selectDirty, selectModel } from '../state/document';
-import { describeIssues, fileNameFor, readModelText, readShareFragment, serializeModel, shareFragment, type OpenResult } from '../state/files';
+import { MAX_FILE_BYTES, describeIssues, fileNameFor, readModelText, readShareFragment, serializeModel, shareFragment, type OpenResult } from '../state/files';
 import { parseModel } from '../core/model/schema';
 import { selectionStore } from '../state/selection';
 import { showNotice, uiStore } from '../state/ui';
@@ -148,6 +148,10 @@ export function openExample(id: string): boolean {
 }
 
 export async function openFile(file: File): Promise<boolean> {
+  if (file.size > MAX_FILE_BYTES) {
+    showNotice({ tone: 'error', title: `"${file.name}" could not be opened; your current model is unchanged`, lines: [`(file): is ${(file.size / 1024 / 1024).toFixed(1)} MB, larger than the ${MAX_FILE_BYTES / 1024 / 1024} MB a model file may have`] });
+    return false;
+  }
   let text: string;
   try {
     text = await file.text();
