@@ -43,13 +43,19 @@ export function solveEquilibrium(model: Model, options: { hold?: Record<Variable
   });
   if (systemError(system)) return done(false);
   const ordering = orderingAt(model, { settleAll: true, hold: options.hold });
-  for (const d of ordering.diagnostics) if (d.level === 'error') diagnostics.push(d);
+  const held = new Set(Object.keys(options.hold ?? {}));
   let ok = true;
+  for (const d of ordering.diagnostics)
+    if (d.level === 'error') {
+      diagnostics.push(d);
+      ok = false;
+    }
   for (const block of ordering.blocks) {
     if (block.equations.length === 0) continue;
     const eqs = block.equations.filter((e) => !e.startsWith('hold('));
+    const vars = block.variables.filter((x) => !held.has(x));
     if (eqs.length === 0) continue;
-    const where = `${list(block.variables)} (equation${eqs.length > 1 ? 's' : ''} ${list(eqs)})`;
+    const where = `${list(vars)} (equation${eqs.length > 1 ? 's' : ''} ${list(eqs)})`;
     if (block.determination !== 'well') {
       ok = false;
       diagnostics.push({
@@ -61,7 +67,8 @@ export function solveEquilibrium(model: Model, options: { hold?: Record<Variable
       });
       continue;
     }
-    const prepared = prepareBlock(system, { variables: block.variables, equations: eqs });
+    if (vars.length === 0) continue;
+    const prepared = prepareBlock(system, { variables: vars, equations: eqs });
     const saved = Float64Array.from(prepared.slots, (s) => point[s]);
     // Start from the starting values, then from 1, −1 and 10 (common practice for a globalised Newton).
     let outcome: BlockOutcome | null = null;

@@ -207,3 +207,14 @@ describe('exact sampled model', () => {
     expect(s.stationaryReason).toMatch(/not stable/);
   });
 });
+
+describe('equilibrium under an intervention', () => {
+  it('holding a derived variable fixes it and the rest settles around it (coffee bar with serving held, hand solution)', () => {
+    // served held at 20: 30 = 20 + q/2 → q = 20; mood = 2 − 0.1·20 = 0 (common practice: substitute and solve).
+    const eq = solveEquilibrium(coffeeBar, { hold: { served: 20 } });
+    expect(eq.ok, JSON.stringify(eq.diagnostics)).toBe(true);
+    expect(eq.values.served).toBe(20);
+    expect(eq.values.queue).toBeCloseTo(20, 10);
+    expect(eq.values.mood).toBeCloseTo(0, 10);
+  });
+});
