@@ -1,11 +1,15 @@
 /**
  * Perfect adaptation found from causal orderings (Blom & Mooij, "Causality
- * and independence in perfectly adapted dynamical systems", arXiv
- * 2101.11885, 2021; the criterion reconstructed from memory): an input u
- * reaches x in the ordering of the running mechanism (within the instant
- * and across time), but not in the ordering of the equilibrium model (every
- * state settled). Then a persistent change of u moves x for a while, and x
- * returns to the same equilibrium value.
+ * and independence in perfectly adapted dynamical systems", Journal of
+ * Causal Inference 11(1), 2023, doi 10.1515/jci-2021-0005; arXiv 2101.11885):
+ * an input u reaches x in the ordering of the running mechanism (within the
+ * instant and across time), but not in the ordering of the equilibrium model
+ * (every state settled). Then a persistent change of u moves x for a while,
+ * and x returns to the same equilibrium value. The paper gives its graphical
+ * conditions as sufficient ones; the exact form used here is reconstructed
+ * from memory. It finds structural adaptation only (not adaptation that
+ * comes from particular parameter values), and with formulas
+ * `confirmAdaptation` checks each pair by simulation.
  */
 import type { Model, VariableId } from '../model/types';
 import type { Ordering } from '../ordering/types';

@@ -20,7 +20,7 @@ function stepResponse(model: Model, input: string, to: number, settle: number, a
 
 const pairs = (m: Model) => perfectAdaptation(m).adapted.map((a) => `${a.variable}<-${a.input}`);
 
-describe('perfect adaptation from the two orderings (Blom & Mooij 2021, arXiv 2101.11885, criterion from memory)', () => {
+describe('perfect adaptation from the two orderings (Blom & Mooij, J. Causal Inference 11, 2023 / arXiv 2101.11885; sufficient condition, its form from memory)', () => {
   it('an integrating heater: air temperature (and what reads it) adapt to the outside temperature, not to the setpoint', () => {
     // Integral feedback: at equilibrium 0 = setpoint − airTemp, so airTemp depends on the setpoint alone
     // (the internal model principle of integral control, common practice).
