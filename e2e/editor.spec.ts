@@ -65,7 +65,10 @@ test.describe('editing a model on the canvas', () => {
     await page.getByRole('button', { name: '+ Variable' }).click();
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(4);
     await inspector.getByLabel('Label', { exact: true }).fill('Fungal risk');
-    const v4 = await centre(page, '.react-flow__node[data-id="v4"]');
+    await inspector.getByLabel('Label', { exact: true }).press('Tab');
+    // a new variable takes its name in formulas from its label
+    await expect(inspector.getByLabel('Name in formulas')).toHaveValue('fungalRisk');
+    const v4 = await centre(page, '.react-flow__node[data-id="fungalRisk"]');
     await page.mouse.move(v4.x, v4.y);
     await page.mouse.down();
     await page.mouse.move(pane.x + 260, pane.y - 10, { steps: 8 });
@@ -73,15 +76,15 @@ test.describe('editing a model on the canvas', () => {
     await shot(page, testInfo.outputPath('02-four-variables.png'));
 
     // 5. links: three drawn with the mouse, one added from the inspector with the keyboard
-    await dragLink(page, 'v1', 'v2');
+    await dragLink(page, 'irrigation', 'soilWater');
     await expect(page.locator('.react-flow__edge-link')).toHaveCount(1);
     await expect(inspector.getByRole('heading', { name: 'Link' })).toBeVisible();
     // a link into a state integrates
     await expect(inspector.getByRole('radio', { name: /Integrating/ })).toBeChecked();
-    await dragLink(page, 'v2', 'v3');
-    await dragLink(page, 'v3', 'v4');
+    await dragLink(page, 'soilWater', 'leafWetness');
+    await dragLink(page, 'leafWetness', 'fungalRisk');
     await expect(page.locator('.react-flow__edge-link')).toHaveCount(3);
-    await page.locator('.react-flow__node[data-id="v2"]').click();
+    await page.locator('.react-flow__node[data-id="soilWater"]').click();
     await inspector.getByLabel('New link to').selectOption({ label: 'Fungal risk' });
     await inspector.getByRole('button', { name: 'Add link' }).click();
     await expect(page.locator('.react-flow__edge-link')).toHaveCount(4);
@@ -89,26 +92,26 @@ test.describe('editing a model on the canvas', () => {
     await expect(page.locator('.lf-sign.is-minus')).toHaveCount(1);
 
     // 6. a formula with a syntax error: the message says where; then an unknown name; then fixed
-    await page.locator('.react-flow__node[data-id="v4"]').click();
+    await page.locator('.react-flow__node[data-id="fungalRisk"]').click();
     const formula = inspector.getByLabel('Formula', { exact: true });
-    await formula.fill('v3 * (0.5 + ');
+    await formula.fill('leafWetness * (0.5 + ');
     await expect(inspector.getByRole('alert')).toContainText('syntax error');
     await expect(inspector.locator('.lf-caret')).toBeVisible();
-    await expect(page.locator('.react-flow__node[data-id="v4"] .lf-badge.is-error')).toBeVisible();
+    await expect(page.locator('.react-flow__node[data-id="fungalRisk"] .lf-badge.is-error')).toBeVisible();
     await shot(page, testInfo.outputPath('03-formula-error.png'));
-    await formula.fill('v3 * (0.5 + humidity)');
+    await formula.fill('leafWetness * (0.5 + humidity)');
     await expect(inspector.getByRole('alert')).toContainText('unknown name: humidity');
-    await formula.fill('v3 * (0.5 + v2)');
+    await formula.fill('leafWetness * (0.5 + soilWater)');
     await expect(inspector.getByRole('alert')).toHaveCount(0);
     await expect(inspector.getByRole('button', { name: 'Soil water', exact: true })).toBeVisible(); // symbols used, as links
-    await expect(page.locator('.react-flow__node[data-id="v4"] .lf-badge.is-error')).toHaveCount(0);
+    await expect(page.locator('.react-flow__node[data-id="fungalRisk"] .lf-badge.is-error')).toHaveCount(0);
     await formula.blur();
     await shot(page, testInfo.outputPath('04-formula-fixed.png'));
 
     // 7. undo and redo from the keyboard: typing the formula was one step
     await page.mouse.click(pane.x + 300, pane.y + 200);
     await page.keyboard.press('Control+z');
-    await page.locator('.react-flow__node[data-id="v4"]').click();
+    await page.locator('.react-flow__node[data-id="fungalRisk"]').click();
     await expect(inspector.getByLabel('Formula', { exact: true })).toHaveValue('');
     await page.mouse.click(pane.x + 300, pane.y + 200);
     await page.keyboard.press('Control+z'); // the sign of the last link
@@ -116,8 +119,8 @@ test.describe('editing a model on the canvas', () => {
     await page.keyboard.press('Control+Shift+z');
     await expect(page.locator('.lf-sign.is-minus')).toHaveCount(1);
     await page.keyboard.press('Control+y');
-    await page.locator('.react-flow__node[data-id="v4"]').click();
-    await expect(inspector.getByLabel('Formula', { exact: true })).toHaveValue('v3 * (0.5 + v2)');
+    await page.locator('.react-flow__node[data-id="fungalRisk"]').click();
+    await expect(inspector.getByLabel('Formula', { exact: true })).toHaveValue('leafWetness * (0.5 + soilWater)');
     await shot(page, testInfo.outputPath('05-after-redo.png'));
 
     // 8. reload: the model is restored from the browser's storage

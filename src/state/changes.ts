@@ -266,6 +266,31 @@ export function preparePaste(
   return { type: 'paste', variables, links, relations };
 }
 
+/** Whether an id is one the editor made up for a new variable (`v1`, `v2`, …). */
+export function isGeneratedId(id: string): boolean {
+  return /^v\d+$/.test(id);
+}
+
+/**
+ * A name for formulas made from a label: "Soil water" → "soilWater".
+ * `reserved` names (functions, constants) and `taken` ids are avoided by a suffix.
+ */
+export function idFromLabel(label: string, taken: ReadonlySet<string>, reserved: (name: string) => boolean = () => false): string | null {
+  const words = label
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '') // accents come apart under NFKD: drop the marks, keep the letters
+    .replace(/[^A-Za-z0-9\s_]/g, ' ')
+    .split(/[\s_]+/)
+    .filter(Boolean);
+  if (words.length === 0) return null;
+  let id = words.map((w, i) => (i === 0 ? w.charAt(0).toLowerCase() + w.slice(1) : w.charAt(0).toUpperCase() + w.slice(1))).join('');
+  if (/^[0-9]/.test(id)) id = `v_${id}`;
+  id = id.slice(0, 60);
+  if (!taken.has(id) && !reserved(id)) return id;
+  for (let n = 2; n < 1000; n++) if (!taken.has(`${id}_${n}`)) return `${id}_${n}`;
+  return null;
+}
+
 /** An empty model to start from. */
 export function emptyModel(name = 'Untitled model'): Model {
   return { format: 'loopfold-model', version: 1, name, timeUnit: 'h', variables: [], links: [] };

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parse } from 'mathjs';
-import { applyChange, emptyModel, preparePaste, renameInFormula, withLinkIds, type Change } from '../../src/state/changes';
+import { applyChange, emptyModel, idFromLabel, preparePaste, renameInFormula, withLinkIds, type Change } from '../../src/state/changes';
+import { isReservedName, parseExpression } from '../../src/core/expr/parse';
 import { parseModel } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
 
@@ -112,5 +113,26 @@ describe('document edits reducer', () => {
     expect(change.links[0]).toMatchObject({ from: nb.id, to: nc.id });
     expect(nb.position).toEqual({ x: 140, y: 40 });
     expect(nb.label).toBe('b (copy)');
+  });
+
+  it('makes names for formulas from labels that the formula parser accepts as single names', () => {
+    const taken = new Set(['soilWater']);
+    const cases: [string, string | null][] = [
+      ['Soil water', 'soilWater_2'],
+      ['Leaf wetness (%)', 'leafWetness'],
+      ['2nd harvest', 'v_2ndHarvest'],
+      ['Café crème', 'cafeCreme'],
+      ['exp', 'exp_2'],
+      ['!!!', null],
+    ];
+    for (const [label, want] of cases) {
+      const id = idFromLabel(label, taken, isReservedName);
+      expect(id).toBe(want);
+      if (id) {
+        // mathjs, through our restricted parser, reads the name as exactly one symbol
+        const r = parseExpression(id);
+        expect(r.ok && r.symbols).toEqual([id]);
+      }
+    }
   });
 });

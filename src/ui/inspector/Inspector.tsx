@@ -27,7 +27,8 @@ export function Inspector() {
     const r = (model.relations ?? []).find((x) => x.id === nodes[0]);
     if (v) {
       title = `Variable: ${v.label ?? v.id}`;
-      body = <VariableInspector key={v.id} v={v} model={model} />;
+      // keyed by place, not id: renaming a variable keeps its inspector (and focus) in place
+      body = <VariableInspector key={`var-${model.variables.indexOf(v)}`} v={v} model={model} />;
     } else if (r) {
       title = 'Relation';
       body = <RelationInspector key={r.id} relation={r} model={model} />;

@@ -4,7 +4,7 @@ import { parseDuration, formatDuration } from '../../core/model/units';
 import { isReservedName } from '../../core/expr/parse';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
-import { usedIds } from '../../state/changes';
+import { idFromLabel, isGeneratedId, usedIds } from '../../state/changes';
 import { addLink } from '../actions';
 import { ExpressionField } from './ExpressionField';
 import { CheckedField, TextField, numberCheck, toNumber } from './fields';
@@ -36,7 +36,24 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
   };
   return (
     <div className="lf-inspector-body">
-      <TextField label="Label" value={v.label ?? ''} onChange={(t) => update('label', { label: t === '' ? undefined : t })} onBlur={stop} />
+      <TextField
+        label="Label"
+        value={v.label ?? ''}
+        onChange={(t) => update('label', { label: t === '' ? undefined : t })}
+        onBlur={() => {
+          // a variable still carrying its made-up name takes one from its label, so formulas read well
+          if (isGeneratedId(v.id) && v.label) {
+            const taken = usedIds(model);
+            taken.delete(v.id);
+            const id = idFromLabel(v.label, taken, isReservedName);
+            if (id && id !== v.id) {
+              editDocument({ type: 'renameVariable', id: v.id, newId: id }, { squash: `${v.id}:label` });
+              selectionStore.getState().select({ nodes: [id] });
+            }
+          }
+          stop();
+        }}
+      />
       <CheckedField
         label="Name in formulas"
         value={v.id}
