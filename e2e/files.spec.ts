@@ -107,9 +107,12 @@ test.describe('files and share links', () => {
     expect(await asked).toBe('beforeunload');
   });
 
-  test('without a worker the core runs on the main thread', async ({ page }) => {
+  test('without a worker the core runs on the main thread', async ({ page }, testInfo) => {
     await page.goto('/?noworker&example=sleep-stress');
     await expect(page.locator('.lf-status')).toContainText('core: main thread');
     await expect(page.locator('.lf-diagnostics')).toContainText('no problems found');
+    await page.getByRole('tab', { name: 'Equations' }).click();
+    await expect(page.locator('.lf-grid')).toBeVisible();
+    await shot(page, testInfo.outputPath('main-thread.png'));
   });
 });
