@@ -129,11 +129,12 @@ export const numericCommands: CliCommand[] = [
   {
     name: 'timescales',
     summary: 'eigenvalues at equilibrium and each state\'s timescale, given and derived',
-    usage: 'MODEL.json [--json]',
-    options: { json: false },
+    usage: 'MODEL.json [--interval D] [--json]',
+    options: { interval: true, json: false },
     run(args, io) {
       const model = loadModel(args, io);
-      const r = timescalesAt(model);
+      const interval = durationOption(args, 'interval', model);
+      const r = timescalesAt(model, interval);
       if (!r.ok) throw new CliError(r.reason);
       const t = r.report;
       if (args.options.json) {
@@ -143,6 +144,7 @@ export const numericCommands: CliCommand[] = [
               states: t.states,
               eigenvalues: t.modes.map((m) => ({ re: m.re, im: m.im, time: Number.isFinite(m.time) ? m.time : null, ...(m.period !== undefined ? { period: m.period } : {}), stable: m.stable, participation: m.participation })),
               timescales: t.perState.map((p) => ({ state: p.state, given: p.given ?? null, derived: Number.isFinite(p.derived) ? p.derived : null, share: p.share })),
+              ...(interval !== undefined ? { interval, settled: r.settled } : {}),
               warnings: r.warnings,
             },
             null,

@@ -7,7 +7,8 @@ import type { Mat } from './dense';
 import { solveEquilibrium, type EquilibriumResult } from './equilibrium';
 import { linearize } from './linearize';
 import { sampledModel, type SampledModel } from './sampled';
-import { timescalesOf, type TimescaleReport } from './timescales';
+import { fastPartWarnings, timescalesOf, type TimescaleReport } from './timescales';
+import { orderingAt } from '../ordering/index';
 
 export { solveEquilibrium } from './equilibrium';
 export type { EquilibriumResult } from './equilibrium';
@@ -15,7 +16,7 @@ export { simulate, outputGrid } from './simulate';
 export type { SimulateOptions, SimulationResult } from './simulate';
 export { sampledModel, linkCurve, adviseInterval, logGrid } from './sampled';
 export type { SampledModel, LinkCurve, IntervalAdvice } from './sampled';
-export { timescalesOf } from './timescales';
+export { timescalesOf, fastPartWarnings } from './timescales';
 export type { TimescaleReport, Mode, StateTimescaleReport } from './timescales';
 export { buildNumericSystem } from './system';
 export type { NumericSystem } from './system';
@@ -61,10 +62,21 @@ export function sampledAt(model: Model, interval: number): ({ ok: true; sampled:
   return { ok: true, sampled, warnings: [...d.warnings, ...sampled.warnings] };
 }
 
-/** Eigenvalues and per-state timescales (given and derived) at equilibrium. */
-export function timescalesAt(model: Model): ({ ok: true; report: TimescaleReport; warnings: string[] }) | { ok: false; reason: string } {
+/**
+ * Eigenvalues and per-state timescales (given and derived) at equilibrium.
+ * With an interval, also checks that the states settled at that interval
+ * form a stable fast part.
+ */
+export function timescalesAt(model: Model, interval?: number): ({ ok: true; report: TimescaleReport; settled: VariableId[]; warnings: string[] }) | { ok: false; reason: string } {
   const d = driftAtEquilibrium(model);
   if (!d.ok) return d;
   const report = timescalesOf(d.drift, d.states, d.equilibrium.system.timescales);
-  return { ok: true, report, warnings: [...d.warnings, ...report.warnings] };
+  let settled: VariableId[] = [];
+  const warnings = [...d.warnings, ...report.warnings];
+  if (interval !== undefined) {
+    const roles = orderingAt(model, { interval }).roles;
+    settled = d.states.filter((s) => roles[s] === 'settled');
+    warnings.push(...fastPartWarnings(d.drift, d.states, settled));
+  }
+  return { ok: true, report, settled, warnings };
 }

@@ -108,3 +108,32 @@ export function timescalesOf(a: Mat, states: VariableId[], given: Record<Variabl
 function fmt(x: number): string {
   return Number(x.toPrecision(4)).toString();
 }
+
+/**
+ * Whether the settled (fast) states come to rest when the others are held:
+ * the eigenvalues of the drift restricted to them, A_FF, must all have
+ * negative real parts — the stability condition of the quasi-steady-state
+ * reduction (Tikhonov's theorem; Kokotović, Khalil & O'Reilly, Singular
+ * Perturbation Methods in Control, 1986, Ch. 1). Returns warnings, empty when stable.
+ */
+export function fastPartWarnings(a: Mat, states: VariableId[], settled: VariableId[]): string[] {
+  const idx = settled.map((s) => states.indexOf(s)).filter((i) => i >= 0);
+  if (idx.length === 0) return [];
+  const n = states.length;
+  const sub = idx.map((i) => idx.map((j) => a.data[i * n + j]));
+  const e = eigen(fromRowsLocal(sub));
+  const bad: string[] = [];
+  for (let k = 0; k < idx.length; k++) if (!(e.re[k] < 0)) bad.push(`${fmt(e.re[k])}${e.im[k] !== 0 ? ` ${e.im[k] > 0 ? '+' : '−'} ${fmt(Math.abs(e.im[k]))}i` : ''}`);
+  if (bad.length === 0) return [];
+  const names = idx.map((i) => states[i]);
+  return [
+    `the fast part (${names.join(', ')}, settled at this interval) is not stable on its own (eigenvalue${bad.length > 1 ? 's' : ''} ${bad.join(', ')}): these states would not come to rest, so settling them is not valid here`,
+  ];
+}
+
+function fromRowsLocal(rows: number[][]): Mat {
+  const n = rows.length;
+  const data = new Float64Array(n * n);
+  rows.forEach((r, i) => r.forEach((x, j) => (data[i * n + j] = x)));
+  return { rows: n, cols: n, data };
+}

@@ -6,7 +6,7 @@ import { linearize } from '../../../src/core/numeric/linearize';
 import { adviseInterval, linkCurve, logGrid, sampledModel } from '../../../src/core/numeric/sampled';
 import { simulate } from '../../../src/core/numeric/simulate';
 import { residual } from '../../../src/core/numeric/system';
-import { timescalesOf } from '../../../src/core/numeric/timescales';
+import { fastPartWarnings, timescalesOf } from '../../../src/core/numeric/timescales';
 import { runPython } from '../../helpers/python';
 import { close, expectClose } from '../../helpers/tolerance';
 import { randomStable } from './random';
@@ -149,6 +149,18 @@ describe('linearization and timescales', () => {
     expect(tri.perState.map((p) => p.share)).toEqual([1, 1, 1]);
     expect(tri.perState[0].given).toBe(2);
     expect(tri.perState[1].given).toBeUndefined();
+  });
+
+  it('warns when the settled (fast) part is unstable although the whole system is stable', () => {
+    // A = [[0.5, −2], [1, −1]]: trace −0.5 < 0 and det 1.5 > 0, so the system is stable (Routh–Hurwitz for 2×2,
+    // common practice), but with the second state held the first one grows (A_FF = 0.5).
+    const A = fromRows([[0.5, -2], [1, -1]]);
+    expect(timescalesOf(A, ['craving', 'restraint']).warnings).toEqual([]);
+    const w = fastPartWarnings(A, ['craving', 'restraint'], ['craving']);
+    expect(w.length).toBe(1);
+    expect(w[0]).toMatch(/craving/);
+    expect(w[0]).toMatch(/not valid/);
+    expect(fastPartWarnings(A, ['craving', 'restraint'], ['restraint'])).toEqual([]);
   });
 
   it('warns when a mode does not decay', () => {
