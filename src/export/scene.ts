@@ -84,7 +84,7 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
     const len = Math.hypot(p1.x - p0.x, p1.y - p0.y) || 1;
     const t = Math.max(0.3, 1 - 22 / len);
     const nx = -(p1.y - p0.y) / len, ny = (p1.x - p0.x) / len;
-    kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color }, [e.sign === '-' ? '−' : '+']));
+    kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
   return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
@@ -113,7 +113,7 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
     const q = bend === 0
       ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
       : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
-    kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color }, [e.sign === '-' ? '−' : '+']));
+    kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
   return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
@@ -209,7 +209,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
         el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
         el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
         el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
-        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
+        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
       ]),
     ]));
   }

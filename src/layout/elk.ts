@@ -36,6 +36,7 @@ interface ElkEdge {
  */
 export const TUNED_OPTIONS: Record<string, string> = {
   'elk.algorithm': 'layered',
+  'elk.layered.cycleBreaking.strategy': 'GREEDY',
   'elk.layered.thoroughness': '1',
   'elk.layered.crossingMinimization.greedySwitch.type': 'OFF',
   'elk.edgeRouting': 'POLYLINE',
@@ -43,12 +44,14 @@ export const TUNED_OPTIONS: Record<string, string> = {
 export const DEFAULT_OPTIONS: Record<string, string> = { 'elk.algorithm': 'layered' };
 
 const COMMON: Record<string, string> = {
-  'elk.hierarchyHandling': 'INCLUDE_CHILDREN',
+  'elk.hierarchyHandling': 'SEPARATE_CHILDREN',
   'elk.spacing.nodeNode': '26',
   'elk.layered.spacing.nodeNodeBetweenLayers': '64',
   'elk.spacing.componentComponent': '40',
   'elk.layered.crossingMinimization.semiInteractive': 'true',
-  'elk.layered.considerModelOrder.strategy': 'NODES_AND_EDGES',
+  // the children come in the previous left-to-right order: prefer it (kept about 89 % of orders
+  // within layers across the bands of the examples, against 70 % without)
+  'elk.layered.considerModelOrder.strategy': 'PREFER_NODES',
 };
 
 export interface ElkLayoutOptions {
@@ -70,6 +73,7 @@ export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph
   };
   const leaf = (id: string, w: number, h: number): ElkGraph => ({ id, width: w, height: h, ...seed(id) });
   const children: ElkGraph[] = [];
+  const byId = new Map(nodes.map((n) => [n.id, n]));
   for (const g of groups) {
     children.push({
       id: g.id,
@@ -78,7 +82,8 @@ export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph
         'elk.nodeSize.constraints': 'MINIMUM_SIZE',
         'elk.nodeSize.minimum': `(${GROUP_MIN_WIDTH},60)`,
       },
-      children: g.members.map((m) => { const n = nodes.find((x) => x.id === m)!; return leaf(n.id, n.width, n.height); }),
+      children: g.members.map((m) => { const n = byId.get(m)!; return leaf(n.id, n.width, n.height); }),
+      edges: [],
     });
   }
   for (const n of nodes) if (!inGroup.has(n.id)) children.push(leaf(n.id, n.width, n.height));
@@ -88,8 +93,22 @@ export function elkGraphOf(vm: ViewModel, opts: ElkLayoutOptions = {}): ElkGraph
     children.sort((a, b) => x(a) - x(b));
     for (const c of children) c.children?.sort((a, b) => (a.x ?? Infinity) - (b.x ?? Infinity));
   }
-  const ids = new Set(nodes.map((n) => n.id));
-  const edges = vm.edges.filter((e) => ids.has(e.from) && ids.has(e.to)).map((e) => ({ id: e.id, sources: [e.from], targets: [e.to] }));
+  // Each block is laid out on its own (inside: its members and their edges); outside, an edge to or
+  // from a member stands in as an edge to the block. Laying out across levels at once costs ELK
+  // about ten times as much (measured: 200 nodes, one block, 2.9 s vs 0.3 s).
+  const edges: ElkEdge[] = [];
+  const groupNode = new Map(children.filter((c) => c.edges).map((c) => [c.id, c]));
+  const proxies = new Set<string>();
+  for (const e of vm.edges) {
+    if (!byId.has(e.from) || !byId.has(e.to)) continue;
+    const a = inGroup.get(e.from), b = inGroup.get(e.to);
+    if (a && a === b) { groupNode.get(a)!.edges!.push({ id: e.id, sources: [e.from], targets: [e.to] }); continue; }
+    if (!a && !b) { edges.push({ id: e.id, sources: [e.from], targets: [e.to] }); continue; }
+    const id = `proxy:${a ?? e.from}->${b ?? e.to}`;
+    if ((a ?? e.from) === (b ?? e.to) || proxies.has(id)) continue;
+    proxies.add(id);
+    edges.push({ id, sources: [a ?? e.from], targets: [b ?? e.to] });
+  }
   return {
     id: 'root',
     layoutOptions: { ...(opts.tuned === false ? DEFAULT_OPTIONS : TUNED_OPTIONS), ...COMMON, 'elk.direction': 'DOWN' },
@@ -120,15 +139,18 @@ export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOp
   const nodes: Record<string, Box> = {};
   const groups: Record<string, Box> = {};
   const groupIds = new Set(vm.groups.map((g) => g.id));
-  // edge sections are relative to the edge's container
+  // routes of the edges laid out whole (stand-ins for edges into blocks are drawn straight);
+  // sections are relative to the node whose edge list holds them
   const routes: Record<string, Point[]> = {};
-  for (const e of done.edges ?? []) {
-    const sec = e.sections?.[0];
-    if (!sec || (e.sections?.length ?? 0) > 1) continue;
-    const off = e.container && e.container !== 'root' ? boxes[e.container] : undefined;
-    const dx = off?.x ?? 0, dy = off?.y ?? 0;
-    routes[e.id] = [sec.startPoint, ...(sec.bendPoints ?? []), sec.endPoint].map((p) => ({ x: p.x + dx, y: p.y + dy }));
-  }
+  const take = (list: ElkEdge[] | undefined, dx: number, dy: number) => {
+    for (const e of list ?? []) {
+      const sec = e.sections?.[0];
+      if (!sec || (e.sections?.length ?? 0) > 1 || e.id.startsWith('proxy:')) continue;
+      routes[e.id] = [sec.startPoint, ...(sec.bendPoints ?? []), sec.endPoint].map((p) => ({ x: p.x + dx, y: p.y + dy }));
+    }
+  };
+  take(done.edges, 0, 0);
+  for (const c of done.children ?? []) if (c.edges?.length) take(c.edges, boxes[c.id]?.x ?? 0, boxes[c.id]?.y ?? 0);
   if (vm.mode !== 'unrolled') {
     for (const n of vm.nodes) if (boxes[n.id]) nodes[n.id] = boxes[n.id];
     for (const g of vm.groups) if (boxes[g.id]) groups[g.id] = boxes[g.id];

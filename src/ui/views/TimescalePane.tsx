@@ -91,7 +91,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
           </div>
         )}
         <div className="lf-view lf-view-ordering">
-          <ViewCanvas vm={vm} onToggleBlock={toggle} onLayout={onLayout} label={view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval'} />
+          <ViewCanvas vm={vm} tag={band} onToggleBlock={toggle} onLayout={onLayout} label={view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval'} />
         </div>
       </div>
       <aside className="lf-explain" aria-label="What changes at this interval">

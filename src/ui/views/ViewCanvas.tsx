@@ -28,10 +28,13 @@ export interface ViewCanvasProps {
   /** Called with the settled layout (for export and tests). */
   onLayout?(layout: Layout): void;
   label: string;
+  /** A name for the view shown (the band), written to data-shown once it is on screen (for tests and benchmarks). */
+  tag?: string | number;
 }
 
-export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label }: ViewCanvasProps) {
+export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: ViewCanvasProps) {
   const [shown, setShown] = useState<Layout | null>(null);
+  const [shownTag, setShownTag] = useState<string | number | undefined>(undefined);
   const shownRef = useRef<Layout | null>(null);
   const frame = useRef<number>(0);
   const queue = useMemo(() => createLayoutQueue(), []);
@@ -52,6 +55,7 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label }: ViewCa
       frame.current = requestAnimationFrame(step);
     };
     const prev = shownRef.current ?? undefined;
+    setShownTag(tag);
     if (drawn) {
       const l = { ...instantLayout(vm, undefined, drawn), source: 'drawn' as const };
       animateTo(l);
@@ -93,7 +97,7 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label }: ViewCa
         <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
       </div>
-      <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} onClick={onClick}>
+      <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} data-shown={shownTag} onClick={onClick}>
         {scene ? toReact({ ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } }) : <p>Placing the variables…</p>}
       </div>
     </div>

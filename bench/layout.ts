@@ -1,0 +1,188 @@
+/**
+ * Layout and timescale-view benchmark. For generated sketch models of 50,
+ * 200, 500 and 2,000 variables: the recompute per band (orderingAt + the
+ * derived view, median and p95), ELK layered layout with the tuned options
+ * against ELK's defaults (measured in the same run), and in headless
+ * Chromium on a production build: time until the view at a new band is on
+ * screen, frames per second while the interval control is dragged, JS heap
+ * with the 2,000-variable model open, and the gzip size of the first page load.
+ * Run alone: `npx tsx bench/layout.ts`.
+ */
+import { spawn, spawnSync } from 'node:child_process';
+import { readFileSync, existsSync } from 'node:fs';
+import { gzipSync } from 'node:zlib';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { Model, Variable, Link } from '../src/core/model/types';
+import { breakpoints, orderingAt } from '../src/core/ordering/index';
+import { orderingView } from '../src/core/view/derive';
+import { cutsOf } from '../src/core/view/interval';
+import { elkLayout } from '../src/layout/elk';
+import { nodeElk } from '../src/layout/node';
+
+const ROOT = fileURLToPath(new URL('..', import.meta.url));
+
+/** Small seeded generator (mulberry32). */
+function rng(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** A sketch of n variables: 10 % inputs, 40 % states (timescales 1 min … 1 year), 50 % derived; two links into each non-input. */
+export function generatedModel(n: number, seed = 7): Model {
+  const r = rng(seed);
+  const variables: Variable[] = [];
+  for (let i = 0; i < n; i++) {
+    const u = r();
+    const kind = i < Math.max(1, Math.round(n * 0.1)) ? 'input' : u < 0.45 ? 'state' : 'derived';
+    const v: Variable = { id: `v${i}`, kind, label: `Variable ${i}`, position: { x: (i % 40) * 160, y: Math.floor(i / 40) * 90 } };
+    if (kind === 'state') v.timescale = (1 / 60) * Math.pow(8766 * 60, r());
+    variables.push(v);
+  }
+  const links: Link[] = [];
+  const seen = new Set<string>();
+  for (const v of variables) {
+    if (v.kind === 'input') continue;
+    for (let k = 0; k < 2; k++) {
+      const from = variables[Math.floor(r() * n)];
+      if (from.id === v.id || seen.has(`${from.id}>${v.id}`)) continue;
+      seen.add(`${from.id}>${v.id}`);
+      links.push({ from: from.id, to: v.id, kind: v.kind === 'state' ? 'integrating' : 'instantaneous', sign: r() < 0.5 ? '+' : '-' });
+    }
+  }
+  return { format: 'loopfold-model', version: 1, name: `generated ${n}`, timeUnit: 'h', variables, links, settings: { separation: 5, samples: 50 } };
+}
+
+const now = () => performance.now();
+function stats(xs: number[]): { median: number; p95: number } {
+  const s = [...xs].sort((a, b) => a - b);
+  const q = (p: number) => s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
+  return { median: q(0.5), p95: q(0.95) };
+}
+const ms = (x: number) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
+const verdict = (ok: boolean) => (ok ? 'meets goal' : 'MISSES goal');
+
+/** One interval inside each band (geometric middle between neighbouring breakpoints). */
+function bandIntervals(m: Model, limit: number): number[] {
+  const cuts = cutsOf(breakpoints(m, { samples: 50 }));
+  const xs = [cuts[0].at / 2, ...cuts.map((c, i) => Math.sqrt(c.at * (cuts[i + 1]?.at ?? c.at * 4)))];
+  const step = Math.max(1, Math.floor(xs.length / limit));
+  return xs.filter((_, i) => i % step === 0).slice(0, limit);
+}
+
+async function nodePart(): Promise<void> {
+  console.log('recompute per band = orderingAt + derived view, fresh (no cache), 40 bands per model');
+  for (const n of [50, 200, 500, 2000]) {
+    const m = generatedModel(n);
+    const xs = bandIntervals(m, 40);
+    for (const x of xs.slice(0, 3)) orderingAt(m, { interval: x, samples: 50 }); // warm up
+    const times = xs.map((interval) => {
+      const t0 = now();
+      const o = orderingAt(m, { interval, samples: 50 });
+      orderingView(m, o, { mode: 'ordering', interval, samples: 50 });
+      return now() - t0;
+    });
+    const s = stats(times);
+    console.log(`  ${String(n).padStart(5)} variables: median ${ms(s.median)}, p95 ${ms(s.p95)}${n === 500 ? `  (goal p95 ≤ 8 ms: ${verdict(s.p95 <= 8)})` : ''}`);
+  }
+  console.log('ELK layered, tuned options vs ELK defaults (same graphs, same run; view at a middle band)');
+  for (const n of [50, 200, 500, 2000]) {
+    const m = generatedModel(n);
+    const xs = bandIntervals(m, 40);
+    const interval = xs[Math.floor(xs.length / 2)];
+    const vm = orderingView(m, orderingAt(m, { interval, samples: 50 }), { mode: 'ordering', interval, samples: 50 });
+    const time = async (tuned: boolean) => { const t0 = now(); await elkLayout(nodeElk(), vm, { tuned }); return now() - t0; };
+    await time(true); // warm up the JIT
+    const tuned = await time(true);
+    const defaults = n <= 500 ? await time(false) : NaN;
+    console.log(`  ${String(n).padStart(5)} variables (${vm.nodes.length} nodes, ${vm.groups.length} blocks, ${vm.edges.length} edges): tuned ${ms(tuned)}, defaults ${Number.isNaN(defaults) ? 'not run (minutes)' : ms(defaults)}${Number.isNaN(defaults) ? '' : `, ratio ${(defaults / tuned).toFixed(2)}×`}${n === 200 ? `  (goal ≤ 400 ms: ${verdict(tuned <= 400)})` : ''}`);
+  }
+}
+
+async function browserPart(): Promise<void> {
+  const out = join(tmpdir(), 'loopfold-bench-dist');
+  console.log(`building the app (vite build → ${out}) …`);
+  const b = spawnSync('npx', ['vite', 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'error'], { cwd: ROOT, encoding: 'utf8' });
+  if (b.status !== 0) { console.log(`  build failed: ${b.stderr.slice(0, 800)}`); return; }
+  // first load: index.html and what it references (entry script, its preloads, styles)
+  const html = readFileSync(join(out, 'index.html'), 'utf8');
+  const refs = [...html.matchAll(/(?:src|href)="\/?([^"]+\.(?:js|css))"/g)].map((m) => m[1]);
+  let total = gzipSync(html, { level: 9 }).length;
+  for (const f of refs) total += gzipSync(readFileSync(join(out, f)), { level: 9 }).length;
+  console.log(`first page load: index.html + ${refs.length} files = ${(total / 1024).toFixed(0)} kB gzip (goal ≤ 600 kB: ${verdict(total <= 600 * 1024)})`);
+
+  const port = 5288;
+  const server = spawn('npx', ['vite', 'preview', '--outDir', out, '--port', String(port), '--strictPort', '--host', '127.0.0.1'], { cwd: ROOT, stdio: 'ignore', detached: true });
+  const { chromium } = await import('@playwright/test');
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+  try {
+    for (let i = 0; i < 50; i++) { try { if ((await fetch(`http://127.0.0.1:${port}/`)).ok) break; } catch { /* not up yet */ } await new Promise((r) => setTimeout(r, 200)); }
+    for (const n of [50, 200, 500, 2000]) {
+      const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+      await page.goto(`http://127.0.0.1:${port}/`);
+      await page.waitForFunction(() => !!window.__loopfold);
+      const model = generatedModel(n);
+      await page.evaluate((m) => window.__loopfold!.load(m), model);
+      await page.getByRole('tab', { name: 'Timescales' }).click();
+      await page.locator('[role=slider]').waitFor();
+      await page.locator('.lf-timescale[data-band]').waitFor({ timeout: 120_000 });
+      // time from a key press to the view of the new band on screen (placed at once; ELK follows)
+      const drawn: number[] = [];
+      for (let k = 0; k < 8; k++) {
+        drawn.push(await page.evaluate(() => new Promise<number>((resolve) => {
+          const slider = document.querySelector('[role=slider]') as HTMLElement;
+          const before = document.querySelector('.lf-timescale')!.getAttribute('data-band');
+          const t0 = performance.now();
+          slider.dispatchEvent(new KeyboardEvent('keydown', { key: 'PageUp', bubbles: true }));
+          const check = () => {
+            const fig = document.querySelector('.lf-view-ordering [data-shown]');
+            const band = document.querySelector('.lf-timescale')?.getAttribute('data-band');
+            if (band !== before && fig?.getAttribute('data-shown') === band) requestAnimationFrame(() => resolve(performance.now() - t0));
+            else requestAnimationFrame(check);
+          };
+          requestAnimationFrame(check);
+        })));
+      }
+      const d = stats(drawn);
+      // frames per second while the control is dragged from end to end
+      const box = (await page.locator('[role=slider]').boundingBox())!;
+      await page.evaluate(() => { const w = window as unknown as { __frames: number; __run: boolean }; w.__frames = 0; w.__run = true; const tick = () => { w.__frames++; if (w.__run) requestAnimationFrame(tick); }; requestAnimationFrame(tick); });
+      const t0 = now();
+      await page.mouse.move(box.x + 2, box.y + box.height / 2);
+      await page.mouse.down();
+      for (let s = 0; s <= 90; s++) { await page.mouse.move(box.x + 2 + ((box.width - 4) * s) / 90, box.y + box.height / 2); await page.waitForTimeout(16); }
+      await page.mouse.up();
+      const frames = await page.evaluate(() => { const w = window as unknown as { __frames: number; __run: boolean }; w.__run = false; return w.__frames; });
+      const fps = frames / ((now() - t0) / 1000);
+      let heap = '';
+      if (n === 2000) {
+        await page.waitForTimeout(3000);
+        const cdp = await page.context().newCDPSession(page);
+        await cdp.send('HeapProfiler.collectGarbage');
+        const h = (await cdp.send('Runtime.getHeapUsage')) as { usedSize: number };
+        heap = `, JS heap in use ${(h.usedSize / 2 ** 20).toFixed(0)} MB (goal ≤ 300 MB: ${verdict(h.usedSize <= 300 * 2 ** 20)})`;
+      }
+      console.log(`  ${String(n).padStart(5)} variables: new band on screen median ${ms(d.median)}, p95 ${ms(d.p95)}${n === 500 ? ` (goal ≤ 100 ms: ${verdict(d.p95 <= 100)})` : ''}; dragging ${fps.toFixed(0)} fps${n === 500 ? ` (goal ≥ 55: ${verdict(fps >= 55)})` : ''}${heap}`);
+      await page.close();
+    }
+  } finally {
+    await browser.close();
+    if (server.pid) { try { process.kill(-server.pid); } catch { /* already gone */ } }
+  }
+}
+
+export async function benchLayout(): Promise<void> {
+  console.log(`load average ${loadavg().map((x) => x.toFixed(2)).join(' ')} (2 shared cores: figures vary with other work)`);
+  await nodePart();
+  if (existsSync('/usr/bin/chromium')) await browserPart();
+  else console.log('no /usr/bin/chromium: browser figures skipped');
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) await benchLayout();
