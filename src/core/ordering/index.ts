@@ -54,6 +54,14 @@ function structureAt(model: Model, design: StudyDesign): { structure: EquationSt
         variables: [x],
         equations: res.change.ambiguous.candidates,
       });
+    else if (res.change.alternatives)
+      diagnostics.push({
+        level: 'warning',
+        code: 'hold-alternatives',
+        message: `holding ${x} replaces ${res.change.removed[0]}, the equation that determines ${x} now; replacing ${listNames(res.change.alternatives, 'or')} instead would also fix ${x}, with different effects on the other variables: which mechanism an intervention overrides decides what it changes`,
+        variables: [x],
+        equations: [...res.change.removed, ...res.change.alternatives].sort(compareIds),
+      });
   }
   const settled = ids.filter((x) => r.roles[x] === 'settled' && s.derivatives[x] !== undefined);
   if (settled.length > 0) s = equilibrateAll(s, settled).structure;

@@ -10,6 +10,7 @@ import type { EquationId, VariableId } from '../model/types';
 import { equationId } from './types';
 import { cloneStructure, compareIds, derivativeOf, type EquationStructure } from './structure';
 import { orderStructure } from './order';
+import { causalOrder } from './causal';
 import { bipartiteFromLists, hopcroftKarp } from './matching';
 
 export interface StructureChange {
@@ -25,6 +26,13 @@ export interface StructureChange {
   value?: number;
   /** Set when the equation to drop was a choice among several (x in a simultaneous block). */
   ambiguous?: { candidates: EquationId[] };
+  /**
+   * For a variable determined by relations or balance equations (not by its own formula or rate): other
+   * equations that the intervention could replace instead while leaving the system determined, each with
+   * different effects on the rest (Mooij, "Causal reasoning with bipartite graphical causal models", §5.1;
+   * Blom, van Diepen & Mooij 2021). Empty or absent: the choice is forced.
+   */
+  alternatives?: EquationId[];
   /** What happened, in words. */
   note: string;
 }
@@ -104,12 +112,34 @@ function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId |
   return { eq: pool[0] ?? null, candidates: pool };
 }
 
-function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure; removed: EquationId[]; candidates?: EquationId[] } {
+/** At most this many equations are tried as alternatives (each try is one ordering). */
+const MAX_ALTERNATIVE_TRIES = 200;
+
+/**
+ * Implicit equations (relations, balance equations of settled states) other
+ * than `chosen` whose replacement by "x = constant" leaves every part of the
+ * system well-determined — provided replacing `chosen` does.
+ */
+function alternativesFor(s: EquationStructure, x: VariableId, chosen: EquationId): EquationId[] {
+  const dynamicRates = new Set(Object.values(s.derivatives));
+  const implicit = (id: EquationId) => !id.startsWith('formula(') && !id.startsWith('hold(') && !dynamicRates.has(id);
+  const tryReplace = (id: EquationId): boolean => {
+    const equations = s.equations.map((e) => (e.id === id ? { id, variables: [x] } : e));
+    return causalOrder({ equations, exogenous: s.exogenous.filter((v) => v !== x), variables: s.variables }).blocks.every((b) => b.determination === 'well');
+  };
+  const others = s.equations.filter((e) => e.id !== chosen && implicit(e.id)).map((e) => e.id);
+  if (others.length === 0 || others.length > MAX_ALTERNATIVE_TRIES || !tryReplace(chosen)) return [];
+  return others.filter(tryReplace).sort(compareIds);
+}
+
+function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure; removed: EquationId[]; candidates?: EquationId[]; alternatives?: EquationId[] } {
   const { eq, candidates } = equationToDrop(s, x);
+  const ownIds = [equationId.hold(x), equationId.formula(x), equationId.rate(x)];
+  const alternatives = eq !== null && s.derivatives[x] === undefined && !ownIds.includes(eq) ? alternativesFor(s, x, eq) : undefined;
   const out = cloneStructure(s);
   if (eq !== null) out.equations = out.equations.filter((e) => e.id !== eq);
   delete out.derivatives[x];
-  return { out, removed: eq !== null ? [eq] : [], candidates };
+  return { out, removed: eq !== null ? [eq] : [], candidates, alternatives };
 }
 
 /**
@@ -119,7 +149,7 @@ function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure;
  */
 export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
   requireVariable(s, x, 'exogenize');
-  const { out, removed, candidates } = dropFor(s, x);
+  const { out, removed, candidates, alternatives } = dropFor(s, x);
   if (!out.exogenous.includes(x)) out.exogenous = [...out.exogenous, x].sort(compareIds);
   const change: StructureChange = {
     operator: 'exogenize',
@@ -130,6 +160,7 @@ export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
     note: removed.length ? `${x} is constant; equation ${removed[0]} is dropped` : `${x} was already given from outside`,
   };
   if (candidates && candidates.length > 1) change.ambiguous = { candidates };
+  if (alternatives && alternatives.length > 0) change.alternatives = alternatives;
   return { structure: out, change };
 }
 
@@ -142,7 +173,7 @@ export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
  */
 export function hold(s: EquationStructure, x: VariableId, value: number): OperatorResult {
   requireVariable(s, x, 'hold');
-  const { out, removed, candidates } = dropFor(s, x);
+  const { out, removed, candidates, alternatives } = dropFor(s, x);
   const h = equationId.hold(x);
   out.exogenous = out.exogenous.filter((v) => v !== x);
   out.equations = [...out.equations.filter((e) => e.id !== h), { id: h, variables: [x] }].sort((a, b) => compareIds(a.id, b.id));
@@ -159,5 +190,6 @@ export function hold(s: EquationStructure, x: VariableId, value: number): Operat
     change.ambiguous = { candidates };
     change.note += ` (a choice: ${x} is determined together with others, and any of ${candidates.join(', ')} could be the one dropped)`;
   }
+  if (alternatives && alternatives.length > 0) change.alternatives = alternatives;
   return { structure: out, change };
 }

@@ -19,10 +19,10 @@ export interface StructureOrdering {
   causal: CausalOrder;
 }
 
-/** "a", "a and b", "a, b and c". */
-export function listNames(names: string[]): string {
+/** "a", "a and b", "a, b and c" (or "a, b or c"). */
+export function listNames(names: string[], conjunction: 'and' | 'or' = 'and'): string {
   if (names.length <= 1) return names.join('');
-  return `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
+  return `${names.slice(0, -1).join(', ')} ${conjunction} ${names[names.length - 1]}`;
 }
 
 function compareEdges(a: OrderingEdge, b: OrderingEdge): number {

@@ -135,6 +135,28 @@ describe('orderingAt: interventions (do-operator)', () => {
     expect(o.diagnostics).toEqual([]);
   });
 
+  it('holding a variable that relations determine: the warning names the other equations the intervention could replace', () => {
+    // The equilibrium example of Mooij (bipartite graphical causal models, Example 2) as relations:
+    // holding the level x3 replaces r3 by default; r1 or r2 would also do, with other effects (Table 1).
+    const m = model(
+      [{ id: 'w1', kind: 'input' }, { id: 'w2', kind: 'input' }, { id: 'w3', kind: 'input' }, { id: 'x1', kind: 'derived' }, { id: 'x2', kind: 'derived' }, { id: 'x3', kind: 'derived' }],
+      [],
+      [{ id: 'r1', equation: 'w1 = x1' }, { id: 'r2', equation: 'x1 = w2 * sqrt(x2)' }, { id: 'r3', equation: 'x2 = w3 * x3' }],
+    );
+    expect(blocksOf(m)).toEqual(['0:w1/', '0:w2/', '0:w3/', '1:x1/r1', '2:x2/r2', '3:x3/r3']);
+    const o = orderingAt(m, { hold: { x3: 0.5 } });
+    expect(o.diagnostics).toEqual([
+      {
+        level: 'warning',
+        code: 'hold-alternatives',
+        message: 'holding x3 replaces r3, the equation that determines x3 now; replacing r1 or r2 instead would also fix x3, with different effects on the other variables: which mechanism an intervention overrides decides what it changes',
+        variables: ['x3'],
+        equations: ['r1', 'r2', 'r3'],
+      },
+    ]);
+    expect(orderingAt(m, { hold: { x1: 1 } }).diagnostics).toEqual([]);
+  });
+
   it('holding a variable determined together with another by relations: the dropped equation is a choice, and the warning names the candidates', () => {
     const m = model(
       [{ id: 'u', kind: 'input' }, { id: 'a', kind: 'derived' }, { id: 'b', kind: 'derived' }],

@@ -164,6 +164,18 @@ describe('Mooij, bipartite graphical causal models: the equilibrium example and 
     expect(hold(s, 'x3', 1).change.removed).toEqual(['f3']);
   });
 
+  it('Table 1 through hold(): the equation it replaces, and the other feasible replacements it reports', () => {
+    const s: EquationStructure = { ...system(), exogenous, variables: ['w1', 'w2', 'w3', 'x1', 'x2', 'x3'], derivatives: {} };
+    const summary = (x: string) => {
+      const c = hold(s, x, 1).change;
+      return { removed: c.removed, alternatives: c.alternatives ?? [] };
+    };
+    // Row x1: only f1 (f2, f3 ∅); row x2: f1 and f2 (f3 ∅); row x3: f1, f2 and f3.
+    expect(summary('x1')).toEqual({ removed: ['f1'], alternatives: [] });
+    expect(summary('x2')).toEqual({ removed: ['f2'], alternatives: ['f1'] });
+    expect(summary('x3')).toEqual({ removed: ['f3'], alternatives: ['f1', 'f2'] });
+  });
+
   it('Table 1: which do(fj: xv = ξ) leave a uniquely solvable (self-contained) system', () => {
     const feasible: Record<string, boolean> = {};
     for (const target of ['x1', 'x2', 'x3'])
