@@ -8,7 +8,7 @@ import { useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } fr
 import type { Model, TimeUnit } from '../../core/model/types';
 import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
 import { fromPosition, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
-import { setStudyDesign } from '../../state/analysis';
+import { analysisStore, setStudyDesign, useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
 import { useBandCache } from '../views/bandCache';
@@ -30,7 +30,8 @@ export function IntervalStrip() {
 export function IntervalStripFor({ model }: { model: Model }) {
   const length = useStudy((s) => s.length);
   const interval = useStudy((s) => s.interval);
-  const bc = useBandCache(model, length);
+  const hold = useAnalysisState((s) => s.design.hold);
+  const bc = useBandCache(model, length, hold);
   const track = useRef<HTMLDivElement>(null);
   const unit = model.timeUnit;
   const cache = bc.status === 'ready' ? bc.cache : null;
@@ -44,7 +45,9 @@ export function IntervalStripFor({ model }: { model: Model }) {
 
   // the analysis store follows the design (the core worker answers the other panes)
   useEffect(() => {
-    if (interval !== null) setStudyDesign(designOf({ interval, length }));
+    if (interval === null) return;
+    const held = analysisStore.getState().design.hold;
+    setStudyDesign({ ...designOf({ interval, length }), ...(held ? { hold: held } : {}) });
   }, [cache ? cache.band(interval ?? 0) : -1, length]); // eslint-disable-line react-hooks/exhaustive-deps
 
   if (bc.status === 'missing') return <div className="lf-interval">The ordering core is not part of this build.</div>;

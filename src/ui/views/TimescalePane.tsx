@@ -12,6 +12,7 @@ import { drawnPositions } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
+import { useAnalysisState } from '../../state/analysis';
 import { formatDuration } from '../../core/model/units';
 import { useBandCache } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
@@ -30,7 +31,9 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const folded = useStudy((s) => s.folded);
   const view = useStudy((s) => s.view);
   const sideBySide = useStudy((s) => s.sideBySide);
-  const bc = useBandCache(model, length);
+  // interventions come with the analysis design (the interventions pane writes them)
+  const hold = useAnalysisState((s) => s.design.hold);
+  const bc = useBandCache(model, length, hold);
   const cache = bc.status === 'ready' ? bc.cache : null;
   const band = cache && interval !== null ? cache.band(interval) : -1;
   const ordering = useMemo(() => (cache && interval !== null ? cache.orderingAt(interval) : null), [cache, band]); // eslint-disable-line react-hooks/exhaustive-deps

@@ -49,7 +49,7 @@ function clampToWindow(r: IntervalRange, length: StudyLength): IntervalRange {
   return { min: Math.min(r.min, length.window / 100), max: length.window };
 }
 
-export function createBandCache(core: OrderingCore, model: Model, length: StudyLength): BandCache {
+export function createBandCache(core: OrderingCore, model: Model, length: StudyLength, hold?: Record<string, number>): BandCache {
   const study = studyOf(length);
   const breakpoints = core.breakpoints ? core.breakpoints(model, study) : [];
   const cuts = cutsOf(breakpoints);
@@ -58,7 +58,7 @@ export function createBandCache(core: OrderingCore, model: Model, length: StudyL
     model, breakpoints, cuts,
     range: clampToWindow(intervalRange(model, breakpoints), length),
     band: (interval) => bandOfCuts(cuts, interval),
-    design: (interval) => ({ ...study, interval }),
+    design: (interval) => ({ ...study, interval, ...(hold && Object.keys(hold).length ? { hold } : {}) }),
     lastComputeMs: 0,
     orderingAt(interval) {
       const k = cache.band(interval);
@@ -76,19 +76,19 @@ export function createBandCache(core: OrderingCore, model: Model, length: StudyL
 }
 
 const caches = new WeakMap<Model, Map<string, BandCache>>();
-function cached(core: OrderingCore, model: Model, length: StudyLength): BandCache {
+function cached(core: OrderingCore, model: Model, length: StudyLength, hold?: Record<string, number>): BandCache {
   let m = caches.get(model);
   if (!m) caches.set(model, (m = new Map()));
-  const key = JSON.stringify(length);
+  const key = JSON.stringify([length, hold ?? {}]);
   let c = m.get(key);
-  if (!c) m.set(key, (c = createBandCache(core, model, length)));
+  if (!c) m.set(key, (c = createBandCache(core, model, length, hold)));
   return c;
 }
 
 export type BandCacheState = { status: 'loading' } | { status: 'missing' } | { status: 'failed'; message: string } | { status: 'ready'; cache: BandCache };
 
-/** The band cache of a model and study length, shared by every view of the page. */
-export function useBandCache(model: Model | null, length: StudyLength): BandCacheState {
+/** The band cache of a model, study length and interventions, shared by every view of the page. */
+export function useBandCache(model: Model | null, length: StudyLength, hold?: Record<string, number>): BandCacheState {
   const [core, setCore] = useState<OrderingCore | null | undefined>(undefined);
   useEffect(() => {
     let live = true;
@@ -98,7 +98,7 @@ export function useBandCache(model: Model | null, length: StudyLength): BandCach
   if (core === undefined || !model) return { status: 'loading' };
   if (core === null) return { status: 'missing' };
   try {
-    return { status: 'ready', cache: cached(core, model, length) };
+    return { status: 'ready', cache: cached(core, model, length, hold) };
   } catch (e) {
     return { status: 'failed', message: (e as Error).message };
   }
