@@ -89,7 +89,7 @@ export function equilibrateAll(s: EquationStructure, xs: VariableId[]): Operator
  * paired with x in the current ordering; in a simultaneous block that is a
  * choice, recorded with its candidates.
  */
-function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId | null; candidates?: EquationId[] } {
+function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId | null; candidates?: EquationId[]; upstream?: EquationId[] } {
   if (s.derivatives[x] !== undefined) return { eq: s.derivatives[x] };
   if (s.exogenous.includes(x)) return { eq: null };
   const ids = new Set(s.equations.map((e) => e.id));
@@ -99,8 +99,28 @@ function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId |
   if (bi === undefined) return { eq: null };
   const block = ordered.causal.blocks[bi];
   const eqVars = new Map(s.equations.map((e) => [e.id, e.variables]));
+  // The equations of x's block and of every block upstream of it: only these can be replaced to fix x
+  // (replacing any other leaves its own variable undetermined while x is fixed twice).
+  const upstream: EquationId[] = [];
+  {
+    const seen = new Set<number>([bi]);
+    const queue = [bi];
+    while (queue.length > 0) {
+      const b = ordered.causal.blocks[queue.pop()!];
+      for (const e of b.equations) {
+        upstream.push(e);
+        for (const v of eqVars.get(e) ?? []) {
+          const p = ordered.causal.blockOf[v];
+          if (p !== undefined && !seen.has(p)) {
+            seen.add(p);
+            queue.push(p);
+          }
+        }
+      }
+    }
+  }
   const containing = block.equations.filter((e) => eqVars.get(e)!.includes(x));
-  if (block.variables.length <= 1) return { eq: containing[0] ?? Object.keys(ordered.causal.matching).find((e) => ordered.causal.matching[e] === x) ?? null };
+  if (block.variables.length <= 1) return { eq: containing[0] ?? Object.keys(ordered.causal.matching).find((e) => ordered.causal.matching[e] === x) ?? null, upstream };
   // Candidates: equations whose removal leaves the rest of the block able to determine the rest of its variables.
   const rest = block.variables.filter((v) => v !== x);
   const col = new Map(rest.map((v, i) => [v, i]));
@@ -109,33 +129,32 @@ function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId |
     return hopcroftKarp(bipartiteFromLists(rest.length, lists)).size === rest.length;
   });
   const pool = candidates.length > 0 ? candidates : containing;
-  return { eq: pool[0] ?? null, candidates: pool };
+  return { eq: pool[0] ?? null, candidates: pool, upstream };
 }
 
 /** At most this many equations are tried as alternatives (each try is one ordering). */
 const MAX_ALTERNATIVE_TRIES = 200;
 
 /**
- * Implicit equations (relations, balance equations of settled states) other
- * than `chosen` whose replacement by "x = constant" leaves every part of the
- * system well-determined — provided replacing `chosen` does.
+ * Implicit equations (relations, balance equations of settled states) upstream
+ * of x, other than `chosen`, whose replacement by "x = constant" leaves every
+ * part of the system well-determined — provided replacing `chosen` does.
  */
-function alternativesFor(s: EquationStructure, x: VariableId, chosen: EquationId): EquationId[] {
+function alternativesFor(s: EquationStructure, x: VariableId, chosen: EquationId, upstream: EquationId[]): EquationId[] {
   const dynamicRates = new Set(Object.values(s.derivatives));
   const implicit = (id: EquationId) => !id.startsWith('formula(') && !id.startsWith('hold(') && !dynamicRates.has(id);
   const tryReplace = (id: EquationId): boolean => {
     const equations = s.equations.map((e) => (e.id === id ? { id, variables: [x] } : e));
     return causalOrder({ equations, exogenous: s.exogenous.filter((v) => v !== x), variables: s.variables }).blocks.every((b) => b.determination === 'well');
   };
-  const others = s.equations.filter((e) => e.id !== chosen && implicit(e.id)).map((e) => e.id);
+  const others = [...new Set(upstream)].filter((id) => id !== chosen && implicit(id));
   if (others.length === 0 || others.length > MAX_ALTERNATIVE_TRIES || !tryReplace(chosen)) return [];
   return others.filter(tryReplace).sort(compareIds);
 }
 
 function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure; removed: EquationId[]; candidates?: EquationId[]; alternatives?: EquationId[] } {
-  const { eq, candidates } = equationToDrop(s, x);
-  const ownIds = [equationId.hold(x), equationId.formula(x), equationId.rate(x)];
-  const alternatives = eq !== null && s.derivatives[x] === undefined && !ownIds.includes(eq) ? alternativesFor(s, x, eq) : undefined;
+  const { eq, candidates, upstream } = equationToDrop(s, x);
+  const alternatives = eq !== null && upstream ? alternativesFor(s, x, eq, upstream) : undefined;
   const out = cloneStructure(s);
   if (eq !== null) out.equations = out.equations.filter((e) => e.id !== eq);
   delete out.derivatives[x];

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { causalOrder } from '../../../src/core/ordering/causal';
-import { equilibrateAll, equilibrate } from '../../../src/core/ordering/operators';
+import { equilibrateAll, equilibrate, hold } from '../../../src/core/ordering/operators';
 import { orderStructure } from '../../../src/core/ordering/order';
 import { derivativeOf, type EquationStructure, type EquationSystem } from '../../../src/core/ordering/structure';
 import { anySystem, kuhnMatcher, permute, SEED, selfContainedSystem, shuffled, simonOrder } from './generators';
@@ -179,6 +179,29 @@ describe('equilibration: properties', () => {
         expect(JSON.stringify(s)).toBe(before);
       }),
       { seed: SEED, numRuns: 100 },
+    );
+  });
+});
+
+describe('hold: the feasible replacements (fast-check, seeded)', () => {
+  it('the replaced equation and its alternatives are exactly the equations whose replacement by x = constant leaves the system self-contained (exhaustive check)', () => {
+    fc.assert(
+      fc.property(selfContainedSystem(7), fc.nat(), (system, pick) => {
+        const exo = system.exogenous ?? [];
+        const unknowns = [...new Set(system.equations.flatMap((e) => e.variables))].filter((v) => !exo.includes(v)).sort();
+        const x = unknowns[pick % unknowns.length];
+        const s: EquationStructure = { equations: system.equations, exogenous: exo, variables: [...new Set([...unknowns, ...exo])].sort(), derivatives: {} };
+        const { change } = hold(s, x, 0);
+        const feasible = system.equations
+          .map((e) => e.id)
+          .filter((id) =>
+            causalOrder({ equations: system.equations.map((e) => (e.id === id ? { id, variables: [x] } : e)), exogenous: exo }).blocks.every((b) => b.determination === 'well'),
+          )
+          .sort();
+        expect(feasible).toContain(change.removed[0]);
+        expect([...change.removed, ...(change.alternatives ?? [])].sort()).toEqual(feasible);
+      }),
+      { seed: SEED, numRuns: 300 },
     );
   });
 });
