@@ -171,3 +171,40 @@ describe('breakpoints and bands (fixed window)', () => {
     expect(breakpoints(model, { window: 4 })[0].changes).toEqual([{ variable: 'fast', from: 'state', to: 'settled', reason: 'fast settles: timescale 40 min × 5 ≤ interval' }]);
   });
 });
+
+describe('breakpoints: coinciding changes', () => {
+  const twin: Model = {
+    format: 'loopfold-model',
+    version: 1,
+    name: 'twin',
+    timeUnit: 'h',
+    variables: [
+      { id: 'p', kind: 'state', timescale: 1 },
+      { id: 'q', kind: 'state', timescale: 1 },
+      { id: 'r', kind: 'state', timescale: 1250 },
+    ],
+    links: [],
+  };
+
+  it('two states with one timescale change together: one breakpoint, changes sorted by variable', () => {
+    const bps = breakpoints(twin);
+    const at5 = bps.filter((b) => b.interval === 5);
+    // p, q settle at 5 × 1 h (inclusive); r thaws at 1250 h / (5 × 50) = 5 h (exclusive): two breakpoints at 5 h
+    expect(at5.map((b) => [b.exclusive === true, b.changes.map((c) => c.variable)])).toEqual([
+      [false, ['p', 'q']],
+      [true, ['r']],
+    ]);
+  });
+
+  it('an inclusive and an exclusive breakpoint at the same interval make a one-point band [5, 5]', () => {
+    const bs = bands(twin);
+    const point = bs.filter((b) => b.from === 5 && b.to === 5);
+    expect(point).toHaveLength(1);
+    expect(point[0].includesTo).toBe(true);
+    expect(point[0].excludesFrom).toBeUndefined();
+    expect(point[0].roles).toEqual({ p: 'settled', q: 'settled', r: 'frozen' });
+    expect(rolesAt(twin, { interval: 5 }).roles).toEqual(point[0].roles);
+    expect(rolesAt(twin, { interval: nextUp(5) }).roles.r).toBe('state');
+    expect(rolesAt(twin, { interval: nextDown(5) }).roles.p).toBe('state');
+  });
+});
