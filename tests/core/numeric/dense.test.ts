@@ -129,6 +129,12 @@ describe('hard cases for the exponential and the noise integral', () => {
     expectClose(toRows(q), [[9, 4.5], [4.5, 3]], {}, 'integrated random walk Q');
   });
 
+  it('with no drift at all, Φ = I and Q(Δ) = Δ·G Gᵀ (pure diffusion, closed form, common practice)', () => {
+    const { phi, q } = vanLoan(fromRows([[0, 0], [0, 0]]), fromRows([[400, 30], [30, 9]]), 5);
+    expectClose(toRows(phi), [[1, 0], [0, 1]]);
+    expectClose(toRows(q), [[2000, 150], [150, 45]]);
+  });
+
   it('expm of a rotation generator is a rotation (closed form, common practice)', () => {
     const r = expm(fromRows([[0, 2], [-2, 0]]));
     expectClose(toRows(r), [[Math.cos(2), Math.sin(2)], [-Math.sin(2), Math.cos(2)]]);
