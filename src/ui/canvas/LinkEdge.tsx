@@ -1,6 +1,6 @@
 import { memo } from 'react';
-import { BaseEdge, EdgeLabelRenderer, useInternalNode, type EdgeProps, type InternalNode } from '@xyflow/react';
-import { LINK_STYLE, MUTED } from '../../theme/visual';
+import { BaseEdge, useInternalNode, type EdgeProps, type InternalNode } from '@xyflow/react';
+import { INK, LINK_STYLE, MUTED } from '../../theme/visual';
 import { HEAD_MARKER } from './Markers';
 import { linkPath, type Box } from './geometry';
 import type { LinkFlowEdge } from './flow';
@@ -33,11 +33,11 @@ export const LinkEdge = memo(function LinkEdge({ source, target, data, selected 
       {selected && <BaseEdge path={path} style={{ stroke: '#c77d0a', strokeOpacity: 0.45, strokeWidth: width + 7 }} />}
       <BaseEdge path={path} markerEnd={HEAD_MARKER[link.kind]} style={{ stroke: style.stroke, strokeWidth: width, strokeDasharray: style.dash }} interactionWidth={18} />
       {link.sign && (
-        <EdgeLabelRenderer>
-          <span className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} style={{ transform: `translate(-50%, -50%) translate(${glyph.x}px, ${glyph.y}px)` }} aria-hidden="true">
-            {link.sign === '-' ? '−' : '+'}
-          </span>
-        </EdgeLabelRenderer>
+        // drawn in the edge layer itself (no HTML overlay per link): cheap for large models
+        <g className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} transform={`translate(${glyph.x},${glyph.y})`} aria-hidden="true">
+          <circle r={8.5} fill={link.sign === '-' ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
+          <path d={link.sign === '-' ? 'M-4.5,0 H4.5' : 'M-4.5,0 H4.5 M0,-4.5 V4.5'} stroke={link.sign === '-' ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
+        </g>
       )}
     </>
   );
