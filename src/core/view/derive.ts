@@ -96,15 +96,17 @@ export function orderingView(model: Model, ordering: Ordering, opts: ViewOptions
   const blocks = simultaneousBlocks(ordering);
   const blockOf = new Map<VariableId, OrderingBlock>();
   for (const b of blocks) for (const v of b.variables) blockOf.set(v, b);
+  // one key per block (sorting its variables for every member would cost O(m² log m) in a big block)
+  const keyOf = new Map<OrderingBlock, string>(blocks.map((b) => [b, blockKey(b.variables)]));
   const slices: (Slice | undefined)[] = opts.mode === 'unrolled' ? [...SLICES] : [undefined];
   const at = (id: string, s: Slice | undefined) => (s === undefined ? id : `${id}@${s}`);
-  const shownFolded = blocks.map((b) => blockKey(b.variables)).filter((k) => folded.has(k));
+  const shownFolded = blocks.map((b) => keyOf.get(b)!).filter((k) => folded.has(k));
 
   /** The node a variable is drawn in at a slice (itself, or its folded block). */
   const nodeOf = (v: VariableId, s: Slice | undefined): ViewNodeId => {
     const b = blockOf.get(v);
     if (b) {
-      const k = blockKey(b.variables);
+      const k = keyOf.get(b)!;
       if (folded.has(k)) return at(`block:${k}`, s);
     }
     return at(v, s);
@@ -115,14 +117,14 @@ export function orderingView(model: Model, ordering: Ordering, opts: ViewOptions
   for (const s of slices) {
     for (const v of model.variables) {
       const b = blockOf.get(v.id);
-      const k = b ? blockKey(b.variables) : undefined;
+      const k = b ? keyOf.get(b) : undefined;
       if (k && folded.has(k)) continue;
       const role: Role = ordering.roles[v.id] ?? v.kind;
       const label = v.label ?? v.id;
       nodes.push({ id: at(v.id, s), variable: v.id, label, kind: v.kind, role, block: k, slice: s, ...nodeSize(label, GLYPH_ROLES.has(role)) });
     }
     for (const b of blocks) {
-      const k = blockKey(b.variables);
+      const k = keyOf.get(b)!;
       const id = at(`block:${k}`, s);
       if (folded.has(k)) {
         const label = foldedLabel(model, b.variables);

@@ -61,7 +61,8 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
   const caption = `Sampling interval every ${formatDuration(interval, model.timeUnit)} · ${studyText(model, interval, study.window, study.samples)}`;
   const doExport = (kind: 'svg' | 1 | 2 | 4) => {
-    const figure = view === 'ordering' || view === 'unrolled' ? vm : mech;
+    // the view on screen is built once per band; the figure names the interval set now
+    const figure = orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
     const name = `${model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model'}-${view}`;
     if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name);
     else void exportPng(figure, { caption: true, captionText: caption }, name, kind);
