@@ -174,7 +174,8 @@ describe('linearization and timescales', () => {
 describe('exact sampled model', () => {
   // Voelkle, Oud, Davidov & Schmidt (2012), Psychological Methods 17(2): lagged coefficients at Δ = 1,
   // Φ(1) = [[.64, .18], [.03, .89]] (as reproduced in the documentation of the R package LAM, clpm_to_ctm,
-  // which cites Kuiper & Ryan 2018). The drift is its matrix logarithm (scipy.linalg.logm).
+  // which cites Kuiper & Ryan 2018). The drift is its matrix logarithm (scipy.linalg.logm). The interval at
+  // which the cross-lagged effect peaks is checked against SciPy, not against a figure in the papers (not verified here).
   const ref = runPython<{ drift: number[][]; phi: number[][]; q: number[][]; sigma: number[][]; partial: number[][]; peak: [number, number] }>(
     'tests/reference/numeric_sampled.py',
     { phi1: [[0.64, 0.18], [0.03, 0.89]], interval: 1, noise: [1, 1], link: [0, 1], bounds: [0.01, 30] },
