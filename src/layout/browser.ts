@@ -8,9 +8,8 @@ import type { ViewModel } from '../core/view/types';
 import { elkLayout, type ElkLayoutOptions, type ElkRunner } from './elk';
 import type { Layout } from './types';
 
-let runner: Promise<ElkRunner> | undefined;
-
-async function startElk(): Promise<ElkRunner> {
+/** Start ELK in a worker (the bundled build on the main thread when no worker can start). */
+export async function startElk(): Promise<ElkRunner> {
   try {
     const [{ default: ELK }, { default: workerUrl }] = await Promise.all([
       import('elkjs/lib/elk-api.js'),
@@ -24,22 +23,51 @@ async function startElk(): Promise<ElkRunner> {
   }
 }
 
+let shared: Promise<ElkRunner> | undefined;
+/** One worker for one-off layouts (figure export). */
 export function browserElk(): Promise<ElkRunner> {
-  runner ??= startElk();
-  return runner;
+  shared ??= startElk();
+  return shared;
 }
 
-/** A layout queue for one view: each request gets a ticket; results of old tickets resolve to null. */
-export function createLayoutQueue(getElk: () => Promise<ElkRunner> = browserElk) {
+/**
+ * A layout queue for one view, with its own worker: each request gets a
+ * ticket and results of old tickets resolve to null. A request that comes
+ * while a layout is running stops that worker (a big graph can take seconds)
+ * and starts a fresh one, so the newest view never waits for a stale one.
+ */
+export function createLayoutQueue(start: () => Promise<ElkRunner> = startElk) {
   let ticket = 0;
+  let running = false;
+  let runner: Promise<ElkRunner> | undefined;
   return {
     async request(vm: ViewModel, opts: ElkLayoutOptions): Promise<Layout | null> {
       const mine = ++ticket;
-      const elk = await getElk();
+      if (running && runner) {
+        const old = (await runner) as ElkRunner & { terminateWorker?: () => void };
+        old.terminateWorker?.();
+        runner = undefined;
+        running = false;
+      }
+      runner ??= start();
+      const elk = await runner;
       if (mine !== ticket) return null;
-      const result = await elkLayout(elk, vm, opts);
-      return mine === ticket ? result : null;
+      running = true;
+      try {
+        const result = await elkLayout(elk, vm, opts);
+        return mine === ticket ? result : null;
+      } finally {
+        if (mine === ticket) running = false;
+      }
     },
     cancel() { ticket++; },
+    /** Stop the worker (when the view goes away). */
+    async dispose() {
+      ticket++;
+      const r = runner;
+      runner = undefined;
+      running = false;
+      ((await r) as (ElkRunner & { terminateWorker?: () => void }) | undefined)?.terminateWorker?.();
+    },
   };
 }

@@ -117,11 +117,16 @@ describe('layout', () => {
         return done;
       },
     };
-    const q = createLayoutQueue(async () => slow);
+    let abandoned = 0;
+    let started = 0;
+    const q = createLayoutQueue(async () => { started++; return Object.assign(Object.create(slow) as ElkRunner, { layout: slow.layout, terminateWorker: () => { abandoned++; } }); });
     const first = q.request(v1, {});
+    await new Promise((r) => setTimeout(r, 5)); // the first is under way
     const second = q.request(v2, {});
     expect(await first).toBeNull();
     expect(await second).not.toBeNull();
+    expect(abandoned).toBe(1); // the running layout was stopped, not waited for
+    expect(started).toBe(2); // and a fresh worker took the new one
   });
 
   it('animation frames run from the old place to the new one', () => {

@@ -77,7 +77,7 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: V
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [vm, drawn, queue]);
 
-  useEffect(() => () => cancelAnimationFrame(frame.current), []);
+  useEffect(() => () => { cancelAnimationFrame(frame.current); void queue.dispose(); }, [queue]);
 
   const [zoom, setZoom] = useState<'fit' | number>('fit');
   // the pane has its own heading and summary: the figure's title line is for exported files
