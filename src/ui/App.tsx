@@ -11,10 +11,14 @@ import { CautionBanner } from './CautionBanner';
 import { Toast } from './Toast';
 import { IntervalStrip } from './interval/IntervalStrip';
 import { useShortcuts } from './useShortcuts';
+import { useEffect } from 'react';
 import { useUi } from '../state/ui';
+import { startHoldSync } from './interventions';
 
 function Shell() {
   useShortcuts();
+  // Holds live for the whole session, whichever pane is open.
+  useEffect(() => startHoldSync(), []);
   const wide = useUi((s) => s.pane !== 'edit');
   return (
     <div className="lf-app">

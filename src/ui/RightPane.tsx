@@ -3,14 +3,16 @@ import { TimescalePane } from './views/TimescalePane';
 import { Inspector } from './inspector/Inspector';
 import { DiagnosticsList } from './diagnostics/DiagnosticsList';
 import { EquationsView } from './equations/EquationsView';
+import { CommutationPanel, HoldControl } from './interventions';
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
   { id: 'equations', name: 'Equations' },
   { id: 'timescales', name: 'Timescales' },
+  { id: 'intervene', name: 'Intervene' },
 ];
 
-/** The pane beside the canvas: editing and checks, the equation structure, or the timescale views. */
+/** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
 export function RightPane() {
   const pane = useUi((s) => s.pane);
   return (
@@ -47,6 +49,12 @@ export function RightPane() {
         )}
         {pane === 'equations' && <EquationsView />}
         {pane === 'timescales' && <TimescalePane />}
+        {pane === 'intervene' && (
+          <div className="lf-intervene">
+            <HoldControl />
+            <CommutationPanel />
+          </div>
+        )}
       </div>
     </aside>
   );

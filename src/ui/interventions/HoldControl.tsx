@@ -6,7 +6,7 @@ import { useEffect, useId, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
-import { holdStore, startHoldSync, useHolds } from './holds';
+import { holdStore, useHolds } from './holds';
 import './interventions.css';
 
 function startValue(model: Model, id: string): string {
@@ -16,7 +16,6 @@ function startValue(model: Model, id: string): string {
 
 export function HoldControl() {
   const model = useValidatedModel();
-  useEffect(() => startHoldSync(), []);
   if (!model) return <section className="lf-hold" aria-label="Hold a variable"><p>Fix the model's problems to hold a variable.</p></section>;
   return <HoldControlFor model={model} />;
 }
