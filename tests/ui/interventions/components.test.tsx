@@ -39,6 +39,8 @@ function mount(node: React.ReactNode) {
 describe('HoldControl', () => {
   it('holds the chosen variable at the typed value and puts it into the study design', () => {
     act(() => documentStore.getState().load(model));
+    // The app shell keeps the holds in step with the design for the whole session.
+    const stop = startHoldSync();
     const el = mount(<HoldControl />);
     const select = el.querySelector('select')!;
     const input = el.querySelector('input')!;
@@ -60,6 +62,7 @@ describe('HoldControl', () => {
     expect(analysisStore.getState().design).toEqual({ interval: 60, samples: 50, hold: { heater: 0 } });
     act(() => (el.querySelector('button[aria-label="Release Heating power"]') as HTMLButtonElement).click());
     expect(analysisStore.getState().design.hold).toBeUndefined();
+    stop();
   });
 
   it('refuses a value that is not a number, in words', () => {
