@@ -38,9 +38,13 @@ export const ALLOWED_FUNCTIONS: Record<string, { minArgs: number; maxArgs: numbe
 export const ALLOWED_CONSTANTS: Record<string, number> = { pi: Math.PI, e: Math.E };
 export const ALLOWED_OPERATORS = new Set(['add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus']);
 
+const own = (table: object, name: string): boolean => Object.prototype.hasOwnProperty.call(table, name);
+const isFunctionName = (name: string): boolean => own(ALLOWED_FUNCTIONS, name);
+const isConstantName = (name: string): boolean => own(ALLOWED_CONSTANTS, name);
+
 /** Names a variable may not take, because formulas would read them as functions or constants. */
 export function isReservedName(name: string): boolean {
-  return name in ALLOWED_FUNCTIONS || name in ALLOWED_CONSTANTS;
+  return isFunctionName(name) || isConstantName(name);
 }
 
 export interface ExpressionError {
@@ -69,8 +73,8 @@ function check(node: MathNode, symbols: Set<string>, depth: number): ExpressionE
     }
     case 'SymbolNode': {
       const name = n.name as string;
-      if (name in ALLOWED_FUNCTIONS) return { message: `"${name}" is a function: write ${name}(…)` };
-      if (!(name in ALLOWED_CONSTANTS)) symbols.add(name);
+      if (isFunctionName(name)) return { message: `"${name}" is a function: write ${name}(…)` };
+      if (!isConstantName(name)) symbols.add(name);
       return null;
     }
     case 'ParenthesisNode':
@@ -87,8 +91,8 @@ function check(node: MathNode, symbols: Set<string>, depth: number): ExpressionE
     case 'FunctionNode': {
       const fnNode = n.fn as MathNode & { name?: string };
       if (fnNode.type !== 'SymbolNode' || typeof fnNode.name !== 'string') return { message: 'only named functions such as exp(x) may be called' };
-      const spec = ALLOWED_FUNCTIONS[fnNode.name];
-      if (!spec || !Object.prototype.hasOwnProperty.call(ALLOWED_FUNCTIONS, fnNode.name))
+      const spec = isFunctionName(fnNode.name) ? ALLOWED_FUNCTIONS[fnNode.name] : undefined;
+      if (!spec)
         return { message: `"${fnNode.name}" is not a function formulas can use; allowed: ${Object.keys(ALLOWED_FUNCTIONS).join(', ')}` };
       const args = n.args as MathNode[];
       if (args.length < spec.minArgs || args.length > spec.maxArgs)
