@@ -23,7 +23,7 @@ export const EXAMPLES: Example[] = [
   {
     id: 'lake',
     title: 'A lake after the runoff',
-    summary: 'A workshop sketch of nutrients, algae, grazers and fish, with a sediment store that only fills and empties.',
+    summary: 'A workshop sketch of nutrients, algae, grazers and fish, with a sediment store that releases phosphorus back.',
     model: lake,
   },
   {
