@@ -31,8 +31,10 @@ function views(m: Model): ViewModel[] {
 
 describe('layout', () => {
   it.each(EXAMPLES.map((e) => e.id))('%s: ELK places nodes without overlap, members inside their block, at every band', async (id) => {
-    for (const vm of views(example(id))) {
-      const l = await layoutInNode(vm);
+    let prev: Layout | undefined;
+    for (const vm of views(example(id))) for (const seeded of [false, true]) {
+      const l = await layoutInNode(vm, { previous: seeded ? prev : undefined });
+      if (seeded) prev = l;
       const boxes = vm.nodes.map((n) => l.nodes[n.id]);
       expect(boxes.every(Boolean)).toBe(true);
       for (let i = 0; i < boxes.length; i++) for (let j = i + 1; j < boxes.length; j++) expect(overlap(boxes[i], boxes[j]), `${vm.nodes[i].id} / ${vm.nodes[j].id}`).toBe(false);
@@ -72,7 +74,7 @@ describe('layout', () => {
     expect(c1.y - c0.y).toBeCloseTo(others[0].y, 6);
   });
 
-  it('seeded with the previous positions, the layout keeps most orders of nodes within layers when the band changes (a fresh layout reported beside it)', async () => {
+  it('seeded with the previous positions, the layout keeps more orders of nodes within layers across band changes than a fresh layout', async () => {
     const orderKept = async (seeded: boolean, m: Model) => {
       let prev: Layout | undefined;
       let kept = 0, total = 0;
@@ -100,9 +102,8 @@ describe('layout', () => {
     }
     console.log(`order kept: seeded ${seededKept}/${total}, fresh ${freshKept}/${total}`);
     expect(total).toBeGreaterThan(10);
-    // both keep the model order where crossings allow; seeding must not lose it
     expect(seededKept / total).toBeGreaterThan(0.8);
-    expect(seededKept / total).toBeGreaterThan(freshKept / total - 0.05);
+    expect(seededKept).toBeGreaterThan(freshKept);
   });
 
   it('a layout made obsolete by a newer request is dropped', async () => {
