@@ -37,7 +37,7 @@ export function studyLength(model: Model, design: StudyDesign): number | undefin
 }
 
 const ROLE_WORD: Record<Role, string> = {
-  input: 'is set from outside', state: 'becomes dynamic again', derived: 'follows within the instant',
+  input: 'is set from outside', state: 'becomes dynamic', derived: 'follows within the instant',
   settled: 'settles', frozen: 'becomes frozen', held: 'is held',
 };
 
@@ -113,15 +113,17 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
 
   if (design.interval !== undefined && breakpoints.length) {
     const sorted = [...breakpoints].sort((a, b) => a.interval - b.interval);
-    const above = sorted.find((b) => b.interval > design.interval!);
-    const below = [...sorted].reverse().find((b) => b.interval <= design.interval!);
+    // an exclusive breakpoint's new role holds only above it
+    const passed = (b: Breakpoint) => (b.exclusive ? design.interval! > b.interval : design.interval! >= b.interval);
+    const above = sorted.find((b) => !passed(b));
+    const below = [...sorted].reverse().find(passed);
     if (below) {
       const undo = below.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.from]}`);
       lines.push({ topic: 'nearby', text: `Below ${formatDuration(below.interval, u)}: ${listWords(undo)}.`, variables: below.changes.map((c) => c.variable) });
     }
     if (above) {
       const next = above.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.to]}`);
-      lines.push({ topic: 'nearby', text: `From ${formatDuration(above.interval, u)} on: ${listWords(next)}.`, variables: above.changes.map((c) => c.variable) });
+      lines.push({ topic: 'nearby', text: `${above.exclusive ? 'Above' : 'From'} ${formatDuration(above.interval, u)}${above.exclusive ? '' : ' on'}: ${listWords(next)}.`, variables: above.changes.map((c) => c.variable) });
     }
   }
   return lines;

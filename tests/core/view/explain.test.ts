@@ -44,6 +44,18 @@ describe('explanation text', () => {
     const near = lines.filter((l) => l.topic === 'nearby');
     expect(near.at(-1)!.text).toBe('From 3.33 h on: Stress settles.');
   });
+  it('at an exclusive breakpoint itself the old role still holds, and the text says the change comes above it', () => {
+    const bps = breakpoints(m, { samples: 50 });
+    const thaw = bps.find((b) => b.exclusive && b.changes.some((c) => c.variable === 'stress'))!;
+    // τ/(k·N) = (40 min)/(5 × 50) = 9.6 s (the rule of settings.separation in the model file)
+    expect(thaw.interval * 3600).toBeCloseTo(9.6, 9);
+    const design = { interval: thaw.interval, samples: 50 };
+    const o = orderingAt(m, design);
+    expect(o.roles.stress).toBe('frozen');
+    const near = explainOrdering(m, o, design, bps).filter((l) => l.topic === 'nearby');
+    expect(near.map((l) => l.text)).toContain('Above 9.6 s: Stress becomes dynamic.');
+  });
+
   it('lists words the English way (common practice)', () => {
     expect(listWords(['a'])).toBe('a');
     expect(listWords(['a', 'b'])).toBe('a and b');
