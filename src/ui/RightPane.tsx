@@ -4,12 +4,17 @@ import { Inspector } from './inspector/Inspector';
 import { DiagnosticsList } from './diagnostics/DiagnosticsList';
 import { EquationsView } from './equations/EquationsView';
 import { CommutationPanel, HoldControl } from './interventions';
+import { lazy, Suspense } from 'react';
+
+// The Numbers pane and its worker load only when the tab is first opened.
+const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
   { id: 'equations', name: 'Equations' },
   { id: 'timescales', name: 'Timescales' },
   { id: 'intervene', name: 'Intervene' },
+  { id: 'numbers', name: 'Numbers' },
 ];
 
 /** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
@@ -54,6 +59,11 @@ export function RightPane() {
             <HoldControl />
             <CommutationPanel />
           </div>
+        )}
+        {pane === 'numbers' && (
+          <Suspense fallback={<p className="lf-num-wait">Loading the numbers…</p>}>
+            <NumbersPane />
+          </Suspense>
         )}
       </div>
     </aside>

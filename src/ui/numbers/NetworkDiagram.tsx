@@ -1,0 +1,59 @@
+import type { Model, VariableId } from '../../core/model/types';
+import { circleLayout, strongEdges } from './chart';
+import { nameOf, weightText } from './format';
+
+const W = 340, H = 240;
+
+/**
+ * A small node-link drawing of a network: line width ∝ |weight|, solid for
+ * positive and dashed for negative weights, each labelled with its value.
+ * Directed networks get arrowheads and show the self-effect under the node.
+ */
+export function NetworkDiagram({ model, states, matrix, directed, title }: { model: Model; states: VariableId[]; matrix: number[][]; directed: boolean; title: string }) {
+  const pos = circleLayout(states.length, W, H, 44);
+  const edges = strongEdges(matrix, 0.02, !directed);
+  const max = Math.max(1e-300, ...edges.map((e) => Math.abs(e.weight)));
+  const id = `lf-arrow-${directed ? 'd' : 'u'}-${title.replace(/\W+/g, '')}`;
+  return (
+    <svg className="lf-num-network" viewBox={`0 0 ${W} ${H}`} role="img" aria-label={title}>
+      <defs>
+        <marker id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">
+          <path d="M0,0 L10,5 L0,10 z" className="lf-net-arrow" />
+        </marker>
+      </defs>
+      {edges.map((e) => {
+        const a = pos[e.from], b = pos[e.to];
+        // Two opposite links between the same pair bend apart.
+        const both = directed && edges.some((f) => f.from === e.to && f.to === e.from);
+        const dx = b.x - a.x, dy = b.y - a.y, len = Math.hypot(dx, dy) || 1;
+        const ux = dx / len, uy = dy / len;
+        const sx = a.x + ux * 22, sy = a.y + uy * 14, ex = b.x - ux * 22, ey = b.y - uy * 14;
+        const bend = both ? 16 : 0;
+        const mx = (sx + ex) / 2 - uy * bend, my = (sy + ey) / 2 + ux * bend;
+        return (
+          <g key={`${e.from}-${e.to}`} data-edge={`${states[e.from]}>${states[e.to]}`}>
+            <path
+              d={`M${sx},${sy} Q${mx},${my} ${ex},${ey}`}
+              className="lf-net-edge"
+              strokeWidth={0.8 + 4 * (Math.abs(e.weight) / max)}
+              strokeDasharray={e.weight < 0 ? '5 3' : undefined}
+              markerEnd={directed ? `url(#${id})` : undefined}
+            />
+            <text x={mx} y={my - 3} textAnchor="middle" className="lf-net-weight">{weightText(e.weight)}</text>
+          </g>
+        );
+      })}
+      {states.map((s, i) => (
+        <g key={s} transform={`translate(${pos[i].x}, ${pos[i].y})`}>
+          <rect x={-40} y={-11} width={80} height={22} rx={4} className="lf-net-node" />
+          <text y={4} textAnchor="middle" className="lf-net-name">{shorten(nameOf(model, s))}</text>
+          {directed && <text y={24} textAnchor="middle" className="lf-net-self">self {weightText(matrix[i][i])}</text>}
+        </g>
+      ))}
+    </svg>
+  );
+}
+
+function shorten(s: string): string {
+  return s.length > 13 ? `${s.slice(0, 12)}…` : s;
+}

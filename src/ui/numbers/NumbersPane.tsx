@@ -1,0 +1,129 @@
+/**
+ * The Numbers pane: equilibrium, simulation, timescales, the sampled model at
+ * the current interval, the strength of one link against the interval, and
+ * an interval advisor. Loaded on demand (React.lazy) with its own worker.
+ */
+import { useState } from 'react';
+import type { Model, VariableId } from '../../core/model/types';
+import { formatDuration } from '../../core/model/units';
+import { useAnalysis, useAnalysisState } from '../../state/analysis';
+import { useValidatedModel } from '../../state/document';
+import { designOf, useStudy } from '../../state/study';
+import type { CurveAnswer, SampledAnswer, TimescalesAnswer } from './compute';
+import { EquilibriumTable } from './EquilibriumTable';
+import { IntervalAdvisor } from './IntervalAdvisor';
+import { LinkCurveChart } from './LinkCurveChart';
+import { SampledNetworks } from './SampledNetworks';
+import { SimulationPanel } from './SimulationPanel';
+import { TimescalesTable } from './TimescalesTable';
+import { nameOf } from './format';
+import { isFailed, useNumeric } from './useNumeric';
+import './numbers.css';
+
+function Section({ title, children, id }: { title: string; children: React.ReactNode; id: string }) {
+  return (
+    <section className="lf-num-section" aria-labelledby={`lf-num-${id}`} data-section={id}>
+      <h3 id={`lf-num-${id}`}>{title}</h3>
+      {children}
+    </section>
+  );
+}
+
+export default function NumbersPane() {
+  const model = useValidatedModel();
+  if (!model) return <p className="lf-numbers lf-num-note">The numbers appear once the model has no problems left (see the Edit tab).</p>;
+  return <NumbersOf model={model} />;
+}
+
+function NumbersOf({ model }: { model: Model }) {
+  const design = useAnalysisState((s) => s.design);
+  const breakpoints = useAnalysis()?.breakpoints ?? [];
+  // The interval as the user set it (the analysis design follows it band by band).
+  const studyInterval = useStudy((s) => s.interval);
+  const studyLengthChoice = useStudy((s) => s.length);
+  const exact = studyInterval !== null ? designOf({ interval: studyInterval, length: studyLengthChoice }) : design;
+  const interval = exact.interval;
+  const hold = design.hold;
+  const samples = exact.samples ?? model.settings?.samples ?? 50;
+  const studyLength = interval === undefined ? undefined : (exact.window ?? samples * interval);
+  const u = model.timeUnit;
+  const ts = useNumeric<TimescalesAnswer>((c) => c.ask('timescales', model, interval), [model, interval]);
+  const sampled = useNumeric<SampledAnswer>(interval !== undefined ? (c) => c.ask('sampled', model, interval) : null, [model, interval]);
+  const tsOk = ts.status === 'done' && !isFailed(ts.answer) ? ts.answer : null;
+  const states = tsOk?.report.states ?? model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
+  const slowest = tsOk ? Math.max(...tsOk.report.modes.map((m) => m.time).filter(Number.isFinite)) : undefined;
+  return (
+    <div className="lf-numbers">
+      <p className="lf-num-intro">
+        Numbers computed from the model as written: they are model-based expectations, not measurements.
+        {interval !== undefined ? ` Sampling interval Δ: every ${formatDuration(interval, u)}.` : ' No sampling interval is set: the mechanism itself.'}
+      </p>
+      <Section id="equilibrium" title="Balance point (equilibrium)">
+        <p className="lf-num-note">Where every state comes to rest when the inputs stay as they are.</p>
+        <EquilibriumTable model={model} hold={hold} />
+      </Section>
+      <Section id="simulation" title="Simulation from the initial values">
+        <SimulationPanel model={model} hold={hold} interval={interval} studyLength={studyLength} slowest={slowest !== undefined && Number.isFinite(slowest) && slowest > 0 ? slowest : undefined} />
+      </Section>
+      <Section id="timescales" title="How fast each state responds">
+        {ts.status !== 'done' ? <p className="lf-num-wait">Working out the timescales…</p> : isFailed(ts.answer) ? <p className="lf-num-error">{ts.answer.reason}</p> : <TimescalesTable model={model} answer={ts.answer} />}
+      </Section>
+      <Section id="sampled" title="What a study sampling every Δ would see">
+        {interval === undefined ? (
+          <p className="lf-num-note">Set a sampling interval to see the networks a study at that interval would estimate.</p>
+        ) : sampled.status !== 'done' ? (
+          <p className="lf-num-wait">Working out the sampled model…</p>
+        ) : isFailed(sampled.answer) ? (
+          <p className="lf-num-error">{sampled.answer.reason}</p>
+        ) : (
+          <SampledNetworks model={model} answer={sampled.answer} />
+        )}
+      </Section>
+      <Section id="curve" title="One link against the interval">
+        <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} current={interval} />
+      </Section>
+      <Section id="advisor" title="Which interval to choose">
+        <IntervalAdvisor model={model} states={states} />
+      </Section>
+    </div>
+  );
+}
+
+function LinkPicker({ model, states, breakpoints, current }: { model: Model; states: VariableId[]; breakpoints: number[]; current: number | undefined }) {
+  const [from, setFrom] = useState<VariableId | null>(null);
+  const [to, setTo] = useState<VariableId | null>(null);
+  const f = from && states.includes(from) ? from : states[0];
+  const t = to && states.includes(to) && to !== f ? to : states.find((s) => s !== f);
+  const curve = useNumeric<CurveAnswer>(f && t ? (c) => c.ask('curve', model, f, t) : null, [model, f, t]);
+  if (states.length < 2) return <p className="lf-num-note">Lagged links run between states; this model has fewer than two.</p>;
+  return (
+    <>
+      <div className="lf-num-row">
+        <label>
+          From{' '}
+          <select aria-label="Link from" value={f} onChange={(e) => setFrom(e.target.value)}>
+            {states.map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
+          </select>
+        </label>
+        <label>
+          to{' '}
+          <select aria-label="Link to" value={t} onChange={(e) => setTo(e.target.value)}>
+            {states.filter((s) => s !== f).map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
+          </select>
+        </label>
+      </div>
+      {curve.status !== 'done' ? (
+        <p className="lf-num-wait">Working out the curve…</p>
+      ) : isFailed(curve.answer) ? (
+        <p className="lf-num-error">{curve.answer.reason}</p>
+      ) : (
+        <>
+          <LinkCurveChart model={model} curve={curve.answer.curve} breakpoints={breakpoints} current={current} />
+          <p className="lf-num-note">
+            How strongly {nameOf(model, f!)} now moves {nameOf(model, t!)} one sampling interval later, for every interval. Too short an interval leaves no time for the effect; too long lets it fade.
+          </p>
+        </>
+      )}
+    </>
+  );
+}
