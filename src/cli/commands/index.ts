@@ -10,3 +10,5 @@ import { orderingCommands } from './ordering';
 COMMANDS.unshift(...orderingCommands);
 import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
+import { curveCommands } from './curves';
+COMMANDS.push(...curveCommands);

@@ -20,7 +20,7 @@ export function LinkCurveChart({ model, curve, breakpoints, current }: { model: 
   const inside = (d: number) => d >= d0 && d <= d1;
   const title = `Lagged effect of ${nameOf(model, curve.from)} on ${nameOf(model, curve.to)} against the sampling interval`;
   return (
-    <svg className="lf-num-chart lf-num-curve" viewBox={`0 0 ${W} ${H + 30}`} role="img" aria-label={title}>
+    <svg className="lf-num-chart lf-num-curve" viewBox={`0 0 ${W} ${H + 42}`} role="img" aria-label={title}>
       <rect x={L} y={T} width={W - L - R} height={H - T - B} className="lf-chart-frame" />
       {logTicks(d0, d1).map((v) => (
         <g key={`x${v}`}>
@@ -43,23 +43,25 @@ export function LinkCurveChart({ model, curve, breakpoints, current }: { model: 
       {current !== undefined && inside(current) && (
         <g data-current={current}>
           <line x1={x(current)} x2={x(current)} y1={T} y2={H - B} className="lf-chart-current" />
-          <text x={x(current) + 3} y={T + 10} className="lf-chart-tick">now</text>
         </g>
       )}
       <polyline className="lf-chart-line" points={curve.intervals.map((d, k) => `${x(d).toFixed(1)},${y(curve.effect[k]).toFixed(1)}`).join(' ')} />
       {peak && (
         <g data-peak={peak.interval}>
           <path d={`M${x(peak.interval)},${y(peak.effect) - 6} l5,6 l-5,6 l-5,-6 z`} className="lf-chart-peak" />
-          <text x={x(peak.interval)} y={y(peak.effect) + (peak.effect >= 0 ? -9 : 20)} textAnchor="middle" className="lf-chart-tick">
-            peak {numText(peak.effect)} at {formatDuration(peak.interval, u)}
-          </text>
         </g>
       )}
       <g transform={`translate(${L}, ${H + 6})`} className="lf-chart-legend">
         <line x1={0} x2={16} y1={6} y2={6} className="lf-chart-breakpoint" />
         <text x={20} y={10} className="lf-chart-tick">the causal ordering changes</text>
-        <line x1={180} x2={196} y1={6} y2={6} className="lf-chart-current" />
-        <text x={200} y={10} className="lf-chart-tick">current Δ</text>
+        <line x1={170} x2={186} y1={6} y2={6} className="lf-chart-current" />
+        <text x={190} y={10} className="lf-chart-tick">current Δ</text>
+        {peak && (
+          <>
+            <path d="M8,16 l5,6 l-5,6 l-5,-6 z" className="lf-chart-peak" />
+            <text x={20} y={26} className="lf-chart-tick">strongest: {numText(Number(peak.effect.toPrecision(3)))} at Δ = {formatDuration(peak.interval, u)}</text>
+          </>
+        )}
       </g>
     </svg>
   );

@@ -2,7 +2,7 @@ import type { Model, VariableId } from '../../core/model/types';
 import { circleLayout, strongEdges } from './chart';
 import { nameOf, weightText } from './format';
 
-const W = 340, H = 240;
+const W = 400, H = 250, NW = 92, NH = 22;
 
 /**
  * A small node-link drawing of a network: line width ∝ |weight|, solid for
@@ -10,14 +10,14 @@ const W = 340, H = 240;
  * Directed networks get arrowheads and show the self-effect under the node.
  */
 export function NetworkDiagram({ model, states, matrix, directed, title }: { model: Model; states: VariableId[]; matrix: number[][]; directed: boolean; title: string }) {
-  const pos = circleLayout(states.length, W, H, 44);
+  const pos = circleLayout(states.length, W, H, 36).map((p) => ({ x: p.x, y: p.y }));
   const edges = strongEdges(matrix, 0.02, !directed);
   const max = Math.max(1e-300, ...edges.map((e) => Math.abs(e.weight)));
   const id = `lf-arrow-${directed ? 'd' : 'u'}-${title.replace(/\W+/g, '')}`;
   return (
     <svg className="lf-num-network" viewBox={`0 0 ${W} ${H}`} role="img" aria-label={title}>
       <defs>
-        <marker id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">
+        <marker id={id} viewBox="0 0 10 10" refX="9" refY="5" markerWidth="9" markerHeight="9" markerUnits="userSpaceOnUse" orient="auto-start-reverse">
           <path d="M0,0 L10,5 L0,10 z" className="lf-net-arrow" />
         </marker>
       </defs>
@@ -27,9 +27,13 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
         const both = directed && edges.some((f) => f.from === e.to && f.to === e.from);
         const dx = b.x - a.x, dy = b.y - a.y, len = Math.hypot(dx, dy) || 1;
         const ux = dx / len, uy = dy / len;
-        const sx = a.x + ux * 22, sy = a.y + uy * 14, ex = b.x - ux * 22, ey = b.y - uy * 14;
-        const bend = both ? 16 : 0;
+        // Start and end where the line leaves the node's box (plus a small gap).
+        const cut = Math.min(Math.abs(ux) > 1e-9 ? NW / 2 / Math.abs(ux) : Infinity, Math.abs(uy) > 1e-9 ? NH / 2 / Math.abs(uy) : Infinity) + 3;
+        const sx = a.x + ux * cut, sy = a.y + uy * cut, ex = b.x - ux * cut, ey = b.y - uy * cut;
+        const bend = both ? 14 : 0;
         const mx = (sx + ex) / 2 - uy * bend, my = (sy + ey) / 2 + ux * bend;
+        // The weight sits 40% of the way from the source, so labels of crossing lines do not meet in the middle.
+        const lx = 0.36 * sx + 0.48 * mx + 0.16 * ex, ly = 0.36 * sy + 0.48 * my + 0.16 * ey;
         return (
           <g key={`${e.from}-${e.to}`} data-edge={`${states[e.from]}>${states[e.to]}`}>
             <path
@@ -39,13 +43,13 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
               strokeDasharray={e.weight < 0 ? '5 3' : undefined}
               markerEnd={directed ? `url(#${id})` : undefined}
             />
-            <text x={mx} y={my - 3} textAnchor="middle" className="lf-net-weight">{weightText(e.weight)}</text>
+            <text x={lx} y={ly + 3} textAnchor="middle" className="lf-net-weight">{weightText(e.weight)}</text>
           </g>
         );
       })}
       {states.map((s, i) => (
         <g key={s} transform={`translate(${pos[i].x}, ${pos[i].y})`}>
-          <rect x={-40} y={-11} width={80} height={22} rx={4} className="lf-net-node" />
+          <rect x={-NW / 2} y={-NH / 2} width={NW} height={NH} rx={4} className="lf-net-node" />
           <text y={4} textAnchor="middle" className="lf-net-name">{shorten(nameOf(model, s))}</text>
           {directed && <text y={24} textAnchor="middle" className="lf-net-self">self {weightText(matrix[i][i])}</text>}
         </g>
@@ -55,5 +59,5 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
 }
 
 function shorten(s: string): string {
-  return s.length > 13 ? `${s.slice(0, 12)}…` : s;
+  return s.length > 15 ? `${s.slice(0, 14)}…` : s;
 }

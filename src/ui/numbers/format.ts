@@ -13,7 +13,7 @@ export function numText(x: number): string {
 /** Edge weights: two decimals (three significant digits below 0.1). */
 export function weightText(x: number): string {
   const a = Math.abs(x);
-  const s = a >= 0.1 || a === 0 ? x.toFixed(2) : x.toPrecision(2);
+  const s = a >= 0.1 || a === 0 ? x.toFixed(2) : a >= 1e-3 ? x.toPrecision(2) : x.toExponential(1);
   return s.replace('-', '−');
 }
 

@@ -1,0 +1,79 @@
+/** Commands `curves` (one lagged link against the interval) and `advise` (an interval for chosen links). */
+import { formatDuration } from '../../core/model/units';
+import { adviceOf, curveOf } from '../../ui/numbers/compute';
+import { loadModel } from '../load';
+import { CliError, type CliArgs, type CliCommand } from './types';
+
+function num(x: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return '0';
+  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(6))) : x.toExponential(4);
+}
+
+function stringOption(args: CliArgs, name: string, example: string): string {
+  const v = args.options[name];
+  if (v === undefined) throw new CliError(`--${name} is required, e.g. --${name} ${example}`, 2);
+  if (v === true || v.trim() === '') throw new CliError(`--${name} needs a value, e.g. --${name} ${example}`, 2);
+  return v.trim();
+}
+
+function pointsOption(args: CliArgs): number {
+  const v = args.options.points;
+  if (v === undefined) return 121;
+  const n = Number(v);
+  if (v === true || !Number.isInteger(n) || n < 3 || n > 5000) throw new CliError('--points must be a whole number from 3 to 5000', 2);
+  return n;
+}
+
+export const curveCommands: CliCommand[] = [
+  {
+    name: 'curves',
+    summary: 'the lagged effect of one state on another against the sampling interval, with its peak',
+    usage: 'MODEL.json --from X --to Y [--points N] [--json]',
+    options: { from: true, to: true, points: true, json: false },
+    run(args, io) {
+      const model = loadModel(args, io);
+      const from = stringOption(args, 'from', 'sleep');
+      const to = stringOption(args, 'to', 'mood');
+      const r = curveOf(model, from, to, pointsOption(args));
+      if (!r.ok) throw new CliError(r.reason);
+      const c = r.curve;
+      const peak = c.peaks.length > 0 ? c.peaks.reduce((a, b) => (Math.abs(b.effect) > Math.abs(a.effect) ? b : a)) : null;
+      if (args.options.json) io.out(JSON.stringify({ from, to, timeUnit: model.timeUnit, intervals: c.intervals, effect: c.effect, peak, peaks: c.peaks }, null, 2));
+      else {
+        const u = model.timeUnit;
+        const lines = [`${model.name}: lagged effect of ${from} on ${to} one interval later, against the interval (model-based)`, ''];
+        lines.push(`  ${'interval'.padStart(14)}  ${'effect'.padStart(12)}`);
+        const step = Math.max(1, Math.ceil(c.intervals.length / 25));
+        for (let k = 0; k < c.intervals.length; k += step) lines.push(`  ${formatDuration(c.intervals[k], u).padStart(14)}  ${num(c.effect[k]).padStart(12)}`);
+        lines.push('', peak ? `strongest at Δ ≈ ${formatDuration(peak.interval, u)} (${num(peak.interval)} ${u}): effect ${num(peak.effect)}` : 'no peak in the range examined (the effect only grows or only fades there)');
+        io.out(lines.join('\n'));
+      }
+      return 0;
+    },
+  },
+  {
+    name: 'advise',
+    summary: 'for chosen lagged links, the intervals where each is strong, and one interval for all',
+    usage: 'MODEL.json --links X>Y,U>V [--fraction 0.5] [--points N] [--json]',
+    options: { links: true, fraction: true, points: true, json: false },
+    run(args, io) {
+      const model = loadModel(args, io);
+      const text = stringOption(args, 'links', 'sleep>mood,mood>sleep');
+      const links = text.split(',').map((part) => {
+        const m = /^\s*([^>\s]+)\s*>\s*([^>\s]+)\s*$/.exec(part);
+        if (!m) throw new CliError(`--links: "${part}" is not a link; write FROM>TO, e.g. sleep>mood`, 2);
+        return { from: m[1], to: m[2] };
+      });
+      const fv = args.options.fraction;
+      const fraction = fv === undefined ? 0.5 : Number(fv);
+      if (fv === true || !(fraction > 0 && fraction < 1)) throw new CliError('--fraction must be a number between 0 and 1, e.g. --fraction 0.5', 2);
+      const r = adviceOf(model, links, fraction, pointsOption(args));
+      if (!r.ok) throw new CliError(r.reason);
+      const a = r.advice;
+      if (args.options.json) io.out(JSON.stringify({ timeUnit: model.timeUnit, fraction, links: a.links, best: a.best, score: a.score, explanation: a.explanation }, null, 2));
+      else io.out([`${model.name}: interval advice (model-based)`, '', a.explanation].join('\n'));
+      return a.best === null ? 1 : 0;
+    },
+  },
+];

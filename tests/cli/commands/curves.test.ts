@@ -1,0 +1,88 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../../src/cli/run';
+import { runPython } from '../../helpers/python';
+import { expectClose } from '../../helpers/tolerance';
+
+function memoryIo(files: Record<string, string> = {}) {
+  const out: string[] = [];
+  const err: string[] = [];
+  return {
+    out,
+    err,
+    io: {
+      out: (t: string) => out.push(t),
+      err: (t: string) => err.push(t),
+      readFile: (p: string) => (p in files ? files[p] : readFileSync(p, 'utf8')),
+      writeFile: (p: string, c: string) => { files[p] = c; },
+    },
+  };
+}
+
+const REF = 'tests/reference/link_curves.py';
+const GREENHOUSE = 'src/examples/greenhouse.json';
+
+interface Ref { links: { effect: number[]; peak: { interval: number; effect: number } | null; range: [number, number] | null }[]; best: number | null; score?: number }
+
+async function json<T>(argv: string[]): Promise<T> {
+  const m = memoryIo();
+  expect(await runCli(argv, m.io), m.err.join('\n')).toBe(0);
+  return JSON.parse(m.out[0]) as T;
+}
+
+/** The drift at equilibrium as the `sampled` command prints it (the interval does not matter for A). */
+async function drift(model: string): Promise<{ drift: number[][]; states: string[] }> {
+  return json(['sampled', model, '--interval', '1h', '--json']);
+}
+
+describe('curves and advise commands', () => {
+  it('curves --json: each value is SciPy expm(A·Δ)[to, from]; the peak matches scipy.optimize.minimize_scalar', async () => {
+    const { drift: A, states } = await drift(GREENHOUSE);
+    const c = await json<{ intervals: number[]; effect: number[]; peak: { interval: number; effect: number } | null }>(['curves', GREENHOUSE, '--from', 'soilWater', '--to', 'humidity', '--json']);
+    const ref = runPython<Ref>(REF, { drift: A, states, intervals: c.intervals, links: [{ from: 'soilWater', to: 'humidity' }], fraction: 0.5 });
+    // Padé-13 scaling and squaring against SciPy's expm: agreement to ~1e-12 relative is common practice for well-scaled A.
+    expectClose(c.effect, ref.links[0].effect, { relTol: 1e-9, absTol: 1e-14 }, 'effect');
+    expect(c.peak).not.toBeNull();
+    expectClose(c.peak!.interval, ref.links[0].peak!.interval, { relTol: 1e-5 }, 'peak interval');
+    expectClose(c.peak!.effect, ref.links[0].peak!.effect, { relTol: 1e-9 }, 'peak effect');
+    // Soil water reaches humidity only through transpiration: a rise-then-fade curve, whose peak lies between the
+    // two states' timescales (1 h and 1 day in the example file): common practice for a two-stage chain.
+    expect(c.peak!.interval).toBeGreaterThan(60);
+    expect(c.peak!.interval).toBeLessThan(1440);
+  });
+
+  it('advise --json: ranges and the best interval are those SciPy finds on the same grid', async () => {
+    const { drift: A, states } = await drift(GREENHOUSE);
+    const links = [{ from: 'soilWater', to: 'humidity' }, { from: 'airTemp', to: 'humidity' }];
+    const grid = (await json<{ intervals: number[] }>(['curves', GREENHOUSE, '--from', 'soilWater', '--to', 'humidity', '--json'])).intervals;
+    const a = await json<{ links: { peak: { interval: number } | null; range: [number, number] | null }[]; best: number | null; score: number; explanation: string }>(
+      ['advise', GREENHOUSE, '--links', 'soilWater>humidity,airTemp>humidity', '--fraction', '0.6', '--json'],
+    );
+    const ref = runPython<Ref>(REF, { drift: A, states, intervals: grid, links, fraction: 0.6 });
+    a.links.forEach((l, k) => {
+      expectClose(l.peak!.interval, ref.links[k].peak!.interval, { relTol: 1e-5 }, `peak ${k}`);
+      expectClose(l.range!, ref.links[k].range!, { relTol: 1e-12 }, `range ${k}`);
+    });
+    expectClose(a.best!, ref.best!, { relTol: 1e-12 }, 'best');
+    expectClose(a.score, ref.score!, { relTol: 1e-6 }, 'score');
+    expect(a.explanation).toContain('60%');
+  });
+
+  it('bad input gets a one-line reason naming the field and a non-zero exit', async () => {
+    const cases: [string[], RegExp][] = [
+      [['curves', GREENHOUSE, '--to', 'humidity'], /--from is required/],
+      [['curves', GREENHOUSE, '--from', 'light', '--to', 'humidity'], /light is not a state/],
+      [['curves', GREENHOUSE, '--from', 'soilWater', '--to', 'humidity', '--points', '2'], /--points/],
+      [['advise', GREENHOUSE, '--links', 'soilWater-humidity'], /"soilWater-humidity" is not a link/],
+      [['advise', GREENHOUSE, '--links', 'soilWater>humidity', '--fraction', '1.5'], /--fraction must be/],
+      [['advise', GREENHOUSE, '--links', 'soilWater>nowhere'], /nowhere is not a state/],
+    ];
+    for (const [argv, reason] of cases) {
+      const m = memoryIo();
+      expect(await runCli(argv, m.io)).not.toBe(0);
+      const text = m.err.join('\n');
+      expect(text).toMatch(reason);
+      expect(text.trim().split('\n').length).toBe(1);
+    }
+  });
+});
