@@ -48,9 +48,10 @@ const ROLE_WORD: Record<Role, string> = {
 export function explainOrdering(model: Model, ordering: Ordering, design: StudyDesign, breakpoints: readonly Breakpoint[] = []): ExplanationLine[] {
   const u = model.timeUnit;
   const k = model.settings?.separation ?? DEFAULT_SEPARATION;
-  const name = (id: VariableId) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const byId = new Map(model.variables.map((v) => [v.id, v]));
+  const name = (id: VariableId) => byId.get(id)?.label ?? id;
   const names = (ids: readonly VariableId[]) => listWords(ids.map(name));
-  const role = (id: VariableId): Role => ordering.roles[id] ?? model.variables.find((v) => v.id === id)?.kind ?? 'derived';
+  const role = (id: VariableId): Role => ordering.roles[id] ?? byId.get(id)?.kind ?? 'derived';
   const W = studyLength(model, design);
   const lines: ExplanationLine[] = [];
   const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
@@ -99,7 +100,7 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
     lines.push({ topic: 'held', text: `${name(v)} is held${val !== undefined ? ` at ${val}` : ''} by an intervention: the links into it are cut.`, variables: [v] });
   }
   for (const b of blocks) {
-    const feedback = b.variables.some((v) => model.variables.find((x) => x.id === v)?.kind === 'state');
+    const feedback = b.variables.some((v) => byId.get(v)?.kind === 'state');
     lines.push({
       topic: 'block',
       text: `${names(b.variables)} form one simultaneous block: they are determined together${b.equations.length ? ` by ${listWords(b.equations)}` : ''}, so within the instant none of them comes first${feedback ? ' (a feedback loop that closes faster than the interval)' : ''}.`,

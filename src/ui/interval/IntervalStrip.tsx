@@ -4,14 +4,14 @@
  * keys that stop at every breakpoint; beside it the study length, as a
  * duration or a number of samples.
  */
-import { useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
+import { memo, useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
 import type { Model, TimeUnit } from '../../core/model/types';
 import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
-import { fromPosition, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
+import { fromPosition, passed, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
 import { analysisStore, setStudyDesign, useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
-import { useBandCache } from '../views/bandCache';
+import { useBandCache, type BandCache } from '../views/bandCache';
 import './interval.css';
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
@@ -53,7 +53,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
   if (bc.status === 'missing') return <div className="lf-interval">The ordering core is not part of this build.</div>;
   if (bc.status === 'failed') return <div className="lf-interval" role="alert">The breakpoints could not be computed: {bc.message}</div>;
   if (!cache || interval === null) return <div className="lf-interval">Finding the model's timescales…</div>;
-  const { range, cuts, breakpoints } = cache;
+  const { range, cuts } = cache;
   const pos = toPosition(range, interval);
   const set = (v: number) => studyStore.getState().setInterval(v);
   const fromPointer = (ev: PointerEvent) => {
@@ -66,8 +66,8 @@ export function IntervalStripFor({ model }: { model: Model }) {
     set(stepInterval(range, cuts, interval, ev.key as IntervalKey));
   };
   const band = cache.band(interval);
-  const edges = [range.min, ...cuts.map((c) => c.at).filter((c) => c > range.min && c < range.max), range.max];
-  const name = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const lower = [...cuts].reverse().find((c) => passed(c, interval))?.at ?? range.min;
+  const upper = cuts.find((c) => !passed(c, interval))?.at ?? range.max;
   const valueText = `every ${formatDuration(interval, unit)}`;
   return (
     <div className="lf-interval" aria-label="Sampling interval and study length">
@@ -92,14 +92,8 @@ export function IntervalStripFor({ model }: { model: Model }) {
         onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); fromPointer(ev); }}
         onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}
       >
-        {edges.slice(0, -1).map((from, i) => (
-          <div key={i} className={`lf-band ${i === band ? 'lf-band-current' : ''} ${i % 2 ? 'lf-band-odd' : ''}`}
-            style={{ left: `${toPosition(range, from) * 100}%`, width: `${(toPosition(range, edges[i + 1]) - toPosition(range, from)) * 100}%` }} />
-        ))}
-        {breakpoints.filter((b) => b.interval > range.min && b.interval < range.max).map((b) => (
-          <div key={b.interval} className="lf-tick" data-breakpoint={b.interval} style={{ left: `${toPosition(range, b.interval) * 100}%` }}
-            title={`${formatDuration(b.interval, unit)}: ${b.changes.map((c) => `${name(c.variable)} ${c.from} → ${c.to}`).join('; ')}`} />
-        ))}
+        <TrackMarks cache={cache} model={model} />
+        <div className="lf-band-current" style={{ left: `${toPosition(range, Math.max(lower, range.min)) * 100}%`, width: `${(toPosition(range, Math.min(upper, range.max)) - toPosition(range, Math.max(lower, range.min))) * 100}%` }} />
         <div className="lf-thumb" style={{ left: `${pos * 100}%` }} />
       </div>
       <div className="lf-interval-scale" aria-hidden="true">
@@ -109,6 +103,26 @@ export function IntervalStripFor({ model }: { model: Model }) {
     </div>
   );
 }
+
+/** Bands and breakpoint ticks: drawn once per model and study, not on every move of the thumb. */
+const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache; model: Model }) {
+  const { range, cuts, breakpoints } = cache;
+  const unit = model.timeUnit;
+  const labels = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
+  const edges = [range.min, ...cuts.map((c) => c.at).filter((c) => c > range.min && c < range.max), range.max];
+  return (
+    <>
+      {edges.slice(0, -1).map((from, i) => (
+        <div key={i} className={`lf-band ${i % 2 ? 'lf-band-odd' : ''}`}
+          style={{ left: `${toPosition(range, from) * 100}%`, width: `${(toPosition(range, edges[i + 1]) - toPosition(range, from)) * 100}%` }} />
+      ))}
+      {breakpoints.filter((b) => b.interval > range.min && b.interval < range.max).map((b, i) => (
+        <div key={i} className="lf-tick" data-breakpoint={b.interval} style={{ left: `${toPosition(range, b.interval) * 100}%` }}
+          title={`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`} />
+      ))}
+    </>
+  );
+});
 
 function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval: number; length: StudyLength }) {
   const [text, setText] = useState(length.by === 'window' ? formatDuration(length.window, unit) : String(length.samples));

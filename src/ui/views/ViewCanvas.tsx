@@ -3,14 +3,14 @@
  * then moved smoothly to the tuned ELK layout when it arrives (a layout made
  * obsolete by a newer view is dropped).
  */
-import { useEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
+import { memo, useEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
 import type { ViewModel } from '../../core/view/types';
 import { buildScene } from '../../export/scene';
 import { createLayoutQueue } from '../../layout/browser';
 import { ease, interpolateLayout } from '../../layout/geometry';
 import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
-import { toReact } from './SceneSvg';
+import { serialize } from '../../export/svg';
 
 const ANIMATION_MS = 320;
 /** The figure shrinks to fit its pane down to this scale, then scrolls (labels stay legible). */
@@ -18,7 +18,7 @@ const MIN_SCALE = 0.8;
 /** The three instants are wide: fitting them shows the whole sequence first. */
 const FIT_SCALE_UNROLLED = 0.45;
 /** Above this many nodes, positions jump instead of moving (keeps the page responsive). */
-const ANIMATE_UP_TO = 400;
+const ANIMATE_UP_TO = 250;
 
 export interface ViewCanvasProps {
   vm: ViewModel;
@@ -32,7 +32,8 @@ export interface ViewCanvasProps {
   tag?: string | number;
 }
 
-export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: ViewCanvasProps) {
+/** Memoised: dragging the interval inside a band re-renders the pane, not the figure. */
+export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: ViewCanvasProps) {
   const [shown, setShown] = useState<Layout | null>(null);
   const [shownTag, setShownTag] = useState<string | number | undefined>(undefined);
   const shownRef = useRef<Layout | null>(null);
@@ -84,6 +85,9 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: V
   const scene = useMemo(() => (shown ? buildScene(vm, shown, { legend: true, title: false }) : null), [vm, shown]);
   const natural = scene ? Number(scene.attrs.width) : 0;
   const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE))}px` : `width:${Math.round(natural * zoom)}px`;
+  // the exporter's own serialiser: the screen shows the file's markup (and the browser parses it
+  // far faster than a React tree of thousands of elements is reconciled)
+  const markup = useMemo(() => (scene ? serialize({ ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } }) : ''), [scene, sizeStyle]);
   const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
@@ -97,9 +101,9 @@ export function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: V
         <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
       </div>
-      <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} data-shown={shownTag} onClick={onClick}>
-        {scene ? toReact({ ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } }) : <p>Placing the variables…</p>}
-      </div>
+      {scene
+        ? <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} data-shown={shownTag} onClick={onClick} dangerouslySetInnerHTML={{ __html: markup }} />
+        : <div className="lf-view-canvas" aria-label={label} role="figure" data-layout="none" data-pending="true"><p>Placing the variables…</p></div>}
     </div>
   );
-}
+});
