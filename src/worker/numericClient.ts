@@ -83,8 +83,9 @@ export function createNumericClient(primary: (() => NumericTransport) | null, fa
       return d.stale ? null : (d.value as never);
     },
     simulate(model, options, onProgress) {
-      current?.cancel();
+      // A newer run replaces the older one: the older is stopped and delivers null.
       const seq = ++simSeq;
+      current?.cancel();
       const transport = start();
       let settle: (a: SimulationAnswer | Failed | null) => void = () => {};
       let done = false;

@@ -37,7 +37,7 @@ export function TimeChart({ times, series, samples, timeUnit }: { times: readonl
             <line x1={L} x2={L + 24} y1={y0p - 8} y2={y0p - 8} className="lf-chart-line" strokeDasharray={dash} />
             <text x={L + 30} y={y0p - 4} className="lf-chart-title">{s.name}{s.unit ? ` (${s.unit})` : ''}</text>
             <rect x={L} y={y0p} width={W - L - R} height={PH} className="lf-chart-frame" />
-            {niceTicks(lo, hi, 4).filter((v) => v >= lo && v <= hi).map((v) => (
+            {niceTicks(lo, hi, 5).filter((v) => v >= lo && v <= hi).map((v) => (
               <g key={v}>
                 <line x1={L - 4} x2={L} y1={y(v)} y2={y(v)} className="lf-chart-axis" />
                 <line x1={L} x2={W - R} y1={y(v)} y2={y(v)} className="lf-chart-grid" />

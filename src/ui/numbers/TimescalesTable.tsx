@@ -26,7 +26,7 @@ export function TimescalesTable({ model, answer }: { model: Model; answer: Times
                   <button
                     type="button"
                     className="lf-num-small"
-                    onClick={() => editDocument({ type: 'updateVariable', id: p.state, patch: { timescale: formatDuration(p.derived, u) } })}
+                    onClick={() => editDocument({ type: 'updateVariable', id: p.state, patch: { timescale: timescaleText(p.derived, u) } })}
                   >
                     use derived timescale
                   </button>
@@ -56,4 +56,11 @@ export function TimescalesTable({ model, answer }: { model: Model; answer: Times
       )}
     </>
   );
+}
+
+/** The derived timescale in the model's own unit, three significant digits: "20 days", "6.12 min". */
+export function timescaleText(x: number, unit: Model['timeUnit']): string {
+  const n = Number(x.toPrecision(3));
+  const plural = n !== 1 && (unit === 'day' || unit === 'week' || unit === 'month' || unit === 'year');
+  return `${n} ${unit}${plural ? 's' : ''}`;
 }

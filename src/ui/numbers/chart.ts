@@ -7,8 +7,8 @@ import type { VariableId } from '../../core/model/types';
 import { toCsv, type CsvValue } from '../../report/csv';
 
 /**
- * About `count` round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10ᵏ
- * (the usual "nice numbers" rule; common practice).
+ * Round tick values within [lo, hi]: the smallest step of 1, 2 or 5 × 10ᵏ
+ * that cuts the range into at most `count` intervals (common practice).
  */
 export function niceTicks(lo: number, hi: number, count = 5): number[] {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [];

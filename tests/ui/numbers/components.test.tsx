@@ -1,0 +1,97 @@
+// @vitest-environment happy-dom
+import { afterEach, describe, expect, it } from 'vitest';
+import { act } from 'react';
+import { createRoot, type Root } from 'react-dom/client';
+import { renderToStaticMarkup } from 'react-dom/server';
+import { parseModel } from '../../../src/core/model/schema';
+import type { Model } from '../../../src/core/model/types';
+import { documentStore, selectModel } from '../../../src/state/document';
+import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer } from '../../../src/ui/numbers/compute';
+import { SampledNetworks } from '../../../src/ui/numbers/SampledNetworks';
+import { TimescalesTable } from '../../../src/ui/numbers/TimescalesTable';
+import { TimeChart } from '../../../src/ui/numbers/TimeChart';
+
+(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
+
+function load(json: unknown): Model {
+  const r = parseModel(json);
+  if (!r.ok) throw new Error('test model does not load');
+  return r.model;
+}
+
+// A swinging pair, invented for this test: a shop's stock and its orders chase each other,
+// d stock/dt = orders, d orders/dt = −stock − 0.1·orders (eigenvalues −0.05 ± 0.99875i).
+const swing = load({
+  format: 'loopfold-model', version: 1, name: 'swing', timeUnit: 'day',
+  variables: [
+    { id: 'stock', kind: 'state', initial: 1, rate: 'orders' },
+    { id: 'orders', kind: 'state', initial: 0, timescale: '1 day', rate: '-stock - 0.1 * orders' },
+  ],
+  links: [],
+});
+
+let root: Root | null = null;
+let host: HTMLElement | null = null;
+afterEach(() => {
+  act(() => root?.unmount());
+  host?.remove();
+  root = null;
+});
+function mount(node: React.ReactNode) {
+  host = document.createElement('div');
+  document.body.append(host);
+  root = createRoot(host);
+  act(() => root!.render(node));
+  return host;
+}
+
+describe('Numbers pane parts', () => {
+  it('"use derived timescale" writes the derived value into the state as one undo step', () => {
+    documentStore.getState().load(swing);
+    const model = selectModel(documentStore.getState());
+    const ts = timescalesOfModel(model) as TimescalesAnswer;
+    expect(ts.ok).toBe(true);
+    const el = mount(<TimescalesTable model={model} answer={ts} />);
+    const buttons = [...el.querySelectorAll('button')].filter((b) => b.textContent === 'use derived timescale');
+    // Only the stock has no timescale of its own.
+    expect(buttons).toHaveLength(1);
+    expect(buttons[0].closest('tr')?.getAttribute('data-state')).toBe('stock');
+    const before = documentStore.getState().history.past.length;
+    act(() => buttons[0].click());
+    const after = selectModel(documentStore.getState());
+    // Both states share the one swinging mode: 1/|Re λ| = 1/0.05 = 20 days (common practice: time constant of a damped mode).
+    expect(after.variables.find((v) => v.id === 'stock')?.timescale).toBe('20 days');
+    expect(documentStore.getState().history.past.length).toBe(before + 1);
+  });
+
+  it('sampling slower than half the period flags aliasing: π/|Im λ| = π/0.99875 ≈ 3.146 days (Nyquist; common practice)', () => {
+    const slow = sampledOf(swing, 4) as SampledAnswer;
+    const fast = sampledOf(swing, 3) as SampledAnswer;
+    const html = (a: SampledAnswer) => renderToStaticMarkup(<SampledNetworks model={swing} answer={a} />);
+    expect(html(slow)).toContain('alias and can change sign');
+    expect(html(slow)).toContain('3.15 days');
+    expect(html(fast)).not.toContain('alias');
+  });
+
+  it('the lagged network labels each edge with Φ(Δ) = expm(AΔ) entries (closed form for this pair, common practice)', () => {
+    const a = sampledOf(swing, 1) as SampledAnswer;
+    const el = mount(<SampledNetworks model={swing} answer={a} />);
+    // Φ(Δ)[stock, orders] = e^{−0.05Δ} sin(ωΔ)/ω with ω = √(1 − 0.0025) (damped oscillator, closed form).
+    const w = Math.sqrt(1 - 0.0025);
+    const expected = (Math.exp(-0.05) * Math.sin(w)) / w;
+    const edge = el.querySelector('[data-edge="orders>stock"] text');
+    expect(edge?.textContent).toBe(expected.toFixed(2));
+  });
+
+  it('the time chart draws one panel per series with distinct dash patterns and one marker per sample and series', () => {
+    const times = Array.from({ length: 11 }, (_, k) => k);
+    const el = mount(
+      <TimeChart times={times} timeUnit="day" samples={[0, 5, 10]} series={[{ id: 'a', name: 'A', values: times.map((t) => t * t) }, { id: 'b', name: 'B', values: times.map((t) => -t) }]} />,
+    );
+    const lines = el.querySelectorAll('polyline');
+    expect(lines).toHaveLength(2);
+    expect(lines[0].getAttribute('stroke-dasharray')).not.toBe(lines[1].getAttribute('stroke-dasharray'));
+    expect(el.querySelectorAll('circle.lf-chart-sample')).toHaveLength(6);
+    expect(el.textContent).toContain('time since the start (day)');
+  });
+});
