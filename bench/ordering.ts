@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { loadavg } from 'node:os';
 import { causalOrder, orderIndexed } from '../src/core/ordering/causal';
 import type { EquationSystem } from '../src/core/ordering/structure';
+import { PYTHON } from '../tests/helpers/python';
 
 /** Small seeded generator (mulberry32), so every run orders the same systems. */
 function rng(seed: number): () => number {
@@ -45,7 +46,6 @@ export function randomSquareSystem(n: number, seed: number): { system: EquationS
   return { system: { equations, exogenous: [] }, eq, var: vr };
 }
 
-const PYTHON = process.env.LOOPFOLD_PYTHON ?? 'python3';
 const SCRIPT = fileURLToPath(new URL('../tests/reference/ordering_bench.py', import.meta.url));
 
 /** The integer layer from the same incidence lists SciPy gets (CSR built inside the timing, as SciPy's is). */
