@@ -37,6 +37,8 @@ test('Numbers pane on the greenhouse: balance, a simulation with the samples, ca
   // Six significant digits are shown.
   expect(Math.abs(shown - cli.soilWater) / cli.soilWater).toBeLessThan(1e-5);
   await expect(pane.locator('.lf-num-equilibrium')).not.toContainText('NaN');
+  await expect(pane.locator('.lf-num-timescales')).toContainText('derived');
+  await page.screenshot({ path: testInfo.outputPath('numbers-top.png') });
 
   // A short simulation with the samples of the study drawn over it.
   const sim = pane.locator('[data-section="simulation"]');
@@ -85,5 +87,31 @@ test('Numbers pane on the greenhouse: balance, a simulation with the samples, ca
   await expect(adv.getByRole('status')).toContainText('Best single interval');
   await adv.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('numbers-advisor.png') });
+  expect(errors).toEqual([]);
+});
+
+test('with a variable held, the balance shows both equilibria; the pane also works without a worker', async ({ page }, testInfo) => {
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=greenhouse&noworker');
+  await expect(page.getByRole('slider', { name: /sampling interval/i })).toBeVisible();
+  await page.getByRole('tab', { name: 'Intervene' }).click();
+  const holdForm = page.locator('.lf-hold');
+  await holdForm.getByRole('combobox').selectOption({ label: 'Transpiration' });
+  await holdForm.getByRole('textbox').fill('0.1');
+  await holdForm.getByRole('button', { name: 'Hold', exact: true }).click();
+  await expect(holdForm).toContainText('Transpiration = 0.1');
+  await page.getByRole('tab', { name: 'Numbers' }).click();
+  const table = page.locator('.lf-num-equilibrium');
+  await expect(table.locator('thead')).toContainText('Without holds');
+  const row = table.locator('tr[data-variable="transpiration"]');
+  await expect(row).toContainText('held');
+  await expect(row.locator('td').first()).toContainText('0.1');
+  // Without the hold, transpiration balances the irrigation of 0.3 L/min (the example file).
+  await expect(row.locator('td').nth(1)).toHaveText('0.3');
+  // Holding transpiration leaves soil water with inflow and outflow fixed: it has no balance, and the row says so.
+  await expect(table.locator('tr[data-variable="soilWater"]')).toContainText('not balanced');
+  await expect(page.locator('.lf-num-problems')).toContainText('soilWater');
+  await page.screenshot({ path: testInfo.outputPath('numbers-held.png') });
   expect(errors).toEqual([]);
 });

@@ -13,6 +13,8 @@ export function EquilibriumTable({ model, hold }: { model: Model; hold: Record<V
   const a = asked.answer;
   if (isFailed(a)) return <p className="lf-num-error" role="alert">No equilibrium: {a.reason}</p>;
   const errors = a.diagnostics.filter((d) => d.level === 'error');
+  // Variables of a block that could not be balanced keep their starting values: say so in their row.
+  const unsettled = new Set(errors.flatMap((d) => d.variables));
   return (
     <>
       <table className="lf-num-table lf-num-equilibrium">
@@ -36,6 +38,7 @@ export function EquilibriumTable({ model, hold }: { model: Model; hold: Record<V
                   {Number.isFinite(x) ? numText(x) : '—'}
                   {v.unit ? <span className="lf-num-unit"> {v.unit}</span> : null}
                   {isHeld && <span className="lf-num-tag"> held</span>}
+                  {!isHeld && unsettled.has(v.id) && <span className="lf-num-tag lf-num-unsettled" title="no balance found: the starting value is shown"> not balanced</span>}
                 </td>
                 {held && <td>{a.unheld && Number.isFinite(a.unheld[v.id]) ? numText(a.unheld[v.id]) : '—'}</td>}
               </tr>

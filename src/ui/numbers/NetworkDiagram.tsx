@@ -51,7 +51,12 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
         <g key={s} transform={`translate(${pos[i].x}, ${pos[i].y})`}>
           <rect x={-NW / 2} y={-NH / 2} width={NW} height={NH} rx={4} className="lf-net-node" />
           <text y={4} textAnchor="middle" className="lf-net-name">{shorten(nameOf(model, s))}</text>
-          {directed && <text y={24} textAnchor="middle" className="lf-net-self">self {weightText(matrix[i][i])}</text>}
+          {/* The self-effect beside the node, on the side away from the middle (where the links run). */}
+          {directed && (
+            <text x={pos[i].x >= W / 2 - 1 ? NW / 2 + 4 : -NW / 2 - 4} y={4} textAnchor={pos[i].x >= W / 2 - 1 ? 'start' : 'end'} className="lf-net-self">
+              self {weightText(matrix[i][i])}
+            </text>
+          )}
         </g>
       ))}
     </svg>
