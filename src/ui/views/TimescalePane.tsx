@@ -3,7 +3,7 @@
  * chosen sampling interval (or the three instants t−1, t, t+1), the
  * explanation of what differs and why, and the figure export.
  */
-import { useCallback, useDeferredValue, useMemo, useRef } from 'react';
+import { useCallback, useMemo, useRef } from 'react';
 import type { Model } from '../../core/model/types';
 import { explainOrdering } from '../../core/view/explain';
 import { mechanismView, orderingView, simultaneousBlocks, blockKey, studyText } from '../../core/view/derive';
@@ -27,8 +27,7 @@ export function TimescalePane() {
 
 export function TimescalePaneFor({ model }: { model: Model }) {
   const length = useStudy((s) => s.length);
-  // the control answers at once; the view follows as soon as the page has time (dragging stays smooth)
-  const interval = useDeferredValue(useStudy((s) => s.interval));
+  const interval = useStudy((s) => s.interval);
   const folded = useStudy((s) => s.folded);
   const view = useStudy((s) => s.view);
   const sideBySide = useStudy((s) => s.sideBySide);
