@@ -78,8 +78,13 @@ test('Numbers pane on the greenhouse: balance, a simulation with the samples, ca
   await curve.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('numbers-curve.png') });
 
-  await pane.locator('[data-section="sampled"]').scrollIntoViewIfNeeded();
+  const sampledSection = pane.locator('[data-section="sampled"]');
+  await sampledSection.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('numbers-sampled.png') });
+  // Picking a lagged link in the network shows that link against the interval.
+  await sampledSection.locator('[data-edge="dust>soilWater"]').click();
+  await expect(curveChart).toHaveAttribute('aria-label', /Dust on the glass on Soil water/);
+  await expect(curve.getByLabel('Link from')).toHaveValue('dust');
 
   const adv = pane.locator('[data-section="advisor"]');
   await adv.locator('input[data-link="soilWater>humidity"]').check();

@@ -2,14 +2,14 @@ import type { Model, VariableId } from '../../core/model/types';
 import { circleLayout, strongEdges } from './chart';
 import { nameOf, weightText } from './format';
 
-const W = 400, H = 250, NW = 92, NH = 22;
+const W = 410, H = 250, NW = 108, NH = 22;
 
 /**
  * A small node-link drawing of a network: line width ∝ |weight|, solid for
  * positive and dashed for negative weights, each labelled with its value.
  * Directed networks get arrowheads and show the self-effect under the node.
  */
-export function NetworkDiagram({ model, states, matrix, directed, title }: { model: Model; states: VariableId[]; matrix: number[][]; directed: boolean; title: string }) {
+export function NetworkDiagram({ model, states, matrix, directed, title, onPick }: { model: Model; states: VariableId[]; matrix: number[][]; directed: boolean; title: string; onPick?: (from: VariableId, to: VariableId) => void }) {
   const pos = circleLayout(states.length, W, H, 36).map((p) => ({ x: p.x, y: p.y }));
   const edges = strongEdges(matrix, 0.02, !directed);
   const max = Math.max(1e-300, ...edges.map((e) => Math.abs(e.weight)));
@@ -35,7 +35,21 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
         // The weight sits 40% of the way from the source, so labels of crossing lines do not meet in the middle.
         const lx = 0.36 * sx + 0.48 * mx + 0.16 * ex, ly = 0.36 * sy + 0.48 * my + 0.16 * ey;
         return (
-          <g key={`${e.from}-${e.to}`} data-edge={`${states[e.from]}>${states[e.to]}`}>
+          <g
+            key={`${e.from}-${e.to}`}
+            data-edge={`${states[e.from]}>${states[e.to]}`}
+            {...(onPick
+              ? {
+                  role: 'button',
+                  tabIndex: 0,
+                  className: 'lf-net-pick',
+                  'aria-label': `Show ${nameOf(model, states[e.from])} → ${nameOf(model, states[e.to])} against the interval`,
+                  onClick: () => onPick(states[e.from], states[e.to]),
+                  onKeyDown: (ev: React.KeyboardEvent) => { if (ev.key === 'Enter' || ev.key === ' ') { ev.preventDefault(); onPick(states[e.from], states[e.to]); } },
+                }
+              : {})}
+          >
+            {onPick && <path d={`M${sx},${sy} Q${mx},${my} ${ex},${ey}`} className="lf-net-hit" />}
             <path
               d={`M${sx},${sy} Q${mx},${my} ${ex},${ey}`}
               className="lf-net-edge"
@@ -64,5 +78,5 @@ export function NetworkDiagram({ model, states, matrix, directed, title }: { mod
 }
 
 function shorten(s: string): string {
-  return s.length > 15 ? `${s.slice(0, 14)}…` : s;
+  return s.length > 17 ? `${s.slice(0, 16)}…` : s;
 }

@@ -51,6 +51,7 @@ function NumbersOf({ model }: { model: Model }) {
   const sampled = useNumeric<SampledAnswer>(interval !== undefined ? (c) => c.ask('sampled', model, interval) : null, [model, interval]);
   const tsOk = ts.status === 'done' && !isFailed(ts.answer) ? ts.answer : null;
   const states = tsOk?.report.states ?? model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
+  const [pair, setPair] = useState<{ from: VariableId | null; to: VariableId | null }>({ from: null, to: null });
   const slowest = tsOk ? Math.max(...tsOk.report.modes.map((m) => m.time).filter(Number.isFinite)) : undefined;
   return (
     <div className="lf-numbers">
@@ -76,11 +77,18 @@ function NumbersOf({ model }: { model: Model }) {
         ) : isFailed(sampled.answer) ? (
           <p className="lf-num-error">{sampled.answer.reason}</p>
         ) : (
-          <SampledNetworks model={model} answer={sampled.answer} />
+          <SampledNetworks
+            model={model}
+            answer={sampled.answer}
+            onPick={(from, to) => {
+              setPair({ from, to });
+              document.getElementById('lf-num-curve')?.scrollIntoView({ block: 'start' });
+            }}
+          />
         )}
       </Section>
       <Section id="curve" title="One link against the interval">
-        <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} current={interval} />
+        <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} current={interval} pair={pair} setPair={setPair} />
       </Section>
       <Section id="advisor" title="Which interval to choose">
         <IntervalAdvisor model={model} states={states} />
@@ -89,9 +97,10 @@ function NumbersOf({ model }: { model: Model }) {
   );
 }
 
-function LinkPicker({ model, states, breakpoints, current }: { model: Model; states: VariableId[]; breakpoints: number[]; current: number | undefined }) {
-  const [from, setFrom] = useState<VariableId | null>(null);
-  const [to, setTo] = useState<VariableId | null>(null);
+type Pair = { from: VariableId | null; to: VariableId | null };
+
+function LinkPicker({ model, states, breakpoints, current, pair, setPair }: { model: Model; states: VariableId[]; breakpoints: number[]; current: number | undefined; pair: Pair; setPair: (p: Pair) => void }) {
+  const { from, to } = pair;
   const f = from && states.includes(from) ? from : states[0];
   const t = to && states.includes(to) && to !== f ? to : states.find((s) => s !== f);
   const curve = useNumeric<CurveAnswer>(f && t ? (c) => c.ask('curve', model, f, t) : null, [model, f, t]);
@@ -101,13 +110,13 @@ function LinkPicker({ model, states, breakpoints, current }: { model: Model; sta
       <div className="lf-num-row">
         <label>
           From{' '}
-          <select aria-label="Link from" value={f} onChange={(e) => setFrom(e.target.value)}>
+          <select aria-label="Link from" value={f} onChange={(e) => setPair({ from: e.target.value, to })}>
             {states.map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
           </select>
         </label>
         <label>
           to{' '}
-          <select aria-label="Link to" value={t} onChange={(e) => setTo(e.target.value)}>
+          <select aria-label="Link to" value={t} onChange={(e) => setPair({ from: f ?? null, to: e.target.value })}>
             {states.filter((s) => s !== f).map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
           </select>
         </label>
