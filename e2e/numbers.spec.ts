@@ -64,6 +64,8 @@ test('Numbers pane on the greenhouse: balance, a simulation with the samples, ca
   await sim.getByLabel('Simulation duration').fill('2 years');
   await sim.getByLabel('Output spacing').fill('1.1 min');
   await sim.getByRole('button', { name: 'Simulate' }).click();
+  await expect(sim.getByRole('progressbar', { name: 'Simulation progress' })).toBeVisible();
+  await page.screenshot({ path: testInfo.outputPath('numbers-running.png') });
   await sim.getByRole('button', { name: 'Cancel' }).click();
   await expect(sim.getByRole('status')).toContainText('stopped');
   await expect(sim.getByRole('button', { name: 'Simulate' })).toBeVisible();

@@ -84,6 +84,7 @@ export function SimulationPanel({ model, hold, interval, studyLength, slowest }:
         ) : (
           <>
             <progress max={1} value={progress} aria-label="Simulation progress" />
+            <span className="lf-num-note" aria-live="polite">running… {Math.round(progress * 100)}% of the time span</span>
             <button type="button" onClick={() => run.current?.cancel()}>Cancel</button>
           </>
         )}
