@@ -23,6 +23,9 @@ export function loadOrderingCore(): Promise<OrderingCore | null> {
   return loading;
 }
 
+/** Orderings kept per model and study (least recently used dropped first). */
+export const BANDS_KEPT = 32;
+
 export interface BandCache {
   model: Model;
   breakpoints: Breakpoint[];
@@ -68,6 +71,11 @@ export function createBandCache(core: OrderingCore, model: Model, length: StudyL
         o = core.orderingAt(model, cache.design(interval));
         cache.lastComputeMs = performance.now() - t0;
         perBand.set(k, o);
+        // a drag across a big model visits hundreds of bands: keep the latest few
+        if (perBand.size > BANDS_KEPT) perBand.delete(perBand.keys().next().value!);
+      } else {
+        perBand.delete(k);
+        perBand.set(k, o); // most recently used last
       }
       return o;
     },
