@@ -1,25 +1,7 @@
 import { spawnSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli/run';
-
-function memoryIo(files: Record<string, string> = {}) {
-  const out: string[] = [];
-  const err: string[] = [];
-  return {
-    out,
-    err,
-    io: {
-      out: (t: string) => out.push(t),
-      err: (t: string) => err.push(t),
-      readFile: (p: string) => {
-        if (p in files) return files[p];
-        return readFileSync(p, 'utf8');
-      },
-      writeFile: (p: string, c: string) => { files[p] = c; },
-    },
-  };
-}
+import { memoryIo } from '../helpers/cli';
 
 const SLEEP = 'src/examples/sleep-stress.json';
 

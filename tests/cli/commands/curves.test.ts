@@ -1,23 +1,8 @@
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/run';
 import { runPython } from '../../helpers/python';
 import { expectClose } from '../../helpers/tolerance';
-
-function memoryIo(files: Record<string, string> = {}) {
-  const out: string[] = [];
-  const err: string[] = [];
-  return {
-    out,
-    err,
-    io: {
-      out: (t: string) => out.push(t),
-      err: (t: string) => err.push(t),
-      readFile: (p: string) => (p in files ? files[p] : readFileSync(p, 'utf8')),
-      writeFile: (p: string, c: string) => { files[p] = c; },
-    },
-  };
-}
+import { memoryIo } from '../../helpers/cli';
 
 const REF = 'tests/reference/link_curves.py';
 const GREENHOUSE = 'src/examples/greenhouse.json';

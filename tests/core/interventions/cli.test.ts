@@ -4,25 +4,7 @@ import { runCli } from '../../../src/cli/run';
 import { runPython } from '../../helpers/python';
 import type { Model } from '../../../src/core/model/types';
 import { greenhouseIntegral, warehouseIntegral } from './scenarios';
-
-function memoryIo(files: Record<string, string>) {
-  const out: string[] = [];
-  const err: string[] = [];
-  return {
-    out,
-    err,
-    files,
-    io: {
-      out: (t: string) => out.push(t),
-      err: (t: string) => err.push(t),
-      readFile: (p: string) => {
-        if (!(p in files)) throw Object.assign(new Error('no such file'), { code: 'ENOENT' });
-        return files[p];
-      },
-      writeFile: (p: string, c: string) => { files[p] = c; },
-    },
-  };
-}
+import { memoryIo } from '../../helpers/cli';
 
 /** The chain-regulated stock of Dash 2005 (§2, rebuilt from memory) as a sketch with neutral names: x′ = u − q, p = f(x), q = g(p, k). */
 const chain: Model = {
@@ -50,7 +32,7 @@ const files = () => ({ 'chain.json': JSON.stringify(chain), 'warehouse.json': JS
 
 describe('loopfold commute', () => {
   it('prints one JSON object with agree, both orderings in the Ordering shape, and the differences', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'chain.json', '--hold', 'p=2', '--interval', '1 day', '--json'], m.io)).toBe(0);
     expect(m.out).toHaveLength(1);
     const r = JSON.parse(m.out[0]);
@@ -66,13 +48,13 @@ describe('loopfold commute', () => {
   });
 
   it('agrees when nothing settles at the interval (x: 2 h timescale, sampled every 10 min)', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'chain.json', '--hold', 'p=2', '--interval', '10 min', '--json'], m.io)).toBe(0);
     expect(JSON.parse(m.out[0]).agree).toBe(true);
   });
 
   it('prints readable text without --json', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'chain.json', '--hold', 'x=1', '--interval', '1 day'], m.io)).toBe(0);
     expect(m.out.join('\n')).toMatch(/DIFFER/);
     expect(m.out.join('\n')).toMatch(/settle then hold/);
@@ -89,7 +71,7 @@ describe('loopfold commute', () => {
       [['commute', 'missing.json', '--hold', 'p=1', '--interval', '1 day'], /cannot read missing.json/],
     ];
     for (const [argv, msg] of cases) {
-      const m = memoryIo(files());
+      const m = memoryIo(files(), { disk: false });
       const code = await runCli(argv, m.io);
       expect(code, argv.join(' ')).not.toBe(0);
       expect(m.err).toHaveLength(1);
@@ -101,14 +83,14 @@ describe('loopfold commute', () => {
 
 describe('loopfold commute with formulas', () => {
   it('adds the numbers of the running system held: the integrating heater winds up at 0.02·(20 − 18) per minute', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'airTemp=18', '--interval', '10h', '--json'], m.io)).toBe(0);
     const r = JSON.parse(m.out[0]);
     expect(r.agree).toBe(false);
     expect(r.drift.states).toEqual(['heat']);
     expect(r.effect.drifting.map((d: { variable: string }) => d.variable)).toEqual(['heat']);
     expect(r.effect.drifting[0].slope).toBeCloseTo(0.04, 6);
-    const t = memoryIo(files());
+    const t = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h'], t.io)).toBe(0);
     // Hand-derived: held heat 50 ⇒ 0 = (5 − T)/10 + 2.5 ⇒ T = 30; unheld, the integral balance puts T at the setpoint 20.
     expect(t.out.join('\n')).toMatch(/airTemp: 20 → 30 \(\+10\)/);
@@ -117,7 +99,7 @@ describe('loopfold commute with formulas', () => {
 
 describe('loopfold commute --trajectory', () => {
   it('writes both runs as RFC 4180 CSV that Python reads back, ending where the closed form says', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h', '--until', '200 min', '--trajectory', 'runs.csv'], m.io)).toBe(0);
     const script = fileURLToPath(new URL('../../report/csv_reference.py', import.meta.url));
     const [{ parsed }] = runPython<{ parsed: string[][] }[]>(script, [{ rows: [], text: m.files['runs.csv'] }]);
@@ -131,7 +113,7 @@ describe('loopfold commute --trajectory', () => {
   });
 
   it('refuses --trajectory for a sketch without formulas', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'chain.json', '--hold', 'p=1', '--interval', '1 day', '--trajectory', 'x.csv'], m.io)).toBe(2);
     expect(m.err[0]).toMatch(/needs a model with formulas/);
   });
@@ -139,7 +121,7 @@ describe('loopfold commute --trajectory', () => {
 
 describe('loopfold adaptation', () => {
   it('prints { adapted: [{ variable, input }] }', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['adaptation', 'warehouse.json', '--json'], m.io)).toBe(0);
     // Hand-derived: at balance orders = demand and stock = target (integral correction).
     const adapted = JSON.parse(m.out[0]).adapted;
@@ -151,7 +133,7 @@ describe('loopfold adaptation', () => {
   });
 
   it('says so in words without --json', async () => {
-    const m = memoryIo(files());
+    const m = memoryIo(files(), { disk: false });
     expect(await runCli(['adaptation', 'warehouse.json'], m.io)).toBe(0);
     expect(m.out.join('\n')).toMatch(/stock adapts to demand/);
   });
