@@ -11,6 +11,7 @@ import { proxy, releaseProxy, wrap } from 'comlink';
 import type { Model, VariableId } from '../core/model/types';
 import { latestWins } from './client';
 import type { NumericApi, SimulationAnswer, Failed } from '../ui/numbers/compute';
+import { guardWorker } from './guard';
 
 export type NumericTransport = NumericApi & { dispose?: () => void };
 type Quick = Exclude<keyof NumericApi, 'simulate'>;
@@ -127,25 +128,11 @@ export function createNumericClient(primary: (() => NumericTransport) | null, fa
 export function workerNumeric(): NumericTransport {
   if (typeof Worker === 'undefined') throw new Error('this browser has no Web Workers');
   const worker = new Worker(new URL('./numeric.worker.ts', import.meta.url), { type: 'module' });
-  let failure: Error | null = null;
-  const pending = new Set<(e: Error) => void>();
-  const fail = (message: string) => {
-    failure = new Error(message);
-    for (const reject of pending) reject(failure);
-    pending.clear();
-  };
-  worker.addEventListener('error', (ev) => fail(ev.message || 'the numeric worker could not start'));
-  worker.addEventListener('messageerror', () => fail('the numeric worker sent a message that could not be read'));
+  const guard = guardWorker(worker, 'numeric worker');
   const wrapped = wrap<NumericApi>(worker);
   // comlink's Remote<T> widens the answers to a union TypeScript cannot narrow back; the answers are plain data.
   const remote = wrapped as unknown as NumericApi;
-  const call = <T>(f: () => Promise<T>): Promise<T> => {
-    if (failure) return Promise.reject(failure);
-    return new Promise<T>((resolve, reject) => {
-      pending.add(reject);
-      f().then(resolve, reject).finally(() => pending.delete(reject));
-    });
-  };
+  const call = guard.call;
   let disposed = false;
   return {
     equilibrium: (m, h) => call(() => remote.equilibrium(m, h)),
@@ -157,7 +144,7 @@ export function workerNumeric(): NumericTransport {
     dispose() {
       if (disposed) return;
       disposed = true;
-      fail('the numeric worker was stopped');
+      guard.fail('the numeric worker was stopped');
       wrapped[releaseProxy]();
       worker.terminate();
     },

@@ -7,30 +7,19 @@ import { releaseProxy, wrap } from 'comlink';
 import type { CoreApi } from './protocol';
 import { createCoreClient, type CoreClient } from './client';
 import { localCore } from './analyze';
+import { guardWorker } from './guard';
 
 export function workerCore(): CoreApi & { dispose: () => void } {
   if (typeof Worker === 'undefined') throw new Error('this browser has no Web Workers');
   const worker = new Worker(new URL('./core.worker.ts', import.meta.url), { type: 'module' });
-  let failure: Error | null = null;
-  const pending = new Set<(e: Error) => void>();
-  const fail = (message: string) => {
-    failure = new Error(message);
-    for (const reject of pending) reject(failure);
-    pending.clear();
-  };
-  worker.addEventListener('error', (ev) => fail(ev.message || 'the core worker could not start'));
-  worker.addEventListener('messageerror', () => fail('the core worker sent a message that could not be read'));
-  const remote = wrap<CoreApi>(worker);
+  const guard = guardWorker(worker, 'core worker');
+  const wrapped = wrap<CoreApi>(worker);
+  // comlink's Remote<T> widens the answers to a union TypeScript cannot narrow back; the answers are plain data.
+  const remote = wrapped as unknown as CoreApi;
   return {
-    analyze(model, design) {
-      if (failure) return Promise.reject(failure);
-      return new Promise((resolve, reject) => {
-        pending.add(reject);
-        remote.analyze(model, design).then(resolve, reject).finally(() => pending.delete(reject));
-      });
-    },
+    analyze: (model, design) => guard.call(() => remote.analyze(model, design)),
     dispose() {
-      remote[releaseProxy]();
+      wrapped[releaseProxy]();
       worker.terminate();
     },
   };
