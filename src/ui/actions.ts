@@ -10,6 +10,7 @@ import { MAX_FILE_BYTES, describeIssues, fileNameFor, readModelText, readShareFr
 import { parseModel } from '../core/model/schema';
 import { selectionStore } from '../state/selection';
 import { showNotice, uiStore } from '../state/ui';
+import { downloadBlob } from './download';
 
 const model = () => selectModel(documentStore.getState());
 
@@ -206,17 +207,6 @@ function savePicker(): SavePicker | null {
   return w.showSaveFilePicker.bind(window);
 }
 
-function download(text: string, name: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
-}
-
 export async function saveAs(): Promise<void> {
   const m = model();
   const text = serializeModel(m);
@@ -237,7 +227,7 @@ export async function saveAs(): Promise<void> {
       // fall through to a download
     }
   }
-  download(text, suggested);
+  downloadBlob(new Blob([text], { type: 'application/json' }), suggested);
   documentStore.getState().markSaved(suggested);
   uiStore.getState().set({ toast: `Downloaded ${suggested}` });
 }

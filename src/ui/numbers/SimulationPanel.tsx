@@ -7,6 +7,7 @@ import { sampleTimes, simulationCsv } from './chart';
 import { nameOf, unitOf } from './format';
 import { TimeChart } from './TimeChart';
 import { isFailed } from './useNumeric';
+import { downloadBlob } from '../download';
 
 interface Props {
   model: Model;
@@ -16,17 +17,6 @@ interface Props {
   studyLength: number | undefined;
   /** The slowest finite timescale, for the default duration. */
   slowest: number | undefined;
-}
-
-function saveText(text: string, name: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
 /** Run the mechanism forward from its initial values and show the study's samples over it. */
@@ -125,7 +115,7 @@ export function SimulationPanel({ model, hold, interval, studyLength, slowest }:
           </p>
           <button
             type="button"
-            onClick={() => saveText(simulationCsv(done.times, done.series, model.variables.map((v) => ({ id: v.id, name: nameOf(model, v.id) })), unit), `${model.name.replace(/[^\w-]+/g, '-')}-simulation.csv`)}
+            onClick={() => downloadBlob(new Blob([simulationCsv(done.times, done.series, model.variables.map((v) => ({ id: v.id, name: nameOf(model, v.id) })), unit)], { type: 'text/csv' }), `${model.name.replace(/[^\w-]+/g, '-')}-simulation.csv`)}
           >
             Save the run as CSV
           </button>
