@@ -7,7 +7,7 @@ import type { EquationId, Model, VariableId } from '../model/types';
 import { buildStructure } from '../model/equations';
 import type { Diagnostic, Ordering, StudyDesign } from './types';
 import { compareIds, derivativeOf, displayName, type EquationStructure } from './structure';
-import { equilibrateAll, exogenize, hold } from './operators';
+import { equilibrateAll, exogenize, exogenizeAll, hold } from './operators';
 import { listNames, orderStructure } from './order';
 import { rolesAt } from './timescales';
 import { bipartiteFromLists, hopcroftKarp } from './matching';
@@ -17,7 +17,7 @@ export type { ModelStructure } from '../model/equations';
 export { causalOrder } from './causal';
 export type { CausalOrder, CausalOrderOptions } from './causal';
 export { orderStructure } from './order';
-export { equilibrate, equilibrateAll, exogenize, hold } from './operators';
+export { equilibrate, equilibrateAll, exogenize, exogenizeAll, hold } from './operators';
 export type { OperatorResult, StructureChange } from './operators';
 export { rolesAt, breakpoints, bands } from './timescales';
 export type { AxisOptions, RolesResult } from './timescales';
@@ -65,7 +65,10 @@ function structureAt(model: Model, design: StudyDesign): { structure: EquationSt
   }
   const settled = ids.filter((x) => r.roles[x] === 'settled' && s.derivatives[x] !== undefined);
   if (settled.length > 0) s = equilibrateAll(s, settled).structure;
-  for (const x of ids) if (r.roles[x] === 'frozen') s = exogenize(s, x).structure;
+  const frozen = ids.filter((x) => r.roles[x] === 'frozen');
+  const frozenStates = frozen.filter((x) => s.derivatives[x] !== undefined);
+  if (frozenStates.length > 0) s = exogenizeAll(s, frozenStates).structure;
+  for (const x of frozen) if (s.derivatives[x] === undefined && !s.exogenous.includes(x)) s = exogenize(s, x).structure;
   return { structure: s, diagnostics, settled, roles: r.roles };
 }
 

@@ -184,6 +184,37 @@ export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
 }
 
 /**
+ * Exogenize several dynamic states at once (the slow states frozen over a
+ * study): each one's rate equation is dropped and it stays given. One copy of
+ * the structure instead of one per state; the same result as calling
+ * `exogenize` for each in turn. Example: `exogenizeAll(s, ['x3', 'x4'])`.
+ */
+export function exogenizeAll(s: EquationStructure, xs: VariableId[]): OperatorResult {
+  const states = [...new Set(xs)].sort(compareIds);
+  for (const x of states) {
+    requireVariable(s, x, 'exogenize');
+    if (s.derivatives[x] === undefined) throw new Error(`exogenizeAll: "${x}" is not a dynamic state; use exogenize for it`);
+  }
+  const dropped = new Set(states.map((x) => s.derivatives[x]));
+  const out = cloneStructure(s);
+  out.equations = out.equations.filter((e) => !dropped.has(e.id));
+  for (const x of states) delete out.derivatives[x];
+  out.exogenous = [...new Set([...out.exogenous, ...states])].sort(compareIds);
+  const removed = [...dropped].sort(compareIds);
+  return {
+    structure: out,
+    change: {
+      operator: 'exogenize',
+      variable: states.join(', '),
+      removed,
+      added: [],
+      changed: [],
+      note: `${states.join(', ')} ${states.length > 1 ? 'are' : 'is'} constant; ${removed.length > 1 ? 'equations' : 'equation'} ${removed.join(', ')} ${removed.length > 1 ? 'are' : 'is'} dropped`,
+    },
+  };
+}
+
+/**
  * The do-operator: fix x at `value`. x is then determined by the equation
  * hold(x) alone; the equation that determined it before is dropped (a
  * state's rate, a derived variable's formula, or for a variable determined
