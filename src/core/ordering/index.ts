@@ -30,6 +30,15 @@ function sortDiagnostics(ds: Diagnostic[]): Diagnostic[] {
   return ds.sort((a, b) => rank(a) - rank(b) || compareIds(a.code, b.code) || compareIds(a.message, b.message));
 }
 
+// The structure of a model object is built once: a drag across the interval axis asks for the same
+// model at many designs. Models are never mutated (edits make new objects), and the operators copy.
+const builtCache = new WeakMap<Model, ReturnType<typeof buildStructure>>();
+function builtStructureOf(model: Model): ReturnType<typeof buildStructure> {
+  let built = builtCache.get(model);
+  if (!built) builtCache.set(model, (built = buildStructure(model)));
+  return built;
+}
+
 /**
  * The equation structure at a design, with the diagnostics of building it.
  * Holds are applied before anything settles: an intervention replaces the
@@ -37,7 +46,7 @@ function sortDiagnostics(ds: Diagnostic[]): Diagnostic[] {
  * (manipulate, then equilibrate: Dash 2005, AISTATS, from memory).
  */
 function structureAt(model: Model, design: StudyDesign): { structure: EquationStructure; diagnostics: Diagnostic[]; settled: VariableId[]; roles: Ordering['roles'] } {
-  const built = buildStructure(model);
+  const built = builtStructureOf(model);
   const r = rolesAt(model, design);
   const diagnostics = [...built.diagnostics, ...r.diagnostics];
   let s = built.structure;
