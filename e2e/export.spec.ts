@@ -41,3 +41,18 @@ for (const view of ['ordering', 'unrolled'] as const) {
     expect(pngSize(readFileSync(pngFile))).toEqual({ width: 2 * w, height: 2 * h });
   });
 }
+
+test("the app's export of the mechanism is the file `loopfold render --view mechanism` writes", async ({ page }, testInfo) => {
+  await page.goto('/?example=sleep-stress');
+  await page.getByRole('tab', { name: 'Timescales' }).click();
+  await page.getByLabel('Export figure of').selectOption('mechanism');
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'SVG' }).click()]);
+  const appFile = testInfo.outputPath('app-mechanism.svg');
+  await download.saveAs(appFile);
+  const cliFile = testInfo.outputPath('cli-mechanism.svg');
+  const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', 'render', MODEL_PATH, '--view', 'mechanism', '--out', cliFile], { encoding: 'utf8' });
+  expect(r.status, r.stderr).toBe(0);
+  const app = readFileSync(appFile, 'utf8');
+  for (const id of ['workload', 'stress', 'cortisol', 'rumination', 'sleepDebt', 'mood', 'coping']) expect(app).toContain(`data-variable="${id}"`);
+  expect(app).toBe(readFileSync(cliFile, 'utf8'));
+});

@@ -3,7 +3,7 @@
  * chosen sampling interval (or the three instants t−1, t, t+1), the
  * explanation of what differs and why, and the figure export.
  */
-import { useCallback, useMemo, useRef } from 'react';
+import { useCallback, useMemo, useRef, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { explainOrdering } from '../../core/view/explain';
 import { mechanismView, orderingView, simultaneousBlocks, blockKey, studyText } from '../../core/view/derive';
@@ -51,6 +51,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const settled = useRef<Layout | null>(null);
   const onLayout = useCallback((l: Layout) => { settled.current = l; }, []);
   const toggle = useCallback((key: string) => studyStore.getState().toggleFold(key), []);
+  const [exportOf, setExportOf] = useState<'view' | 'mechanism'>('view');
 
   const lines = useMemo(() => (ordering && interval !== null && cache ? explainOrdering(model, ordering, cache.design(interval), cache.breakpoints) : []), [model, ordering, interval, cache]);
 
@@ -61,9 +62,16 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
   const caption = `Sampling interval every ${formatDuration(interval, model.timeUnit)} · ${studyText(model, interval, study.window, study.samples)}`;
   const doExport = (kind: 'svg' | 1 | 2 | 4) => {
+    const base = model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model';
+    if (exportOf === 'mechanism') {
+      // the mechanism as drawn, at the canvas positions: what `loopfold render --view mechanism` writes
+      if (kind === 'svg') void exportSvg(mech, { caption: false }, `${base}-mechanism`, drawn);
+      else void exportPng(mech, { caption: false }, `${base}-mechanism`, kind, drawn);
+      return;
+    }
     // the view on screen is built once per band; the figure names the interval set now
     const figure = orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
-    const name = `${model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model'}-${view}`;
+    const name = `${base}-${view}`;
     if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name);
     else void exportPng(figure, { caption: true, captionText: caption }, name, kind);
   };
@@ -82,7 +90,13 @@ export function TimescalePaneFor({ model }: { model: Model }) {
           </>
         )}
         <span className="lf-spacer" />
-        <span className="lf-export-label">Export figure</span>
+        <label className="lf-export-label">
+          Export figure of{' '}
+          <select value={exportOf} onChange={(e) => setExportOf(e.target.value as 'view' | 'mechanism')}>
+            <option value="view">{view === 'unrolled' ? 'the three instants' : 'the ordering'}</option>
+            <option value="mechanism">the mechanism as drawn</option>
+          </select>
+        </label>
         <button type="button" onClick={() => doExport('svg')}>SVG</button>
         <button type="button" onClick={() => doExport(1)}>PNG 1×</button>
         <button type="button" onClick={() => doExport(2)}>2×</button>
