@@ -1,5 +1,5 @@
 /** The numeric worker: a thin comlink surface over the Numbers pane's numeric questions. */
 import { expose } from 'comlink';
-import { localNumeric } from '../ui/numbers/compute';
+import { localNumeric } from './numericApi';
 
 expose(localNumeric);

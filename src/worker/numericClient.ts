@@ -10,7 +10,7 @@
 import { proxy, releaseProxy, wrap } from 'comlink';
 import type { Model, VariableId } from '../core/model/types';
 import { latestWins } from './client';
-import type { NumericApi, SimulationAnswer, Failed } from '../ui/numbers/compute';
+import type { NumericApi, SimulationAnswer, Failed } from './numericApi';
 import { guardWorker } from './guard';
 
 export type NumericTransport = NumericApi & { dispose?: () => void };
@@ -159,7 +159,7 @@ let appClient: Promise<NumericClient> | null = null;
  * sequence numbers follow the order of the questions.
  */
 export function appNumericClient(): Promise<NumericClient> {
-  appClient ??= import('../ui/numbers/compute').then(({ localNumeric }) => {
+  appClient ??= import('./numericApi').then(({ localNumeric }) => {
     const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
     return createNumericClient(noWorker ? null : workerNumeric, () => localNumeric);
   });

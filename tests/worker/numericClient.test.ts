@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createNumericClient, type NumericTransport } from '../../src/worker/numericClient';
-import { localNumeric, type NumericApi } from '../../src/ui/numbers/compute';
+import { localNumeric, type NumericApi } from '../../src/worker/numericApi';
 import { parseModelText } from '../../src/core/model/schema';
 import { emptyModel } from '../../src/state/changes';
 

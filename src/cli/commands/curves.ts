@@ -1,6 +1,6 @@
 /** Commands `curves` (one lagged link against the interval) and `advise` (an interval for chosen links). */
 import { formatDuration } from '../../core/model/units';
-import { adviceOf, curveOf } from '../../ui/numbers/compute';
+import { adviceOf, curveOf } from '../../worker/numericApi';
 import { loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 

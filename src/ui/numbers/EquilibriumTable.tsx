@@ -1,6 +1,6 @@
 import type { Model, VariableId } from '../../core/model/types';
 import { isFailed, useNumeric } from './useNumeric';
-import type { EquilibriumAnswer } from './compute';
+import type { EquilibriumAnswer } from '../../worker/numericApi';
 import { nameOf, numText } from './format';
 
 const KIND_WORDS = { input: 'input', state: 'state', derived: 'derived' } as const;

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
-import type { AdviceAnswer } from './compute';
+import type { AdviceAnswer } from '../../worker/numericApi';
 import { nameOf } from './format';
 import { isFailed, useNumeric } from './useNumeric';
 

@@ -9,7 +9,7 @@ import { formatDuration } from '../../core/model/units';
 import { useAnalysis, useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import { designOf, useStudy } from '../../state/study';
-import type { CurveAnswer, SampledAnswer, TimescalesAnswer } from './compute';
+import type { CurveAnswer, SampledAnswer, TimescalesAnswer } from '../../worker/numericApi';
 import { EquilibriumTable } from './EquilibriumTable';
 import { IntervalAdvisor } from './IntervalAdvisor';
 import { LinkCurveChart } from './LinkCurveChart';

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
-import type { SampledAnswer } from './compute';
+import type { SampledAnswer } from '../../worker/numericApi';
 import { NetworkDiagram } from './NetworkDiagram';
 
 /** The lagged and same-interval networks a study sampling every Δ would estimate (in expectation). */

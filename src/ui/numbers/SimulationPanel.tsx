@@ -2,7 +2,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { appNumericClient, type SimulationRun } from '../../worker/numericClient';
-import type { Failed, SimulationAnswer } from './compute';
+import type { Failed, SimulationAnswer } from '../../worker/numericApi';
 import { sampleTimes, simulationCsv } from './chart';
 import { nameOf, unitOf } from './format';
 import { TimeChart } from './TimeChart';

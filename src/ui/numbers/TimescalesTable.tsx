@@ -1,7 +1,7 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { editDocument } from '../../state/document';
-import type { TimescalesAnswer } from './compute';
+import type { TimescalesAnswer } from '../../worker/numericApi';
 import { nameOf, numText } from './format';
 
 /** Eigenvalues of the linearized mechanism and each state's timescale, given and derived. */

@@ -1,7 +1,7 @@
 /** Ask the numeric worker a question whenever its inputs change; only the latest answer is kept. */
 import { useEffect, useState } from 'react';
 import { appNumericClient, type NumericClient } from '../../worker/numericClient';
-import type { Failed } from './compute';
+import type { Failed } from '../../worker/numericApi';
 
 export type Asked<T> = { status: 'idle' } | { status: 'running' } | { status: 'done'; answer: T | Failed };
 

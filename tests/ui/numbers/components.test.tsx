@@ -6,7 +6,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { parseModel } from '../../../src/core/model/schema';
 import type { Model } from '../../../src/core/model/types';
 import { documentStore, selectModel } from '../../../src/state/document';
-import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer } from '../../../src/ui/numbers/compute';
+import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer } from '../../../src/worker/numericApi';
 import { SampledNetworks } from '../../../src/ui/numbers/SampledNetworks';
 import { TimescalesTable } from '../../../src/ui/numbers/TimescalesTable';
 import { TimeChart } from '../../../src/ui/numbers/TimeChart';

@@ -4,8 +4,8 @@
  * so the same code runs in the numeric worker and on the main thread.
  * Exceptions become a message; nothing is thrown across.
  */
-import type { Model, VariableId } from '../../core/model/types';
-import type { Diagnostic } from '../../core/ordering/types';
+import type { Model, VariableId } from '../core/model/types';
+import type { Diagnostic } from '../core/ordering/types';
 import {
   adviseInterval,
   driftAtEquilibrium,
@@ -19,7 +19,7 @@ import {
   type IntervalAdvice,
   type LinkCurve,
   type TimescaleReport,
-} from '../../core/numeric/index';
+} from '../core/numeric/index';
 
 export type Failed = { ok: false; reason: string };
 
