@@ -61,6 +61,15 @@ export function createLayoutQueue(start: () => Promise<ElkRunner> = startElk) {
       }
     },
     cancel() { ticket++; },
+    /** Drop the pending request and stop a layout that is running (its worker is started afresh on the next request). */
+    async abandon() {
+      ticket++;
+      if (!running || !runner) return;
+      const r = runner;
+      runner = undefined;
+      running = false;
+      ((await r) as ElkRunner & { terminateWorker?: () => void }).terminateWorker?.();
+    },
     /** Stop the worker (when the view goes away). */
     async dispose() {
       ticket++;

@@ -3,16 +3,18 @@
  * then moved smoothly to the tuned ELK layout when it arrives (a layout made
  * obsolete by a newer view is dropped).
  */
-import { memo, useEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
+import { memo, useEffect, useLayoutEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
 import type { ViewModel } from '../../core/view/types';
 import { buildScene } from '../../export/scene';
 import { createLayoutQueue } from '../../layout/browser';
 import { ease, interpolateLayout } from '../../layout/geometry';
 import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
-import { serialize } from '../../export/svg';
+import { patchSvg, type SvgHost } from './svgPatch';
 
 const ANIMATION_MS = 320;
+/** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
+const LAYOUT_AFTER_MS = 120;
 /** The figure shrinks to fit its pane down to this scale, then scrolls (labels stay legible). */
 const MIN_SCALE = 0.8;
 /** The three instants are wide: fitting them shows the whole sequence first. */
@@ -34,18 +36,30 @@ export interface ViewCanvasProps {
 
 /** Memoised: dragging the interval inside a band re-renders the pane, not the figure. */
 export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: ViewCanvasProps) {
-  const [shown, setShown] = useState<Layout | null>(null);
-  const [shownTag, setShownTag] = useState<string | number | undefined>(undefined);
-  const shownRef = useRef<Layout | null>(null);
+  // the layout moved to after the view was first placed (animation frames, then ELK's), for that view
+  const [moved, setMoved] = useState<{ vm: ViewModel; layout: Layout } | null>(null);
+  // the view whose tuned layout came back (or failed): no longer pending
+  const [settledFor, setSettledFor] = useState<ViewModel | null>(null);
+  /** The layout on screen (set on commit). */
+  const screenRef = useRef<Layout | null>(null);
   const frame = useRef<number>(0);
   const queue = useMemo(() => createLayoutQueue(), []);
-  const [pending, setPending] = useState(false);
+
+  // a new view is placed in the same render that brings it (one scene per band, not two)
+  const start = useMemo(() => {
+    const prev = screenRef.current ?? undefined;
+    const target: Layout = drawn ? { ...instantLayout(vm, undefined, drawn), source: 'drawn' } : instantLayout(vm, prev);
+    const animate = !!prev && vm.nodes.length <= ANIMATE_UP_TO;
+    return { vm, prev, target, first: animate && prev ? interpolateLayout(prev, target, 0) : target };
+  }, [vm, drawn]);
+  const shown = moved && moved.vm === vm ? moved.layout : start.first;
+  const pending = !drawn && settledFor !== vm;
+  useLayoutEffect(() => { screenRef.current = shown; }, [shown]);
 
   useEffect(() => {
-    const show = (l: Layout) => { shownRef.current = l; setShown(l); };
-    const animateTo = (target: Layout) => {
+    const show = (l: Layout) => setMoved({ vm, layout: l });
+    const animateTo = (from: Layout | undefined, target: Layout) => {
       cancelAnimationFrame(frame.current);
-      const from = shownRef.current;
       if (!from || vm.nodes.length > ANIMATE_UP_TO) { show(target); return; }
       const t0 = performance.now();
       const step = () => {
@@ -55,39 +69,43 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
       };
       frame.current = requestAnimationFrame(step);
     };
-    const prev = shownRef.current ?? undefined;
-    setShownTag(tag);
+    if (start.first !== start.target) animateTo(start.prev, start.target);
+    else cancelAnimationFrame(frame.current);
     if (drawn) {
-      const l = { ...instantLayout(vm, undefined, drawn), source: 'drawn' as const };
-      animateTo(l);
-      onLayout?.(l);
+      onLayout?.(start.target);
       return;
     }
-    const instant = instantLayout(vm, prev);
-    animateTo(instant);
-    setPending(true);
     let live = true;
-    void queue.request(vm, { previous: instant }).then((l) => {
-      if (!live || !l) return;
-      setPending(false);
-      animateTo(l);
-      onLayout?.(l);
-    }).catch(() => { if (live) setPending(false); });
-    return () => { live = false; };
+    // a layout still running for an older view is stopped now; the tuned layout of this one is asked
+    // for once the view has stayed a moment (a drag across many bands starts no layout per band)
+    void queue.abandon();
+    const timer = setTimeout(() => {
+      void queue.request(vm, { previous: start.target }).then((l) => {
+        if (!live || !l) return;
+        setSettledFor(vm);
+        animateTo(screenRef.current ?? undefined, l);
+        onLayout?.(l);
+      }).catch(() => { if (live) setSettledFor(vm); });
+    }, LAYOUT_AFTER_MS);
+    return () => { live = false; clearTimeout(timer); };
     // onLayout is a callback prop: a new identity must not re-run the layout
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [vm, drawn, queue]);
+  }, [start, queue]);
 
   useEffect(() => () => { cancelAnimationFrame(frame.current); void queue.dispose(); }, [queue]);
 
   const [zoom, setZoom] = useState<'fit' | number>('fit');
   // the pane has its own heading and summary: the figure's title line is for exported files
-  const scene = useMemo(() => (shown ? buildScene(vm, shown, { legend: true, title: false }) : null), [vm, shown]);
-  const natural = scene ? Number(scene.attrs.width) : 0;
+  const scene = useMemo(() => buildScene(vm, shown, { legend: true, title: false }), [vm, shown]);
+  const natural = Number(scene.attrs.width);
   const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE))}px` : `width:${Math.round(natural * zoom)}px`;
-  // the exporter's own serialiser: the screen shows the file's markup (and the browser parses it
-  // far faster than a React tree of thousands of elements is reconciled)
-  const markup = useMemo(() => (scene ? serialize({ ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } }) : ''), [scene, sizeStyle]);
+  // the exporter's own scene, put on screen as the file's markup and then changed in place: only
+  // the nodes, links and blocks that differ are parsed again (React does not reconcile thousands of elements)
+  const host = useRef<HTMLDivElement>(null);
+  const shownSvg = useRef<SvgHost>({ root: null });
+  useLayoutEffect(() => {
+    if (host.current) patchSvg(host.current, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
+  }, [scene, sizeStyle]);
   const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
@@ -101,9 +119,7 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
         <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
       </div>
-      {scene
-        ? <div className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown?.source ?? 'none'} data-pending={pending ? 'true' : 'false'} data-shown={shownTag} onClick={onClick} dangerouslySetInnerHTML={{ __html: markup }} />
-        : <div className="lf-view-canvas" aria-label={label} role="figure" data-layout="none" data-pending="true"><p>Placing the variables…</p></div>}
+      <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} onClick={onClick} />
     </div>
   );
 });
