@@ -6,7 +6,7 @@
  * Chromium on a production build: time until the view at a new band is on
  * screen, frames per second while the interval control is dragged, JS heap
  * with the 2,000-variable model open, and the gzip size of the first page load.
- * Run alone: `npx tsx bench/layout.ts`.
+ * Run alone: `npx tsx bench/layout.ts` (`--browser --sizes 500` for one model in the browser only).
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { readFileSync, existsSync } from 'node:fs';
@@ -62,6 +62,9 @@ export function generatedModel(n: number, seed = 7): Model {
 }
 
 const now = () => performance.now();
+/** `--sizes 500` (or `--sizes 200,500`) measures only those models in the browser part. */
+const sizesArg = process.argv[process.argv.indexOf('--sizes') + 1];
+const SIZES = process.argv.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Number) : [50, 200, 500, 2000];
 function stats(xs: number[]): { median: number; p95: number } {
   const s = [...xs].sort((a, b) => a - b);
   const q = (p: number) => s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
@@ -140,7 +143,7 @@ async function browserPart(): Promise<void> {
   const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
   try {
     for (let i = 0; i < 50; i++) { try { if ((await fetch(`http://127.0.0.1:${port}/`)).ok) break; } catch { /* not up yet */ } await new Promise((r) => setTimeout(r, 200)); }
-    for (const n of [50, 200, 500, 2000]) {
+    for (const n of SIZES) {
       const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
       await page.goto(`http://127.0.0.1:${port}/`);
       await page.waitForFunction(() => !!window.__loopfold);
