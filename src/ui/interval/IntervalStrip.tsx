@@ -12,6 +12,7 @@ import { analysisStore, setStudyDesign, useAnalysisState } from '../../state/ana
 import { useValidatedModel } from '../../state/document';
 import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
 import { useBandCache, type BandCache } from '../views/bandCache';
+import { setIntervalDrag, useIntervalDrag } from './dragging';
 import './interval.css';
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
@@ -43,12 +44,14 @@ export function IntervalStripFor({ model }: { model: Model }) {
     if (interval === null || interval < min || interval > max) studyStore.getState().setInterval(Math.sqrt(min * max));
   }, [cache, interval]);
 
-  // the analysis store follows the design (the core worker answers the other panes)
+  // the analysis store follows the design (the core worker answers the other panes); during a drag,
+  // once the pointer lets go (every band the thumb passes would start an analysis)
+  const dragging = useIntervalDrag() !== null;
   useEffect(() => {
-    if (interval === null) return;
+    if (interval === null || dragging) return;
     const held = analysisStore.getState().design.hold;
     setStudyDesign({ ...designOf({ interval, length }), ...(held ? { hold: held } : {}) });
-  }, [cache ? cache.band(interval ?? 0) : -1, length]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [cache ? cache.band(interval ?? 0) : -1, length, dragging]); // eslint-disable-line react-hooks/exhaustive-deps
 
   if (bc.status === 'missing') return <div className="lf-interval">The ordering core is not part of this build.</div>;
   if (bc.status === 'failed') return <div className="lf-interval" role="alert">The breakpoints could not be computed: {bc.message}</div>;
@@ -89,8 +92,11 @@ export function IntervalStripFor({ model }: { model: Model }) {
         data-band={band}
         data-interval={interval}
         onKeyDown={onKey}
-        onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); fromPointer(ev); }}
+        onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); setIntervalDrag(interval); fromPointer(ev); }}
         onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}
+        onPointerUp={() => setIntervalDrag(undefined)}
+        onPointerCancel={() => setIntervalDrag(undefined)}
+        onLostPointerCapture={() => setIntervalDrag(undefined)}
       >
         <TrackMarks cache={cache} model={model} />
         <div className="lf-band-current" style={{ left: `${toPosition(range, Math.max(lower, range.min)) * 100}%`, width: `${(toPosition(range, Math.min(upper, range.max)) - toPosition(range, Math.max(lower, range.min))) * 100}%` }} />

@@ -3,7 +3,7 @@
  * chosen sampling interval (or the three instants t−1, t, t+1), the
  * explanation of what differs and why, and the figure export.
  */
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { explainOrdering } from '../../core/view/explain';
 import { mechanismView, orderingView, simultaneousBlocks, blockKey, studyText } from '../../core/view/derive';
@@ -17,7 +17,11 @@ import { formatDuration } from '../../core/model/units';
 import { useBandCache } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
+import { useIntervalDrag } from '../interval/dragging';
 import './views.css';
+
+/** While dragging, the figure moves to the band under the thumb once the thumb has rested this long. */
+const REST_MS = 100;
 
 export function TimescalePane() {
   const model = useValidatedModel();
@@ -27,7 +31,17 @@ export function TimescalePane() {
 
 export function TimescalePaneFor({ model }: { model: Model }) {
   const length = useStudy((s) => s.length);
-  const interval = useStudy((s) => s.interval);
+  const liveInterval = useStudy((s) => s.interval);
+  // while the control is dragged the figure follows the band where the thumb rests (a drag across a
+  // big model passes a band every few pixels; drawing each would hold the thumb back)
+  const drag = useIntervalDrag();
+  const [rested, setRested] = useState<{ drag: number; interval: number | null } | null>(null);
+  useEffect(() => {
+    if (!drag) return;
+    const t = setTimeout(() => setRested({ drag: drag.id, interval: liveInterval }), REST_MS);
+    return () => clearTimeout(t);
+  }, [drag, liveInterval]);
+  const interval = !drag ? liveInterval : rested?.drag === drag.id ? rested.interval : drag.from;
   const folded = useStudy((s) => s.folded);
   const view = useStudy((s) => s.view);
   const sideBySide = useStudy((s) => s.sideBySide);
