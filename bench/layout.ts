@@ -21,20 +21,11 @@ import { cutsOf } from '../src/core/view/interval';
 import { elkLayout } from '../src/layout/elk';
 import { nodeElk } from '../src/layout/node';
 import { instantLayout } from '../src/layout/instant';
+import { seededRandom } from '../tests/helpers/random';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
-/** Small seeded generator (mulberry32). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 
 /** A sketch of n variables: 10 % inputs, 40 % states (timescales 1 min … 1 year), 50 % derived; two links into each non-input. */
 export function generatedModel(n: number, seed = 7): Model {

@@ -11,18 +11,9 @@ import { loadavg } from 'node:os';
 import { causalOrder, orderIndexed } from '../src/core/ordering/causal';
 import type { EquationSystem } from '../src/core/ordering/structure';
 import { PYTHON } from '../tests/helpers/python';
+import { seededRandom } from '../tests/helpers/random';
 
-/** Small seeded generator (mulberry32), so every run orders the same systems. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 
 /** n equations over n unknowns: a planted perfect matching plus two random variables each. */
 export function randomSquareSystem(n: number, seed: number): { system: EquationSystem; eq: number[]; var: number[] } {

@@ -3,20 +3,11 @@ import { fileURLToPath } from 'node:url';
 import { causalOrder } from '../../../src/core/ordering/causal';
 import type { EquationSystem } from '../../../src/core/ordering/structure';
 import { runPython } from '../../helpers/python';
+import { seededRandom } from '../../helpers/random';
 
 const SCRIPT = fileURLToPath(new URL('../../reference/ordering_reference.py', import.meta.url));
 
-/** mulberry32: a small seeded generator (common practice). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = seededRandom;
 
 interface Spec { ne: number; nv: number; exo: number; planted: boolean; width: number; seed: number }
 
