@@ -8,26 +8,16 @@ import type { ViewModel } from '../../core/view/types';
 import { renderSvg, type SvgOptions } from '../../export/svg';
 import { browserElk } from '../../layout/browser';
 import { figureLayout } from '../../layout/figure';
+import { downloadBlob } from '../download';
 
 export async function figureSvg(vm: ViewModel, options: SvgOptions, drawn?: Record<string, { x: number; y: number }>): Promise<string> {
   const layout = await figureLayout(await browserElk(), vm, drawn);
   return renderSvg(vm, layout, options);
 }
 
-function download(blob: Blob, name: string): void {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = name;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
-}
-
 export async function exportSvg(vm: ViewModel, options: SvgOptions, name: string, drawn?: Record<string, { x: number; y: number }>): Promise<void> {
   const svg = await figureSvg(vm, options, drawn);
-  download(new Blob([svg], { type: 'image/svg+xml' }), `${name}.svg`);
+  downloadBlob(new Blob([svg], { type: 'image/svg+xml' }), `${name}.svg`);
 }
 
 export async function exportPng(vm: ViewModel, options: SvgOptions, name: string, scale: 1 | 2 | 4, drawn?: Record<string, { x: number; y: number }>): Promise<void> {
@@ -46,7 +36,7 @@ export async function exportPng(vm: ViewModel, options: SvgOptions, name: string
     ctx.scale(scale, scale);
     ctx.drawImage(img, 0, 0, w, h);
     const blob = await new Promise<Blob | null>((res) => canvas.toBlob(res, 'image/png'));
-    if (blob) download(blob, `${name}@${scale}x.png`);
+    if (blob) downloadBlob(blob, `${name}@${scale}x.png`);
   } finally {
     URL.revokeObjectURL(url);
   }
