@@ -93,6 +93,18 @@ function countingSort(items: Int32Array, key: Int32Array, range: number): Int32A
   return out;
 }
 
+/** Rows grouped by their block (CSR: rows of block b are items[ptr[b] .. ptr[b+1]), in row order). */
+function rowsByBlock(blockOfRow: Int32Array, nb: number): { ptr: Int32Array; items: Int32Array } {
+  const ne = blockOfRow.length;
+  const ptr = new Int32Array(nb + 1);
+  for (let r = 0; r < ne; r++) ptr[blockOfRow[r] + 1]++;
+  for (let b = 0; b < nb; b++) ptr[b + 1] += ptr[b];
+  const items = new Int32Array(ne);
+  const fill = ptr.slice(0, nb);
+  for (let r = 0; r < ne; r++) items[fill[blockOfRow[r]]++] = r;
+  return { ptr, items };
+}
+
 /**
  * The integer layer. Blocks of equal level are ordered by their smallest
  * column; a block without columns (equations that only constrain exogenous
@@ -193,14 +205,7 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
   components(PART_UNDER, DET_UNDER);
 
   // Levels, in provisional order (exogenous, over, well in causal order, under), which is topological.
-  const rowsOfBlockPtr = new Int32Array(nb + 1);
-  for (let r = 0; r < ne; r++) rowsOfBlockPtr[blockOfRow[r] + 1]++;
-  for (let b = 0; b < nb; b++) rowsOfBlockPtr[b + 1] += rowsOfBlockPtr[b];
-  const rowsOfBlock = new Int32Array(ne);
-  {
-    const fill = rowsOfBlockPtr.slice(0, nb);
-    for (let r = 0; r < ne; r++) rowsOfBlock[fill[blockOfRow[r]]++] = r;
-  }
+  const { ptr: rowsOfBlockPtr, items: rowsOfBlock } = rowsByBlock(blockOfRow, nb);
   const lv = new Int32Array(nb);
   for (let b = 0; b < nb; b++) {
     let l = 0;
@@ -261,14 +266,8 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
     const fill = blockColPtr.slice(0, nb);
     for (let c = 0; c < nv; c++) if (blockOfCol[c] >= 0) blockCols[fill[blockOfCol[c]]++] = c;
   }
-  const blockRowPtr = new Int32Array(nb + 1);
-  for (let r = 0; r < ne; r++) blockRowPtr[blockOfRow[r] + 1]++;
-  for (let b = 0; b < nb; b++) blockRowPtr[b + 1] += blockRowPtr[b];
-  const blockRows = new Int32Array(ne);
-  {
-    const fill = blockRowPtr.slice(0, nb);
-    for (let r = 0; r < ne; r++) blockRows[fill[blockOfRow[r]]++] = r;
-  }
+  // again after the renumbering into the final causal order
+  const { ptr: blockRowPtr, items: blockRows } = rowsByBlock(blockOfRow, nb);
 
   // Edges (matching-independent): for row e in block B, u in e outside B → every v in e ∩ B;
   // u, v both in e ∩ B → one simultaneous edge per pair (u < v). Generated in row order, then
