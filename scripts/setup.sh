@@ -1,12 +1,13 @@
 #!/usr/bin/env bash
 # Everything the tests need on a fresh Debian machine: Debian's Chromium (Playwright drives it;
-# no browser download), SciPy/NumPy/NetworkX as reference libraries, a font with wide coverage,
+# no browser download), Debian's Firefox ESR (driven over WebDriver BiDi by e2e/helpers/firefox.ts), SciPy/NumPy/NetworkX as reference libraries, a font with wide coverage,
 # and the npm packages at their locked versions.
 set -eu
 cd "$(dirname "$0")/.."
 has_py() { python3 -c "import $1" 2>/dev/null || /usr/bin/python3 -c "import $1" 2>/dev/null; }
 need_apt=""
 [ -x /usr/bin/chromium ] || need_apt="$need_apt chromium"
+[ -x /usr/bin/firefox-esr ] || need_apt="$need_apt firefox-esr"
 has_py 'scipy, numpy' || need_apt="$need_apt python3-scipy python3-numpy"
 has_py networkx || need_apt="$need_apt python3-networkx"
 fc-list 2>/dev/null | grep -qi dejavu || need_apt="$need_apt fonts-dejavu-core"
