@@ -66,6 +66,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const onLayout = useCallback((l: Layout) => { settled.current = l; }, []);
   const toggle = useCallback((key: string) => studyStore.getState().toggleFold(key), []);
   const [exportOf, setExportOf] = useState<'view' | 'mechanism'>('view');
+  const [placement, setPlacement] = useState<'screen' | 'fresh'>('screen');
 
   const lines = useMemo(() => (ordering && interval !== null && cache ? explainOrdering(model, ordering, cache.design(interval), cache.breakpoints) : []), [model, ordering, interval, cache]);
 
@@ -79,15 +80,17 @@ export function TimescalePaneFor({ model }: { model: Model }) {
     const base = model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model';
     if (exportOf === 'mechanism') {
       // the mechanism as drawn, at the canvas positions: what `loopfold render --view mechanism` writes
-      if (kind === 'svg') void exportSvg(mech, { caption: false }, `${base}-mechanism`, drawn);
-      else void exportPng(mech, { caption: false }, `${base}-mechanism`, kind, drawn);
+      if (kind === 'svg') void exportSvg(mech, { caption: false }, `${base}-mechanism`, { drawn });
+      else void exportPng(mech, { caption: false }, `${base}-mechanism`, kind, { drawn });
       return;
     }
     // the view on screen is built once per band; the figure names the interval set now
     const figure = orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
     const name = `${base}-${view}`;
-    if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name);
-    else void exportPng(figure, { caption: true, captionText: caption }, name, kind);
+    // as on screen: the settled layout the modeller sees; else laid out afresh, as the command line does
+    const at = { shown: placement === 'screen' ? settled.current : null };
+    if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name, at);
+    else void exportPng(figure, { caption: true, captionText: caption }, name, kind, at);
   };
   return (
     <section className="lf-timescale" aria-label="Ordering at the sampling interval" data-band={band}>
@@ -111,6 +114,15 @@ export function TimescalePaneFor({ model }: { model: Model }) {
             <option value="mechanism">the mechanism as drawn</option>
           </select>
         </label>
+        {exportOf === 'view' && (
+          <label className="lf-export-label">
+            laid out{' '}
+            <select value={placement} onChange={(e) => setPlacement(e.target.value as 'screen' | 'fresh')}>
+              <option value="screen">as on screen</option>
+              <option value="fresh">afresh (as the command line)</option>
+            </select>
+          </label>
+        )}
         <button type="button" onClick={() => doExport('svg')}>SVG</button>
         <button type="button" onClick={() => doExport(1)}>PNG 1×</button>
         <button type="button" onClick={() => doExport(2)}>2×</button>

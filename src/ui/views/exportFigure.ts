@@ -1,43 +1,38 @@
 /**
- * Figure export from the app: the same view model and the same layout
- * function as `loopfold render` (ELK without seeding, or the drawn
- * positions for the mechanism), written by the one SVG renderer; PNG by
+ * Figure export from the app, written by the one SVG renderer: either the
+ * layout on screen (what the modeller sees), or the same layout function as
+ * `loopfold render` (ELK without seeding, or the drawn positions for the
+ * mechanism), which gives the command line's file byte for byte. PNG by
  * drawing that SVG on a canvas at 1×, 2× or 4×.
  */
 import type { ViewModel } from '../../core/view/types';
 import { renderSvg, type SvgOptions } from '../../export/svg';
 import { browserElk } from '../../layout/browser';
 import { figureLayout } from '../../layout/figure';
-import { downloadBlob } from '../download';
+import type { Layout } from '../../layout/types';
+import { downloadPng, downloadSvg } from '../figureFiles';
 
-export async function figureSvg(vm: ViewModel, options: SvgOptions, drawn?: Record<string, { x: number; y: number }>): Promise<string> {
-  const layout = await figureLayout(await browserElk(), vm, drawn);
+/** Where the figure's positions come from: the drawn canvas (mechanism), the layout on screen, or neither (ELK afresh). */
+export interface FigurePlacement {
+  drawn?: Record<string, { x: number; y: number }>;
+  /** The layout shown on screen: used when it places every node and block of the view. */
+  shown?: Layout | null;
+}
+
+/** Whether a layout places every node and block of a view (it was made for this view). */
+export function fits(vm: ViewModel, layout: Layout): boolean {
+  return vm.nodes.every((n) => layout.nodes[n.id]) && vm.groups.every((g) => layout.groups[g.id]);
+}
+
+export async function figureSvg(vm: ViewModel, options: SvgOptions, at: FigurePlacement = {}): Promise<string> {
+  const layout = at.shown && fits(vm, at.shown) ? at.shown : await figureLayout(await browserElk(), vm, at.drawn);
   return renderSvg(vm, layout, options);
 }
 
-export async function exportSvg(vm: ViewModel, options: SvgOptions, name: string, drawn?: Record<string, { x: number; y: number }>): Promise<void> {
-  const svg = await figureSvg(vm, options, drawn);
-  downloadBlob(new Blob([svg], { type: 'image/svg+xml' }), `${name}.svg`);
+export async function exportSvg(vm: ViewModel, options: SvgOptions, name: string, at: FigurePlacement = {}): Promise<void> {
+  downloadSvg(await figureSvg(vm, options, at), name);
 }
 
-export async function exportPng(vm: ViewModel, options: SvgOptions, name: string, scale: 1 | 2 | 4, drawn?: Record<string, { x: number; y: number }>): Promise<void> {
-  const svg = await figureSvg(vm, options, drawn);
-  const w = Number(/width="(\d+)"/.exec(svg)?.[1] ?? 800);
-  const h = Number(/height="(\d+)"/.exec(svg)?.[1] ?? 600);
-  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
-  try {
-    const img = new Image();
-    img.src = url;
-    await img.decode();
-    const canvas = document.createElement('canvas');
-    canvas.width = w * scale;
-    canvas.height = h * scale;
-    const ctx = canvas.getContext('2d')!;
-    ctx.scale(scale, scale);
-    ctx.drawImage(img, 0, 0, w, h);
-    const blob = await new Promise<Blob | null>((res) => canvas.toBlob(res, 'image/png'));
-    if (blob) downloadBlob(blob, `${name}@${scale}x.png`);
-  } finally {
-    URL.revokeObjectURL(url);
-  }
+export async function exportPng(vm: ViewModel, options: SvgOptions, name: string, scale: 1 | 2 | 4, at: FigurePlacement = {}): Promise<void> {
+  await downloadPng(await figureSvg(vm, options, at), name, scale);
 }
