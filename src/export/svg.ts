@@ -1,7 +1,8 @@
 /**
  * The one SVG renderer: a self-contained SVG string (no external CSS or
  * fonts, text kept as text, every label XML-escaped) for the app's export
- * and the command line's `render`.
+ * and the command line (`render`, and the charts and networks of
+ * `simulate`, `sampled` and `curves`).
  */
 import type { ViewModel } from '../core/view/types';
 import type { Layout } from '../layout/types';
@@ -30,7 +31,12 @@ export function serialize(node: El | string, indent = ''): string {
   return `${indent}<${node.tag}${attrs}>\n${inner}\n${indent}</${node.tag}>`;
 }
 
+/** A drawing's root `<svg>` element as a file: '<?xml version="1.0" …>\n<svg …>…</svg>\n'. */
+export function svgDocument(root: El): string {
+  return `<?xml version="1.0" encoding="UTF-8"?>\n${serialize(root)}\n`;
+}
+
 /** `renderSvg(view, layout, { caption: true })` → '<?xml version="1.0" …><svg …>…</svg>'. */
 export function renderSvg(vm: ViewModel, layout: Layout, options: SvgOptions = {}): string {
-  return `<?xml version="1.0" encoding="UTF-8"?>\n${serialize(buildScene(vm, layout, options))}\n`;
+  return svgDocument(buildScene(vm, layout, options));
 }

@@ -56,3 +56,28 @@ export function shapePath(shape: NodeShape, w: number, h: number): string {
 
 /** Height of the accumulator's floor bar (the part that "fills"). */
 export const ACCUMULATOR_FLOOR = 6;
+
+/**
+ * The Numbers pane's charts and networks (drawn by `src/export/charts.ts` for
+ * screen and file alike) on a white ground. Series differ by dash pattern and
+ * sit in panels of their own; signs of network links by solid (positive) and
+ * dashed (negative) lines and by the sign of the weight written on them.
+ */
+export const CHART_STYLE = {
+  paper: '#ffffff',
+  frame: '#d8d2c4',
+  grid: '#ece8de',
+  axis: INK,
+  text: INK,
+  label: MUTED,
+  line: INK,
+  /** Samples, the current interval and the peak. */
+  accent: '#1f6f80',
+  /** The intervals where the causal ordering changes. */
+  breakpoint: '#8a5a12',
+  breakpointDash: '3 2',
+  negativeDash: '5 3',
+};
+
+/** Dash patterns that tell series apart without colour, in order (the first is solid). */
+export const SERIES_DASHES = ['', '6 3', '2 3', '10 3 2 3', '1 2', '8 2 2 2 2 2', '12 4'];

@@ -13,6 +13,7 @@ import { orderingAt } from '../ordering/index';
 export { solveEquilibrium } from './equilibrium';
 export type { EquilibriumResult } from './equilibrium';
 export { simulate, outputGrid } from './simulate';
+export { sampleTimes, valueAt } from './samples';
 export type { SimulateOptions, SimulationResult } from './simulate';
 export { sampledModel, linkCurve, adviseInterval, logGrid } from './sampled';
 export type { SampledModel, LinkCurve, IntervalAdvice } from './sampled';

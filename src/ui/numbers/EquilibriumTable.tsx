@@ -1,7 +1,7 @@
 import type { Model, VariableId } from '../../core/model/types';
 import { isFailed, useNumeric } from './useNumeric';
 import type { EquilibriumAnswer } from '../../worker/numericApi';
-import { nameOf, numText } from './format';
+import { nameOf, numText } from '../../export/format';
 
 const KIND_WORDS = { input: 'input', state: 'state', derived: 'derived' } as const;
 

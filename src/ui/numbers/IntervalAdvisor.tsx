@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import type { AdviceAnswer } from '../../worker/numericApi';
-import { nameOf } from './format';
+import { nameOf } from '../../export/format';
 import { isFailed, useNumeric } from './useNumeric';
 
 type Pair = { from: VariableId; to: VariableId };

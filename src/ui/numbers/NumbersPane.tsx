@@ -16,7 +16,8 @@ import { LinkCurveChart } from './LinkCurveChart';
 import { SampledNetworks } from './SampledNetworks';
 import { SimulationPanel } from './SimulationPanel';
 import { TimescalesTable } from './TimescalesTable';
-import { nameOf } from './format';
+import type { StudyAt } from '../../export/caption';
+import { nameOf } from '../../export/format';
 import { isFailed, useNumeric } from './useNumeric';
 import './numbers.css';
 
@@ -44,8 +45,7 @@ function NumbersOf({ model }: { model: Model }) {
   const exact = studyInterval !== null ? designOf({ interval: studyInterval, length: studyLengthChoice }) : design;
   const interval = exact.interval;
   const hold = design.hold;
-  const samples = exact.samples ?? model.settings?.samples ?? 50;
-  const studyLength = interval === undefined ? undefined : (exact.window ?? samples * interval);
+  const study: StudyAt = { interval, window: exact.window, samples: exact.samples };
   const u = model.timeUnit;
   const ts = useNumeric<TimescalesAnswer>((c) => c.ask('timescales', model, interval), [model, interval]);
   const sampled = useNumeric<SampledAnswer>(interval !== undefined ? (c) => c.ask('sampled', model, interval) : null, [model, interval]);
@@ -64,7 +64,7 @@ function NumbersOf({ model }: { model: Model }) {
         <EquilibriumTable model={model} hold={hold} />
       </Section>
       <Section id="simulation" title="Simulation from the initial values">
-        <SimulationPanel model={model} hold={hold} interval={interval} studyLength={studyLength} slowest={slowest !== undefined && Number.isFinite(slowest) && slowest > 0 ? slowest : undefined} />
+        <SimulationPanel model={model} hold={hold} study={study} slowest={slowest !== undefined && Number.isFinite(slowest) && slowest > 0 ? slowest : undefined} />
       </Section>
       <Section id="timescales" title="How fast each state responds">
         {ts.status !== 'done' ? <p className="lf-num-wait">Working out the timescales…</p> : isFailed(ts.answer) ? <p className="lf-num-error">{ts.answer.reason}</p> : <TimescalesTable model={model} answer={ts.answer} />}
@@ -88,7 +88,7 @@ function NumbersOf({ model }: { model: Model }) {
         )}
       </Section>
       <Section id="curve" title="One link against the interval">
-        <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} current={interval} pair={pair} setPair={setPair} />
+        <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} study={study} pair={pair} setPair={setPair} />
       </Section>
       <Section id="advisor" title="Which interval to choose">
         <IntervalAdvisor model={model} states={states} />
@@ -99,7 +99,8 @@ function NumbersOf({ model }: { model: Model }) {
 
 type Pair = { from: VariableId | null; to: VariableId | null };
 
-function LinkPicker({ model, states, breakpoints, current, pair, setPair }: { model: Model; states: VariableId[]; breakpoints: number[]; current: number | undefined; pair: Pair; setPair: (p: Pair) => void }) {
+function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { model: Model; states: VariableId[]; breakpoints: number[]; study: StudyAt; pair: Pair; setPair: (p: Pair) => void }) {
+  const current = study.interval;
   const { from, to } = pair;
   const f = from && states.includes(from) ? from : states[0];
   const t = to && states.includes(to) && to !== f ? to : states.find((s) => s !== f);

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
+import { laggedNetwork, sameIntervalNetwork } from '../../export/charts';
 import type { SampledAnswer } from '../../worker/numericApi';
 import { NetworkDiagram } from './NetworkDiagram';
 
@@ -8,7 +9,9 @@ import { NetworkDiagram } from './NetworkDiagram';
 export function SampledNetworks({ model, answer, onPick }: { model: Model; answer: SampledAnswer; onPick?: (from: string, to: string) => void }) {
   const [standardized, setStandardized] = useState(false);
   const u = model.timeUnit;
-  const lagged = standardized && answer.phiStandardized ? answer.phiStandardized : answer.phi;
+  const std = standardized && answer.phiStandardized !== null;
+  const lagged = laggedNetwork(model, answer, std, { pickable: onPick !== undefined });
+  const same = sameIntervalNetwork(model, answer);
   return (
     <>
       <div className="lf-num-row" role="radiogroup" aria-label="Scale of the lagged effects">
@@ -16,10 +19,10 @@ export function SampledNetworks({ model, answer, onPick }: { model: Model; answe
         <label><input type="radio" checked={standardized} disabled={!answer.phiStandardized} onChange={() => setStandardized(true)} /> standardized (per standard deviation)</label>
       </div>
       <h4>Lagged effects: from one sample to the next ({formatDuration(answer.interval, u)} later)</h4>
-      <NetworkDiagram model={model} states={answer.states} matrix={lagged} directed onPick={onPick} title={`Lagged network at ${formatDuration(answer.interval, u)}`} />
+      {lagged && <NetworkDiagram model={model} figure={lagged} onPick={onPick} />}
       <h4>Same-interval links: partial correlations of what changes within one interval</h4>
-      {answer.innovationPartial ? (
-        <NetworkDiagram model={model} states={answer.states} matrix={answer.innovationPartial} directed={false} title={`Same-interval network at ${formatDuration(answer.interval, u)}`} />
+      {same ? (
+        <NetworkDiagram model={model} figure={same} />
       ) : (
         <p className="lf-num-note">Not defined here: some states receive no noise.</p>
       )}

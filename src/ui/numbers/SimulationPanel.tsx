@@ -3,8 +3,10 @@ import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { appNumericClient, type SimulationRun } from '../../worker/numericClient';
 import type { Failed, SimulationAnswer } from '../../worker/numericApi';
-import { sampleTimes, simulationCsv } from './chart';
-import { nameOf, unitOf } from './format';
+import type { StudyAt } from '../../export/caption';
+import { simulationChartInput } from '../../export/charts';
+import { nameOf } from '../../export/format';
+import { simulationCsv } from '../../report/simulationCsv';
 import { TimeChart } from './TimeChart';
 import { isFailed } from './useNumeric';
 import { downloadBlob } from '../download';
@@ -12,15 +14,15 @@ import { downloadBlob } from '../download';
 interface Props {
   model: Model;
   hold: Record<VariableId, number> | undefined;
-  interval: number | undefined;
-  /** The study length in model time (window, or samples × interval). */
-  studyLength: number | undefined;
+  /** The sampling interval and the study length (window or samples), for the samples drawn and the caption. */
+  study: StudyAt;
   /** The slowest finite timescale, for the default duration. */
   slowest: number | undefined;
 }
 
 /** Run the mechanism forward from its initial values and show the study's samples over it. */
-export function SimulationPanel({ model, hold, interval, studyLength, slowest }: Props) {
+export function SimulationPanel({ model, hold, study, slowest }: Props) {
+  const interval = study.interval;
   const unit = model.timeUnit;
   const fallback = slowest !== undefined && Number.isFinite(slowest) ? formatDuration(3 * slowest, unit) : formatDuration(100, unit);
   const [untilText, setUntilText] = useState<string | null>(null);
@@ -52,11 +54,8 @@ export function SimulationPanel({ model, hold, interval, studyLength, slowest }:
   };
 
   const done = answer && !isFailed(answer) && answer.times.length > 0 ? answer : null;
-  const samples = useMemo(() => {
-    if (!done || interval === undefined) return [];
-    const until = done.times[done.times.length - 1];
-    return sampleTimes(interval, until, studyLength ?? Infinity);
-  }, [done, interval, studyLength]);
+  const chart = useMemo(() => (done ? simulationChartInput(model, done, shown, study) : null), [model, done, shown, study]);
+  const samples = chart?.samples ?? [];
 
   return (
     <div className="lf-num-sim">
@@ -98,14 +97,9 @@ export function SimulationPanel({ model, hold, interval, studyLength, slowest }:
       {answer && !isFailed(answer) && answer.cancelled && <p className="lf-num-note" role="status">The simulation was stopped{answer.times.length > 0 ? '; the part computed so far is shown' : ''}.</p>}
       {answer && !isFailed(answer) &&
         answer.diagnostics.filter((d) => d.level === 'error').map((d, i) => <p key={i} className="lf-num-error">{d.message}</p>)}
-      {done && shown.length > 0 && (
+      {done && chart && shown.length > 0 && (
         <>
-          <TimeChart
-            times={done.times}
-            series={shown.map((id) => ({ id, name: nameOf(model, id), unit: unitOf(model, id), values: done.series[id] ?? [] }))}
-            samples={samples}
-            timeUnit={unit}
-          />
+          <TimeChart {...chart} />
           <p className="lf-num-note">
             {interval === undefined
               ? 'Set a sampling interval to see the samples a study would take.'

@@ -2,7 +2,7 @@ import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { editDocument } from '../../state/document';
 import type { TimescalesAnswer } from '../../worker/numericApi';
-import { nameOf, numText } from './format';
+import { nameOf, numText } from '../../export/format';
 
 /** Eigenvalues of the linearized mechanism and each state's timescale, given and derived. */
 export function TimescalesTable({ model, answer }: { model: Model; answer: TimescalesAnswer }) {

@@ -10,6 +10,10 @@ import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer
 import { SampledNetworks } from '../../../src/ui/numbers/SampledNetworks';
 import { TimescalesTable } from '../../../src/ui/numbers/TimescalesTable';
 import { TimeChart } from '../../../src/ui/numbers/TimeChart';
+import { LinkCurveChart } from '../../../src/ui/numbers/LinkCurveChart';
+import { laggedNetwork, linkCurveChart, timeSeriesChart } from '../../../src/export/charts';
+import type { El } from '../../../src/export/scene';
+import { curveOf, type CurveAnswer } from '../../../src/worker/numericApi';
 
 (globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
@@ -29,6 +33,24 @@ const swing = load({
   ],
   links: [],
 });
+
+/**
+ * The element on screen is the exporter's element: same tag, every attribute of the file with the same
+ * value, the same children in order; `extra` names what the screen adds (interaction, CSS hooks).
+ */
+function expectSamePicture(dom: Element, e: El, extra: (name: string, dom: Element) => boolean): void {
+  expect(dom.tagName.toLowerCase()).toBe(e.tag.toLowerCase());
+  for (const [k, v] of Object.entries(e.attrs)) {
+    if (v === undefined) continue;
+    if (k === 'class') expect(dom.getAttribute('class')?.split(' ')).toEqual(expect.arrayContaining(String(v).split(' ')));
+    else expect(dom.getAttribute(k), `${e.tag} ${k}`).toBe(String(v));
+  }
+  for (const a of [...dom.attributes]) if (!(a.name in e.attrs) && e.attrs[a.name] === undefined) expect(extra(a.name, dom), `${e.tag} has ${a.name} on screen only`).toBe(true);
+  const kids = (e.children ?? []).filter((c): c is El => typeof c !== 'string');
+  expect(dom.children.length).toBe(kids.length);
+  kids.forEach((k, i) => expectSamePicture(dom.children[i], k, extra));
+  if (kids.length === 0) expect(dom.textContent).toBe((e.children ?? []).join(''));
+}
 
 let root: Root | null = null;
 let host: HTMLElement | null = null;
@@ -93,5 +115,22 @@ describe('Numbers pane parts', () => {
     expect(lines[0].getAttribute('stroke-dasharray')).not.toBe(lines[1].getAttribute('stroke-dasharray'));
     expect(el.querySelectorAll('circle.lf-chart-sample')).toHaveLength(6);
     expect(el.textContent).toContain('time since the start (day)');
+  });
+
+  it('the pane shows the exporter\'s picture: the time chart, the curve and the lagged network are the file\'s elements', () => {
+    const times = Array.from({ length: 11 }, (_, k) => k);
+    const input = { times, timeUnit: 'day', samples: [0, 5, 10], series: [{ id: 'a', name: 'A <x>', values: times.map((t) => t * t) }] };
+    const cssHook = (n: string) => n === 'class';
+    expectSamePicture(mount(<TimeChart {...input} />).querySelector('svg')!, timeSeriesChart(input), cssHook);
+    act(() => root?.unmount());
+    const curve = (curveOf(swing, 'stock', 'orders') as CurveAnswer).curve;
+    const c = { model: swing, curve, breakpoints: [2], current: 1 };
+    expectSamePicture(mount(<LinkCurveChart {...c} />).querySelector('svg')!, linkCurveChart(c), cssHook);
+    act(() => root?.unmount());
+    const a = sampledOf(swing, 1) as SampledAnswer;
+    const el = mount(<SampledNetworks model={swing} answer={a} onPick={() => {}} />);
+    // the clickable links: a button role, focus and a name (the screen's additions)
+    expectSamePicture(el.querySelector('svg.lf-num-network')!, laggedNetwork(swing, a, false, { pickable: true })!, (n, d) => n === 'class' || (d.hasAttribute('data-edge') && ['role', 'tabindex', 'aria-label'].includes(n)));
+    expect(el.querySelector('[data-edge="orders>stock"]')?.getAttribute('aria-label')).toBe('Show orders → stock against the interval');
   });
 });

@@ -1,5 +1,5 @@
-/** Number and name formatting shared by the Numbers pane. */
-import type { Model, VariableId } from '../../core/model/types';
+/** Number and name formatting shared by the Numbers pane and its figures. */
+import type { Model, VariableId } from '../core/model/types';
 
 /** Six significant digits, no floating-point noise; exponent form for very large or small values. */
 export function numText(x: number): string {

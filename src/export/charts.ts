@@ -1,0 +1,324 @@
+/**
+ * The one drawing of the Numbers pane's charts and networks: time series of a
+ * simulated run, the lagged and same-interval networks of the sampled model,
+ * and one lagged link against the sampling interval. Each builder returns a
+ * root `<svg>` element tree (the `El` of `scene.ts`) with every presentation
+ * attribute inline, so `svgDocument` writes a self-contained file and the app
+ * turns the same tree into React elements: the screen and the exported figure
+ * are one picture. No DOM, no React.
+ */
+import type { Model, VariableId } from '../core/model/types';
+import { formatDuration } from '../core/model/units';
+import type { LinkCurve } from '../core/numeric/index';
+import { sampleTimes, valueAt } from '../core/numeric/samples';
+import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
+import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
+import { studyLength, type StudyAt } from './caption';
+import { nameOf, numText, unitOf, weightText } from './format';
+import { wrapText, type Attr, type El } from './scene';
+
+export interface FigureOptions {
+  /** Draw the figure's name as a heading line above it (files; the pane has headings of its own). */
+  heading?: boolean;
+  /** A caption under the figure, worded by the caller (the interval and the study length). */
+  caption?: string;
+}
+
+const PAD = 10;
+const r1 = (x: number) => Math.round(x * 10) / 10;
+const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
+const text = (attrs: Record<string, Attr>, s: string): El => el('text', attrs, [s]);
+const tick = (x: number, y: number, s: string, anchor: 'start' | 'middle' | 'end'): El =>
+  text({ x: r1(x), y: r1(y), 'text-anchor': anchor === 'start' ? undefined : anchor, 'font-size': 10, fill: C.text }, s);
+const hline = (x1: number, x2: number, y: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x1), x2: r1(x2), y1: r1(y), y2: r1(y), ...attrs });
+const vline = (x: number, y1: number, y2: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x), x2: r1(x), y1: r1(y1), y2: r1(y2), ...attrs });
+
+/** The root: white ground, optional heading and caption around the drawing of `width` × `height`. */
+function figure(kind: string, label: string, width: number, height: number, body: El[], opts: FigureOptions, defs?: El): El {
+  const head = opts.heading ? wrapText(label, width - 2 * PAD, 6.8) : [];
+  const top = head.length ? 10 + head.length * 16 : 0;
+  const cap = opts.caption ? wrapText(opts.caption, width - 2 * PAD, 5.9) : [];
+  const total = Math.ceil(top + height + (cap.length ? 6 + cap.length * 14 : 0));
+  const w = Math.ceil(width);
+  const children: El[] = [];
+  if (defs) children.push(defs);
+  children.push(el('rect', { x: 0, y: 0, width: w, height: total, fill: C.paper }));
+  if (head.length) children.push(el('text', { x: PAD, y: 18, 'font-size': 12, 'font-weight': 700, fill: C.text, 'data-part': 'title' }, head.map((t, i) => el('tspan', { x: PAD, dy: i ? 16 : 0 }, [t]))));
+  children.push(el('g', top ? { transform: `translate(0,${top})`, 'data-part': 'figure' } : { 'data-part': 'figure' }, body));
+  if (cap.length) children.push(el('g', { 'data-part': 'caption' }, cap.map((t, i) => text({ x: PAD, y: r1(top + height + 14 + i * 14), 'font-size': 10.5, fill: C.text }, t))));
+  return el('svg', { xmlns: 'http://www.w3.org/2000/svg', width: w, height: total, viewBox: `0 0 ${w} ${total}`, 'font-family': FONT_STACK, role: 'img', 'aria-label': label, 'data-chart': kind }, children);
+}
+
+// ——— time series ———
+
+export interface ChartSeries {
+  id: VariableId;
+  name: string;
+  unit?: string;
+  values: readonly number[];
+}
+
+export interface TimeChartInput {
+  times: readonly number[];
+  series: readonly ChartSeries[];
+  /** The times a study would take its samples, drawn as open circles (null: too many to draw). */
+  samples: readonly number[] | null;
+  timeUnit: string;
+}
+
+const TW = 360, PH = 92, TL = 50, TR = 10, GAP = 22, AXIS = 34, KEY = 16;
+
+export function timeChartLabel(series: readonly { name: string }[]): string {
+  return `Simulated ${series.map((s) => s.name).join(', ')} over time`;
+}
+
+/**
+ * Time series, one panel per variable with its own value axis (values of
+ * different size stay readable), a shared time axis, one dash pattern per
+ * series (tells them apart in grayscale too), and the samples a study would
+ * take drawn as open circles.
+ */
+export function timeSeriesChart(input: TimeChartInput, opts: FigureOptions = {}): El {
+  const { times, series, samples, timeUnit } = input;
+  const t1 = times[times.length - 1] ?? 1;
+  const x = linear(0, t1, TL, TW - TR);
+  const xt = niceTicks(0, t1, 5);
+  // Draw at most about 1500 points per line: more cannot be told apart at this size.
+  const stride = Math.max(1, Math.ceil(times.length / 1500));
+  const drawn = times.map((_, k) => k).filter((k) => k % stride === 0 || k === times.length - 1);
+  const top = (i: number) => 4 + i * (PH + GAP) + 14;
+  const shownSamples = samples && samples.length > 0 ? samples : null;
+  const axisEnd = top(Math.max(1, series.length) - 1) + PH + AXIS;
+  const height = axisEnd + (shownSamples ? KEY : 0);
+  const body: El[] = [];
+  series.forEach((s, i) => {
+    const y0p = top(i), y1p = y0p + PH;
+    const [lo, hi] = extent(s.values);
+    const y = linear(lo, hi, y1p, y0p);
+    const dash = SERIES_DASHES[i % SERIES_DASHES.length] || undefined;
+    const kids: El[] = [
+      hline(TL, TL + 24, y0p - 8, { stroke: C.line, 'stroke-width': 1.5, 'stroke-dasharray': dash }),
+      text({ x: TL + 30, y: y0p - 4, 'font-size': 10.5, 'font-weight': 600, fill: C.text }, `${s.name}${s.unit ? ` (${s.unit})` : ''}`),
+      el('rect', { x: TL, y: y0p, width: TW - TL - TR, height: PH, fill: C.paper, stroke: C.frame }),
+    ];
+    for (const v of niceTicks(lo, hi, 5).filter((v) => v >= lo && v <= hi)) {
+      kids.push(hline(TL - 4, TL, y(v), { stroke: C.axis }), hline(TL, TW - TR, y(v), { stroke: C.grid }), tick(TL - 6, y(v) + 3.5, tickText(v), 'end'));
+    }
+    for (const v of xt) kids.push(vline(x(v), y1p, y1p + 3, { stroke: C.axis }));
+    const points = drawn.filter((k) => Number.isFinite(s.values[k])).map((k) => `${r1(x(times[k]))},${r1(y(s.values[k]))}`).join(' ');
+    kids.push(el('polyline', { 'data-series': s.id, points, fill: 'none', stroke: C.line, 'stroke-width': 1.5, 'stroke-dasharray': dash, 'stroke-linejoin': 'round' }));
+    for (const t of shownSamples ?? []) {
+      const v = valueAt(times, s.values, t);
+      if (Number.isFinite(v)) kids.push(el('circle', { class: 'lf-chart-sample', cx: r1(x(t)), cy: r1(y(v)), r: 2.4, fill: C.paper, stroke: C.accent, 'stroke-width': 1.3 }));
+    }
+    body.push(el('g', { 'data-panel': s.id }, kids));
+  });
+  for (const v of xt) body.push(tick(x(v), axisEnd - AXIS + 14, tickText(v), 'middle'));
+  body.push(text({ x: (TL + TW - TR) / 2, y: axisEnd - 6, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.label }, `time since the start (${timeUnit})`));
+  if (shownSamples) {
+    body.push(el('g', { 'data-part': 'legend' }, [
+      el('circle', { cx: TL + 4, cy: axisEnd + 6, r: 2.4, fill: C.paper, stroke: C.accent, 'stroke-width': 1.3 }),
+      text({ x: TL + 12, y: axisEnd + 9.5, 'font-size': 10, fill: C.text }, 'the samples a study would take'),
+    ]));
+  }
+  return figure('time-series', timeChartLabel(series), TW, height, body, opts);
+}
+
+/** The run of a model drawn for the variables in `plot`, with the samples of the study at `study.interval`. */
+export function simulationChart(model: Model, run: { times: readonly number[]; series: Record<VariableId, readonly number[]> }, plot: readonly VariableId[], study: StudyAt, opts: FigureOptions = {}): El {
+  return timeSeriesChart(simulationChartInput(model, run, plot, study), opts);
+}
+
+export function simulationChartInput(model: Model, run: { times: readonly number[]; series: Record<VariableId, readonly number[]> }, plot: readonly VariableId[], study: StudyAt): TimeChartInput {
+  const series = plot.map((id) => ({ id, name: nameOf(model, id), unit: unitOf(model, id), values: run.series[id] ?? [] }));
+  const end = run.times[run.times.length - 1] ?? 0;
+  const samples = study.interval === undefined ? [] : sampleTimes(study.interval, end, studyLength(model, study) ?? Infinity);
+  return { times: run.times, series, samples, timeUnit: model.timeUnit };
+}
+
+// ——— networks ———
+
+/** Lay n nodes on a circle in a w×h box, the first at the top, clockwise. */
+export function circleLayout(n: number, w: number, h: number, margin: number): { x: number; y: number }[] {
+  const r = Math.max(10, Math.min(w, h) / 2 - margin);
+  if (n === 1) return [{ x: w / 2, y: h / 2 }];
+  return Array.from({ length: n }, (_, i) => {
+    const a = -Math.PI / 2 + (2 * Math.PI * i) / n;
+    return { x: w / 2 + r * Math.cos(a), y: h / 2 + r * Math.sin(a) };
+  });
+}
+
+/** Edge weights of a network shown as lines: |w| at least `share` of the largest off-diagonal |w|. */
+export function strongEdges(m: readonly (readonly number[])[], share = 0.02, symmetric = false): { from: number; to: number; weight: number }[] {
+  const n = m.length;
+  let max = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (i !== j) max = Math.max(max, Math.abs(m[i][j]));
+  const out: { from: number; to: number; weight: number }[] = [];
+  if (max === 0) return out;
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) {
+      if (i === j || (symmetric && j < i)) continue;
+      // Row i, column j: the effect of j on i.
+      if (Math.abs(m[i][j]) >= share * max) out.push({ from: j, to: i, weight: m[i][j] });
+    }
+  return out;
+}
+
+export interface NetworkInput {
+  model: Model;
+  states: readonly VariableId[];
+  /** Row i, column j: the effect of state j on state i. */
+  matrix: readonly (readonly number[])[];
+  directed: boolean;
+  label: string;
+  /** Give each link a wide invisible hit path (the pane makes links clickable). */
+  pickable?: boolean;
+}
+
+const NW = 410, NH = 250, BW = 108, BH = 22;
+
+function shorten(s: string): string {
+  return s.length > 17 ? `${s.slice(0, 16)}…` : s;
+}
+
+/**
+ * A node-link drawing of a network: line width ∝ |weight|, solid for
+ * positive and dashed for negative weights, each labelled with its value.
+ * Directed networks get arrowheads and show the self-effect beside the node.
+ */
+export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): El {
+  const { model, states, matrix, directed, label } = input;
+  const pos = circleLayout(states.length, NW, NH, 36);
+  const edges = strongEdges(matrix, 0.02, !directed);
+  const max = Math.max(1e-300, ...edges.map((e) => Math.abs(e.weight)));
+  const marker = `lf-arrow-${directed ? 'd' : 'u'}-${label.replace(/\W+/g, '')}`;
+  const body: El[] = [];
+  for (const e of edges) {
+    const a = pos[e.from], b = pos[e.to];
+    // Two opposite links between the same pair bend apart.
+    const both = directed && edges.some((f) => f.from === e.to && f.to === e.from);
+    const dx = b.x - a.x, dy = b.y - a.y, len = Math.hypot(dx, dy) || 1;
+    const ux = dx / len, uy = dy / len;
+    // Start and end where the line leaves the node's box (plus a small gap).
+    const cut = Math.min(Math.abs(ux) > 1e-9 ? BW / 2 / Math.abs(ux) : Infinity, Math.abs(uy) > 1e-9 ? BH / 2 / Math.abs(uy) : Infinity) + 3;
+    const sx = a.x + ux * cut, sy = a.y + uy * cut, ex = b.x - ux * cut, ey = b.y - uy * cut;
+    const bend = both ? 14 : 0;
+    const mx = (sx + ex) / 2 - uy * bend, my = (sy + ey) / 2 + ux * bend;
+    // The weight sits 40% of the way from the source, so labels of crossing lines do not meet in the middle.
+    const lx = 0.36 * sx + 0.48 * mx + 0.16 * ex, ly = 0.36 * sy + 0.48 * my + 0.16 * ey;
+    const d = `M${r1(sx)},${r1(sy)} Q${r1(mx)},${r1(my)} ${r1(ex)},${r1(ey)}`;
+    const from = states[e.from], to = states[e.to];
+    const kids: El[] = [el('title', {}, [`${nameOf(model, from)} ${directed ? '→' : '—'} ${nameOf(model, to)}: ${weightText(e.weight)}`])];
+    if (input.pickable) kids.push(el('path', { d, class: 'lf-net-hit', fill: 'none', stroke: C.paper, 'stroke-opacity': 0, 'stroke-width': 12 }));
+    kids.push(
+      el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': r1(0.8 + 4 * (Math.abs(e.weight) / max)), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
+      text({ class: 'lf-net-weight', x: r1(lx), y: r1(ly + 3), 'text-anchor': 'middle', 'font-size': 9.5, fill: C.text, stroke: C.paper, 'stroke-width': 3, 'paint-order': 'stroke' }, weightText(e.weight)),
+    );
+    body.push(el('g', { 'data-edge': `${from}>${to}`, 'data-sign': e.weight < 0 ? 'negative' : 'positive' }, kids));
+  }
+  states.forEach((s, i) => {
+    const p = pos[i];
+    const name = nameOf(model, s);
+    const kids: El[] = [
+      el('title', {}, [name]),
+      el('rect', { x: -BW / 2, y: -BH / 2, width: BW, height: BH, rx: 4, fill: C.paper, stroke: C.line }),
+      text({ y: 4, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.text }, shorten(name)),
+    ];
+    // The self-effect beside the node, on the side away from the middle (where the links run).
+    if (directed) {
+      const right = p.x >= NW / 2 - 1;
+      kids.push(text({ x: right ? BW / 2 + 4 : -BW / 2 - 4, y: 4, 'text-anchor': right ? 'start' : 'end', 'font-size': 9.5, fill: C.label }, `self ${weightText(matrix[i][i])}`));
+    }
+    body.push(el('g', { 'data-variable': s, transform: `translate(${r1(p.x)},${r1(p.y)})` }, kids));
+  });
+  const defs = directed
+    ? el('defs', {}, [el('marker', { id: marker, viewBox: '0 0 10 10', refX: 9, refY: 5, markerWidth: 9, markerHeight: 9, markerUnits: 'userSpaceOnUse', orient: 'auto-start-reverse' }, [el('path', { d: 'M0,0 L10,5 L0,10 z', fill: C.line })])])
+    : undefined;
+  return figure(directed ? 'lagged-network' : 'same-interval-network', label, NW, NH, body, opts, defs);
+}
+
+/** The networks of the sampled model at an interval, as the numeric questions return them. */
+export interface SampledNetworksData {
+  states: VariableId[];
+  interval: number;
+  phi: number[][];
+  phiStandardized: number[][] | null;
+  innovationPartial: number[][] | null;
+}
+
+/** The lagged network: Φ(Δ), raw or standardized (null when standardized is asked for but undefined). */
+export function laggedNetwork(model: Model, s: SampledNetworksData, standardized: boolean, opts: FigureOptions & { pickable?: boolean } = {}): El | null {
+  const matrix = standardized ? s.phiStandardized : s.phi;
+  if (!matrix) return null;
+  const label = `Lagged network at ${formatDuration(s.interval, model.timeUnit)}${standardized ? ', standardized' : ''}`;
+  return networkDiagram({ model, states: s.states, matrix, directed: true, label, pickable: opts.pickable }, opts);
+}
+
+/** The same-interval network: partial correlations of the innovations (null when some state receives no noise). */
+export function sameIntervalNetwork(model: Model, s: SampledNetworksData, opts: FigureOptions = {}): El | null {
+  if (!s.innovationPartial) return null;
+  return networkDiagram({ model, states: s.states, matrix: s.innovationPartial, directed: false, label: `Same-interval network at ${formatDuration(s.interval, model.timeUnit)}` }, opts);
+}
+
+// ——— one link against the interval ———
+
+export interface LinkCurveInput {
+  model: Model;
+  curve: LinkCurve;
+  /** Intervals where the causal ordering changes. */
+  breakpoints: readonly number[];
+  /** The current sampling interval. */
+  current: number | undefined;
+}
+
+const CW = 360, CH = 230, CL = 52, CR = 10, CT = 14, CB = 40;
+
+export function linkCurveLabel(model: Model, curve: { from: VariableId; to: VariableId }): string {
+  return `Lagged effect of ${nameOf(model, curve.from)} on ${nameOf(model, curve.to)} against the sampling interval`;
+}
+
+/**
+ * The lagged effect of one state on another against the sampling interval
+ * (log axis), with its peak, the ordering's breakpoints (dashed) and the
+ * current Δ (a heavy solid line) marked.
+ */
+export function linkCurveChart(input: LinkCurveInput, opts: FigureOptions = {}): El {
+  const { model, curve, breakpoints, current } = input;
+  const d0 = curve.intervals[0], d1 = curve.intervals[curve.intervals.length - 1];
+  const x = logScale(d0, d1, CL, CW - CR);
+  const [y0, y1] = extent([...curve.effect, 0]);
+  const y = linear(y0, y1, CH - CB, CT);
+  const u = model.timeUnit;
+  const peak = curve.peaks.length > 0 ? curve.peaks.reduce((a, b) => (Math.abs(b.effect) > Math.abs(a.effect) ? b : a)) : null;
+  const inside = (d: number) => d >= d0 && d <= d1;
+  const breakpointLine = { stroke: C.breakpoint, 'stroke-width': 1, 'stroke-dasharray': C.breakpointDash };
+  const currentLine = { stroke: C.accent, 'stroke-width': 2 };
+  const diamond = (cx: number, cy: number) => `M${r1(cx)},${r1(cy - 6)} l5,6 l-5,6 l-5,-6 z`;
+  const peakFill = { fill: C.accent, stroke: C.paper, 'stroke-width': 0.8 };
+  const body: El[] = [el('rect', { x: CL, y: CT, width: CW - CL - CR, height: CH - CT - CB, fill: C.paper, stroke: C.frame })];
+  for (const v of logTicks(d0, d1)) body.push(el('g', {}, [vline(x(v), CH - CB, CH - CB + 4, { stroke: C.axis }), tick(x(v), CH - CB + 15, tickText(v), 'middle')]));
+  for (const v of niceTicks(y0, y1, 5)) {
+    body.push(el('g', {}, [
+      hline(CL - 4, CL, y(v), { stroke: C.axis }),
+      hline(CL, CW - CR, y(v), v === 0 ? { stroke: C.label, 'stroke-width': 0.8 } : { stroke: C.grid }),
+      tick(CL - 6, y(v) + 4, tickText(v), 'end'),
+    ]));
+  }
+  body.push(text({ x: (CL + CW - CR) / 2, y: CH - 8, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.label }, `sampling interval Δ (${u}, log scale)`));
+  const mid = (CT + CH - CB) / 2;
+  body.push(text({ x: 12, y: mid, 'text-anchor': 'middle', transform: `rotate(-90 12 ${mid})`, 'font-size': 10.5, fill: C.label }, 'effect one interval later'));
+  for (const b of breakpoints.filter(inside)) body.push(vline(x(b), CT, CH - CB, { 'data-breakpoint': b, ...breakpointLine }));
+  if (current !== undefined && inside(current)) body.push(el('g', { 'data-current': current }, [vline(x(current), CT, CH - CB, currentLine)]));
+  const points = curve.intervals.map((d, k) => [d, curve.effect[k]] as const).filter(([, e]) => Number.isFinite(e)).map(([d, e]) => `${r1(x(d))},${r1(y(e))}`).join(' ');
+  body.push(el('polyline', { points, fill: 'none', stroke: C.line, 'stroke-width': 1.5, 'stroke-linejoin': 'round' }));
+  if (peak) body.push(el('g', { 'data-peak': peak.interval }, [el('path', { d: diamond(x(peak.interval), y(peak.effect)), ...peakFill })]));
+  const legend: El[] = [
+    hline(0, 16, 6, breakpointLine),
+    tick(20, 10, 'the causal ordering changes', 'start'),
+    hline(170, 186, 6, currentLine),
+    tick(190, 10, 'current Δ', 'start'),
+  ];
+  if (peak) legend.push(el('path', { d: diamond(8, 22), ...peakFill }), tick(20, 26, `strongest: ${numText(Number(peak.effect.toPrecision(3)))} at Δ = ${formatDuration(peak.interval, u)}`, 'start'));
+  body.push(el('g', { transform: `translate(${CL},${CH + 6})`, 'data-part': 'legend' }, legend));
+  return figure('link-curve', linkCurveLabel(model, curve), CW, CH + 42, body, opts);
+}
