@@ -16,8 +16,12 @@ import { LinkCurveChart } from './LinkCurveChart';
 import { SampledNetworks } from './SampledNetworks';
 import { SimulationPanel } from './SimulationPanel';
 import { TimescalesTable } from './TimescalesTable';
-import type { StudyAt } from '../../export/caption';
+import { studyCaption, type StudyAt } from '../../export/caption';
 import { nameOf } from '../../export/format';
+import { fileStem } from '../figureFiles';
+import { linkCurveChart } from '../../export/charts';
+import { svgDocument } from '../../export/svg';
+import { ExportButtons } from './ExportButtons';
 import { isFailed, useNumeric } from './useNumeric';
 import './numbers.css';
 
@@ -80,6 +84,7 @@ function NumbersOf({ model }: { model: Model }) {
           <SampledNetworks
             model={model}
             answer={sampled.answer}
+            caption={studyCaption(model, study)}
             onPick={(from, to) => {
               setPair({ from, to });
               document.getElementById('lf-num-curve')?.scrollIntoView({ block: 'start' });
@@ -129,6 +134,11 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
       ) : (
         <>
           <LinkCurveChart model={model} curve={curve.answer.curve} breakpoints={breakpoints} current={current} />
+          <ExportButtons
+            what="the link chart"
+            name={`${fileStem(model.name)}-${f}-to-${t}`}
+            svg={() => svgDocument(linkCurveChart({ model, curve: (curve.answer as CurveAnswer).curve, breakpoints, current }, { heading: true, caption: studyCaption(model, study) }))}
+          />
           <p className="lf-num-note">
             How strongly {nameOf(model, f!)} now moves {nameOf(model, t!)} one sampling interval later, for every interval. Too short an interval leaves no time for the effect; too long lets it fade.
           </p>

@@ -2,16 +2,21 @@ import { useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { laggedNetwork, sameIntervalNetwork } from '../../export/charts';
+import { svgDocument } from '../../export/svg';
 import type { SampledAnswer } from '../../worker/numericApi';
+import { fileStem } from '../figureFiles';
+import { ExportButtons } from './ExportButtons';
 import { NetworkDiagram } from './NetworkDiagram';
 
 /** The lagged and same-interval networks a study sampling every Δ would estimate (in expectation). */
-export function SampledNetworks({ model, answer, onPick }: { model: Model; answer: SampledAnswer; onPick?: (from: string, to: string) => void }) {
+export function SampledNetworks({ model, answer, onPick, caption }: { model: Model; answer: SampledAnswer; onPick?: (from: string, to: string) => void; caption?: string }) {
   const [standardized, setStandardized] = useState(false);
   const u = model.timeUnit;
   const std = standardized && answer.phiStandardized !== null;
   const lagged = laggedNetwork(model, answer, std, { pickable: onPick !== undefined });
   const same = sameIntervalNetwork(model, answer);
+  const file = { heading: true, caption };
+  const stem = fileStem(model.name);
   return (
     <>
       <div className="lf-num-row" role="radiogroup" aria-label="Scale of the lagged effects">
@@ -19,10 +24,18 @@ export function SampledNetworks({ model, answer, onPick }: { model: Model; answe
         <label><input type="radio" checked={standardized} disabled={!answer.phiStandardized} onChange={() => setStandardized(true)} /> standardized (per standard deviation)</label>
       </div>
       <h4>Lagged effects: from one sample to the next ({formatDuration(answer.interval, u)} later)</h4>
-      {lagged && <NetworkDiagram model={model} figure={lagged} onPick={onPick} />}
+      {lagged && (
+        <>
+          <NetworkDiagram model={model} figure={lagged} onPick={onPick} />
+          <ExportButtons what="the lagged network" name={`${stem}-lagged-network${std ? '-standardized' : ''}`} svg={() => svgDocument(laggedNetwork(model, answer, std, file)!)} />
+        </>
+      )}
       <h4>Same-interval links: partial correlations of what changes within one interval</h4>
       {same ? (
-        <NetworkDiagram model={model} figure={same} />
+        <>
+          <NetworkDiagram model={model} figure={same} />
+          <ExportButtons what="the same-interval network" name={`${stem}-same-interval-network`} svg={() => svgDocument(sameIntervalNetwork(model, answer, file)!)} />
+        </>
       ) : (
         <p className="lf-num-note">Not defined here: some states receive no noise.</p>
       )}

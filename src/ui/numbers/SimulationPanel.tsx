@@ -3,13 +3,16 @@ import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { appNumericClient, type SimulationRun } from '../../worker/numericClient';
 import type { Failed, SimulationAnswer } from '../../worker/numericApi';
-import type { StudyAt } from '../../export/caption';
-import { simulationChartInput } from '../../export/charts';
+import { studyCaption, type StudyAt } from '../../export/caption';
+import { simulationChart, simulationChartInput } from '../../export/charts';
 import { nameOf } from '../../export/format';
+import { svgDocument } from '../../export/svg';
 import { simulationCsv } from '../../report/simulationCsv';
+import { ExportButtons } from './ExportButtons';
 import { TimeChart } from './TimeChart';
 import { isFailed } from './useNumeric';
 import { downloadBlob } from '../download';
+import { fileStem } from '../figureFiles';
 
 interface Props {
   model: Model;
@@ -100,6 +103,11 @@ export function SimulationPanel({ model, hold, study, slowest }: Props) {
       {done && chart && shown.length > 0 && (
         <>
           <TimeChart {...chart} />
+          <ExportButtons
+            what="the simulation chart"
+            name={`${fileStem(model.name)}-simulation`}
+            svg={() => svgDocument(simulationChart(model, done, shown, study, { heading: true, caption: studyCaption(model, study) }))}
+          />
           <p className="lf-num-note">
             {interval === undefined
               ? 'Set a sampling interval to see the samples a study would take.'

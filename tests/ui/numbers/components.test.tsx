@@ -13,7 +13,9 @@ import { TimeChart } from '../../../src/ui/numbers/TimeChart';
 import { LinkCurveChart } from '../../../src/ui/numbers/LinkCurveChart';
 import { laggedNetwork, linkCurveChart, timeSeriesChart } from '../../../src/export/charts';
 import type { El } from '../../../src/export/scene';
+import { svgDocument } from '../../../src/export/svg';
 import { curveOf, type CurveAnswer } from '../../../src/worker/numericApi';
+import { vi } from 'vitest';
 
 (globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
@@ -132,5 +134,24 @@ describe('Numbers pane parts', () => {
     // the clickable links: a button role, focus and a name (the screen's additions)
     expectSamePicture(el.querySelector('svg.lf-num-network')!, laggedNetwork(swing, a, false, { pickable: true })!, (n, d) => n === 'class' || (d.hasAttribute('data-edge') && ['role', 'tabindex', 'aria-label'].includes(n)));
     expect(el.querySelector('[data-edge="orders>stock"]')?.getAttribute('aria-label')).toBe('Show orders → stock against the interval');
+  });
+
+  it('"Export … as SVG" saves the drawing with its heading and caption', async () => {
+    const a = sampledOf(swing, 1) as SampledAnswer;
+    const saved: Blob[] = [];
+    const create = vi.spyOn(URL, 'createObjectURL').mockImplementation((b) => { saved.push(b as Blob); return 'blob:test'; });
+    const revoke = vi.spyOn(URL, 'revokeObjectURL').mockImplementation(() => {});
+    try {
+      const el = mount(<SampledNetworks model={swing} answer={a} caption="every day & night" />);
+      const button = el.querySelector<HTMLButtonElement>('button[aria-label="Export the lagged network as SVG"]');
+      expect(button).not.toBeNull();
+      act(() => button!.click());
+      expect(saved).toHaveLength(1);
+      expect(await saved[0].text()).toBe(svgDocument(laggedNetwork(swing, a, false, { heading: true, caption: 'every day & night' })!));
+      expect(el.querySelector('button[aria-label="Export the same-interval network as PNG at 2×"]')).not.toBeNull();
+    } finally {
+      create.mockRestore();
+      revoke.mockRestore();
+    }
   });
 });
