@@ -2,8 +2,12 @@ import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { sampledAt, simulate, solveEquilibrium, timescalesAt, toRows, type Mat } from '../../core/numeric/index';
 import type { Diagnostic } from '../../core/ordering/types';
+import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../export/charts';
+import { sampledOf } from '../../worker/numericApi';
+import { figureOptions, figureOptionsOf, svgTarget, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
-import { CliError, type CliCommand } from './types';
+import { designFromArgs } from './ordering';
+import { CliError, type CliArgs, type CliCommand } from './types';
 
 function num(x: number): string {
   if (!Number.isFinite(x)) return String(x);
@@ -31,6 +35,33 @@ function label(model: Model, id: string): string {
   return model.variables.find((v) => v.id === id)?.label ?? id;
 }
 
+/** `--plot stress,mood`: the variables of the chart (default: the first three states, as the app shows). */
+function plotOption(args: CliArgs, model: Model): string[] {
+  const v = args.options.plot;
+  if (v === undefined) {
+    const states = model.variables.filter((x) => x.kind === 'state').map((x) => x.id).slice(0, 3);
+    if (states.length === 0) throw new CliError('the model has no states: choose the variables to draw with --plot x,y', 2);
+    return states;
+  }
+  if (v === true || v.trim() === '') throw new CliError('--plot needs variables, e.g. --plot stress,mood', 2);
+  const ids = v.split(',').map((p) => p.trim());
+  for (const id of ids) {
+    const found = model.variables.find((x) => x.id === id);
+    if (!found) throw new CliError(`--plot: the model has no variable "${id}" (variables: ${model.variables.map((x) => x.id).join(', ')})`, 2);
+    if (found.kind === 'input') throw new CliError(`--plot: ${id} is an input (set from outside, not simulated); plot states or derived variables`, 2);
+  }
+  if (new Set(ids).size !== ids.length) throw new CliError('--plot names a variable twice', 2);
+  return ids;
+}
+
+/** `--network lagged|same`: which network of the sampled model --svg draws (default lagged). */
+function networkOption(args: CliArgs): 'lagged' | 'same' {
+  const v = args.options.network ?? 'lagged';
+  if (v !== 'lagged' && v !== 'same') throw new CliError(`--network must be lagged or same (the same-interval network), not "${v === true ? '' : v}"`, 2);
+  if (v === 'same' && args.options.standardized) throw new CliError('--standardized applies to the lagged network only', 2);
+  return v;
+}
+
 export const numericCommands: CliCommand[] = [
   {
     name: 'equilibrium',
@@ -52,17 +83,28 @@ export const numericCommands: CliCommand[] = [
   },
   {
     name: 'simulate',
-    summary: 'simulate the mechanism from the initial values with a stiff integrator',
-    usage: 'MODEL.json --until T [--every D] [--json | --csv]',
-    options: { until: true, every: true, json: false, csv: false },
+    summary: 'simulate the mechanism from the initial values with a stiff integrator; --svg draws the chart the app exports',
+    usage: 'MODEL.json --until T [--every D] [--hold x=v,...] [--json | --csv] [--svg FILE [--plot x,y,...] [--interval D [--window W | --samples N]] [--caption]]',
+    options: { until: true, every: true, hold: true, json: false, csv: false, ...figureOptions, plot: true, interval: true, window: true, samples: true },
     run(args, io) {
       const model = loadModel(args, io);
       const until = durationOption(args, 'until', model);
       if (until === undefined) throw new CliError('--until is required, e.g. --until 3days', 2);
       const every = durationOption(args, 'every', model);
       if (args.options.json && args.options.csv) throw new CliError('give either --json or --csv, not both', 2);
-      const r = simulate(model, { until, every });
+      const svg = svgTarget(args, ['plot', 'interval', 'window', 'samples']);
+      if (svg === '-' && (args.options.json || args.options.csv)) throw new CliError('--svg - prints the SVG instead of the table: leave out --json and --csv, or write the SVG to a file', 2);
+      const design = designFromArgs(args, model);
+      if ((design.window !== undefined || design.samples !== undefined) && design.interval === undefined) throw new CliError('--window and --samples give the study length at a sampling interval: give --interval too', 2);
+      const plot = svg === undefined ? [] : plotOption(args, model);
+      const figure = svg === undefined ? undefined : figureOptionsOf(args, model, design);
+      const r = simulate(model, { until, every, hold: design.hold });
       if (!r.ok && r.times.length === 0) throw new CliError(r.diagnostics.find((d) => d.level === 'error')?.message ?? 'the simulation failed');
+      if (svg !== undefined) writeSvg(svg, simulationChart(model, r, plot, design, figure), io);
+      if (svg === '-') {
+        if (!r.ok) io.err(`loopfold simulate: ${r.diagnostics.find((d) => d.level === 'error')?.message ?? 'the simulation stopped early'}; the chart shows the part computed`);
+        return r.ok ? 0 : 1;
+      }
       const ids = model.variables.map((v) => v.id);
       if (args.options.csv) {
         const lines = [['time', ...ids].map(csvField).join(',')];
@@ -84,15 +126,33 @@ export const numericCommands: CliCommand[] = [
   },
   {
     name: 'sampled',
-    summary: 'the exact sampled model at an interval: lagged effects, innovations, stationary covariance',
-    usage: 'MODEL.json --interval D [--json]',
-    options: { interval: true, json: false },
+    summary: 'the exact sampled model at an interval: lagged effects, innovations, stationary covariance; --svg draws a network',
+    usage: 'MODEL.json --interval D [--json] [--svg FILE [--network lagged|same] [--standardized] [--window W | --samples N] [--caption]]',
+    options: { interval: true, json: false, ...figureOptions, network: true, standardized: false, window: true, samples: true },
     run(args, io) {
       const model = loadModel(args, io);
       const interval = durationOption(args, 'interval', model);
       if (interval === undefined) throw new CliError('--interval is required, e.g. --interval 1day', 2);
+      const svg = svgTarget(args, ['network', 'standardized', 'window', 'samples']);
+      if (svg === '-' && args.options.json) throw new CliError('--svg - prints the SVG instead of the matrices: leave out --json, or write the SVG to a file', 2);
+      const network = networkOption(args);
+      const design = designFromArgs(args, model);
       const r = sampledAt(model, interval);
       if (!r.ok) throw new CliError(r.reason);
+      if (svg !== undefined) {
+        const opts = figureOptionsOf(args, model, design);
+        // The same plain data the app's numeric worker answers with.
+        const answer = sampledOf(model, interval);
+        if (!answer.ok) throw new CliError(answer.reason);
+        const fig = network === 'same' ? sameIntervalNetwork(model, answer, opts) : laggedNetwork(model, answer, args.options.standardized === true, opts);
+        if (!fig) {
+          throw new CliError(network === 'same'
+            ? 'the same-interval network is not defined here: some states receive no noise'
+            : 'the standardized lagged network is not defined here: some states have no stationary spread (zero noise reaches them); leave out --standardized');
+        }
+        writeSvg(svg, fig, io);
+        if (svg === '-') return 0;
+      }
       const s = r.sampled;
       if (args.options.json) {
         io.out(

@@ -4,11 +4,11 @@
  * function and the same SVG renderer.
  */
 import type { Model } from '../../core/model/types';
-import { formatDuration } from '../../core/model/units';
 import { orderingAt } from '../../core/ordering/index';
 import type { StudyDesign } from '../../core/ordering/types';
-import { mechanismView, orderingView, studyText } from '../../core/view/derive';
+import { mechanismView, orderingView } from '../../core/view/derive';
 import type { ViewMode, ViewModel } from '../../core/view/types';
+import { studyCaption } from '../../export/caption';
 import { renderSvg } from '../../export/svg';
 import { figureLayout } from '../../layout/figure';
 import { drawnPositions } from '../../layout/instant';
@@ -29,8 +29,7 @@ export interface RenderRequest {
 
 /** The caption the app and the command line put under a figure at an interval. */
 export function figureCaption(model: Model, design: StudyDesign): string | undefined {
-  if (design.interval === undefined) return undefined;
-  return `Sampling interval every ${formatDuration(design.interval, model.timeUnit)} · ${studyText(model, design.interval, design.window, design.samples)}`;
+  return studyCaption(model, design);
 }
 
 /** The view model of a render request. */
