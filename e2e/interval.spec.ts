@@ -159,7 +159,7 @@ test('a simultaneous block folds into one node with its count and unfolds again;
   }
   const group = orderingFigure(page).locator('g[data-group]').first();
   const members = (await group.getAttribute('data-members'))!.split(' ');
-  await group.locator('.lf-toggle').click();
+  await orderingFigure(page).locator(`.lf-toggle[data-block="${(await group.getAttribute('data-block'))!}"]`).click();
   const folded = orderingFigure(page).locator('g[data-folded="true"]');
   await expect(folded).toHaveCount(1);
   await expect(folded.locator('text').first()).toHaveText(String(members.length));

@@ -89,7 +89,8 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
   return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
 
-function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
+/** `reach.top`: the highest point the edge's line or sign reaches (arcs over a row rise above it). */
+function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number }): El {
   const style = LINK_STYLE[e.kind];
   const ac = { x: a.x + a.width / 2, y: a.y + a.height / 2 };
   const bc = { x: b.x + b.width / 2, y: b.y + b.height / 2 };
@@ -100,6 +101,11 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
   const p1 = exitPoint(b, mid.x, mid.y, 3);
   const ctrl = { x: 2 * mid.x - (p0.x + p1.x) / 2, y: 2 * mid.y - (p0.y + p1.y) / 2 };
   const d = bend === 0 ? `M${r1(p0.x)},${r1(p0.y)} L${r1(p1.x)},${r1(p1.y)}` : `M${r1(p0.x)},${r1(p0.y)} Q${r1(ctrl.x)},${r1(ctrl.y)} ${r1(p1.x)},${r1(p1.y)}`;
+  // the curve's lowest y: at its ends or at its turning point B(t*), t* = (p0 − c) / (p0 − 2c + p1)
+  const den = p0.y - 2 * ctrl.y + p1.y;
+  const ts = bend !== 0 && Math.abs(den) > 1e-9 ? (p0.y - ctrl.y) / den : -1;
+  const peak = ts > 0 && ts < 1 ? (1 - ts) * (1 - ts) * p0.y + 2 * (1 - ts) * ts * ctrl.y + ts * ts * p1.y : Infinity;
+  reach.top = Math.min(reach.top, p0.y, p1.y, peak);
   const sim = e.simultaneous;
   const color = sim ? BLOCK_STYLE.stroke : style.stroke;
   const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
@@ -113,6 +119,7 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number): El {
     const q = bend === 0
       ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
       : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
+    reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
     kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
   return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
@@ -189,8 +196,10 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const showTitle = opts.title !== false;
   const width = Math.max(layout.width, 560);
   const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
-  const top = showTitle ? HEADER + (titleLines.length - 1) * 21 : 0;
   const body: (El | string)[] = [];
+  const labels: El[] = [];
+  // how far links rise above the laid-out box (arcs between instants on one row): room is made for them
+  const reach = { top: 0 };
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
     body.push(el('g', { 'data-slice-frame': s }, [
@@ -205,12 +214,13 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
     body.push(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
       el('rect', { x: r1(b.x), y: r1(b.y), width: r1(b.width), height: r1(b.height), rx: s.radius, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 }),
       el('rect', { x: r1(b.x + s.gap), y: r1(b.y + s.gap), width: r1(b.width - 2 * s.gap), height: r1(b.height - 2 * s.gap), rx: s.radius - s.gap, fill: 'none', stroke: s.stroke, 'stroke-width': 1 }),
-      el('g', { class: 'lf-toggle', 'data-block': g.key }, [
-        el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
-        el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
-        el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
-        el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
-      ]),
+    ]));
+    // the block's name and fold button are drawn over the links (a link entering the block must not hide them)
+    labels.push(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
+      el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
+      el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
+      el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
+      el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
     ]));
   }
   const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
@@ -223,13 +233,16 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
     const across = vm.mode === 'unrolled' && e.kind === 'integrating';
     const sameRow = Math.abs(a.y + a.height / 2 - (b.y + b.height / 2)) < 30;
     const bend = across && sameRow ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
-    body.push(edgeEl(e, a, b, bend));
+    body.push(edgeEl(e, a, b, bend, reach));
   }
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
     if (b) body.push(nodeEl(n, b));
   }
+  body.push(...labels);
 
+  const rise = reach.top < 0 ? Math.ceil(-reach.top + 4) : 0;
+  const top = (showTitle ? HEADER + (titleLines.length - 1) * 21 : 0) + rise;
   const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
   if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, titleLines.map((t, i) => el('tspan', { x: 24, dy: i ? 21 : 0 }, [t]))));
   children.push(el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body));

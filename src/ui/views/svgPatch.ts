@@ -69,7 +69,10 @@ const keyOf = (e: El | string, i: number): string => {
   if (typeof e === 'string') return `#text${i}`;
   const a = e.attrs;
   const k = a['data-node'] ?? a['data-edge'] ?? a['data-group'] ?? a['data-slice-frame'] ?? a['data-part'];
-  return k !== undefined ? `${e.tag}:${String(k)}` : `#${e.tag}${i}`;
+  if (k !== undefined) return `${e.tag}:${String(k)}`;
+  // a block's name and fold button, drawn over the links
+  if (a['data-block-label'] !== undefined) return `label:${String(a['data-block-label'])}`;
+  return `#${e.tag}${i}`;
 };
 
 /**
