@@ -1,6 +1,6 @@
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { expect, test } from '@playwright/test';
+import { expect, test, type Page } from '@playwright/test';
 
 /** What the command line reports for the same example (the numbers must be the same). */
 function equilibriumCli(model: string): Record<string, number> {
@@ -120,5 +120,68 @@ test('with a variable held, the balance shows both equilibria; the pane also wor
   await expect(table.locator('tr[data-variable="soilWater"]')).toContainText('not balanced');
   await expect(page.locator('.lf-num-problems')).toContainText('soilWater');
   await page.screenshot({ path: testInfo.outputPath('numbers-held.png') });
+  expect(errors).toEqual([]);
+});
+
+/** Width and height from a PNG's IHDR chunk (PNG specification, ISO/IEC 15948 §11.2.2). */
+function pngSize(buf: Buffer): { width: number; height: number } {
+  expect(buf.subarray(1, 4).toString('latin1')).toBe('PNG');
+  return { width: buf.readUInt32BE(16), height: buf.readUInt32BE(20) };
+}
+
+/** Click an export button and keep the downloaded file. */
+async function exported(page: Page, button: string, file: string): Promise<Buffer> {
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button, exact: true }).click()]);
+  await download.saveAs(file);
+  return readFileSync(file);
+}
+
+test('the Numbers pane exports the simulation chart and the lagged network as the files the command line writes', async ({ page }, testInfo) => {
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  const model = 'src/examples/greenhouse.json';
+  await page.goto('/?example=greenhouse');
+  const slider = page.getByRole('slider', { name: /sampling interval/i });
+  await slider.focus();
+  await page.keyboard.press('Home');
+  for (let i = 0; i < 40; i++) {
+    const text = (await slider.getAttribute('aria-valuetext')) ?? '';
+    if (/\b(h|day|days)\b/.test(text)) break;
+    await page.keyboard.press('ArrowRight');
+  }
+  const interval = (await slider.getAttribute('data-interval'))!;
+  await page.getByRole('tab', { name: 'Numbers' }).click();
+  const pane = page.locator('.lf-numbers');
+  const cli = (argv: string[], out: string) => {
+    const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', ...argv, '--interval', interval, '--samples', '50', '--caption', '--svg', out], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+    return readFileSync(out, 'utf8');
+  };
+
+  // The simulation chart: the same run (2 days, output every 10 min), the same samples of the study.
+  const sim = pane.locator('[data-section="simulation"]');
+  await sim.getByLabel('Simulation duration').fill('2 days');
+  await sim.getByLabel('Output spacing').fill('10 min');
+  await sim.getByRole('button', { name: 'Simulate' }).click();
+  await expect(sim.locator('svg.lf-num-chart circle.lf-chart-sample').first()).toBeVisible();
+  const appChart = (await exported(page, 'Export the simulation chart as SVG', testInfo.outputPath('app-simulation.svg'))).toString('utf8');
+  expect(appChart).toContain('data-series="airTemp"');
+  expect(appChart).toContain('data-part="caption"');
+  expect(appChart).toBe(cli(['simulate', model, '--until', '2 days', '--every', '10 min'], testInfo.outputPath('cli-simulation.svg')));
+  const w = Number(/width="(\d+)"/.exec(appChart)![1]);
+  const h = Number(/height="(\d+)"/.exec(appChart)![1]);
+  expect(pngSize(await exported(page, 'Export the simulation chart as PNG at 2×', testInfo.outputPath('app-simulation@2x.png')))).toEqual({ width: 2 * w, height: 2 * h });
+
+  // The lagged network at the interval.
+  const sampled = pane.locator('[data-section="sampled"]');
+  await expect(sampled.locator('svg.lf-num-network').first()).toBeVisible();
+  await sampled.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('numbers-export.png') });
+  const appNet = (await exported(page, 'Export the lagged network as SVG', testInfo.outputPath('app-lagged.svg'))).toString('utf8');
+  expect(appNet).toContain('data-edge="dust&gt;soilWater"');
+  expect(appNet).toBe(cli(['sampled', model], testInfo.outputPath('cli-lagged.svg')));
+  const nw = Number(/width="(\d+)"/.exec(appNet)![1]);
+  const nh = Number(/height="(\d+)"/.exec(appNet)![1]);
+  expect(pngSize(await exported(page, 'Export the lagged network as PNG at 2×', testInfo.outputPath('app-lagged@2x.png')))).toEqual({ width: 2 * nw, height: 2 * nh });
   expect(errors).toEqual([]);
 });
