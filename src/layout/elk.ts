@@ -142,18 +142,35 @@ export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOp
   const nodes: Record<string, Box> = {};
   const groups: Record<string, Box> = {};
   const groupIds = new Set(vm.groups.map((g) => g.id));
-  // routes of the edges laid out whole (stand-ins for edges into blocks are drawn straight);
+  // routes of the edges laid out (edges into and out of blocks: their stand-in's route, then straight to the member);
   // sections are relative to the node whose edge list holds them
   const routes: Record<string, Point[]> = {};
+  const proxyRoutes: Record<string, Point[]> = {};
   const take = (list: ElkEdge[] | undefined, dx: number, dy: number) => {
     for (const e of list ?? []) {
       const sec = e.sections?.[0];
-      if (!sec || (e.sections?.length ?? 0) > 1 || e.id.startsWith('proxy:')) continue;
-      routes[e.id] = [sec.startPoint, ...(sec.bendPoints ?? []), sec.endPoint].map((p) => ({ x: p.x + dx, y: p.y + dy }));
+      if (!sec || (e.sections?.length ?? 0) > 1) continue;
+      const ps = [sec.startPoint, ...(sec.bendPoints ?? []), sec.endPoint].map((p) => ({ x: p.x + dx, y: p.y + dy }));
+      if (e.id.startsWith('proxy:')) proxyRoutes[e.id] = ps;
+      else routes[e.id] = ps;
     }
   };
   take(done.edges, 0, 0);
   for (const c of done.children ?? []) if (c.edges?.length) take(c.edges, boxes[c.id]?.x ?? 0, boxes[c.id]?.y ?? 0);
+  // an edge into or out of a block follows its stand-in's route to the block's border, then runs
+  // straight to the member (edges to several members of one block share the way there)
+  const memberOf = new Map<string, string>();
+  for (const c of graph.children ?? []) if (c.edges) for (const k of c.children ?? []) memberOf.set(k.id, c.id);
+  for (const e of vm.edges) {
+    const a = memberOf.get(e.from), b = memberOf.get(e.to);
+    if (!a && !b) continue;
+    const route = proxyRoutes[`proxy:${a ?? e.from}->${b ?? e.to}`];
+    if (!route || !boxes[e.from] || !boxes[e.to]) continue;
+    const ps = [...route];
+    if (a) ps.unshift(borderPoint(boxes[e.from], ps[0]));
+    if (b) ps.push(borderPoint(boxes[e.to], ps[ps.length - 1]));
+    routes[e.id] = ps;
+  }
   if (vm.mode !== 'unrolled') {
     for (const n of vm.nodes) if (boxes[n.id]) nodes[n.id] = boxes[n.id];
     for (const g of vm.groups) if (boxes[g.id]) groups[g.id] = boxes[g.id];
@@ -175,6 +192,15 @@ export async function elkLayout(elk: ElkRunner, vm: ViewModel, opts: ElkLayoutOp
     for (const s of [-1, 0, 1]) sliceRoutes[id.replace(/@0(?=->|:)/g, `@${s}`)] = ps.map((p) => ({ x: p.x + (s + 1) * (width + SLICE_GAP), y: p.y }));
   }
   return finishLayout(vm, nodes, 'elk', groups, sliceRoutes);
+}
+
+/** Where the line from the centre of `b` towards `p` crosses the border of `b`. */
+export function borderPoint(b: Box, p: Point): Point {
+  const c = center(b);
+  const dx = p.x - c.x, dy = p.y - c.y;
+  if (dx === 0 && dy === 0) return c;
+  const t = Math.min(dx !== 0 ? b.width / 2 / Math.abs(dx) : Infinity, dy !== 0 ? b.height / 2 / Math.abs(dy) : Infinity);
+  return { x: c.x + dx * Math.min(1, t), y: c.y + dy * Math.min(1, t) };
 }
 
 /** Whether two layouts put every shared node within `tol` px of each other (after their own normalisation). */

@@ -108,18 +108,18 @@ export function TimescalePaneFor({ model }: { model: Model }) {
         )}
         <span className="lf-spacer" />
         <label className="lf-export-label">
-          Export figure of{' '}
-          <select value={exportOf} onChange={(e) => setExportOf(e.target.value as 'view' | 'mechanism')}>
+          Export{' '}
+          <select aria-label="Export figure of" value={exportOf} onChange={(e) => setExportOf(e.target.value as 'view' | 'mechanism')}>
             <option value="view">{view === 'unrolled' ? 'the three instants' : 'the ordering'}</option>
-            <option value="mechanism">the mechanism as drawn</option>
+            <option value="mechanism">the mechanism</option>
           </select>
         </label>
         {exportOf === 'view' && (
-          <label className="lf-export-label">
+          <label className="lf-export-label" title="As on screen: the positions you see. Afresh: laid out without the slider's history, the same file `loopfold render` writes.">
             laid out{' '}
             <select value={placement} onChange={(e) => setPlacement(e.target.value as 'screen' | 'fresh')}>
               <option value="screen">as on screen</option>
-              <option value="fresh">afresh (as the command line)</option>
+              <option value="fresh">afresh</option>
             </select>
           </label>
         )}
