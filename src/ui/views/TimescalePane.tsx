@@ -6,14 +6,14 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { explainOrdering } from '../../core/view/explain';
-import { mechanismView, orderingView, simultaneousBlocks, blockKey, studyText } from '../../core/view/derive';
+import { mechanismView, orderingView, simultaneousBlocks, blockKey } from '../../core/view/derive';
 import type { ViewModel } from '../../core/view/types';
 import { drawnPositions } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
 import { useAnalysisState } from '../../state/analysis';
-import { formatDuration } from '../../core/model/units';
+import { studyCaption } from '../../export/caption';
 import { useBandCache } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
@@ -75,7 +75,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval"><p>Finding the model's timescales…</p></section>;
 
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
-  const caption = `Sampling interval every ${formatDuration(interval, model.timeUnit)} · ${studyText(model, interval, study.window, study.samples)}`;
+  const caption = studyCaption(model, { interval, ...study });
   const doExport = (kind: 'svg' | 1 | 2 | 4) => {
     const base = model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model';
     if (exportOf === 'mechanism') {
