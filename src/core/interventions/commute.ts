@@ -21,6 +21,16 @@
  * `commutesByCriterion` says in advance when they agree: exactly when the
  * equilibrium ordering pairs v with its own equation (or v is given at this
  * interval).
+ *
+ * Sources. The property itself (manipulation and equilibration commute, or
+ * not; models that violate it have feedback; manipulating some variables of
+ * such models leaves no equilibrium at all) is as stated in the abstract of
+ * Dash's thesis "Caveats for causal reasoning with equilibrium models"
+ * (University of Pittsburgh, 2003) and in the abstract of Dash & Druzdzel's
+ * paper on the manipulation postulate for equilibrium models, both read
+ * from stored public pages. The 2005 paper's own text was not available
+ * here: its cases, section numbers and the pairing criterion below are
+ * rebuilt from memory and marked so in the tests.
  */
 import type { EquationId, VariableId } from '../model/types';
 import type { Diagnostic, Ordering, OrderingEdge, Role } from '../ordering/types';

@@ -2,6 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { commutation, commutesByCriterion, feedbackSet, holdThenSettle, sameStructure, settleThenHold } from '../../../src/core/interventions/commute';
 import { chainRegulated, mech, rolesOf, selfRegulated, simultaneous } from './systems';
 
+// Sources: the cases below are rebuilt from memory of Dash (2005), whose text was not available here.
+// What they test — that holding a variable and letting the fast states settle need not commute, that
+// the failures come with feedback, and that some holds leave no equilibrium — is as stated in the
+// abstracts of Dash's 2003 thesis ("Caveats for causal reasoning with equilibrium models") and of
+// Dash & Druzdzel's paper on the manipulation postulate, read from stored public pages.
 const eqs = (s: { equations: { id: string; variables: string[] }[] }) => Object.fromEntries(s.equations.map((e) => [e.id, e.variables]));
 const edges = (o: { edges: { from: string; to: string; kind: string }[] }) => o.edges.map((e) => `${e.from}->${e.to}`).sort();
 
