@@ -125,32 +125,38 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number 
   return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
 
+/**
+ * One node, drawn in the figure's own coordinates (no transform per node: a
+ * transform per element is a compositing property the browser walks on
+ * every frame, which a big figure pays for while the interval is dragged).
+ */
 function nodeEl(n: ViewNode, b: Box): El {
-  const at = `translate(${r1(b.x)},${r1(b.y)})`;
+  const ox = r1(b.x), oy = r1(b.y);
+  const X = (v: number) => r1(ox + v), Y = (v: number) => r1(oy + v);
   if (n.count !== undefined) {
     const s = BLOCK_STYLE;
-    const card = (o: number) => el('rect', { x: o, y: o, width: r1(b.width - 8), height: r1(b.height - 8), rx: 8, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 });
-    return el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, transform: at, class: 'lf-toggle' }, [
+    const card = (o: number) => el('rect', { x: X(o), y: Y(o), width: r1(b.width - 8), height: r1(b.height - 8), rx: 8, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 });
+    return el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, class: 'lf-toggle' }, [
       el('title', {}, [`${n.label} — a simultaneous block, folded; click to show its members`]),
       card(8), card(4), card(0),
-      el('circle', { cx: 20, cy: r1((b.height - 8) / 2), r: 12, fill: s.stroke }),
-      el('text', { x: 20, y: r1((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
-      el('text', { x: 38, y: r1((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
+      el('circle', { cx: X(20), cy: Y((b.height - 8) / 2), r: 12, fill: s.stroke }),
+      el('text', { x: X(20), y: Y((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
+      el('text', { x: X(38), y: Y((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
     ]);
   }
   const style = ROLE_STYLE[n.role];
   const shape = KIND_SHAPE[n.kind];
   const kids: (El | string)[] = [
     el('title', {}, [`${n.label} (${n.variable}): ${style.label}`]),
-    el('path', { d: shapePath(shape, b.width, b.height), fill: style.fill, stroke: style.stroke, 'stroke-width': style.strokeWidth, 'stroke-dasharray': style.dash }),
+    el('path', { d: shapePath(shape, b.width, b.height, ox, oy), fill: style.fill, stroke: style.stroke, 'stroke-width': style.strokeWidth, 'stroke-dasharray': style.dash }),
   ];
-  if (shape === 'accumulator') kids.push(el('rect', { x: 0, y: r1(b.height - ACCUMULATOR_FLOOR), width: r1(b.width), height: ACCUMULATOR_FLOOR, fill: style.stroke }));
+  if (shape === 'accumulator') kids.push(el('rect', { x: ox, y: Y(b.height - ACCUMULATOR_FLOOR), width: r1(b.width), height: ACCUMULATOR_FLOOR, fill: style.stroke }));
   const glyph = style.glyph;
-  const textY = r1((shape === 'accumulator' ? b.height - ACCUMULATOR_FLOOR : b.height) / 2 + 4.5);
-  if (glyph) kids.push(el('text', { x: 14, y: textY, 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: style.stroke }, [glyph]));
-  const textX = r1(glyph ? 22 + (b.width - 22 - (shape === 'tag' ? 10 : 0)) / 2 : (b.width - (shape === 'tag' ? 10 : 0)) / 2);
+  const textY = Y((shape === 'accumulator' ? b.height - ACCUMULATOR_FLOOR : b.height) / 2 + 4.5);
+  if (glyph) kids.push(el('text', { x: X(14), y: textY, 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: style.stroke }, [glyph]));
+  const textX = X(glyph ? 22 + (b.width - 22 - (shape === 'tag' ? 10 : 0)) / 2 : (b.width - (shape === 'tag' ? 10 : 0)) / 2);
   kids.push(el('text', { x: textX, y: textY, 'text-anchor': 'middle', 'font-size': 13, fill: INK }, [n.label]));
-  return el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}), transform: at }, kids);
+  return el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}) }, kids);
 }
 
 function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: number } {

@@ -34,49 +34,48 @@ export function browserElk(): Promise<ElkRunner> {
  * A layout queue for one view, with its own worker: each request gets a
  * ticket and results of old tickets resolve to null. A request that comes
  * while a layout is running stops that worker (a big graph can take seconds)
- * and starts a fresh one, so the newest view never waits for a stale one.
+ * and starts a fresh one, so the newest view never waits for a stale one;
+ * a cancelled layout that nobody waits behind finishes in its worker (a
+ * fresh worker costs a new start of ELK).
  */
 export function createLayoutQueue(start: () => Promise<ElkRunner> = startElk) {
   let ticket = 0;
-  let running = false;
+  /** The ticket of the layout running in the worker (0: the worker is idle). */
+  let running = 0;
   let runner: Promise<ElkRunner> | undefined;
+  const stop = async () => {
+    const r = runner;
+    runner = undefined;
+    running = 0;
+    ((await r) as (ElkRunner & { terminateWorker?: () => void }) | undefined)?.terminateWorker?.();
+  };
   return {
     async request(vm: ViewModel, opts: ElkLayoutOptions): Promise<Layout | null> {
       const mine = ++ticket;
-      if (running && runner) {
-        const old = (await runner) as ElkRunner & { terminateWorker?: () => void };
-        old.terminateWorker?.();
-        runner = undefined;
-        running = false;
-      }
+      // a stale layout still running: stop its worker rather than wait for it
+      if (running && runner) await stop();
       runner ??= start();
       const elk = await runner;
       if (mine !== ticket) return null;
-      running = true;
+      running = mine;
       try {
         const result = await elkLayout(elk, vm, opts);
         return mine === ticket ? result : null;
       } finally {
-        if (mine === ticket) running = false;
+        if (running === mine) running = 0;
       }
     },
+    /** Drop the pending request; a layout running goes on in its worker and is dropped when done. */
     cancel() { ticket++; },
     /** Drop the pending request and stop a layout that is running (its worker is started afresh on the next request). */
     async abandon() {
       ticket++;
-      if (!running || !runner) return;
-      const r = runner;
-      runner = undefined;
-      running = false;
-      ((await r) as ElkRunner & { terminateWorker?: () => void }).terminateWorker?.();
+      if (running && runner) await stop();
     },
     /** Stop the worker (when the view goes away). */
     async dispose() {
       ticket++;
-      const r = runner;
-      runner = undefined;
-      running = false;
-      ((await r) as (ElkRunner & { terminateWorker?: () => void }) | undefined)?.terminateWorker?.();
+      await stop();
     },
   };
 }

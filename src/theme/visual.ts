@@ -39,17 +39,19 @@ export const FONT_STACK = "'DejaVu Sans', 'Inter', 'Segoe UI', Arial, sans-serif
  * SVG path of a node outline of the given shape in a w×h box at the origin.
  * tag: a label tag pointing right; accumulator: a rectangle (its floor bar is drawn separately); pill: fully rounded ends.
  */
-export function shapePath(shape: NodeShape, w: number, h: number): string {
+export function shapePath(shape: NodeShape, w: number, h: number, x = 0, y = 0): string {
+  // coordinates rounded to 0.1 px (the figure's grid), relative to the box's corner (x, y)
+  const X = (v: number) => Math.round((x + v) * 10) / 10, Y = (v: number) => Math.round((y + v) * 10) / 10;
   switch (shape) {
     case 'tag': {
       const p = Math.min(14, h / 2);
-      return `M0,0 H${w - p} L${w},${h / 2} L${w - p},${h} H0 Z`;
+      return `M${X(0)},${Y(0)} H${X(w - p)} L${X(w)},${Y(h / 2)} L${X(w - p)},${Y(h)} H${X(0)} Z`;
     }
     case 'accumulator':
-      return `M0,0 H${w} V${h} H0 Z`;
+      return `M${X(0)},${Y(0)} H${X(w)} V${Y(h)} H${X(0)} Z`;
     case 'pill': {
       const r = h / 2;
-      return `M${r},0 H${w - r} A${r},${r} 0 0 1 ${w - r},${h} H${r} A${r},${r} 0 0 1 ${r},0 Z`;
+      return `M${X(r)},${Y(0)} H${X(w - r)} A${r},${r} 0 0 1 ${X(w - r)},${Y(h)} H${X(r)} A${r},${r} 0 0 1 ${X(r)},${Y(0)} Z`;
     }
   }
 }

@@ -130,6 +130,22 @@ describe('layout', () => {
     expect(started).toBe(2); // and a fresh worker took the new one
   });
 
+  it('a cancelled layout finishes in its worker; a later request after it is done reuses that worker', async () => {
+    const m = example('sleep-stress');
+    const [v1, v2] = views(m);
+    let terminated = 0;
+    let started = 0;
+    const q = createLayoutQueue(async () => { started++; return { layout: (g: ElkGraph) => nodeElk().layout(g), terminateWorker: () => { terminated++; } } as ElkRunner; });
+    const first = q.request(v1, {});
+    await new Promise((r) => setTimeout(r, 1));
+    q.cancel(); // the view moved on while the interval is dragged: nobody waits for this layout
+    expect(await first).toBeNull();
+    // the worker is idle again: the next request must not stop it and start another
+    expect(await q.request(v2, {})).not.toBeNull();
+    expect(terminated).toBe(0);
+    expect(started).toBe(1);
+  });
+
   it('animation frames run from the old place to the new one', () => {
     const a: Layout = { nodes: { x: { x: 0, y: 0, width: 10, height: 10 } }, groups: {}, width: 10, height: 10, source: 'instant' };
     const b: Layout = { nodes: { x: { x: 100, y: 50, width: 10, height: 10 }, y: { x: 5, y: 5, width: 4, height: 4 } }, groups: {}, width: 110, height: 60, source: 'elk' };

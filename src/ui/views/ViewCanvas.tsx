@@ -3,7 +3,7 @@
  * then moved smoothly to the tuned ELK layout when it arrives (a layout made
  * obsolete by a newer view is dropped).
  */
-import { memo, useEffect, useLayoutEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
+import { memo, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
 import type { ViewModel } from '../../core/view/types';
 import { buildScene } from '../../export/scene';
 import { createLayoutQueue } from '../../layout/browser';
@@ -32,10 +32,16 @@ export interface ViewCanvasProps {
   label: string;
   /** A name for the view shown (the band), written to data-shown once it is on screen (for tests and benchmarks). */
   tag?: string | number;
+  /**
+   * False while the interval is being dragged: the view is placed at once but
+   * no tuned layout is asked for until the drag ends (each would cost a layout
+   * run, and stopping a run costs a fresh worker).
+   */
+  still?: boolean;
 }
 
 /** Memoised: dragging the interval inside a band re-renders the pane, not the figure. */
-export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag }: ViewCanvasProps) {
+export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, onLayout, label, tag, still = true }: ViewCanvasProps) {
   // the layout moved to after the view was first placed (animation frames, then ELK's), for that view
   const [moved, setMoved] = useState<{ vm: ViewModel; layout: Layout } | null>(null);
   // the view whose tuned layout came back (or failed): no longer pending
@@ -56,41 +62,48 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   const pending = !drawn && settledFor !== vm;
   useLayoutEffect(() => { screenRef.current = shown; }, [shown]);
 
-  useEffect(() => {
-    const show = (l: Layout) => setMoved({ vm, layout: l });
-    const animateTo = (from: Layout | undefined, target: Layout) => {
-      cancelAnimationFrame(frame.current);
-      if (!from || vm.nodes.length > ANIMATE_UP_TO) { show(target); return; }
-      const t0 = performance.now();
-      const step = () => {
-        const t = Math.min(1, (performance.now() - t0) / ANIMATION_MS);
-        show(t >= 1 ? target : interpolateLayout(from, target, ease(t)));
-        if (t < 1) frame.current = requestAnimationFrame(step);
-      };
-      frame.current = requestAnimationFrame(step);
+  // moves the figure smoothly from where it is to a target layout (big views jump)
+  const animateTo = useCallback((v: ViewModel, from: Layout | undefined, target: Layout) => {
+    const show = (l: Layout) => setMoved({ vm: v, layout: l });
+    cancelAnimationFrame(frame.current);
+    if (!from || v.nodes.length > ANIMATE_UP_TO) { show(target); return; }
+    const t0 = performance.now();
+    const step = () => {
+      const t = Math.min(1, (performance.now() - t0) / ANIMATION_MS);
+      show(t >= 1 ? target : interpolateLayout(from, target, ease(t)));
+      if (t < 1) frame.current = requestAnimationFrame(step);
     };
-    if (start.first !== start.target) animateTo(start.prev, start.target);
+    frame.current = requestAnimationFrame(step);
+  }, []);
+
+  // a new view: from the previous positions to its instant placement
+  useEffect(() => {
+    if (start.first !== start.target) animateTo(vm, start.prev, start.target);
     else cancelAnimationFrame(frame.current);
-    if (drawn) {
-      onLayout?.(start.target);
-      return;
-    }
+    if (drawn) onLayout?.(start.target);
+    // a layout still running for an older view is dropped (its worker finishes it; a newer request stops it)
+    if (!drawn) queue.cancel();
+    // onLayout is a callback prop: a new identity must not re-run this
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [start, queue]);
+
+  // the tuned layout, asked for once the view has stayed a moment and the interval is not being dragged
+  const tuned = !drawn && still && settledFor !== vm;
+  useEffect(() => {
+    if (!tuned) return;
     let live = true;
-    // a layout still running for an older view is stopped now; the tuned layout of this one is asked
-    // for once the view has stayed a moment (a drag across many bands starts no layout per band)
-    void queue.abandon();
     const timer = setTimeout(() => {
       void queue.request(vm, { previous: start.target }).then((l) => {
         if (!live || !l) return;
         setSettledFor(vm);
-        animateTo(screenRef.current ?? undefined, l);
+        animateTo(vm, screenRef.current ?? undefined, l);
         onLayout?.(l);
       }).catch(() => { if (live) setSettledFor(vm); });
     }, LAYOUT_AFTER_MS);
     return () => { live = false; clearTimeout(timer); };
     // onLayout is a callback prop: a new identity must not re-run the layout
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [start, queue]);
+  }, [tuned, start, queue]);
 
   useEffect(() => () => { cancelAnimationFrame(frame.current); void queue.dispose(); }, [queue]);
 
