@@ -14,43 +14,19 @@ import { gzipSync } from 'node:zlib';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { Model, Variable, Link } from '../src/core/model/types';
+import type { Model } from '../src/core/model/types';
 import { breakpoints, orderingAt } from '../src/core/ordering/index';
 import { orderingView } from '../src/core/view/derive';
 import { cutsOf } from '../src/core/view/interval';
 import { elkLayout } from '../src/layout/elk';
 import { nodeElk } from '../src/layout/node';
 import { instantLayout } from '../src/layout/instant';
-import { seededRandom } from '../tests/helpers/random';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 
-const rng = seededRandom;
-
-/** A sketch of n variables: 10 % inputs, 40 % states (timescales 1 min … 1 year), 50 % derived; two links into each non-input. */
-export function generatedModel(n: number, seed = 7): Model {
-  const r = rng(seed);
-  const variables: Variable[] = [];
-  for (let i = 0; i < n; i++) {
-    const u = r();
-    const kind = i < Math.max(1, Math.round(n * 0.1)) ? 'input' : u < 0.45 ? 'state' : 'derived';
-    const v: Variable = { id: `v${i}`, kind, label: `Variable ${i}`, position: { x: (i % 40) * 160, y: Math.floor(i / 40) * 90 } };
-    if (kind === 'state') v.timescale = (1 / 60) * Math.pow(8766 * 60, r());
-    variables.push(v);
-  }
-  const links: Link[] = [];
-  const seen = new Set<string>();
-  for (const v of variables) {
-    if (v.kind === 'input') continue;
-    for (let k = 0; k < 2; k++) {
-      const from = variables[Math.floor(r() * n)];
-      if (from.id === v.id || seen.has(`${from.id}>${v.id}`)) continue;
-      seen.add(`${from.id}>${v.id}`);
-      links.push({ from: from.id, to: v.id, kind: v.kind === 'state' ? 'integrating' : 'instantaneous', sign: r() < 0.5 ? '+' : '-' });
-    }
-  }
-  return { format: 'loopfold-model', version: 1, name: `generated ${n}`, timeUnit: 'h', variables, links, settings: { separation: 5, samples: 50 } };
-}
+/** The generated sketches (shared with the tests). */
+export { generatedSketch as generatedModel } from '../tests/helpers/sketches';
+import { generatedSketch as generatedModel } from '../tests/helpers/sketches';
 
 const now = () => performance.now();
 /** `--sizes 500` (or `--sizes 200,500`) measures only those models in the browser part. */

@@ -1,7 +1,7 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it } from 'vitest';
 import { act } from 'react';
-import { createRoot, type Root } from 'react-dom/client';
+import { mount, unmountAll } from '../../helpers/mount';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { CommutationPanelFor, HoldControl } from '../../../src/ui/interventions/index';
 import { holdStore, startHoldSync } from '../../../src/ui/interventions/holds';
@@ -10,7 +10,6 @@ import { documentStore } from '../../../src/state/document';
 import { parseModel } from '../../../src/core/model/schema';
 import greenhouse from '../../../src/examples/greenhouse.json';
 
-(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
 const model = (() => {
   const r = parseModel(greenhouse);
@@ -18,23 +17,11 @@ const model = (() => {
   return r.model;
 })();
 
-let root: Root | null = null;
-let host: HTMLElement | null = null;
 afterEach(() => {
-  act(() => root?.unmount());
-  host?.remove();
-  root = null;
+  unmountAll();
   holdStore.getState().releaseAll();
   setStudyDesign({});
 });
-
-function mount(node: React.ReactNode) {
-  host = document.createElement('div');
-  document.body.append(host);
-  root = createRoot(host);
-  act(() => root!.render(node));
-  return host;
-}
 
 describe('HoldControl', () => {
   it('holds the chosen variable at the typed value and puts it into the study design', () => {

@@ -1,7 +1,7 @@
 // @vitest-environment happy-dom
 import { afterEach, describe, expect, it } from 'vitest';
 import { act } from 'react';
-import { createRoot, type Root } from 'react-dom/client';
+import { mount, unmountAll } from '../../helpers/mount';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { parseModel } from '../../../src/core/model/schema';
 import type { Model } from '../../../src/core/model/types';
@@ -17,7 +17,6 @@ import { svgDocument } from '../../../src/export/svg';
 import { curveOf, type CurveAnswer } from '../../../src/worker/numericApi';
 import { vi } from 'vitest';
 
-(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
 function load(json: unknown): Model {
   const r = parseModel(json);
@@ -54,21 +53,9 @@ function expectSamePicture(dom: Element, e: El, extra: (name: string, dom: Eleme
   if (kids.length === 0) expect(dom.textContent).toBe((e.children ?? []).join(''));
 }
 
-let root: Root | null = null;
-let host: HTMLElement | null = null;
 afterEach(() => {
-  act(() => root?.unmount());
-  host?.remove();
-  root = null;
+  unmountAll();
 });
-function mount(node: React.ReactNode) {
-  host = document.createElement('div');
-  document.body.append(host);
-  root = createRoot(host);
-  act(() => root!.render(node));
-  return host;
-}
-
 describe('Numbers pane parts', () => {
   it('"use derived timescale" writes the derived value into the state as one undo step', () => {
     documentStore.getState().load(swing);
@@ -124,11 +111,11 @@ describe('Numbers pane parts', () => {
     const input = { times, timeUnit: 'day', samples: [0, 5, 10], series: [{ id: 'a', name: 'A <x>', values: times.map((t) => t * t) }] };
     const cssHook = (n: string) => n === 'class';
     expectSamePicture(mount(<TimeChart {...input} />).querySelector('svg')!, timeSeriesChart(input), cssHook);
-    act(() => root?.unmount());
+    unmountAll();
     const curve = (curveOf(swing, 'stock', 'orders') as CurveAnswer).curve;
     const c = { model: swing, curve, breakpoints: [2], current: 1 };
     expectSamePicture(mount(<LinkCurveChart {...c} />).querySelector('svg')!, linkCurveChart(c), cssHook);
-    act(() => root?.unmount());
+    unmountAll();
     const a = sampledOf(swing, 1) as SampledAnswer;
     const el = mount(<SampledNetworks model={swing} answer={a} onPick={() => {}} />);
     // the clickable links: a button role, focus and a name (the screen's additions)
