@@ -1,5 +1,6 @@
-/** The core worker: a thin comlink surface over analyzeModel. */
+/** The core worker: a thin comlink surface over analyzeModel and the band host (bands.ts). */
 import { expose } from 'comlink';
 import { localCore } from './analyze';
+import { createBandHost } from './bands';
 
-expose(localCore);
+expose({ ...localCore, ...createBandHost() });
