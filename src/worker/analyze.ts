@@ -4,21 +4,25 @@
  */
 import type { Model } from '../core/model/types';
 import type { StudyDesign } from '../core/ordering/types';
-import { bands, breakpoints, equationMatching, orderingAt } from '../core/ordering/index';
+import { breakpoints, equationMatching, orderingAt } from '../core/ordering/index';
 import type { AnalysisResult, CoreApi } from './protocol';
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
-/** Ordering at the design, the interval axis (breakpoints, bands) and the equation matching. */
+/**
+ * Ordering at the design, the interval axis (breakpoints) and the equation
+ * matching. Not the roles of every band: those are a variable × band table
+ * (2,000 variables: about 1,600 bands, some 200 MB as objects), and the
+ * views ask the core for the band they show.
+ */
 export function analyzeModel(model: Model, design: StudyDesign): AnalysisResult {
   const t0 = now();
   try {
     const ordering = orderingAt(model, design);
     const axis = design.window !== undefined ? { window: design.window } : { samples: design.samples };
     const bps = breakpoints(model, axis);
-    const bds = bands(model, axis);
     const matching = equationMatching(model, design);
-    return { ok: true, analysis: { ordering, breakpoints: bps, bands: bds, matching, elapsedMs: now() - t0 } };
+    return { ok: true, analysis: { ordering, breakpoints: bps, matching, elapsedMs: now() - t0 } };
   } catch (e) {
     return { ok: false, message: `the analysis failed: ${(e as Error).message}` };
   }

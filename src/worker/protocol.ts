@@ -3,13 +3,12 @@
  * file is a thin switch over `analyzeModel` in analyze.ts.
  */
 import type { Model } from '../core/model/types';
-import type { Band, Breakpoint, Ordering, StudyDesign } from '../core/ordering/types';
+import type { Breakpoint, Ordering, StudyDesign } from '../core/ordering/types';
 import type { EquationMatching } from '../core/ordering/index';
 
 export interface Analysis {
   ordering: Ordering;
   breakpoints: Breakpoint[];
-  bands: Band[];
   /** The equation–variable structure at the design, with one maximum matching. */
   matching: EquationMatching;
   /** Milliseconds the core took (inside the worker, or on the main thread in the fallback). */
