@@ -49,9 +49,12 @@ async function ensureOpen(page: Page, ticks: number) {
 
 const orderingFigure = (page: Page) => page.getByRole('figure', { name: 'The ordering at the interval' });
 
-/** Wait for the tuned layout of the current band, then read what is drawn. */
+/** Wait for the current band's ordering (it comes from the core worker) and its tuned layout, then read what is drawn. */
 async function drawn(page: Page) {
   const fig = orderingFigure(page);
+  const band = (await page.getByRole('slider', { name: 'Sampling interval' }).getAttribute('data-band'))!;
+  await expect(page.locator('.lf-timescale')).toHaveAttribute('data-band', band);
+  await expect(fig).toHaveAttribute('data-shown', band);
   await expect(fig).toHaveAttribute('data-pending', 'false');
   await expect(fig).toHaveAttribute('data-layout', 'elk');
   await page.waitForTimeout(400); // the move to the new places

@@ -36,13 +36,15 @@ export function IntervalStripFor({ model }: { model: Model }) {
   const track = useRef<HTMLDivElement>(null);
   const unit = model.timeUnit;
   const cache = bc.status === 'ready' ? bc.cache : null;
+  // while the band set of new arguments opens, the previous one stays on the control
+  const current = bc.status === 'ready' && bc.current;
 
   // an interval inside the range once the range is known
   useEffect(() => {
-    if (!cache) return;
+    if (!cache || !current) return;
     const { min, max } = cache.range;
     if (interval === null || interval < min || interval > max) studyStore.getState().setInterval(Math.sqrt(min * max));
-  }, [cache, interval]);
+  }, [cache, current, interval]);
 
   // the analysis store follows the design (the core worker answers the other panes); during a drag,
   // once the pointer lets go (every band the thumb passes would start an analysis)
@@ -53,7 +55,6 @@ export function IntervalStripFor({ model }: { model: Model }) {
     setStudyDesign({ ...designOf({ interval, length }), ...(held ? { hold: held } : {}) });
   }, [cache ? cache.band(interval ?? 0) : -1, length, dragging]); // eslint-disable-line react-hooks/exhaustive-deps
 
-  if (bc.status === 'missing') return <div className="lf-interval">The ordering core is not part of this build.</div>;
   if (bc.status === 'failed') return <div className="lf-interval" role="alert">The breakpoints could not be computed: {bc.message}</div>;
   if (!cache || interval === null) return <div className="lf-interval">Finding the model's timescales…</div>;
   const { range, cuts } = cache;

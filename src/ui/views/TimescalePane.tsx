@@ -14,14 +14,11 @@ import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
 import { useAnalysisState } from '../../state/analysis';
 import { studyCaption } from '../../export/caption';
-import { useBandCache } from './bandCache';
+import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
-import { useIntervalDrag } from '../interval/dragging';
+import { restDelay, useIntervalDrag } from '../interval/dragging';
 import './views.css';
-
-/** While dragging, the figure moves to the band under the thumb once the thumb has rested this long. */
-const REST_MS = 100;
 
 export function TimescalePane() {
   const model = useValidatedModel();
@@ -38,7 +35,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const [rested, setRested] = useState<{ drag: number; interval: number | null } | null>(null);
   useEffect(() => {
     if (!drag) return;
-    const t = setTimeout(() => setRested({ drag: drag.id, interval: liveInterval }), REST_MS);
+    const t = setTimeout(() => setRested({ drag: drag.id, interval: liveInterval }), restDelay());
     return () => clearTimeout(t);
   }, [drag, liveInterval]);
   const interval = !drag ? liveInterval : rested?.drag === drag.id ? rested.interval : drag.from;
@@ -49,17 +46,22 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const hold = useAnalysisState((s) => s.design.hold);
   const bc = useBandCache(model, length, hold);
   const cache = bc.status === 'ready' ? bc.cache : null;
-  const band = cache && interval !== null ? cache.band(interval) : -1;
-  const ordering = useMemo(() => (cache && interval !== null ? cache.orderingAt(interval) : null), [cache, band]); // eslint-disable-line react-hooks/exhaustive-deps
+  // the band's ordering comes from the core worker; until it arrives the band drawn before stays,
+  // and everything below (figure, data-band, explanation) follows the band drawn
+  const { shown, problem } = useShownBand(cache, interval);
+  const band = shown ? shown.band : -1;
+  const ordering = shown?.ordering ?? null;
+  const shownModel = shown?.cache.model ?? model;
+  const shownLength = shown?.cache.length ?? length;
+  const shownInterval = shown?.interval ?? null;
   const foldedList = useMemo(() => foldedKeys(folded), [folded]);
   const study = length.by === 'window' ? { window: length.window } : { samples: length.samples };
   // the view changes only with the band, the fold state, the mode or the study (not with every pixel of a drag)
-  const bandInterval = useRef<number | null>(null);
   const vm = useMemo<ViewModel | null>(() => {
-    if (!ordering || interval === null) return null;
-    bandInterval.current = interval;
-    return orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
-  }, [model, ordering, view, foldedList, length]); // eslint-disable-line react-hooks/exhaustive-deps
+    if (!ordering || shownInterval === null) return null;
+    const at = shownLength.by === 'window' ? { window: shownLength.window } : { samples: shownLength.samples };
+    return orderingView(shownModel, ordering, { mode: view, folded: foldedList, interval: shownInterval, ...at });
+  }, [shownModel, ordering, view, foldedList, shownLength]); // eslint-disable-line react-hooks/exhaustive-deps
   const mech = useMemo(() => mechanismView(model), [model]);
   const drawn = useMemo(() => drawnPositions(model.variables), [model]);
   const settled = useRef<Layout | null>(null);
@@ -68,11 +70,12 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const [exportOf, setExportOf] = useState<'view' | 'mechanism'>('view');
   const [placement, setPlacement] = useState<'screen' | 'fresh'>('screen');
 
-  const lines = useMemo(() => (ordering && interval !== null && cache ? explainOrdering(model, ordering, cache.design(interval), cache.breakpoints) : []), [model, ordering, interval, cache]);
+  const shownCache = shown?.cache ?? null;
+  const lines = useMemo(() => (ordering && shownInterval !== null && shownCache ? explainOrdering(shownCache.model, ordering, shownCache.design(shownInterval), shownCache.breakpoints) : []), [ordering, shownInterval, shownCache]);
+  const [exportProblem, setExportProblem] = useState<string | null>(null);
 
-  if (bc.status === 'missing') return <section className="lf-timescale"><p>The ordering core is not part of this build.</p></section>;
   if (bc.status === 'failed') return <section className="lf-timescale"><p role="alert">The ordering could not be computed: {bc.message}</p></section>;
-  if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval"><p>Finding the model's timescales…</p></section>;
+  if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval">{problem ? <p role="alert">The ordering could not be computed: {problem}</p> : <p>Finding the model's timescales…</p>}</section>;
 
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
   const caption = studyCaption(model, { interval, ...study });
@@ -84,16 +87,23 @@ export function TimescalePaneFor({ model }: { model: Model }) {
       else void exportPng(mech, { caption: false }, `${base}-mechanism`, kind, { drawn });
       return;
     }
-    // the view on screen is built once per band; the figure names the interval set now
-    const figure = orderingView(model, ordering, { mode: view, folded: foldedList, interval, ...study });
+    // the view on screen is built once per band; the figure names the interval set now, with that
+    // interval's ordering (the band's answer may still be on its way from the core)
     const name = `${base}-${view}`;
     // as on screen: the settled layout the modeller sees; else laid out afresh, as the command line does
     const at = { shown: placement === 'screen' ? settled.current : null };
-    if (kind === 'svg') void exportSvg(figure, { caption: true, captionText: caption }, name, at);
-    else void exportPng(figure, { caption: true, captionText: caption }, name, kind, at);
+    void (async () => {
+      const c = await openBandCache(model, length, hold);
+      const r = c.ok ? await c.cache.ordering(interval) : c;
+      if (!r.ok) { setExportProblem(`The figure could not be exported: ${r.message}`); return; }
+      setExportProblem(null);
+      const figure = orderingView(model, r.ordering, { mode: view, folded: foldedList, interval, ...study });
+      if (kind === 'svg') await exportSvg(figure, { caption: true, captionText: caption }, name, at);
+      else await exportPng(figure, { caption: true, captionText: caption }, name, kind, at);
+    })();
   };
   return (
-    <section className="lf-timescale" aria-label="Ordering at the sampling interval" data-band={band}>
+    <section className="lf-timescale" aria-label="Ordering at the sampling interval" data-band={band} data-compute-ms={shown ? shown.computeMs.toFixed(3) : undefined} data-computed-in={shown?.where}>
       <div className="lf-timescale-bar" role="toolbar" aria-label="Timescale view">
         <div className="lf-seg" role="group" aria-label="View at the interval">
           <button type="button" aria-pressed={view === 'ordering'} onClick={() => studyStore.getState().setView('ordering')}>Ordering</button>
@@ -128,6 +138,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
         <button type="button" onClick={() => doExport(2)}>2×</button>
         <button type="button" onClick={() => doExport(4)}>4×</button>
       </div>
+      {(problem || exportProblem) && <p className="lf-problem" role="alert">{problem ? `The ordering at this interval could not be computed: ${problem}` : exportProblem}</p>}
       <div className={`lf-timescale-views ${sideBySide ? 'lf-two' : ''}`}>
         {sideBySide && (
           <div className="lf-view lf-view-mechanism">

@@ -1,48 +1,27 @@
 /**
- * Orderings per band of the interval axis, computed on the main thread by
- * the ordering core (loaded lazily) and cached: moving the interval inside a
- * band reuses the cached ordering; only crossing a breakpoint computes one.
+ * The interval axis of the timescale views: breakpoints and one ordering per
+ * band, from the core worker through the band client (`src/worker/bandClient.ts`;
+ * on the main thread when no worker can start). A model, study length and
+ * holds open one band set; moving the interval inside a band asks for
+ * nothing, crossing a breakpoint asks for that band's ordering (latest
+ * wins), and until it arrives the views keep the figure they show.
  */
-import { useEffect, useState } from 'react';
-import type { Model } from '../../core/model/types';
-import type { Breakpoint, Ordering, StudyDesign } from '../../core/ordering/types';
-import { bandOfCuts, cutsOf, intervalRange, type Cut, type IntervalRange } from '../../core/view/interval';
+import { useEffect, useRef, useState } from 'react';
+import type { Model, VariableId } from '../../core/model/types';
+import type { Ordering } from '../../core/ordering/types';
+import { intervalRange, type IntervalRange } from '../../core/view/interval';
 import type { StudyLength } from '../../state/study';
+import type { BandStudy } from '../../worker/bands';
+import { bandKey, type BandOrdering, type BandResult, type BandSet, type OpenResult, type Where } from '../../worker/bandClient';
+import { appBandClient } from '../../worker/transport';
 
-interface OrderingCore {
-  orderingAt(model: Model, design: StudyDesign): Ordering;
-  breakpoints?(model: Model, design?: StudyDesign): Breakpoint[];
-}
-
-// Resolved at build time; while the core is absent the views say so instead of failing to build.
-const modules = import.meta.glob<OrderingCore>('../../core/ordering/index.ts');
-let loading: Promise<OrderingCore | null> | null = null;
-export function loadOrderingCore(): Promise<OrderingCore | null> {
-  const loader = Object.values(modules)[0];
-  loading ??= loader ? loader() : Promise.resolve(null);
-  return loading;
-}
-
-/** Orderings kept per model and study (least recently used dropped first). */
-export const BANDS_KEPT = 32;
-
-export interface BandCache {
-  model: Model;
-  breakpoints: Breakpoint[];
-  /** Breakpoint places, ascending. */
-  cuts: Cut[];
+/** A band set as the views read it: the set, its study length and the range of the control. */
+export interface BandCache extends BandSet {
+  length: StudyLength;
   range: IntervalRange;
-  /** Band number of an interval: how many breakpoints lie at or below it. */
-  band(interval: number): number;
-  /** The ordering at an interval (cached per band). */
-  orderingAt(interval: number): Ordering;
-  /** The study design at an interval. */
-  design(interval: number): StudyDesign;
-  /** Milliseconds of the last fresh computation (not cached). */
-  lastComputeMs: number;
 }
 
-function studyOf(length: StudyLength): StudyDesign {
+export function studyOf(length: StudyLength): BandStudy {
   return length.by === 'window' ? { window: length.window } : { samples: length.samples };
 }
 
@@ -52,62 +31,90 @@ function clampToWindow(r: IntervalRange, length: StudyLength): IntervalRange {
   return { min: Math.min(r.min, length.window / 100), max: length.window };
 }
 
-export function createBandCache(core: OrderingCore, model: Model, length: StudyLength, hold?: Record<string, number>): BandCache {
-  const study = studyOf(length);
-  const breakpoints = core.breakpoints ? core.breakpoints(model, study) : [];
-  const cuts = cutsOf(breakpoints);
-  const perBand = new Map<number, Ordering>();
-  const cache: BandCache = {
-    model, breakpoints, cuts,
-    range: clampToWindow(intervalRange(model, breakpoints), length),
-    band: (interval) => bandOfCuts(cuts, interval),
-    design: (interval) => ({ ...study, interval, ...(hold && Object.keys(hold).length ? { hold } : {}) }),
-    lastComputeMs: 0,
-    orderingAt(interval) {
-      const k = cache.band(interval);
-      let o = perBand.get(k);
-      if (!o) {
-        const t0 = performance.now();
-        o = core.orderingAt(model, cache.design(interval));
-        cache.lastComputeMs = performance.now() - t0;
-        perBand.set(k, o);
-        // a drag across a big model visits hundreds of bands: keep the latest few
-        if (perBand.size > BANDS_KEPT) perBand.delete(perBand.keys().next().value!);
-      } else {
-        perBand.delete(k);
-        perBand.set(k, o); // most recently used last
-      }
-      return o;
-    },
-  };
-  return cache;
-}
-
-const caches = new WeakMap<Model, Map<string, BandCache>>();
-function cached(core: OrderingCore, model: Model, length: StudyLength, hold?: Record<string, number>): BandCache {
-  let m = caches.get(model);
-  if (!m) caches.set(model, (m = new Map()));
-  const key = JSON.stringify([length, hold ?? {}]);
-  let c = m.get(key);
-  if (!c) m.set(key, (c = createBandCache(core, model, length, hold)));
+const views = new WeakMap<BandSet, BandCache>();
+function cacheOf(set: BandSet, length: StudyLength): BandCache {
+  let c = views.get(set);
+  if (!c) {
+    c = { ...set, length, range: clampToWindow(intervalRange(set.model, set.breakpoints), length) };
+    views.set(set, c);
+  }
   return c;
 }
 
-export type BandCacheState = { status: 'loading' } | { status: 'missing' } | { status: 'failed'; message: string } | { status: 'ready'; cache: BandCache };
+/** The band set of the current model, study length and holds, opened if need be (for exports). */
+export async function openBandCache(model: Model, length: StudyLength, hold?: Record<VariableId, number>): Promise<{ ok: true; cache: BandCache } | { ok: false; message: string }> {
+  const r = await appBandClient().open(model, studyOf(length), hold);
+  return r.ok ? { ok: true, cache: cacheOf(r.set, length) } : r;
+}
 
-/** The band cache of a model, study length and interventions, shared by every view of the page. */
-export function useBandCache(model: Model | null, length: StudyLength, hold?: Record<string, number>): BandCacheState {
-  const [core, setCore] = useState<OrderingCore | null | undefined>(undefined);
+/**
+ * `current: false` while the set for new arguments (an edit, a hold, another
+ * study length) is being opened: the previous set is shown meanwhile.
+ */
+export type BandCacheState = { status: 'loading' } | { status: 'failed'; message: string } | { status: 'ready'; cache: BandCache; current: boolean };
+
+/** The band set of a model, study length and interventions; every view of the page gets the same one. */
+export function useBandCache(model: Model | null, length: StudyLength, hold?: Record<VariableId, number>): BandCacheState {
+  const client = appBandClient();
+  const study = studyOf(length);
+  const key = bandKey(study, hold);
+  const known = model ? client.peek(model, study, hold) : undefined;
+  const [opened, setOpened] = useState<{ model: Model; key: string; result: OpenResult } | null>(null);
   useEffect(() => {
+    if (!model || known) return;
     let live = true;
-    void loadOrderingCore().then((c) => { if (live) setCore(c); });
+    void client.open(model, study, hold).then((result) => { if (live) setOpened({ model, key, result }); });
     return () => { live = false; };
-  }, []);
-  if (core === undefined || !model) return { status: 'loading' };
-  if (core === null) return { status: 'missing' };
-  try {
-    return { status: 'ready', cache: cached(core, model, length, hold) };
-  } catch (e) {
-    return { status: 'failed', message: (e as Error).message };
-  }
+  }, [model, key, known]); // eslint-disable-line react-hooks/exhaustive-deps
+  const last = useRef<BandCache | null>(null);
+  let state: BandCacheState;
+  const mine = opened && opened.model === model && opened.key === key ? opened.result : null;
+  if (known) state = { status: 'ready', cache: cacheOf(known, length), current: true };
+  else if (mine && mine.ok) state = { status: 'ready', cache: cacheOf(mine.set, length), current: true };
+  else if (mine && !mine.ok) state = { status: 'failed', message: mine.message };
+  else if (last.current) state = { status: 'ready', cache: last.current, current: false };
+  else state = { status: 'loading' };
+  const ready = state.status === 'ready' && state.current ? state.cache : null;
+  useEffect(() => { if (ready) last.current = ready; }, [ready]);
+  return state;
+}
+
+/** The band on screen: its set, its number, the interval it is drawn at and its ordering. */
+export interface ShownBand {
+  cache: BandCache;
+  band: number;
+  interval: number;
+  ordering: Ordering;
+  /** Milliseconds the core took for this ordering, and where it ran. */
+  computeMs: number;
+  where: Where;
+}
+
+/**
+ * The ordering to draw for an interval: the band's own once its answer is
+ * here (at once when this side holds it), else the band drawn before (never
+ * an empty view while a band is computed). `problem`: the band's ordering
+ * could not be computed.
+ */
+export function useShownBand(cache: BandCache | null, interval: number | null): { shown: ShownBand | null; problem: string | null } {
+  const band = cache && interval !== null ? cache.band(interval) : -1;
+  const [arrived, setArrived] = useState<{ cache: BandCache; result: BandResult } | null>(null);
+  useEffect(() => {
+    if (!cache || interval === null) return;
+    let live = true;
+    // asked even when held here: an answer still on its way for another band is then stale
+    void cache.latest(interval).then((result) => { if (live && result) setArrived({ cache, result }); });
+    return () => { live = false; };
+  }, [cache, band]); // eslint-disable-line react-hooks/exhaustive-deps
+  const hit: BandResult | undefined = cache && interval !== null ? cache.cached(interval) : undefined;
+  const mine = arrived && arrived.cache === cache && arrived.result.band === band ? arrived.result : undefined;
+  const result = hit ?? mine;
+  const last = useRef<ShownBand | null>(null);
+  const now: ShownBand | null = result?.ok && cache && interval !== null ? shownOf(cache, result, interval) : null;
+  useEffect(() => { if (now) last.current = now; });
+  return { shown: now ?? last.current, problem: result && !result.ok ? result.message : null };
+}
+
+function shownOf(cache: BandCache, r: BandOrdering, interval: number): ShownBand {
+  return { cache, band: r.band, interval, ordering: r.ordering, computeMs: r.computeMs, where: r.where };
 }
