@@ -17,6 +17,7 @@ import { studyCaption } from '../../export/caption';
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
+import { ExplainList } from './ExplainList';
 import { restDelay, useIntervalDrag } from '../interval/dragging';
 import './views.css';
 
@@ -146,14 +147,12 @@ export function TimescalePaneFor({ model }: { model: Model }) {
           </div>
         )}
         <div className="lf-view lf-view-ordering">
-          <ViewCanvas vm={vm} tag={band} onToggleBlock={toggle} onLayout={onLayout} label={view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval'} />
+          <ViewCanvas vm={vm} tag={band} still={!drag} onToggleBlock={toggle} onLayout={onLayout} label={view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval'} />
         </div>
       </div>
       <aside className="lf-explain" aria-label="What changes at this interval">
         <h3>What changes at this interval</h3>
-        <ul>
-          {lines.map((l, i) => <li key={i} data-topic={l.topic}>{l.text}</li>)}
-        </ul>
+        <ExplainList lines={lines} />
         {model.caution && <p className="lf-caution">{model.caution}</p>}
       </aside>
     </section>
