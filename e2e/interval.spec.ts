@@ -79,6 +79,8 @@ async function state(page: Page) {
 }
 
 test('keyboard: every band from Home to End matches the ordering the core prints', async ({ page }, testInfo) => {
+  // a command-line run and a screenshot per band: minutes on a busy two-core machine
+  test.setTimeout(240_000);
   const { slider, errors } = await openTimescales(page);
   await slider.focus();
   await page.keyboard.press('Home');
@@ -113,6 +115,7 @@ test('keyboard: every band from Home to End matches the ordering the core prints
 });
 
 test('mouse drag across the whole control visits every band, each drawn as the core orders it', async ({ page }, testInfo) => {
+  test.setTimeout(240_000);
   const { slider, errors } = await openTimescales(page);
   const cuts = TICKS(model);
   const box = (await slider.boundingBox())!;
