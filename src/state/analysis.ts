@@ -11,6 +11,7 @@ import type { StudyDesign } from '../core/ordering/types';
 import type { Analysis } from '../worker/protocol';
 import type { CoreClient } from '../worker/client';
 import { documentStore, selectModel, validationOf } from './document';
+import { onlyPositionsDiffer } from './positions';
 
 export interface AnalysisState {
   design: StudyDesign;
@@ -63,8 +64,15 @@ export function startAnalysis(client: CoreClient, pauseMs = 120): () => void {
     const model = selectModel(documentStore.getState());
     const { design } = analysisStore.getState();
     if (model === lastModel && design === lastDesign) return;
+    // a move changes no equation: the analysis (done, or on its way) holds for the moved model too
+    const moved = lastModel !== null && design === lastDesign && analysisStore.getState().status !== 'failed' && onlyPositionsDiffer(lastModel, model);
     lastModel = model;
     lastDesign = design;
+    if (moved) {
+      const s = analysisStore.getState();
+      if (s.status === 'done' && s.model !== null) analysisStore.setState({ model });
+      return;
+    }
     clearTimeout(timer);
     timer = setTimeout(() => void run(), pauseMs);
   };

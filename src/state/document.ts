@@ -9,6 +9,7 @@ import { useStore } from 'zustand';
 import type { Model } from '../core/model/types';
 import { applyChange, emptyModel, withLinkIds, type Change } from './changes';
 import { record, redo, startHistory, stop, undo, type History } from './history';
+import { movedValidation, onlyPositionsDiffer } from './positions';
 import { validateModel, type Validation } from './validate';
 
 export interface DocumentState {
@@ -84,13 +85,20 @@ export function useModel(): Model {
 }
 
 const validations = new WeakMap<Model, Validation>();
-/** Schema and formula checks of a model, computed once per model object. */
+let lastChecked: { model: Model; validation: Validation } | undefined;
+/**
+ * Schema and formula checks of a model, computed once per model object; after
+ * a move (only positions differ from the model checked last) they are carried
+ * over instead of recomputed.
+ */
 export function validationOf(model: Model): Validation {
   let v = validations.get(model);
   if (!v) {
-    v = validateModel(model);
+    const moved = lastChecked && onlyPositionsDiffer(lastChecked.model, model) ? movedValidation(lastChecked.model, lastChecked.validation, model) : null;
+    v = moved ?? validateModel(model);
     validations.set(model, v);
   }
+  lastChecked = { model, validation: v };
   return v;
 }
 

@@ -47,4 +47,37 @@ describe('analysis of the document', () => {
       setStudyDesign({});
     }
   });
+
+  it('does not analyse the equations again when a drag only moves a variable', async () => {
+    let calls = 0;
+    const spy: CoreApi = {
+      analyze: async (model, design) => {
+        calls++;
+        return localCore.analyze(model, design);
+      },
+    };
+    documentStore.getState().load({ ...emptyModel(), variables: [{ id: 'load', kind: 'input', value: 1, position: { x: 0, y: 0 } }, { id: 'level', kind: 'state', timescale: 2, position: { x: 200, y: 0 } }], links: [{ from: 'load', to: 'level', kind: 'integrating' }] });
+    const stop = startAnalysis(createCoreClient(null, () => spy), 5);
+    try {
+      await until(() => calls === 1 && analysisStore.getState().status === 'done' && analysisStore.getState().model === selectModel(documentStore.getState()));
+      const analysis = analysisStore.getState().analysis;
+      // the end of a drag: one move of the document
+      documentStore.getState().apply({ type: 'move', positions: { level: { x: 260, y: 40 } } }, { squash: 'move:level' });
+      await new Promise((r) => setTimeout(r, 60));
+      expect(calls).toBe(1);
+      expect(analysisStore.getState().analysis).toBe(analysis);
+      // the analysis now belongs to the moved model
+      expect(analysisStore.getState().model).toBe(selectModel(documentStore.getState()));
+      expect(documentStore.getState().history.past).toHaveLength(1);
+      // undoing the move is a move too; an edit of the equations is analysed again
+      documentStore.getState().undo();
+      await new Promise((r) => setTimeout(r, 60));
+      expect(calls).toBe(1);
+      documentStore.getState().apply({ type: 'updateVariable', id: 'level', patch: { timescale: 500 } });
+      await until(() => calls === 2 && analysisStore.getState().status === 'done');
+      expect(analysisStore.getState().analysis).not.toBe(analysis);
+    } finally {
+      stop();
+    }
+  });
 });
