@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { buildEdges, buildNodes, type FlowNode } from '../../src/ui/canvas/flow';
+import type { NodeChange } from '@xyflow/react';
+import { buildEdges, buildNodes, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
+import { createDocumentStore, selectModel } from '../../src/state/document';
 import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
 import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
 import { equationId } from '../../src/core/ordering/types';
@@ -31,10 +33,54 @@ describe('canvas nodes from the model', () => {
     expect(second[1].ariaLabel).toBe('Level: state');
   });
 
+  it('keeps the edge object of every link an edit or a selection did not touch', () => {
+    const first = buildEdges(model, new Set());
+    const linked = applyChange(model, { type: 'addLink', link: { from: 'b', to: 'c', kind: 'instantaneous' } });
+    const second = buildEdges(linked, new Set(), first);
+    expect(second).toHaveLength(first.length + 1);
+    for (const e of first) expect(second.find((x) => x.id === e.id)).toBe(e);
+    const picked = buildEdges(linked, new Set([first[0].id]), second);
+    expect(picked[0]).not.toBe(second[0]);
+    expect(picked[0].selected).toBe(true);
+    expect(picked.slice(1)).toEqual(second.slice(1));
+    picked.slice(1).forEach((e, i) => expect(e).toBe(second[i + 1]));
+  });
+
   it('joins a relation to each of its variables with an undirected member line', () => {
     const edges = buildEdges(model, new Set());
     expect(edges.filter((e) => e.type === 'link')).toHaveLength(1);
     expect(edges.filter((e) => e.type === 'member').map((e) => e.target).sort()).toEqual(['a', 'b', 'c']);
+  });
+});
+
+describe('dragging a variable', () => {
+  // Common practice for editors: one drag, one undo step; the canvas reports every pointer move.
+  it('edits the document once, when the drag ends: one undo step, the final position', () => {
+    const doc = createDocumentStore(model);
+    const stream: NodeChange[][] = [];
+    for (let i = 1; i <= 40; i++) stream.push([{ type: 'position', id: 'b', position: { x: 200 + 3 * i, y: 2 * i }, dragging: true }]);
+    stream.push([{ type: 'position', id: 'b', position: { x: 320.4, y: 80.6 }, dragging: false }]);
+    let edits = 0;
+    for (const changes of stream) {
+      const move = settledMove(changes);
+      if (!move) continue;
+      edits++;
+      doc.getState().apply(move.change, { squash: move.squash });
+    }
+    expect(edits).toBe(1);
+    expect(doc.getState().history.past).toHaveLength(1);
+    expect(selectModel(doc.getState()).variables[1].position).toEqual({ x: 320, y: 81 });
+    doc.getState().undo();
+    expect(selectModel(doc.getState())).toBe(model);
+  });
+
+  it('ignores selection and size changes, and an arrow-key step is an edit', () => {
+    expect(settledMove([{ type: 'select', id: 'b', selected: true }, { type: 'dimensions', id: 'b', dimensions: { width: 120, height: 46 } }])).toBeNull();
+    expect(settledMove([{ type: 'position', id: 'a', position: { x: 5, y: 0 } }])).toBeNull();
+    expect(settledMove([{ type: 'position', id: 'a', position: { x: 5, y: 0 }, dragging: false }, { type: 'position', id: 'c', position: { x: 1, y: 2 }, dragging: false }])).toEqual({
+      change: { type: 'move', positions: { a: { x: 5, y: 0 }, c: { x: 1, y: 2 } } },
+      squash: 'move:a,c',
+    });
   });
 });
 

@@ -12,8 +12,6 @@ import {
   type FitViewOptions,
   type FinalConnectionState,
   type NodeChange,
-  type NodePositionChange,
-  type XYPosition,
 } from '@xyflow/react';
 import { documentStore, editDocument, useDocument, useModel } from '../../state/document';
 import { selectionStore, useSelection } from '../../state/selection';
@@ -22,7 +20,7 @@ import { ROLE_STYLE } from '../../theme/visual';
 import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
 import { badgesOf } from '../diagnostics/collect';
 import { useProblems } from '../diagnostics/useProblems';
-import { buildEdges, buildNodes, type FlowNode } from './flow';
+import { buildEdges, buildNodes, settledMove, type FlowEdge, type FlowNode } from './flow';
 import { Legend } from './Legend';
 import { LinkEdge, MemberEdge } from './LinkEdge';
 import { LinkMarkers } from './Markers';
@@ -31,6 +29,17 @@ import { VariableNode } from './VariableNode';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
 const edgeTypes = { link: LinkEdge, member: MemberEdge };
+// Props of the flow that never change live outside the component: a new array,
+// object or function on every render would reach the flow's store as a change
+// (one more round of every node's and edge's subscriptions per pointer move).
+const DELETE_KEYS = ['Delete', 'Backspace'];
+const MULTI_SELECT_KEYS = ['Shift', 'Meta', 'Control'];
+const ARIA_LABELS = { 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' };
+const MINIMAP_STYLE = { width: 150, height: 96 };
+function minimapColor(n: FlowNode): string {
+  const d = n.data as { variable?: { kind: 'input' | 'state' | 'derived' } };
+  return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
+}
 function applyPicks(current: readonly string[], picks: readonly { id: string; selected: boolean }[]): string[] {
   const set = new Set(current);
   for (const p of picks) {
@@ -92,7 +101,10 @@ export function ModelCanvas() {
   useEffect(() => {
     setNodes((prev) => buildNodes(model, undefined, badges, selectedNodes, prev));
   }, [model, badges, selectedNodes]);
-  const edges = useMemo(() => buildEdges(model, selectedLinks), [model, selectedLinks]);
+  const [edges, setEdges] = useState<FlowEdge[]>([]);
+  useEffect(() => {
+    setEdges((prev) => buildEdges(model, selectedLinks, prev));
+  }, [model, selectedLinks]);
 
   useEffect(() => {
     setViewCentreProvider(() => {
@@ -111,13 +123,9 @@ export function ModelCanvas() {
       if (!sameList(next, s.nodes)) s.select({ nodes: next, links: s.links });
     }
     setNodes((nds) => applyNodeChanges(changes.filter((c) => c.type !== 'remove'), nds));
-    // a position that is no longer moving (end of a drag, an arrow-key step) goes to the document;
-    // positions during a drag stay on the canvas, so a drag is one undo step
-    const settled = changes.filter((c): c is NodePositionChange & { position: XYPosition } => c.type === 'position' && c.dragging === false && c.position !== undefined);
-    if (settled.length > 0) {
-      const positions = Object.fromEntries(settled.map((c) => [c.id, c.position]));
-      editDocument({ type: 'move', positions }, { squash: `move:${Object.keys(positions).sort().join(',')}` });
-    }
+    // only a position that is no longer moving goes to the document (one drag, one undo step)
+    const move = settledMove(changes);
+    if (move) editDocument(move.change, { squash: move.squash });
   }, []);
   const onEdgesChange = useCallback((changes: EdgeChange[]) => {
     const picks = changes.filter((c) => c.type === 'select');
@@ -177,8 +185,8 @@ export function ModelCanvas() {
         onMoveStart={onMoveStart}
         connectionMode={ConnectionMode.Strict}
         connectionRadius={30}
-        deleteKeyCode={['Delete', 'Backspace']}
-        multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
+        deleteKeyCode={DELETE_KEYS}
+        multiSelectionKeyCode={MULTI_SELECT_KEYS}
         selectionKeyCode="Shift"
         zoomOnDoubleClick={false}
         minZoom={0.1}
@@ -186,7 +194,7 @@ export function ModelCanvas() {
         fitView={fitOnMount}
         fitViewOptions={fitOptions}
         attributionPosition="top-right"
-        ariaLabelConfig={{ 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' }}
+        ariaLabelConfig={ARIA_LABELS}
       >
         <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
         <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" />
@@ -195,12 +203,9 @@ export function ModelCanvas() {
           pannable
           zoomable
           ariaLabel="Overview of the canvas"
-          nodeColor={(n) => {
-            const d = (n as FlowNode).data as { variable?: { kind: 'input' | 'state' | 'derived' } };
-            return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
-          }}
+          nodeColor={minimapColor}
           nodeStrokeWidth={2}
-          style={{ width: 150, height: 96 }}
+          style={MINIMAP_STYLE}
         />
         <Legend />
       </ReactFlow>

@@ -1,9 +1,10 @@
 /**
  * The model as canvas nodes and edges. Pure: the canvas component keeps the
- * previous nodes so that unchanged ones keep their identity (and their
- * measured size), which keeps large models smooth.
+ * previous nodes and edges so that unchanged ones keep their identity (and a
+ * node its measured size), which keeps large models smooth.
  */
-import type { Edge, Node } from '@xyflow/react';
+import type { Edge, Node, NodeChange } from '@xyflow/react';
+import type { Change } from '../../state/changes';
 import type { Link, Model, Relation, Variable } from '../../core/model/types';
 import type { Role } from '../../core/ordering/types';
 import { symbolsOf } from '../../state/validate';
@@ -85,22 +86,50 @@ export function buildNodes(model: Model, roles: Record<string, Role> | undefined
   return out;
 }
 
-export function buildEdges(model: Model, selected: ReadonlySet<string>): FlowEdge[] {
-  const edges: FlowEdge[] = model.links.map((l) => ({
-    id: l.id!,
-    type: 'link',
-    source: l.from,
-    target: l.to,
-    data: { link: l },
-    selected: selected.has(l.id!),
-    ariaLabel: `link from ${l.from} to ${l.to}: ${l.kind}${l.sign ? `, sign ${l.sign === '-' ? 'minus' : 'plus'}` : ''}`,
-  }));
+/**
+ * The model's links (and relation members) as canvas edges. Like `buildNodes`
+ * it keeps the previous edge object of every link an edit did not touch: a new
+ * object would redraw the link, and an edit would redraw all of them.
+ */
+export function buildEdges(model: Model, selected: ReadonlySet<string>, prev: readonly FlowEdge[] = []): FlowEdge[] {
+  const old = new Map(prev.map((e) => [e.id, e]));
+  const edges: FlowEdge[] = model.links.map((l) => {
+    const sel = selected.has(l.id!);
+    const p = old.get(l.id!);
+    if (p && p.type === 'link' && (p as LinkFlowEdge).data?.link === l && !!p.selected === sel) return p;
+    return {
+      id: l.id!,
+      type: 'link',
+      source: l.from,
+      target: l.to,
+      data: { link: l },
+      selected: sel,
+      ariaLabel: `link from ${l.from} to ${l.to}: ${l.kind}${l.sign ? `, sign ${l.sign === '-' ? 'minus' : 'plus'}` : ''}`,
+    };
+  });
   const ids = new Set(model.variables.map((v) => v.id));
   for (const r of model.relations ?? []) {
     for (const s of symbolsOf(r.equation, true)) {
       if (!ids.has(s)) continue;
-      edges.push({ id: `member:${r.id}:${s}`, type: 'member', source: r.id, target: s, selectable: false, focusable: false, deletable: false, data: {} });
+      const id = `member:${r.id}:${s}`;
+      const p = old.get(id);
+      edges.push(p && p.type === 'member' ? p : { id, type: 'member', source: r.id, target: s, selectable: false, focusable: false, deletable: false, data: {} });
     }
   }
   return edges;
+}
+
+/**
+ * The document edit for a batch of canvas node changes: the positions that
+ * stopped moving (the end of a drag, an arrow-key step), or null. Positions
+ * while a drag is under way stay on the canvas, so a drag is one edit and one
+ * undo step, and the model, its checks and its analysis do not change under a
+ * moving pointer.
+ */
+export function settledMove(changes: readonly NodeChange[]): { change: Change; squash: string } | null {
+  const positions: Record<string, { x: number; y: number }> = {};
+  for (const c of changes) if (c.type === 'position' && c.dragging === false && c.position !== undefined) positions[c.id] = c.position;
+  const ids = Object.keys(positions);
+  if (ids.length === 0) return null;
+  return { change: { type: 'move', positions }, squash: `move:${ids.sort().join(',')}` };
 }
