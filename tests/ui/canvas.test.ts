@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { NodeChange } from '@xyflow/react';
 import { buildEdges, buildNodes, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
+import { dashScaleAt, scaledDash } from '../../src/ui/canvas/zoomDetail';
+import { signPath } from '../../src/ui/canvas/LinkEdge';
 import { createDocumentStore, selectModel } from '../../src/state/document';
 import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
 import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
@@ -102,6 +104,27 @@ describe('link geometry', () => {
     const b = { x: 400, y: 0, w: 100, h: 40 };
     expect(linkPath(a, b).mid.y).toBeLessThan(20);
     expect(linkPath(b, a).mid.y).toBeGreaterThan(20);
+  });
+});
+
+describe('links when the canvas is zoomed out', () => {
+  it('lengthens the dash pattern in steps of two below 70 %, so on screen it stays within 0.7 to 1.4 times its size', () => {
+    expect(dashScaleAt(1.2)).toBe(1);
+    expect(dashScaleAt(0.7)).toBe(1);
+    expect(dashScaleAt(0.69)).toBe(2);
+    expect(dashScaleAt(0.35)).toBe(2);
+    expect(dashScaleAt(0.16)).toBe(8);
+    for (let zoom = 0.1; zoom < 0.7; zoom += 0.01) {
+      const onScreen = zoom * dashScaleAt(zoom);
+      expect(onScreen).toBeGreaterThanOrEqual(0.7 - 1e-9);
+      expect(onScreen).toBeLessThan(1.4);
+    }
+    expect(scaledDash('7 4')).toBe('calc(7px * var(--lf-dash-scale, 1)) calc(4px * var(--lf-dash-scale, 1))');
+  });
+
+  it('draws the sign glyph in the link\'s own coordinates', () => {
+    expect(signPath('-', 10, 20)).toBe('M5.5,20 H14.5');
+    expect(signPath('+', 10, 20)).toBe('M5.5,20 H14.5 M10,15.5 V24.5');
   });
 });
 

@@ -3,12 +3,19 @@ import { BaseEdge, useInternalNode, type EdgeProps, type InternalNode } from '@x
 import { INK, LINK_STYLE, MUTED } from '../../theme/visual';
 import { HEAD_MARKER } from './Markers';
 import { linkPath, type Box } from './geometry';
+import { scaledDash } from './zoomDetail';
 import type { LinkFlowEdge } from './flow';
 
 /** Line width from the link strength |weight| (default 1). */
 export function strokeForWeight(weight: number | undefined): number {
   const w = Math.min(3, Math.abs(weight ?? 1));
   return 1.2 + w * 0.9;
+}
+
+/** The bar of a minus, or the cross of a plus, centred on (x, y). */
+export function signPath(sign: '+' | '-', x: number, y: number): string {
+  const bar = `M${x - 4.5},${y} H${x + 4.5}`;
+  return sign === '-' ? bar : `${bar} M${x},${y - 4.5} V${y + 4.5}`;
 }
 
 function boxOf(n: InternalNode | undefined): Box | null {
@@ -18,6 +25,8 @@ function boxOf(n: InternalNode | undefined): Box | null {
   if (!w || !h) return null;
   return { x: n.internals.positionAbsolute.x, y: n.internals.positionAbsolute.y, w, h };
 }
+
+const LINK_DASH = { instantaneous: undefined, integrating: LINK_STYLE.integrating.dash && scaledDash(LINK_STYLE.integrating.dash) };
 
 /** A link: instantaneous = solid with a filled head, integrating = dashed with a hollow head; sign near the head. */
 export const LinkEdge = memo(function LinkEdge({ source, target, data, selected }: EdgeProps<LinkFlowEdge>) {
@@ -31,12 +40,13 @@ export const LinkEdge = memo(function LinkEdge({ source, target, data, selected 
   return (
     <>
       {selected && <BaseEdge path={path} style={{ stroke: '#c77d0a', strokeOpacity: 0.45, strokeWidth: width + 7 }} />}
-      <BaseEdge path={path} markerEnd={HEAD_MARKER[link.kind]} style={{ stroke: style.stroke, strokeWidth: width, strokeDasharray: style.dash }} interactionWidth={18} />
+      <BaseEdge path={path} markerEnd={HEAD_MARKER[link.kind]} style={{ stroke: style.stroke, strokeWidth: width, strokeDasharray: LINK_DASH[link.kind] }} interactionWidth={18} />
       {link.sign && (
-        // drawn in the edge layer itself (no HTML overlay per link): cheap for large models
-        <g className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} transform={`translate(${glyph.x},${glyph.y})`} aria-hidden="true">
-          <circle r={8.5} fill={link.sign === '-' ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
-          <path d={link.sign === '-' ? 'M-4.5,0 H4.5' : 'M-4.5,0 H4.5 M0,-4.5 V4.5'} stroke={link.sign === '-' ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
+        // drawn in the edge layer itself (no HTML overlay per link), in the edge's own coordinates: a
+        // transform per glyph would split the page's paint into one more piece per link
+        <g className={`lf-sign${link.sign === '-' ? ' is-minus' : ''}`} aria-hidden="true">
+          <circle cx={glyph.x} cy={glyph.y} r={8.5} fill={link.sign === '-' ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
+          <path d={signPath(link.sign, glyph.x, glyph.y)} stroke={link.sign === '-' ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
         </g>
       )}
     </>

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef, useState, type DragEvent, type MouseEvent as ReactMouseEvent } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type CSSProperties, type DragEvent, type MouseEvent as ReactMouseEvent } from 'react';
 import {
   Background,
   BackgroundVariant,
@@ -8,6 +8,7 @@ import {
   ReactFlow,
   applyNodeChanges,
   useReactFlow,
+  useStore,
   type EdgeChange,
   type FitViewOptions,
   type FinalConnectionState,
@@ -26,6 +27,7 @@ import { LinkEdge, MemberEdge } from './LinkEdge';
 import { LinkMarkers } from './Markers';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
+import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
 const edgeTypes = { link: LinkEdge, member: MemberEdge };
@@ -65,6 +67,9 @@ export function ModelCanvas() {
   // fit the view once per loaded document, not when the first node of an empty canvas appears
   const generation = useDocument((s) => s.generation);
   const legendOpen = useUi((s) => s.legendOpen);
+  // changes only when the zoom crosses a step of the dash scale (zoomDetail.ts), not on every zoom
+  const dashScale = useStore((s) => dashScaleAt(s.transform[2]));
+  const canvasStyle = useMemo(() => ({ [DASH_SCALE_VAR]: dashScale }) as CSSProperties, [dashScale]);
   // keep the fitted drawing clear of the legend strip (top) and the overview map (bottom right)
   const fitOptions = useMemo<FitViewOptions>(() => ({ padding: { top: legendOpen ? '84px' : '44px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2 }), [legendOpen]);
   const [fitOnMount] = useState(() => model.variables.length > 0);
@@ -169,7 +174,7 @@ export function ModelCanvas() {
   }, []);
 
   return (
-    <div className="lf-canvas" ref={wrapper} onPointerDownCapture={onPointerDown} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
+    <div className="lf-canvas" ref={wrapper} style={canvasStyle} onPointerDownCapture={onPointerDown} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
       <LinkMarkers />
       <ReactFlow
         nodes={nodes}
