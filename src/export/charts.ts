@@ -322,3 +322,66 @@ export function linkCurveChart(input: LinkCurveInput, opts: FigureOptions = {}):
   body.push(el('g', { transform: `translate(${CL},${CH + 6})`, 'data-part': 'legend' }, legend));
   return figure('link-curve', linkCurveLabel(model, curve), CW, CH + 42, body, opts);
 }
+
+// ——— one variable in two runs (without and with an intervention) ———
+
+export interface RunsInput {
+  times: readonly number[];
+  without: readonly number[];
+  with: readonly number[];
+  /** The variable's name. */
+  label: string;
+  timeUnit: string;
+}
+
+/** The index up to which a chart shows the runs: where they have done 99% of their moving, with a margin of half as long again. */
+export function settledIndex(times: readonly number[], runs: readonly (readonly number[])[]): number {
+  const n = times.length;
+  let last = 1;
+  for (const r of runs) {
+    if (r.length < n) continue;
+    let lo = Infinity, hi = -Infinity;
+    for (const v of r) { if (v < lo) lo = v; if (v > hi) hi = v; }
+    const band = 0.01 * (hi - lo);
+    const end = r[n - 1];
+    for (let k = n - 1; k >= 0; k--) if (Math.abs(r[k] - end) > band) { last = Math.max(last, k); break; }
+  }
+  const tEnd = Math.min(times[n - 1], times[0] + 1.5 * (times[last] - times[0]));
+  let k = last;
+  while (k < n - 1 && times[k] < tEnd) k++;
+  return Math.max(k, Math.min(n - 1, 4));
+}
+
+/**
+ * One variable in two runs, in one panel: dashed without the intervention,
+ * solid with it (told apart by line style, so the chart survives print and
+ * grayscale), with value and time axes. `crop` shows the runs only until
+ * both have settled (see settledIndex).
+ */
+export function runsChart(input: RunsInput, opts: FigureOptions & { crop?: boolean } = {}): El {
+  const W = 300, H = 150, L = 48, R = 10, T = 22, B = 30;
+  const end = opts.crop ? settledIndex(input.times, [input.without, input.with]) + 1 : input.times.length;
+  const times = input.times.slice(0, end), a = input.without.slice(0, end), b = input.with.slice(0, end);
+  const t0 = times[0] ?? 0, t1 = times[times.length - 1] ?? 1;
+  const x = linear(t0, t1 === t0 ? t0 + 1 : t1, L, W - R);
+  const [lo, hi] = extent([...a, ...b]);
+  const y = linear(lo, hi, H - B, T);
+  const line = (vs: readonly number[]) => vs.map((v, k) => (Number.isFinite(v) ? `${r1(x(times[k]))},${r1(y(v))}` : '')).filter(Boolean).join(' ');
+  const label = `${input.label}: without and with the hold`;
+  const body: El[] = [
+    text({ x: L, y: 14, 'font-size': 12, 'font-weight': 700, fill: C.text }, input.label),
+    el('rect', { x: L, y: T, width: W - L - R, height: H - T - B, fill: 'none', stroke: C.frame }),
+  ];
+  for (const v of niceTicks(lo, hi, 4).filter((v) => v >= lo && v <= hi)) {
+    body.push(hline(L - 4, L, y(v), { stroke: C.axis }), tick(L - 6, y(v) + 3.5, tickText(v), 'end'));
+  }
+  for (const v of niceTicks(t0, t1, 4).filter((v) => v >= t0 && v <= t1)) {
+    body.push(vline(x(v), H - B, H - B + 3, { stroke: C.axis }), tick(x(v), H - B + 13, tickText(v), 'middle'));
+  }
+  body.push(
+    text({ x: (L + W - R) / 2, y: H - 4, 'text-anchor': 'middle', 'font-size': 10, fill: C.label }, `time (${input.timeUnit})`),
+    el('polyline', { class: 'without', points: line(a), fill: 'none', stroke: C.label, 'stroke-width': 1.5, 'stroke-dasharray': '6 3' }),
+    el('polyline', { class: 'with', points: line(b), fill: 'none', stroke: C.line, 'stroke-width': 2 }),
+  );
+  return figure('runs', label, W, H, body, opts);
+}
