@@ -1,6 +1,7 @@
 import { defineConfig } from '@playwright/test';
 
-const PORT = 5199;
+// LOOPFOLD_E2E_PORT runs a second copy beside one already serving on the default port
+const PORT = Number(process.env.LOOPFOLD_E2E_PORT ?? 5199);
 export default defineConfig({
   testDir: 'e2e',
   timeout: 90_000,
