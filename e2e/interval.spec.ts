@@ -154,15 +154,21 @@ test('mouse drag across the whole control visits every band, each drawn as the c
 });
 
 test('a simultaneous block folds into one node with its count and unfolds again; the three-instant view', async ({ page }, testInfo) => {
+  test.setTimeout(180_000); // a tuned layout per band on the way, slow on a busy machine
+  const reloads: string[] = [];
+  page.on('framenavigated', (f) => { if (f === page.mainFrame()) reloads.push(f.url()); });
   const { slider } = await openTimescales(page);
   await slider.focus();
   await page.keyboard.press('Home');
-  // find a band with a block
-  for (let i = 0; i < 20; i++) {
-    if ((await orderingFigure(page).locator('g[data-group]').count()) > 0) break;
+  // step to the first band with a block, checking each key press moves one band on
+  let found = false;
+  for (let i = 0; i < 20 && !found; i++) {
+    const before = Number(await slider.getAttribute('data-band'));
     await page.keyboard.press('PageUp');
-    await drawn(page);
+    await expect(slider, `Page Up from band ${before} (page loads so far: ${reloads.join(', ')})`).toHaveAttribute('data-band', String(before + 1));
+    found = (await drawn(page)).groups.length > 0;
   }
+  expect(found, 'a band with a simultaneous block').toBe(true);
   const group = orderingFigure(page).locator('g[data-group]').first();
   const members = (await group.getAttribute('data-members'))!.split(' ');
   await orderingFigure(page).locator(`.lf-toggle[data-block="${(await group.getAttribute('data-block'))!}"]`).click();
