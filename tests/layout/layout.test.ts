@@ -106,6 +106,31 @@ describe('layout', () => {
     expect(seededKept).toBeGreaterThan(freshKept);
   });
 
+  it.each(EXAMPLES.map((e) => e.id))('%s: every edge into or out of a block is routed: from the outside to the block\'s border, then to the member\'s border', async (id) => {
+    const onBorder = (p: { x: number; y: number }, b: Box) => {
+      const inX = p.x >= b.x - 0.6 && p.x <= b.x + b.width + 0.6, inY = p.y >= b.y - 0.6 && p.y <= b.y + b.height + 0.6;
+      const edgeX = Math.abs(p.x - b.x) < 0.6 || Math.abs(p.x - b.x - b.width) < 0.6, edgeY = Math.abs(p.y - b.y) < 0.6 || Math.abs(p.y - b.y - b.height) < 0.6;
+      return inX && inY && (edgeX || edgeY);
+    };
+    let checked = 0;
+    for (const vm of views(example(id))) {
+      const l = await layoutInNode(vm, {});
+      const groupOf = new Map<string, string>();
+      for (const g of vm.groups) for (const m of g.members) groupOf.set(m, g.id);
+      for (const e of vm.edges) {
+        const a = groupOf.get(e.from), b = groupOf.get(e.to);
+        if ((!a && !b) || a === b) continue;
+        const route = l.edges?.[e.id];
+        expect(route, `${e.id} has a route`).toBeDefined();
+        const first = route![0], last = route![route!.length - 1];
+        if (a) { expect(onBorder(first, l.nodes[e.from]), `${e.id} leaves its member`).toBe(true); expect(onBorder(route![1], l.groups[a]), `${e.id} then the block`).toBe(true); }
+        if (b) { expect(onBorder(last, l.nodes[e.to]), `${e.id} ends at its member`).toBe(true); expect(onBorder(route![route!.length - 2], l.groups[b]), `${e.id} enters the block`).toBe(true); }
+        checked++;
+      }
+    }
+    if (id === 'sleep-stress') expect(checked).toBeGreaterThan(0);
+  });
+
   it('a layout made obsolete by a newer request is dropped', async () => {
     const m = example('sleep-stress');
     const [v1, v2] = views(m);
