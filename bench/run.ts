@@ -8,6 +8,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'numeric', file: './numeric.ts', fn: 'benchNumeric' },
   { name: 'layout', file: './layout.ts', fn: 'benchLayout' },
   { name: 'canvas', file: './canvas.ts', fn: 'benchCanvas' },
+  { name: 'bands', file: './bands.ts', fn: 'benchBands' },
 ];
 
 const wanted = process.argv.slice(2);
