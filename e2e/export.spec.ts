@@ -11,17 +11,23 @@ function pngSize(buf: Buffer): { width: number; height: number } {
   return { width: buf.readUInt32BE(16), height: buf.readUInt32BE(20) };
 }
 
+/** The sleep–stress example's timescale view at its seventh band (a simultaneous block, lagged links and a frozen variable). */
+async function openBandWithBlock(page: Page, view: 'ordering' | 'unrolled') {
+  await page.goto('/?example=sleep-stress');
+  await page.getByRole('tab', { name: 'Timescales' }).click();
+  const slider = page.getByRole('slider', { name: 'Sampling interval' });
+  await slider.focus();
+  await page.keyboard.press('Home');
+  for (let i = 0; i < 6; i++) await page.keyboard.press('PageUp');
+  if (view === 'unrolled') await page.getByRole('button', { name: 'Three instants' }).click();
+  return slider;
+}
+
 for (const view of ['ordering', 'unrolled'] as const) {
   test(`the app's ${view} export is the file \`loopfold render\` writes for the same interval`, async ({ page }, testInfo) => {
     page.on('pageerror', (e) => console.log('pageerror', e.message));
     page.on('console', (m) => { if (m.type() === 'error') console.log('console', m.text()); });
-    await page.goto('/?example=sleep-stress');
-    await page.getByRole('tab', { name: 'Timescales' }).click();
-    const slider = page.getByRole('slider', { name: 'Sampling interval' });
-    await slider.focus();
-    await page.keyboard.press('Home');
-    for (let i = 0; i < 6; i++) await page.keyboard.press('PageUp');
-    if (view === 'unrolled') await page.getByRole('button', { name: 'Three instants' }).click();
+    const slider = await openBandWithBlock(page, view);
     const interval = (await slider.getAttribute('data-interval'))!;
     await page.getByLabel('laid out').selectOption('fresh');
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'SVG' }).click()]);
@@ -83,14 +89,7 @@ test.describe('the exported figure is the picture on screen', () => {
   test.use({ viewport: { width: 4200, height: 1600 } });
   for (const view of ['ordering', 'unrolled'] as const) {
     test(`${view}: a screenshot of the exported SVG matches a screenshot of the figure in the app`, async ({ page, context }, testInfo) => {
-      await page.goto('/?example=sleep-stress');
-      await page.getByRole('tab', { name: 'Timescales' }).click();
-      const slider = page.getByRole('slider', { name: 'Sampling interval' });
-      await slider.focus();
-      await page.keyboard.press('Home');
-      // a band with a simultaneous block, lagged links and a frozen variable
-      for (let i = 0; i < 6; i++) await page.keyboard.press('PageUp');
-      if (view === 'unrolled') await page.getByRole('button', { name: 'Three instants' }).click();
+      await openBandWithBlock(page, view);
       const figure = page.getByRole('figure', { name: view === 'unrolled' ? 'The ordering over three instants' : 'The ordering at the interval' });
       await expect(figure).toHaveAttribute('data-layout', 'elk');
       await expect(figure).toHaveAttribute('data-pending', 'false');
