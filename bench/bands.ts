@@ -13,6 +13,7 @@
  * timescale pane), to tell which part of the page holds the frames back.
  * Run alone: `npx tsx bench/bands.ts` (`--sizes 500` for one model).
  */
+import { ms, sizesFromArgs, stats, verdict } from './common';
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
@@ -27,16 +28,7 @@ const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const PORT = 5531;
 const BANDS = 40;
 const DRAGS = 3;
-const sizesArg = process.argv[process.argv.indexOf('--sizes') + 1];
-const SIZES = process.argv.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Number) : [50, 200, 500, 2000];
-
-function stats(xs: number[]): { median: number; p95: number } {
-  const s = [...xs].sort((a, b) => a - b);
-  const q = (p: number) => s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
-  return { median: q(0.5), p95: q(0.95) };
-}
-const ms = (x: number) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
-const verdict = (ok: boolean) => (ok ? 'meets goal' : 'MISSES goal');
+const SIZES = sizesFromArgs();
 /** The same bands computed in this process (warm, median of three runs per band): the machine's pace, for comparison. */
 function inNode(model: Model, intervals: number[]): { median: number; p95: number } {
   for (const x of intervals.slice(0, 4)) orderingAt(model, { samples: 50, interval: x });

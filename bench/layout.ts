@@ -8,6 +8,7 @@
  * with the 2,000-variable model open, and the gzip size of the first page load.
  * Run alone: `npx tsx bench/layout.ts` (`--browser --sizes 500` for one model in the browser only).
  */
+import { ms, sizesFromArgs, stats, verdict } from './common';
 import { spawn, spawnSync } from 'node:child_process';
 import { readFileSync, existsSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
@@ -30,15 +31,7 @@ import { generatedSketch as generatedModel } from '../tests/helpers/sketches';
 
 const now = () => performance.now();
 /** `--sizes 500` (or `--sizes 200,500`) measures only those models in the browser part. */
-const sizesArg = process.argv[process.argv.indexOf('--sizes') + 1];
-const SIZES = process.argv.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Number) : [50, 200, 500, 2000];
-function stats(xs: number[]): { median: number; p95: number } {
-  const s = [...xs].sort((a, b) => a - b);
-  const q = (p: number) => s[Math.min(s.length - 1, Math.max(0, Math.ceil(p * s.length) - 1))];
-  return { median: q(0.5), p95: q(0.95) };
-}
-const ms = (x: number) => `${x < 10 ? x.toFixed(2) : x.toFixed(0)} ms`;
-const verdict = (ok: boolean) => (ok ? 'meets goal' : 'MISSES goal');
+const SIZES = sizesFromArgs();
 
 /** One interval inside each band (geometric middle between neighbouring breakpoints). */
 function bandIntervals(m: Model, limit: number): number[] {
