@@ -1,16 +1,8 @@
-/** Seeded pseudo-random numbers for reproducible numeric test cases (mulberry32, common practice). */
-export function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '../../helpers/random';
 
-/** Standard normal draws by Box–Muller. */
+/** Seeded pseudo-random numbers for reproducible numeric test cases: the tests' one generator. */
+export const seeded = seededRandom;
+
 export function normals(rand: () => number): () => number {
   return () => {
     const u = 1 - rand();
