@@ -1,4 +1,5 @@
 import { execFileSync } from 'node:child_process';
+import { holdFromPane } from './helpers/steps';
 import { expect, test } from '@playwright/test';
 
 /** What the command line says about the same intervention at the same interval. */
@@ -19,12 +20,7 @@ test('holding a variable at a long interval: the commutation verdict matches the
   const interval = valueText.replace(/^every\s+/, '');
   expect(interval).toMatch(/year|month/);
 
-  await page.getByRole('tab', { name: 'Intervene' }).click();
-  const holdForm = page.locator('.lf-hold');
-  await holdForm.getByRole('combobox').selectOption({ label: 'Transpiration' });
-  await holdForm.getByRole('textbox').fill('0.1');
-  await holdForm.getByRole('button', { name: 'Hold', exact: true }).click();
-  await expect(holdForm).toContainText('Transpiration = 0.1');
+  const holdForm = await holdFromPane(page, 'Transpiration', '0.1');
 
   const verdict = page.locator('.lf-commute-verdict');
   await expect(verdict).toBeVisible();

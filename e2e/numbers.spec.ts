@@ -1,5 +1,6 @@
 import { execFileSync, spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
+import { holdFromPane, stepToHoursOrDays } from './helpers/steps';
 import { expect, test, type Page } from '@playwright/test';
 
 /** What the command line reports for the same example (the numbers must be the same). */
@@ -19,13 +20,7 @@ test('Numbers pane on the greenhouse: balance, a simulation with the samples, ca
   // The numeric worker is not started before the pane is opened.
   expect(workers.some((u) => u.includes('numeric.worker'))).toBe(false);
   // An interval of about an hour: step up from the shortest.
-  await slider.focus();
-  await page.keyboard.press('Home');
-  for (let i = 0; i < 40; i++) {
-    const text = (await slider.getAttribute('aria-valuetext')) ?? '';
-    if (/\b(h|day|days)\b/.test(text)) break;
-    await page.keyboard.press('ArrowRight');
-  }
+  await stepToHoursOrDays(slider);
 
   await page.getByRole('tab', { name: 'Numbers' }).click();
   const pane = page.locator('.lf-numbers');
@@ -102,12 +97,7 @@ test('with a variable held, the balance shows both equilibria; the pane also wor
   page.on('pageerror', (e) => errors.push(e.message));
   await page.goto('/?example=greenhouse&noworker');
   await expect(page.getByRole('slider', { name: /sampling interval/i })).toBeVisible();
-  await page.getByRole('tab', { name: 'Intervene' }).click();
-  const holdForm = page.locator('.lf-hold');
-  await holdForm.getByRole('combobox').selectOption({ label: 'Transpiration' });
-  await holdForm.getByRole('textbox').fill('0.1');
-  await holdForm.getByRole('button', { name: 'Hold', exact: true }).click();
-  await expect(holdForm).toContainText('Transpiration = 0.1');
+  await holdFromPane(page, 'Transpiration', '0.1');
   await page.getByRole('tab', { name: 'Numbers' }).click();
   const table = page.locator('.lf-num-equilibrium');
   await expect(table.locator('thead')).toContainText('Without holds');
@@ -142,13 +132,7 @@ test('the Numbers pane exports the simulation chart and the lagged network as th
   const model = 'src/examples/greenhouse.json';
   await page.goto('/?example=greenhouse');
   const slider = page.getByRole('slider', { name: /sampling interval/i });
-  await slider.focus();
-  await page.keyboard.press('Home');
-  for (let i = 0; i < 40; i++) {
-    const text = (await slider.getAttribute('aria-valuetext')) ?? '';
-    if (/\b(h|day|days)\b/.test(text)) break;
-    await page.keyboard.press('ArrowRight');
-  }
+  await stepToHoursOrDays(slider);
   const interval = (await slider.getAttribute('data-interval'))!;
   await page.getByRole('tab', { name: 'Numbers' }).click();
   const pane = page.locator('.lf-numbers');
