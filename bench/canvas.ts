@@ -22,7 +22,9 @@
  * with the median of each figure over the runs. `--trace` also records a
  * Chromium trace of one 500-variable drag and prints where the time goes per
  * thread (script, style and layout, paint, layerizing, hit tests, raster).
- * Run alone: `npx tsx bench/canvas.ts [--runs K] [--trace] [--dev]`.
+ * `--trace-only` records just that trace; `--dist DIR` measures a build made
+ * before (`vite build --outDir DIR`) instead of building one.
+ * Run alone: `npx tsx bench/canvas.ts [--runs K] [--trace | --trace-only] [--dist DIR] [--dev]`.
  */
 import { createServer as createNetServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
@@ -128,7 +130,7 @@ async function open(page: Page, base: string, model: Model): Promise<{ cx: numbe
   const t0 = Date.now();
   await page.evaluate((m) => window.__loopfold!.load(m), model);
   await page.waitForFunction((n) => document.querySelectorAll('.react-flow__node-variable').length >= n, Math.min(model.variables.length, 50));
-  await page.waitForFunction(() => document.querySelectorAll('.react-flow__edge-link path').length > 0);
+  await page.waitForFunction(() => document.querySelectorAll('.lf-link path').length > 0);
   const loadMs = Date.now() - t0;
   await page.waitForTimeout(1500);
   const pane = (await page.locator('.react-flow__pane').boundingBox())!;
@@ -304,9 +306,13 @@ export async function benchCanvas(): Promise<void> {
     await server.listen();
     close = () => server.close();
   } else {
-    const outDir = join(tmpdir(), 'loopfold-bench-canvas-dist');
-    console.log(`building the app (vite build → ${outDir}) …`);
-    await build({ root: ROOT, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+    const given = argValue('--dist');
+    const outDir = given ?? join(tmpdir(), 'loopfold-bench-canvas-dist');
+    if (given) console.log(`measuring the build in ${outDir} (not rebuilt)`);
+    else {
+      console.log(`building the app (vite build → ${outDir}) …`);
+      await build({ root: ROOT, logLevel: 'error', build: { outDir, emptyOutDir: true } });
+    }
     const server = await preview({ root: ROOT, logLevel: 'error', build: { outDir }, preview: { port, strictPort: true, host: '127.0.0.1' } });
     close = () => new Promise<void>((resolve) => server.httpServer.close(() => resolve()));
   }
@@ -325,6 +331,10 @@ export async function benchCanvas(): Promise<void> {
     console.log(`canvas frame times (headless Chromium, software rendering, requestAnimationFrame intervals; ${dev ? 'dev server' : 'production build'})`);
     console.log(`  load average at start ${loadavg().map((x) => x.toFixed(2)).join(' ')} (2 shared cores: figures vary with other work)`);
     const sizes = [['50 variables / 100 links (reference)', generatedModel(50, 100)], ['500 variables / 1000 links', generatedModel(500, 1000)]] as const;
+    if (process.argv.includes('--trace-only')) {
+      await traceDrag(page, base, sizes[1][1]);
+      return;
+    }
     const results: Run[][] = sizes.map(() => []);
     for (let r = 0; r < runs; r++) {
       for (let i = 0; i < sizes.length; i++) results[i].push(await measure(page, base, sizes[i][1]));

@@ -77,17 +77,17 @@ test.describe('editing a model on the canvas', () => {
 
     // 5. links: three drawn with the mouse, one added from the inspector with the keyboard
     await dragLink(page, 'irrigation', 'soilWater');
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(1);
+    await expect(page.locator('.lf-link')).toHaveCount(1);
     await expect(inspector.getByRole('heading', { name: 'Link' })).toBeVisible();
     // a link into a state integrates
     await expect(inspector.getByRole('radio', { name: /Integrating/ })).toBeChecked();
     await dragLink(page, 'soilWater', 'leafWetness');
     await dragLink(page, 'leafWetness', 'fungalRisk');
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(3);
+    await expect(page.locator('.lf-link')).toHaveCount(3);
     await page.locator('.react-flow__node[data-id="soilWater"]').click();
     await inspector.getByLabel('New link to').selectOption({ label: 'Fungal risk' });
     await inspector.getByRole('button', { name: 'Add link' }).click();
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(4);
+    await expect(page.locator('.lf-link')).toHaveCount(4);
     await inspector.getByRole('radio', { name: /decreases/ }).check();
     await expect(page.locator('.lf-sign.is-minus')).toHaveCount(1);
 
@@ -128,7 +128,7 @@ test.describe('editing a model on the canvas', () => {
     const before = await page.evaluate(() => window.__loopfold!.model());
     await page.reload();
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(4);
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(4);
+    await expect(page.locator('.lf-link')).toHaveCount(4);
     expect(await page.evaluate(() => window.__loopfold!.model())).toEqual(before);
     await expect(page.locator('[aria-label="Fungal risk: derived variable"]')).toHaveCount(1);
     await shot(page, testInfo.outputPath('06-after-reload.png'));
@@ -174,7 +174,7 @@ test.describe('editing a model on the canvas', () => {
     await page.keyboard.press('Control+v');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(9);
     // the copied link between the two comes along
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(12);
+    await expect(page.locator('.lf-link')).toHaveCount(12);
     await page.keyboard.press('Delete');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
     await page.keyboard.press('Control+z');
@@ -201,7 +201,7 @@ test.describe('editing a model on the canvas', () => {
     await eq.fill('rumination * 2 = mood + coping');
     await expect(inspector.getByRole('alert')).toHaveCount(0);
     // one dotted member line per variable of the relation
-    await expect(page.locator('.react-flow__edge-member')).toHaveCount(3);
+    await expect(page.locator('.lf-member')).toHaveCount(3);
     await page.getByRole('tab', { name: 'Equations' }).click();
     const grid = page.locator('.lf-grid');
     await expect(grid).toBeVisible();
@@ -234,7 +234,55 @@ test.describe('editing a model on the canvas', () => {
     await page.keyboard.press('Enter');
     await page.keyboard.press('Delete');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(6);
-    await expect(page.locator('.react-flow__edge-link')).toHaveCount(10);
+    await expect(page.locator('.lf-link')).toHaveCount(10);
     await shot(page, testInfo.outputPath('keyboard-delete.png'));
+  });
+
+  test('a link is picked with a click or the keyboard, and deleted and restored like a variable', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.lf-link')).toHaveCount(11);
+    const links = page.locator('.lf-link');
+    // a point on the middle of the drawn curve, in page pixels
+    const onCurve = (i: number) =>
+      links.nth(i).evaluate((g) => {
+        const p = g.querySelector('.lf-link-line') as SVGPathElement;
+        const q = p.getPointAtLength(p.getTotalLength() / 2);
+        const m = p.getScreenCTM()!;
+        return { x: q.x * m.a + q.y * m.c + m.e, y: q.x * m.b + q.y * m.d + m.f, id: g.getAttribute('data-link')! };
+      });
+    const first = await onCurve(0);
+    await page.mouse.click(first.x, first.y);
+    await expect(page.locator('.lf-inspector h2')).toHaveText('Link');
+    await expect(links.nth(0)).toHaveAttribute('aria-pressed', 'true');
+    await expect(page.locator('.lf-link.is-selected')).toHaveCount(1);
+    // Shift-click adds a second link; a click on a variable then picks the variable alone
+    const second = await onCurve(3);
+    await page.keyboard.down('Shift');
+    await page.mouse.click(second.x, second.y);
+    await page.keyboard.up('Shift');
+    await expect(page.locator('.lf-inspector h2')).toHaveText('2 items selected');
+    await page.locator('.react-flow__node[data-id="workload"]').click();
+    await expect(page.locator('.lf-inspector h2')).toHaveText('Variable: Workload');
+    await expect(page.locator('.lf-link.is-selected')).toHaveCount(0);
+    // the keyboard: focus a link, Enter picks it, Delete removes it, Ctrl+Z brings it back
+    await links.nth(2).focus();
+    await page.keyboard.press('Enter');
+    await expect(page.locator('.lf-inspector h2')).toHaveText('Link');
+    await shot(page, testInfo.outputPath('link-picked.png'));
+    const picked = await links.nth(2).getAttribute('data-link');
+    await page.keyboard.press('Delete');
+    await expect(page.locator('.lf-link')).toHaveCount(10);
+    await expect(page.locator(`.lf-link[data-link="${picked}"]`)).toHaveCount(0);
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.keyboard.press('Control+z');
+    await expect(page.locator('.lf-link')).toHaveCount(11);
+    // a click on empty canvas clears the pick
+    await links.nth(0).focus();
+    await page.keyboard.press('Enter');
+    await expect(page.locator('.lf-link.is-selected')).toHaveCount(1);
+    const box = (await page.locator('.lf-canvas').boundingBox())!;
+    await page.mouse.click(box.x + 12, box.y + box.height / 2);
+    await expect(page.locator('.lf-link.is-selected')).toHaveCount(0);
+    await expect(page.locator('.lf-inspector h2')).toHaveText('Model');
   });
 });

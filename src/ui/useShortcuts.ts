@@ -1,7 +1,8 @@
 import { useEffect } from 'react';
 import { useReactFlow } from '@xyflow/react';
 import { documentStore } from '../state/document';
-import { addVariable, copySelection, pasteClipboard, save, selectAll } from './actions';
+import { selectionStore } from '../state/selection';
+import { addVariable, copySelection, deleteSelection, pasteClipboard, save, selectAll } from './actions';
 
 function typing(target: EventTarget | null): boolean {
   const el = target as HTMLElement | null;
@@ -10,7 +11,7 @@ function typing(target: EventTarget | null): boolean {
   return tag === 'INPUT' || tag === 'TEXTAREA' || tag === 'SELECT' || el.isContentEditable;
 }
 
-/** Editor keys: undo/redo everywhere outside text fields, plus add, copy/paste, select all, fit, save. */
+/** Editor keys: undo/redo everywhere outside text fields, plus add, delete, copy/paste, select all, fit, save. */
 export function useShortcuts(): void {
   const flow = useReactFlow();
   useEffect(() => {
@@ -41,6 +42,11 @@ export function useShortcuts(): void {
       } else if (!mod && !e.altKey && (k === 'n' || e.key === 'Insert')) {
         e.preventDefault();
         addVariable('derived');
+      } else if (!mod && !e.altKey && (e.key === 'Delete' || e.key === 'Backspace')) {
+        const s = selectionStore.getState();
+        if (s.nodes.length + s.links.length === 0) return;
+        e.preventDefault();
+        deleteSelection();
       } else if (!mod && !e.altKey && k === 'f') {
         e.preventDefault();
         void flow.fitView({ padding: { top: '84px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2, duration: 200 });

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { NodeChange } from '@xyflow/react';
-import { buildEdges, buildNodes, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
+import { buildNodes, canvasLines, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
 import { dashScaleAt, scaledDash } from '../../src/ui/canvas/zoomDetail';
-import { signPath } from '../../src/ui/canvas/LinkEdge';
+import { drawnBetween, signPath } from '../../src/ui/canvas/LinkLayer';
 import { createDocumentStore, selectModel } from '../../src/state/document';
 import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
 import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
@@ -35,23 +35,40 @@ describe('canvas nodes from the model', () => {
     expect(second[1].ariaLabel).toBe('Level: state');
   });
 
-  it('keeps the edge object of every link an edit or a selection did not touch', () => {
-    const first = buildEdges(model, new Set());
-    const linked = applyChange(model, { type: 'addLink', link: { from: 'b', to: 'c', kind: 'instantaneous' } });
-    const second = buildEdges(linked, new Set(), first);
-    expect(second).toHaveLength(first.length + 1);
-    for (const e of first) expect(second.find((x) => x.id === e.id)).toBe(e);
-    const picked = buildEdges(linked, new Set([first[0].id]), second);
-    expect(picked[0]).not.toBe(second[0]);
-    expect(picked[0].selected).toBe(true);
-    expect(picked.slice(1)).toEqual(second.slice(1));
-    picked.slice(1).forEach((e, i) => expect(e).toBe(second[i + 1]));
+  it('joins a relation to each of its variables with an undirected member line, and names both ends of a link', () => {
+    const lines = canvasLines(model);
+    expect(lines.links.map((l) => l.label)).toEqual(['link from a to b: integrating']);
+    expect(lines.members.map((m) => m.variable).sort()).toEqual(['a', 'b', 'c']);
+    expect(new Set(lines.members.map((m) => m.relation))).toEqual(new Set(['r']));
+    // a name in the equation that is not a variable joins nothing
+    const other = applyChange(model, { type: 'updateRelation', id: 'r', patch: { equation: 'a * k = c' } });
+    expect(canvasLines(other).members.map((m) => m.variable).sort()).toEqual(['a', 'c']);
+    const labelled = applyChange(model, { type: 'updateVariable', id: 'b', patch: { label: 'Level' } });
+    expect(canvasLines(labelled).links[0].label).toBe('link from a to Level: integrating');
   });
+});
 
-  it('joins a relation to each of its variables with an undirected member line', () => {
-    const edges = buildEdges(model, new Set());
-    expect(edges.filter((e) => e.type === 'link')).toHaveLength(1);
-    expect(edges.filter((e) => e.type === 'member').map((e) => e.target).sort()).toEqual(['a', 'b', 'c']);
+describe('the link layer during a drag', () => {
+  it('recomputes the path of a line only when one of its two boxes moved or resized', () => {
+    const cache = new Map<string, ReturnType<typeof drawnBetween>>();
+    let calls = 0;
+    const draw = (a: { x: number; y: number; w: number; h: number }, b: { x: number; y: number; w: number; h: number }) => {
+      calls++;
+      return linkPath(a, b);
+    };
+    const a = { x: 0, y: 0, w: 120, h: 46 };
+    const b = { x: 300, y: 40, w: 120, h: 46 };
+    const first = drawnBetween(cache, 'l1', a, b, draw);
+    // equal boxes in new objects, as the layer builds them on every pointer move
+    const again = drawnBetween(cache, 'l1', { ...a }, { ...b }, draw);
+    expect(again).toBe(first);
+    expect(calls).toBe(1);
+    const moved = drawnBetween(cache, 'l1', a, { ...b, x: 310 }, draw);
+    expect(calls).toBe(2);
+    expect(moved.d).not.toBe(first.d);
+    expect(moved.d).toBe(linkPath(a, { ...b, x: 310 }).path);
+    drawnBetween(cache, 'l1', a, { ...b, x: 310, h: 60 }, draw);
+    expect(calls).toBe(3);
   });
 });
 

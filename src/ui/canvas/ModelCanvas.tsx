@@ -9,7 +9,7 @@ import {
   applyNodeChanges,
   useReactFlow,
   useStore,
-  type EdgeChange,
+  useStoreApi,
   type FitViewOptions,
   type FinalConnectionState,
   type NodeChange,
@@ -18,23 +18,21 @@ import { documentStore, editDocument, useDocument, useModel } from '../../state/
 import { selectionStore, useSelection } from '../../state/selection';
 import { useUi } from '../../state/ui';
 import { ROLE_STYLE } from '../../theme/visual';
-import { addLink, addVariable, deleteSelection, openFile, setViewCentreProvider } from '../actions';
+import { addLink, addVariable, openFile, setViewCentreProvider } from '../actions';
 import { badgesOf } from '../diagnostics/collect';
 import { useProblems } from '../diagnostics/useProblems';
-import { buildEdges, buildNodes, settledMove, type FlowEdge, type FlowNode } from './flow';
+import { buildNodes, settledMove, type FlowNode } from './flow';
 import { Legend } from './Legend';
-import { LinkEdge, MemberEdge } from './LinkEdge';
+import { LinkLayer } from './LinkLayer';
 import { LinkMarkers } from './Markers';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
-const edgeTypes = { link: LinkEdge, member: MemberEdge };
 // Props of the flow that never change live outside the component: a new array,
 // object or function on every render would reach the flow's store as a change
 // (one more round of every node's and edge's subscriptions per pointer move).
-const DELETE_KEYS = ['Delete', 'Backspace'];
 const MULTI_SELECT_KEYS = ['Shift', 'Meta', 'Control'];
 const ARIA_LABELS = { 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' };
 const MINIMAP_STYLE = { width: 150, height: 96 };
@@ -50,18 +48,33 @@ function applyPicks(current: readonly string[], picks: readonly { id: string; se
   }
   return [...set];
 }
+/**
+ * A node as the flow draws it. A resting variable is placed with left/top and
+ * no transform: a transform per node would make every variable a separate
+ * piece the browser sorts into layers on each frame of a drag. A dragged one
+ * keeps the flow's transform and gets a layer of its own, so moving it only
+ * moves that layer and the resting drawing is not painted again.
+ */
+const placedCache = new WeakMap<FlowNode, FlowNode>();
+function placed(n: FlowNode): FlowNode {
+  let p = placedCache.get(n);
+  if (!p) {
+    p = { ...n, style: n.dragging ? { ...n.style, willChange: 'transform' } : { ...n.style, transform: 'none', left: n.position.x, top: n.position.y } } as FlowNode;
+    placedCache.set(n, p);
+  }
+  return p;
+}
 const sameList = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x, i) => x === b[i]);
 
 /** The mechanism canvas: variables, links and relations of the document, edited in place. */
 export function ModelCanvas() {
   const model = useModel();
   const selNodes = useSelection((s) => s.nodes);
-  const selLinks = useSelection((s) => s.links);
   const problems = useProblems();
   const badges = useMemo(() => badgesOf(problems), [problems]);
   const selectedNodes = useMemo(() => new Set(selNodes), [selNodes]);
-  const selectedLinks = useMemo(() => new Set(selLinks), [selLinks]);
   const [nodes, setNodes] = useState<FlowNode[]>([]);
+  const shownNodes = useMemo(() => nodes.map(placed), [nodes]);
   const flow = useReactFlow();
   const wrapper = useRef<HTMLDivElement>(null);
   // fit the view once per loaded document, not when the first node of an empty canvas appears
@@ -106,10 +119,6 @@ export function ModelCanvas() {
   useEffect(() => {
     setNodes((prev) => buildNodes(model, undefined, badges, selectedNodes, prev));
   }, [model, badges, selectedNodes]);
-  const [edges, setEdges] = useState<FlowEdge[]>([]);
-  useEffect(() => {
-    setEdges((prev) => buildEdges(model, selectedLinks, prev));
-  }, [model, selectedLinks]);
 
   useEffect(() => {
     setViewCentreProvider(() => {
@@ -119,29 +128,28 @@ export function ModelCanvas() {
     });
   }, [flow]);
 
+  const flowStore = useStoreApi<FlowNode>();
   const onNodesChange = useCallback((changes: NodeChange<FlowNode>[]) => {
-    // removals go through the document (onDelete); selection goes to the selection store
+    // removals go through the document (the Delete key, useShortcuts); selection goes to the selection store
     const picks = changes.filter((c) => c.type === 'select');
     if (picks.length > 0) {
       const s = selectionStore.getState();
       const next = applyPicks(s.nodes, picks);
-      if (!sameList(next, s.nodes)) s.select({ nodes: next, links: s.links });
+      // picking a variable without Shift/Ctrl/Cmd drops the picked links, as a click on the canvas does
+      const links = picks.some((p) => p.selected) && !flowStore.getState().multiSelectionActive ? [] : s.links;
+      if (!sameList(next, s.nodes) || !sameList(links, s.links)) s.select({ nodes: next, links });
     }
     setNodes((nds) => applyNodeChanges(changes.filter((c) => c.type !== 'remove'), nds));
     // only a position that is no longer moving goes to the document (one drag, one undo step)
     const move = settledMove(changes);
     if (move) editDocument(move.change, { squash: move.squash });
-  }, []);
-  const onEdgesChange = useCallback((changes: EdgeChange[]) => {
-    const picks = changes.filter((c) => c.type === 'select');
-    if (picks.length === 0) return;
+  }, [flowStore]);
+  const onPaneClick = useCallback(() => {
     const s = selectionStore.getState();
-    const next = applyPicks(s.links, picks);
-    if (!sameList(next, s.links)) s.select({ nodes: s.nodes, links: next });
+    if (s.links.length > 0) s.select({ nodes: s.nodes, links: [] });
   }, []);
   const onNodeDragStart = useCallback(() => documentStore.getState().stopGesture(), []);
   const onNodeDragStop = useCallback(() => documentStore.getState().stopGesture(), []);
-  const onDelete = useCallback(() => deleteSelection(), []);
   const onConnectEnd = useCallback((event: MouseEvent | TouchEvent, state: FinalConnectionState) => {
     const from = state.fromNode?.id;
     if (!from) return;
@@ -177,20 +185,17 @@ export function ModelCanvas() {
     <div className="lf-canvas" ref={wrapper} style={canvasStyle} onPointerDownCapture={onPointerDown} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
       <LinkMarkers />
       <ReactFlow
-        nodes={nodes}
-        edges={edges}
+        nodes={shownNodes}
         nodeTypes={nodeTypes}
-        edgeTypes={edgeTypes}
         onNodesChange={onNodesChange}
-        onEdgesChange={onEdgesChange}
         onNodeDragStart={onNodeDragStart}
         onNodeDragStop={onNodeDragStop}
-        onDelete={onDelete}
+        onPaneClick={onPaneClick}
         onConnectEnd={onConnectEnd}
         onMoveStart={onMoveStart}
         connectionMode={ConnectionMode.Strict}
         connectionRadius={30}
-        deleteKeyCode={DELETE_KEYS}
+        deleteKeyCode={null}
         multiSelectionKeyCode={MULTI_SELECT_KEYS}
         selectionKeyCode="Shift"
         zoomOnDoubleClick={false}
@@ -212,6 +217,7 @@ export function ModelCanvas() {
           nodeStrokeWidth={2}
           style={MINIMAP_STYLE}
         />
+        <LinkLayer model={model} />
         <Legend />
       </ReactFlow>
       {model.variables.length === 0 && (

@@ -1,9 +1,9 @@
 /**
- * The model as canvas nodes and edges. Pure: the canvas component keeps the
- * previous nodes and edges so that unchanged ones keep their identity (and a
- * node its measured size), which keeps large models smooth.
+ * The model as canvas nodes and link-layer lines. Pure: the canvas component
+ * keeps the previous nodes so that unchanged ones keep their identity (and
+ * their measured size), which keeps large models smooth.
  */
-import type { Edge, Node, NodeChange } from '@xyflow/react';
+import type { Node, NodeChange } from '@xyflow/react';
 import type { Change } from '../../state/changes';
 import type { Link, Model, Relation, Variable } from '../../core/model/types';
 import type { Role } from '../../core/ordering/types';
@@ -20,15 +20,10 @@ export interface RelationNodeData extends Record<string, unknown> {
   relation: Relation;
   errors: number;
 }
-export interface LinkEdgeData extends Record<string, unknown> {
-  link: Link;
-}
 
 export type VariableFlowNode = Node<VariableNodeData, 'variable'>;
 export type RelationFlowNode = Node<RelationNodeData, 'relation'>;
 export type FlowNode = VariableFlowNode | RelationFlowNode;
-export type LinkFlowEdge = Edge<LinkEdgeData, 'link'>;
-export type FlowEdge = LinkFlowEdge | Edge<Record<string, unknown>, 'member'>;
 
 export interface Badges {
   errors: Map<string, number>;
@@ -86,37 +81,30 @@ export function buildNodes(model: Model, roles: Record<string, Role> | undefined
   return out;
 }
 
+/** A line of the canvas's link layer: a link, or a relation joined to one of its variables. */
+export interface CanvasLines {
+  links: { id: string; link: Link; label: string }[];
+  members: { id: string; relation: string; variable: string }[];
+}
+
+/** What a screen reader hears for a link. */
+export function linkAriaLabel(l: Link, name: (id: string) => string): string {
+  return `link from ${name(l.from)} to ${name(l.to)}: ${l.kind}${l.sign ? `, sign ${l.sign === '-' ? 'minus' : 'plus'}` : ''}`;
+}
+
 /**
- * The model's links (and relation members) as canvas edges. Like `buildNodes`
- * it keeps the previous edge object of every link an edit did not touch: a new
- * object would redraw the link, and an edit would redraw all of them.
+ * The lines the link layer draws for a model: every link with its spoken
+ * label, and every relation joined to each variable its equation names (a
+ * name that is not a variable joins nothing). Depends on the document only,
+ * so the layer computes it once per edit, not once per pointer move.
  */
-export function buildEdges(model: Model, selected: ReadonlySet<string>, prev: readonly FlowEdge[] = []): FlowEdge[] {
-  const old = new Map(prev.map((e) => [e.id, e]));
-  const edges: FlowEdge[] = model.links.map((l) => {
-    const sel = selected.has(l.id!);
-    const p = old.get(l.id!);
-    if (p && p.type === 'link' && (p as LinkFlowEdge).data?.link === l && !!p.selected === sel) return p;
-    return {
-      id: l.id!,
-      type: 'link',
-      source: l.from,
-      target: l.to,
-      data: { link: l },
-      selected: sel,
-      ariaLabel: `link from ${l.from} to ${l.to}: ${l.kind}${l.sign ? `, sign ${l.sign === '-' ? 'minus' : 'plus'}` : ''}`,
-    };
-  });
-  const ids = new Set(model.variables.map((v) => v.id));
-  for (const r of model.relations ?? []) {
-    for (const s of symbolsOf(r.equation, true)) {
-      if (!ids.has(s)) continue;
-      const id = `member:${r.id}:${s}`;
-      const p = old.get(id);
-      edges.push(p && p.type === 'member' ? p : { id, type: 'member', source: r.id, target: s, selectable: false, focusable: false, deletable: false, data: {} });
-    }
-  }
-  return edges;
+export function canvasLines(model: Model): CanvasLines {
+  const names = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
+  const name = (id: string) => names.get(id) ?? id;
+  const links = model.links.map((link) => ({ id: link.id!, link, label: linkAriaLabel(link, name) }));
+  const members: CanvasLines['members'] = [];
+  for (const r of model.relations ?? []) for (const s of symbolsOf(r.equation, true)) if (names.has(s)) members.push({ id: `member:${r.id}:${s}`, relation: r.id, variable: s });
+  return { links, members };
 }
 
 /**

@@ -1,0 +1,182 @@
+/**
+ * Every link of the mechanism canvas in one `<svg>` under the variables.
+ *
+ * The flow library would draw each link as its own `<svg>` with its own
+ * subscription to the flow's store: with 1,000 links a pointer move during a
+ * drag ran 1,000 selectors and the browser composited 1,000 separate pieces.
+ * Here one subscription (the flow's node list) recomputes the geometry of the
+ * links whose end boxes changed, and one `<svg>` holds them all, so a drag
+ * redraws the links of the moving variables and nothing else.
+ *
+ * Links are focusable (Tab), Enter or Space selects one, Shift adds it to the
+ * selection, Escape clears it; a click selects, Shift/Ctrl/Cmd-click toggles.
+ */
+import { memo, useCallback, useMemo, useRef, type KeyboardEvent, type MouseEvent, type ReactElement } from 'react';
+import { EdgeLabelRenderer, useStore, useStoreApi, type InternalNode } from '@xyflow/react';
+import type { Link, Model } from '../../core/model/types';
+import { INK, LINK_STYLE, MUTED } from '../../theme/visual';
+import { selectionStore, useSelection } from '../../state/selection';
+import { HEAD_MARKER } from './Markers';
+import { linkPath, type Box } from './geometry';
+import { scaledDash } from './zoomDetail';
+import { canvasLines } from './flow';
+
+/** Line width from the link strength |weight| (default 1). */
+export function strokeForWeight(weight: number | undefined): number {
+  const w = Math.min(3, Math.abs(weight ?? 1));
+  return 1.2 + w * 0.9;
+}
+
+/** The bar of a minus, or the cross of a plus, centred on (x, y). */
+export function signPath(sign: '+' | '-', x: number, y: number): string {
+  const bar = `M${x - 4.5},${y} H${x + 4.5}`;
+  return sign === '-' ? bar : `${bar} M${x},${y - 4.5} V${y + 4.5}`;
+}
+
+export function boxOf(n: InternalNode | undefined): Box | null {
+  if (!n) return null;
+  const w = n.measured.width ?? 0;
+  const h = n.measured.height ?? 0;
+  if (!w || !h) return null;
+  return { x: n.internals.positionAbsolute.x, y: n.internals.positionAbsolute.y, w, h };
+}
+
+const sameBox = (a: Box, b: Box) => a.x === b.x && a.y === b.y && a.w === b.w && a.h === b.h;
+
+interface Drawn {
+  a: Box;
+  b: Box;
+  d: string;
+  gx: number;
+  gy: number;
+}
+
+/**
+ * The path of a line between two boxes, from a cache kept per line: a line
+ * whose two boxes did not move keeps its previous path string, so its element
+ * sees the same props and is not redrawn.
+ */
+export function drawnBetween(cache: Map<string, Drawn>, id: string, a: Box, b: Box, draw: (a: Box, b: Box) => { path: string; glyph: { x: number; y: number } }): Drawn {
+  const old = cache.get(id);
+  if (old && sameBox(old.a, a) && sameBox(old.b, b)) return old;
+  const { path, glyph } = draw(a, b);
+  const next = { a, b, d: path, gx: glyph.x, gy: glyph.y };
+  cache.set(id, next);
+  return next;
+}
+
+const LINK_DASH = { instantaneous: undefined, integrating: LINK_STYLE.integrating.dash && scaledDash(LINK_STYLE.integrating.dash) };
+
+interface LinkShapeProps {
+  link: Link;
+  label: string;
+  d: string;
+  gx: number;
+  gy: number;
+  selected: boolean;
+}
+
+/** One link: instantaneous = solid with a filled head, integrating = dashed with a hollow head; sign near the head. */
+const LinkShape = memo(function LinkShape({ link, label, d, gx, gy, selected }: LinkShapeProps) {
+  const style = LINK_STYLE[link.kind];
+  const width = strokeForWeight(link.weight);
+  const minus = link.sign === '-';
+  return (
+    <g className={`lf-link nopan${selected ? ' is-selected' : ''}`} data-link={link.id} data-kind={link.kind} tabIndex={0} role="button" aria-pressed={selected} aria-label={label}>
+      {/* the wide stroke that takes the pointer: unpainted, shown as a soft band when the link has keyboard focus */}
+      <path d={d} className="lf-link-hit" fill="none" stroke="#000" strokeWidth={18} />
+      {selected && <path d={d} className="lf-link-halo" fill="none" stroke="#c77d0a" strokeOpacity={0.45} strokeWidth={width + 7} />}
+      <path d={d} className="lf-link-line" fill="none" markerEnd={HEAD_MARKER[link.kind]} stroke={style.stroke} strokeWidth={width} style={LINK_DASH[link.kind] ? { strokeDasharray: LINK_DASH[link.kind] } : undefined} />
+      {link.sign && (
+        <g className={`lf-sign${minus ? ' is-minus' : ''}`} aria-hidden="true">
+          <circle cx={gx} cy={gy} r={8.5} fill={minus ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
+          <path d={signPath(link.sign, gx, gy)} stroke={minus ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
+        </g>
+      )}
+    </g>
+  );
+});
+
+/** A relation joined to one of its variables: dotted, no head (a relation has no direction). */
+const MemberShape = memo(function MemberShape({ d }: { d: string }) {
+  return <path d={d} className="lf-member" fill="none" stroke={MUTED} strokeWidth={1.5} strokeDasharray="1.5 3.5" strokeLinecap="round" />;
+});
+
+const memberPath = (a: Box, b: Box) => linkPath({ x: a.x, y: a.y, w: 30, h: 30 }, b, 0); // the relation's ring is the left 30 px of its node
+
+function pickLink(id: string, add: boolean): void {
+  const s = selectionStore.getState();
+  if (!add) {
+    s.select({ nodes: [], links: [id] });
+    return;
+  }
+  const links = s.links.includes(id) ? s.links.filter((x) => x !== id) : [...s.links, id];
+  s.select({ nodes: s.nodes, links });
+}
+
+/** The links and relation members of `model`, drawn where the flow has its nodes now. */
+export function LinkLayer({ model }: { model: Model }) {
+  // a new node list from the flow = something moved or was measured
+  const flowNodes = useStore((s) => s.nodes);
+  const lookup = useStoreApi().getState().nodeLookup;
+  const selected = useSelection((s) => s.links);
+  const cache = useRef(new Map<string, Drawn>());
+  const onClick = useCallback((e: MouseEvent<SVGSVGElement>) => {
+    const id = (e.target as Element).closest('[data-link]')?.getAttribute('data-link');
+    if (id) pickLink(id, e.shiftKey || e.metaKey || e.ctrlKey);
+  }, []);
+  const onKeyDown = useCallback((e: KeyboardEvent<SVGSVGElement>) => {
+    const id = (e.target as Element).getAttribute('data-link');
+    if (!id) return;
+    if (e.key === 'Enter' || e.key === ' ') {
+      e.preventDefault();
+      pickLink(id, e.shiftKey);
+    } else if (e.key === 'Escape') {
+      const s = selectionStore.getState();
+      s.select({ nodes: s.nodes, links: s.links.filter((x) => x !== id) });
+    }
+  }, []);
+
+  // what depends on the document only, not on where the nodes are
+  const lines = useMemo(() => canvasLines(model), [model]);
+  const sel = new Set(selected);
+  // the lines of variables being dragged go to a layer of their own (see the styles of .lf-links.is-moving)
+  const moving = new Set<string>();
+  for (const n of flowNodes) if (n.dragging) moving.add(n.id);
+  const seen = new Set<string>();
+  const resting: ReactElement[] = [];
+  const carried: ReactElement[] = [];
+  for (const { id, link, label } of lines.links) {
+    const a = boxOf(lookup.get(link.from));
+    const b = boxOf(lookup.get(link.to));
+    if (!a || !b) continue;
+    seen.add(id);
+    const g = drawnBetween(cache.current, id, a, b, linkPath);
+    (moving.has(link.from) || moving.has(link.to) ? carried : resting).push(<LinkShape key={id} link={link} label={label} d={g.d} gx={g.gx} gy={g.gy} selected={sel.has(id)} />);
+  }
+  const members: ReactElement[] = [];
+  const carriedMembers: ReactElement[] = [];
+  for (const m of lines.members) {
+    const a = boxOf(lookup.get(m.relation));
+    const b = boxOf(lookup.get(m.variable));
+    if (!a || !b) continue;
+    seen.add(m.id);
+    (moving.has(m.relation) || moving.has(m.variable) ? carriedMembers : members).push(<MemberShape key={m.id} d={drawnBetween(cache.current, m.id, a, b, memberPath).d} />);
+  }
+  for (const id of cache.current.keys()) if (!seen.has(id)) cache.current.delete(id);
+
+  return (
+    <EdgeLabelRenderer>
+      <svg className="lf-links" onClick={onClick} onKeyDown={onKeyDown} aria-label="Links" role="group">
+        <g className="lf-members" aria-hidden="true">{members}</g>
+        {resting}
+      </svg>
+      {moving.size > 0 && (
+        <svg className="lf-links is-moving" onClick={onClick} onKeyDown={onKeyDown} aria-label="Links being moved" role="group">
+          <g className="lf-members" aria-hidden="true">{carriedMembers}</g>
+          {carried}
+        </svg>
+      )}
+    </EdgeLabelRenderer>
+  );
+}
