@@ -11,6 +11,9 @@ import { parseModel } from '../core/model/schema';
 import { selectionStore } from '../state/selection';
 import { showNotice, uiStore } from '../state/ui';
 import { downloadBlob } from './download';
+import { defaultPosition } from './canvas/flow';
+import { freeSpot, type Box } from './canvas/geometry';
+import { NODE_H, variableWidth } from './canvas/VariableNode';
 
 const model = () => selectModel(documentStore.getState());
 
@@ -20,14 +23,30 @@ export function setViewCentreProvider(f: () => Position): void {
   viewCentre = f;
 }
 
+/** The boxes the model's variables and relations take on the canvas (as drawn, before the page measures them). */
+export function canvasBoxes(m: ReturnType<typeof model>): Box[] {
+  const boxes: Box[] = m.variables.map((v, i) => {
+    const p = v.position ?? defaultPosition(i);
+    return { x: p.x, y: p.y, w: variableWidth(v.label ?? v.id), h: NODE_H };
+  });
+  (m.relations ?? []).forEach((r, i) => {
+    const p = r.position ?? defaultPosition(m.variables.length + i);
+    // the ring and the equation written beside it
+    boxes.push({ x: p.x, y: p.y, w: Math.min(320, 40 + r.equation.length * 7.5), h: 30 });
+  });
+  return boxes;
+}
+
 export function addVariable(kind: VariableKind = 'derived', at?: Position): string {
   const m = model();
   const id = freshId('v', usedIds(m));
   const n = m.variables.length + 1;
-  // several new variables at the view centre would hide each other: fan them out
-  const fan = (n % 6) * 28;
-  const p = at ?? { x: viewCentre().x + fan, y: viewCentre().y + fan };
-  const v: Variable = { id, label: `Variable ${n}`, kind, position: { x: Math.round(p.x - 60), y: Math.round(p.y - 23) } };
+  const label = `Variable ${n}`;
+  const w = variableWidth(label);
+  // centred on the pointer or the view centre, moved to the nearest place that covers nothing
+  const p = at ?? viewCentre();
+  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x - w / 2), y: Math.round(p.y - NODE_H / 2) }, w, NODE_H);
+  const v: Variable = { id, label, kind, position: spot };
   if (kind === 'state') v.timescale = '1 ' + m.timeUnit;
   documentStore.getState().stopGesture();
   editDocument({ type: 'addVariable', variable: v });
@@ -41,8 +60,9 @@ export function addRelation(at?: Position): string {
   const p = at ?? viewCentre();
   const ids = m.variables.slice(0, 2).map((v) => v.id);
   const equation = ids.length === 2 ? `${ids[0]} = ${ids[1]}` : '0 = 0';
+  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x), y: Math.round(p.y) }, Math.min(320, 40 + equation.length * 7.5), 30);
   documentStore.getState().stopGesture();
-  editDocument({ type: 'addRelation', relation: { id, equation, position: { x: Math.round(p.x), y: Math.round(p.y) } } });
+  editDocument({ type: 'addRelation', relation: { id, equation, position: spot } });
   selectionStore.getState().select({ nodes: [id] });
   return id;
 }

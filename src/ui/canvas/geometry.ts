@@ -47,3 +47,32 @@ export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x
   const g = at(Math.max(0.5, 1 - 30 / chord));
   return { path: `M${s.x},${s.y} Q${qx},${qy} ${t.x},${t.y}`, glyph: { x: g.x + nx * 11, y: g.y + ny * 11 }, mid: at(0.5) };
 }
+
+/** Whether two boxes come closer than `gap` to each other. */
+export function boxesClash(a: Box, b: Box, gap = 0): boolean {
+  return a.x < b.x + b.w + gap && b.x < a.x + a.w + gap && a.y < b.y + b.h + gap && b.y < a.y + a.h + gap;
+}
+
+/**
+ * Where a new box of size w × h goes: at `want` (its top-left corner) if that
+ * keeps `gap` clear of every box in `taken`, otherwise at the nearest such
+ * place on square rings of a `step` grid around `want` (nearest first within
+ * a ring). After `rings` rings without room it gives `want` back: a crowded
+ * canvas still gets the item where it was asked for.
+ */
+export function freeSpot(taken: readonly Box[], want: { x: number; y: number }, w: number, h: number, gap = 16, step = 24, rings = 40): { x: number; y: number } {
+  const free = (x: number, y: number) => !taken.some((b) => boxesClash({ x, y, w, h }, b, gap));
+  if (free(want.x, want.y)) return { x: want.x, y: want.y };
+  for (let r = 1; r <= rings; r++) {
+    const ring: { x: number; y: number; d: number }[] = [];
+    for (let i = -r; i <= r; i++) {
+      for (const [dx, dy] of [[i, -r], [i, r], [-r, i], [r, i]] as const) {
+        if (Math.abs(dy) !== r && Math.abs(dx) !== r) continue;
+        ring.push({ x: want.x + dx * step, y: want.y + dy * step, d: Math.hypot(dx, dy) });
+      }
+    }
+    ring.sort((a, b) => a.d - b.d || a.y - b.y || a.x - b.x);
+    for (const c of ring) if (free(c.x, c.y)) return { x: c.x, y: c.y };
+  }
+  return { x: want.x, y: want.y };
+}
