@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { NodeChange } from '@xyflow/react';
 import { buildNodes, canvasLines, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
 import { dashScaleAt, scaledDash } from '../../src/ui/canvas/zoomDetail';
-import { drawnBetween, signPath } from '../../src/ui/canvas/LinkLayer';
+import { drawnBetween, signPath } from '../../src/ui/canvas/CanvasDrawing';
 import { createDocumentStore, selectModel } from '../../src/state/document';
 import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
 import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';

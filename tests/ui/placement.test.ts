@@ -4,6 +4,7 @@ import { boxesClash, freeSpot, type Box } from '../../src/ui/canvas/geometry';
 import { addVariable, addRelation, canvasBoxes } from '../../src/ui/actions';
 import { documentStore, selectModel } from '../../src/state/document';
 import { EXAMPLES } from '../../src/examples/index';
+import { parseModel } from '../../src/core/model/schema';
 
 // Placement of new items: an editor puts a new item where it is asked for, or as near as
 // it can without covering what is there (common practice for diagram editors).
@@ -45,7 +46,9 @@ describe('where a new item goes', () => {
 
   it('a variable added at the view centre of an example, or several in a row, covers nothing', () => {
     const ex = EXAMPLES.find((e) => e.id === 'sleep-stress')!;
-    documentStore.getState().load(ex.model);
+    const parsed = parseModel(ex.model);
+    if (!parsed.ok) throw new Error('example does not parse');
+    documentStore.getState().load(parsed.model);
     const m0 = selectModel(documentStore.getState());
     // the middle of the drawing, where the example has a variable
     const boxes0 = canvasBoxes(m0);

@@ -23,7 +23,7 @@ import { badgesOf } from '../diagnostics/collect';
 import { useProblems } from '../diagnostics/useProblems';
 import { buildNodes, settledMove, type FlowNode } from './flow';
 import { Legend } from './Legend';
-import { LinkLayer } from './LinkLayer';
+import { CanvasDrawing } from './CanvasDrawing';
 import { LinkMarkers } from './Markers';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
@@ -217,7 +217,7 @@ export function ModelCanvas() {
           nodeStrokeWidth={2}
           style={MINIMAP_STYLE}
         />
-        <LinkLayer model={model} />
+        <CanvasDrawing model={model} />
         <Legend />
       </ReactFlow>
       {model.variables.length === 0 && (

@@ -1,25 +1,35 @@
 /**
- * Every link of the mechanism canvas in one `<svg>` under the variables.
+ * The drawing of the mechanism canvas: every link and every variable in one
+ * `<svg>` under the flow's (transparent) variable boxes.
  *
  * The flow library would draw each link as its own `<svg>` with its own
- * subscription to the flow's store: with 1,000 links a pointer move during a
- * drag ran 1,000 selectors and the browser composited 1,000 separate pieces.
- * Here one subscription (the flow's node list) recomputes the geometry of the
- * links whose end boxes changed, and one `<svg>` holds them all, so a drag
- * redraws the links of the moving variables and nothing else.
+ * subscription to the flow's store, and each variable as a box of HTML and
+ * SVG: with 500 variables and 1,000 links a pointer move during a drag ran
+ * 1,000 selectors, and the browser sorted some 2,000 separately painted
+ * pieces into layers on every frame, also while only the interval control
+ * beside the canvas moved. Here one subscription (the flow's node list)
+ * recomputes the geometry of the links whose end boxes changed, one `<svg>`
+ * holds the resting drawing, and what is being dragged (the variables and
+ * their links) is drawn on a layer of its own, so a drag redraws only that.
+ *
+ * The flow's variable boxes stay on top, empty but for the connectors under
+ * the pointer and problem badges: they take the pointer, the keyboard focus
+ * and the screen reader's labels.
  *
  * Links are focusable (Tab), Enter or Space selects one, Shift adds it to the
  * selection, Escape clears it; a click selects, Shift/Ctrl/Cmd-click toggles.
  */
 import { memo, useCallback, useMemo, useRef, type KeyboardEvent, type MouseEvent, type ReactElement } from 'react';
 import { EdgeLabelRenderer, useStore, useStoreApi, type InternalNode } from '@xyflow/react';
-import type { Link, Model } from '../../core/model/types';
-import { INK, LINK_STYLE, MUTED } from '../../theme/visual';
+import type { Link, Model, Variable } from '../../core/model/types';
+import { ACCUMULATOR_FLOOR, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, ROLE_STYLE, shapePath } from '../../theme/visual';
 import { selectionStore, useSelection } from '../../state/selection';
 import { HEAD_MARKER } from './Markers';
 import { linkPath, type Box } from './geometry';
 import { scaledDash } from './zoomDetail';
 import { canvasLines } from './flow';
+import { fitText, fontMeasure } from './textFit';
+import { NODE_H, variableWidth } from './VariableNode';
 
 /** Line width from the link strength |weight| (default 1). */
 export function strokeForWeight(weight: number | undefined): number {
@@ -104,6 +114,47 @@ const MemberShape = memo(function MemberShape({ d }: { d: string }) {
 
 const memberPath = (a: Box, b: Box) => linkPath({ x: a.x, y: a.y, w: 30, h: 30 }, b, 0); // the relation's ring is the left 30 px of its node
 
+const KIND_CAPTION = { input: 'input', state: 'state', derived: 'derived' } as const;
+const LABEL_PX = 13.5;
+const CAPTION_PX = 11;
+const labelMeasure = fontMeasure(`600 ${LABEL_PX}px ${FONT_STACK}`, LABEL_PX);
+const captionMeasure = fontMeasure(`${CAPTION_PX}px ${FONT_STACK}`, CAPTION_PX, 0.58);
+
+/** What a variable's box says: its name and, below it, its kind (a state with its timescale). */
+export function variableCaption(v: Variable): string {
+  return v.kind === 'state' && v.timescale !== undefined ? `state · τ ${String(v.timescale)}` : KIND_CAPTION[v.kind];
+}
+
+/**
+ * A variable in the notation — tag = input, accumulator = state, pill =
+ * derived — at (x, y) in canvas coordinates, with the connector (where a link
+ * is drawn from) on its right. Drawn in the drawing's own coordinates: a
+ * transform per variable would make each one a separate piece again.
+ */
+const VariableShape = memo(function VariableShape({ v, x, y, selected }: { v: Variable; x: number; y: number; selected: boolean }) {
+  const label = v.label ?? v.id;
+  const w = variableWidth(label);
+  const h = NODE_H;
+  const shape = KIND_SHAPE[v.kind];
+  const style = ROLE_STYLE[v.kind];
+  const d = shapePath(shape, w, h, x, y);
+  const left = v.kind === 'derived' ? 18 : 12;
+  const room = w - left - (shape === 'tag' ? 16 : 8);
+  const body = shape === 'accumulator' ? h - ACCUMULATOR_FLOOR : h;
+  // two lines (label, caption) centred in the body, as 1.15 line height would set them
+  const top = y + (body - (LABEL_PX + CAPTION_PX) * 1.15) / 2;
+  return (
+    <g className="lf-var-drawn" data-variable={v.id} data-kind={v.kind}>
+      {selected && <path d={d} fill="none" stroke="#c77d0a" strokeWidth={6} strokeOpacity={0.45} />}
+      <path d={d} fill={style.fill} stroke={style.stroke} strokeWidth={style.strokeWidth} strokeDasharray={style.dash} />
+      {shape === 'accumulator' && <rect x={x} y={y + h - ACCUMULATOR_FLOOR} width={w} height={ACCUMULATOR_FLOOR} fill={style.stroke} />}
+      <text x={x + left} y={top + LABEL_PX * 0.95} fontSize={LABEL_PX} fontWeight={600} fill={INK}>{fitText(label, room, labelMeasure)}</text>
+      <text x={x + left} y={top + LABEL_PX * 1.15 + CAPTION_PX * 0.95} fontSize={CAPTION_PX} fill={MUTED}>{fitText(variableCaption(v), room, captionMeasure)}</text>
+      <circle className="lf-connector" cx={x + w + 8} cy={y + h / 2} r={5} fill="#ffffff" fillOpacity={0.35} stroke={INK} strokeOpacity={0.35} strokeWidth={2} />
+    </g>
+  );
+});
+
 function pickLink(id: string, add: boolean): void {
   const s = selectionStore.getState();
   if (!add) {
@@ -114,12 +165,13 @@ function pickLink(id: string, add: boolean): void {
   s.select({ nodes: s.nodes, links });
 }
 
-/** The links and relation members of `model`, drawn where the flow has its nodes now. */
-export function LinkLayer({ model }: { model: Model }) {
+/** The links, relation members and variables of `model`, drawn where the flow has its nodes now. */
+export function CanvasDrawing({ model }: { model: Model }) {
   // a new node list from the flow = something moved or was measured
   const flowNodes = useStore((s) => s.nodes);
   const lookup = useStoreApi().getState().nodeLookup;
   const selected = useSelection((s) => s.links);
+  const selectedNodes = useSelection((s) => s.nodes);
   const cache = useRef(new Map<string, Drawn>());
   const onClick = useCallback((e: MouseEvent<SVGSVGElement>) => {
     const id = (e.target as Element).closest('[data-link]')?.getAttribute('data-link');
@@ -164,17 +216,28 @@ export function LinkLayer({ model }: { model: Model }) {
     (moving.has(m.relation) || moving.has(m.variable) ? carriedMembers : members).push(<MemberShape key={m.id} d={drawnBetween(cache.current, m.id, a, b, memberPath).d} />);
   }
   for (const id of cache.current.keys()) if (!seen.has(id)) cache.current.delete(id);
+  const pickedNodes = new Set(selectedNodes);
+  const variables: ReactElement[] = [];
+  const carriedVariables: ReactElement[] = [];
+  for (const v of model.variables) {
+    const n = lookup.get(v.id);
+    if (!n) continue;
+    const p = n.internals.positionAbsolute;
+    (moving.has(v.id) ? carriedVariables : variables).push(<VariableShape key={v.id} v={v} x={p.x} y={p.y} selected={pickedNodes.has(v.id)} />);
+  }
 
   return (
     <EdgeLabelRenderer>
       <svg className="lf-links" onClick={onClick} onKeyDown={onKeyDown} aria-label="Links" role="group">
         <g className="lf-members" aria-hidden="true">{members}</g>
         {resting}
+        <g className="lf-vars-drawn" aria-hidden="true">{variables}</g>
       </svg>
       {moving.size > 0 && (
         <svg className="lf-links is-moving" onClick={onClick} onKeyDown={onKeyDown} aria-label="Links being moved" role="group">
           <g className="lf-members" aria-hidden="true">{carriedMembers}</g>
           {carried}
+          <g className="lf-vars-drawn" aria-hidden="true">{carriedVariables}</g>
         </svg>
       )}
     </EdgeLabelRenderer>
