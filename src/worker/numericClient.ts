@@ -7,11 +7,11 @@
  * When a worker cannot start, the same code runs on the main thread.
  * Transports are injected, so the logic is tested in Node with fakes.
  */
-import { proxy, releaseProxy, wrap } from 'comlink';
+import { proxy } from 'comlink';
 import type { Model, VariableId } from '../core/model/types';
 import { latestWins } from './client';
 import type { NumericApi, SimulationAnswer, Failed } from './numericApi';
-import { guardWorker } from './guard';
+import { startWorker } from './guard';
 
 export type NumericTransport = NumericApi & { dispose?: () => void };
 type Quick = Exclude<keyof NumericApi, 'simulate'>;
@@ -126,14 +126,8 @@ export function createNumericClient(primary: (() => NumericTransport) | null, fa
 
 /** A module worker hosting the numerics; a worker that fails to load rejects every pending call. */
 export function workerNumeric(): NumericTransport {
-  if (typeof Worker === 'undefined') throw new Error('this browser has no Web Workers');
-  const worker = new Worker(new URL('./numeric.worker.ts', import.meta.url), { type: 'module' });
-  const guard = guardWorker(worker, 'numeric worker');
-  const wrapped = wrap<NumericApi>(worker);
-  // comlink's Remote<T> widens the answers to a union TypeScript cannot narrow back; the answers are plain data.
-  const remote = wrapped as unknown as NumericApi;
-  const call = guard.call;
-  let disposed = false;
+  const w = startWorker<NumericApi>(() => new Worker(new URL('./numeric.worker.ts', import.meta.url), { type: 'module' }), 'numeric worker');
+  const { remote, call } = w;
   return {
     equilibrium: (m, h) => call(() => remote.equilibrium(m, h)),
     simulate: (m, o, p) => call(() => remote.simulate(m, o, p ? proxy(p) : undefined)),
@@ -141,13 +135,7 @@ export function workerNumeric(): NumericTransport {
     timescales: (m, i) => call(() => remote.timescales(m, i)),
     curve: (m, f, t) => call(() => remote.curve(m, f, t)),
     advise: (m, l, f) => call(() => remote.advise(m, l, f)),
-    dispose() {
-      if (disposed) return;
-      disposed = true;
-      guard.fail('the numeric worker was stopped');
-      wrapped[releaseProxy]();
-      worker.terminate();
-    },
+    dispose: w.dispose,
   };
 }
 
