@@ -93,7 +93,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
         data-band={band}
         data-interval={interval}
         onKeyDown={onKey}
-        onPointerDown={(ev) => { ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); setIntervalDrag(interval); fromPointer(ev); }}
+        onPointerDown={(ev) => { ev.preventDefault(); ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); setIntervalDrag(interval); fromPointer(ev); }}
         onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}
         onPointerUp={() => setIntervalDrag(undefined)}
         onPointerCancel={() => setIntervalDrag(undefined)}
