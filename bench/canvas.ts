@@ -30,7 +30,8 @@ import { createServer as createNetServer } from 'node:net';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type CDPSession, type Page } from 'playwright-core';
+import { chromium, type Page } from 'playwright-core';
+import { traceOf } from './common';
 import { build, createServer, preview } from 'vite';
 import type { Model, Variable, Link } from '../src/core/model/types';
 
@@ -219,17 +220,6 @@ async function measure(page: Page, base: string, model: Model): Promise<Run> {
   return { pan, drag, drag60, idle, loadMs };
 }
 
-interface TraceEvent {
-  ph: string;
-  name: string;
-  pid: number;
-  tid: number;
-  ts: number;
-  dur?: number;
-  /** Thread (CPU) time, where the trace has it: less inflated than wall time by other work on the machine. */
-  tdur?: number;
-  args?: { name?: string };
-}
 
 /**
  * Busy time per thread and the largest items by self time (CPU time where the trace records it),
@@ -238,47 +228,15 @@ interface TraceEvent {
 async function traceDrag(page: Page, base: string, model: Model): Promise<void> {
   const { cx, cy } = await open(page, base, model);
   const node = await centreNode(page, cx, cy);
-  const cdp: CDPSession = await page.context().newCDPSession(page);
-  const events: TraceEvent[] = [];
-  cdp.on('Tracing.dataCollected', (e: { value: object[] }) => events.push(...(e.value as TraceEvent[])));
-  await cdp.send('Tracing.start', { traceConfig: { includedCategories: ['devtools.timeline', 'disabled-by-default-devtools.timeline', 'blink', 'cc', 'v8'] } });
-  const t0 = Date.now();
-  await dragNode(page, node);
-  const wall = Date.now() - t0;
-  const done = new Promise<void>((r) => cdp.once('Tracing.tracingComplete', () => r()));
-  await cdp.send('Tracing.end');
-  await done;
-  const names = new Map<string, string>();
-  for (const e of events) if (e.ph === 'M' && e.name === 'thread_name' && e.args?.name) names.set(`${e.pid}:${e.tid}`, e.args.name);
-  const byThread = new Map<string, TraceEvent[]>();
-  for (const e of events) {
-    if (e.ph !== 'X' || typeof e.dur !== 'number') continue;
-    const k = `${e.pid}:${e.tid}`;
-    if (!byThread.has(k)) byThread.set(k, []);
-    byThread.get(k)!.push(e);
-  }
   const moves = 120;
+  let wall = 0;
+  const rows = await traceOf(page, async () => {
+    const t0 = Date.now();
+    await dragNode(page, node);
+    wall = Date.now() - t0;
+  }, moves);
   console.log(`  trace of one 500-variable drag (${moves} moves in ${wall} ms): CPU time per pointer move, by thread and by Chromium's trace event (self time)`);
-  const rows: { thread: string; busy: number; top: [string, number][] }[] = [];
-  for (const [k, list] of byThread) {
-    list.sort((a, b) => a.ts - b.ts || b.dur! - a.dur!);
-    const cost = (e: TraceEvent) => e.tdur ?? e.dur!;
-    const self = new Map<string, number>();
-    const stack: TraceEvent[] = [];
-    for (const e of list) {
-      while (stack.length && stack[stack.length - 1].ts + stack[stack.length - 1].dur! <= e.ts) stack.pop();
-      const p = stack[stack.length - 1];
-      if (p) self.set(p.name, (self.get(p.name) ?? 0) - Math.min(cost(e), cost(p)));
-      self.set(e.name, (self.get(e.name) ?? 0) + cost(e));
-      stack.push(e);
-    }
-    const busy = [...self.values()].reduce((a, b) => a + b, 0) / 1000 / moves;
-    if (busy < 0.02 * (wall / moves)) continue;
-    rows.push({ thread: names.get(k) ?? k, busy, top: [...self].sort((a, b) => b[1] - a[1]).slice(0, 6).map(([n, us]) => [n, us / 1000 / moves]) });
-  }
-  for (const r of rows.sort((a, b) => b.busy - a.busy)) {
-    console.log(`    ${r.thread}: ${f1(r.busy)} ms — ${r.top.map(([n, t]) => `${n} ${f1(t)}`).join(', ')}`);
-  }
+  for (const r of rows) console.log(`    ${r.thread}: ${r.busy.toFixed(1)} ms — ${r.top.map(([n, t]) => `${n} ${t.toFixed(1)}`).join(', ')}`);
 }
 
 const f1 = (x: number) => x.toFixed(1);

@@ -6,9 +6,10 @@
  * Chromium on a production build: time until the view at a new band is on
  * screen, frames per second while the interval control is dragged, JS heap
  * with the 2,000-variable model open, and the gzip size of the first page load.
- * Run alone: `npx tsx bench/layout.ts` (`--browser --sizes 500` for one model in the browser only).
+ * Run alone: `npx tsx bench/layout.ts` (`--browser --sizes 500` for one model in the browser only;
+ * `--trace` adds where the time of one drag of the control goes at 500 variables).
  */
-import { ms, sizesFromArgs, stats, verdict } from './common';
+import { ms, sizesFromArgs, stats, traceOf, verdict } from './common';
 import { spawn, spawnSync } from 'node:child_process';
 import { readFileSync, existsSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
@@ -135,12 +136,21 @@ async function browserPart(): Promise<void> {
       const box = (await page.locator('[role=slider]').boundingBox())!;
       await page.evaluate(`(() => { window.__frames = 0; window.__run = true; const tick = () => { window.__frames++; if (window.__run) requestAnimationFrame(tick); }; requestAnimationFrame(tick); })()`);
       const t0 = now();
-      await page.mouse.move(box.x + 2, box.y + box.height / 2);
-      await page.mouse.down();
-      for (let s = 0; s <= 90; s++) { await page.mouse.move(box.x + 2 + ((box.width - 4) * s) / 90, box.y + box.height / 2); await page.waitForTimeout(16); }
-      await page.mouse.up();
+      const sweep = async () => {
+        await page.mouse.move(box.x + 2, box.y + box.height / 2);
+        await page.mouse.down();
+        for (let s = 0; s <= 90; s++) { await page.mouse.move(box.x + 2 + ((box.width - 4) * s) / 90, box.y + box.height / 2); await page.waitForTimeout(16); }
+        await page.mouse.up();
+      };
+      await sweep();
       const frames = await page.evaluate<number>(`(() => { window.__run = false; return window.__frames; })()`);
       const fps = frames / ((now() - t0) / 1000);
+      if (n === 500 && process.argv.includes('--trace')) {
+        await page.waitForTimeout(1500);
+        const rows = await traceOf(page, sweep, 91);
+        console.log(`  trace of one drag of the interval control at 500 variables: CPU time per pointer move (91 moves), by thread and by Chromium's trace event (self time)`);
+        for (const r of rows) console.log(`    ${r.thread}: ${r.busy.toFixed(1)} ms — ${r.top.map(([e, t]) => `${e} ${t.toFixed(1)}`).join(', ')}`);
+      }
       let heap = '';
       if (n === 2000) {
         await page.waitForTimeout(3000);
