@@ -3,4 +3,4 @@ import { expose } from 'comlink';
 import { localCore } from './analyze';
 import { createBandHost } from './bands';
 
-expose({ ...localCore, ...createBandHost() });
+expose({ ...localCore, ...createBandHost({ prefetch: true }) });

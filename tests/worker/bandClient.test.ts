@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createBandClient, type BandSet, type BandTransport } from '../../src/worker/bandClient';
-import { createBandHost, type BandAnswer, type BandApi, type BandStudy, type OpenAnswer } from '../../src/worker/bands';
+import { createBandHost, PREFETCH_REACH, type BandAnswer, type BandApi, type BandStudy, type OpenAnswer } from '../../src/worker/bands';
 import { breakpoints, orderingAt } from '../../src/core/ordering/index';
-import { cutsOf } from '../../src/core/view/interval';
+import { bandOfCuts, cutsOf, intervalInBand } from '../../src/core/view/interval';
 import { parseModelText } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
 import type { Breakpoint, Ordering } from '../../src/core/ordering/types';
@@ -271,5 +271,59 @@ describe('band host (the code the core worker runs)', () => {
     expect(await host.bandOrdering(2, 5, 24)).toEqual({ ok: false, seq: 5, band: -1, message: 'band set 2 is not open' });
     await host.closeBands(1);
     expect((await host.bandOrdering(1, 6, 24)).ok).toBe(false);
+  });
+
+  it('a worker host computes the neighbours of the band asked for while idle, one band per step, and answers them from its cache', async () => {
+    const steps: (() => void)[] = [];
+    const host = createBandHost({ prefetch: true, schedule: (f) => steps.push(f) });
+    const opened = await host.openBands(3, sleepStress, { samples: 50 });
+    if (!opened.ok) throw new Error(opened.message);
+    const cuts = cutsOf(opened.breakpoints);
+    expect(steps).toHaveLength(0); // nothing ahead before a band is asked for
+    const mid = Math.floor(cuts.length / 2);
+    const a = await host.bandOrdering(3, 1, intervalInBand(cuts, mid)!);
+    expect(a.ok && a.cached).toBe(false);
+    // run the steps: each computes one band, nearest first, then schedules the next
+    let ran = 0;
+    while (steps.length > 0 && ran < 100) { steps.shift()!(); ran++; }
+    const reach = [...Array(2 * PREFETCH_REACH + 1).keys()].map((i) => mid - PREFETCH_REACH + i).filter((k) => k >= 0 && k <= cuts.length && k !== mid);
+    expect(ran).toBe(reach.length + 1); // one step per band, and a last one that finds nothing left
+    for (const k of reach) {
+      const x = intervalInBand(cuts, k)!;
+      const b = await host.bandOrdering(3, 10 + k, x);
+      expect(b.ok && [b.band, b.cached]).toEqual([k, true]);
+      // the same ordering the core gives at the interval asked for
+      expect(b.ok ? b.ordering : null).toEqual(orderingAt(sleepStress, { samples: 50, interval: x }));
+    }
+  });
+
+  it('a main-thread host computes nothing ahead, and a closed set stops the computing ahead', async () => {
+    const steps: (() => void)[] = [];
+    const quiet = createBandHost({ schedule: (f) => steps.push(f) });
+    await quiet.openBands(1, sleepStress, { samples: 50 });
+    await quiet.bandOrdering(1, 1, 24);
+    expect(steps).toHaveLength(0);
+    const host = createBandHost({ prefetch: true, schedule: (f) => steps.push(f) });
+    await host.openBands(1, sleepStress, { samples: 50 });
+    await host.bandOrdering(1, 1, 24);
+    expect(steps).toHaveLength(1);
+    await host.closeBands(1);
+    steps.shift()!();
+    expect(steps).toHaveLength(0);
+  });
+});
+
+describe('an interval inside each band', () => {
+  it('lies in the band it is asked for, for the example and for cuts with exclusive ends', () => {
+    const cuts = cutsOf(breakpoints(sleepStress, { samples: 50 }));
+    for (let k = 0; k <= cuts.length; k++) expect(bandOfCuts(cuts, intervalInBand(cuts, k)!)).toBe(k);
+    const odd = [{ at: 1 }, { at: 1, exclusive: true }, { at: 4 }];
+    // band 1 is [1, 1]: the interval 1 alone
+    const got = [0, 1, 2, 3].map((k) => intervalInBand(odd, k)!);
+    expect(got[1]).toBe(1);
+    [0.5, 1, 2, 8].forEach((want, k) => expect(got[k]).toBeCloseTo(want, 6));
+    got.forEach((x, k) => expect(bandOfCuts(odd, x)).toBe(k));
+    expect(intervalInBand(odd, 4)).toBeNull();
+    expect(intervalInBand(odd, -1)).toBeNull();
   });
 });

@@ -83,6 +83,20 @@ export function bandOfCuts(cuts: readonly Cut[], interval: number): number {
   return n;
 }
 
+/**
+ * An interval inside band k of the cuts (0: below the first cut): the
+ * geometric middle of its two cuts; the outer bands reach a factor 2 beyond
+ * their one cut. Null for a band that does not exist (or holds no interval).
+ */
+export function intervalInBand(cuts: readonly Cut[], k: number): number | null {
+  if (k < 0 || k > cuts.length || !Number.isInteger(k)) return null;
+  if (cuts.length === 0) return 1;
+  const lo = k === 0 ? null : enter(cuts[k - 1]);
+  const hi = k === cuts.length ? null : leave(cuts[k]);
+  const x = lo === null ? hi! / 2 : hi === null ? lo * 2 : Math.sqrt(lo * hi);
+  return bandOfCuts(cuts, x) === k ? x : lo !== null && bandOfCuts(cuts, lo) === k ? lo : null;
+}
+
 export type IntervalKey = 'ArrowLeft' | 'ArrowRight' | 'ArrowUp' | 'ArrowDown' | 'PageUp' | 'PageDown' | 'Home' | 'End';
 
 /** Fine step of the arrow keys, as a fraction of the control. */
