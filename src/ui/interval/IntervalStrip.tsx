@@ -101,7 +101,11 @@ export function IntervalStripFor({ model }: { model: Model }) {
       >
         <TrackMarks cache={cache} model={model} />
         <div className="lf-band-current" style={{ left: `${toPosition(range, Math.max(lower, range.min)) * 100}%`, width: `${(toPosition(range, Math.min(upper, range.max)) - toPosition(range, Math.max(lower, range.min))) * 100}%` }} />
-        <div className="lf-thumb" style={{ left: `${pos * 100}%` }} />
+        {/* the thumb rides a rail as wide as the track, moved by a transform of the rail's own width:
+            the compositor moves it, nothing under it is painted again */}
+        <div className="lf-thumb-rail" style={{ transform: `translateX(${pos * 100}%)` }}>
+          <div className="lf-thumb" />
+        </div>
       </div>
       <div className="lf-interval-scale" aria-hidden="true">
         {unitMarks(range, unit).map((m) => <span key={m.label} style={{ left: `${toPosition(range, m.at) * 100}%` }}>{m.label}</span>)}
@@ -112,22 +116,56 @@ export function IntervalStripFor({ model }: { model: Model }) {
 }
 
 /** Bands and breakpoint ticks: drawn once per model and study, not on every move of the thumb. */
+/** The hatch of every other band, in the control's pixels. */
+const HATCH_ID = 'lf-band-hatch';
+const TRACK_H = 26;
+
+/**
+ * The bands and breakpoint ticks of the control, in one svg drawn in pixels
+ * (its width measured): a model of 2,000 variables has some 1,600 of each,
+ * and as positioned boxes they were 3,200 pieces the browser laid out,
+ * painted and sorted into layers again at every move of the thumb.
+ */
 const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache; model: Model }) {
   const { range, cuts, breakpoints } = cache;
   const unit = model.timeUnit;
+  const svg = useRef<SVGSVGElement>(null);
+  const [width, setWidth] = useState(0);
+  useEffect(() => {
+    const el = svg.current;
+    if (!el) return;
+    const measure = () => setWidth(el.getBoundingClientRect().width);
+    measure();
+    if (typeof ResizeObserver === 'undefined') return;
+    const ro = new ResizeObserver(measure);
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
   const labels = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
   const edges = [range.min, ...cuts.map((c) => c.at).filter((c) => c > range.min && c < range.max), range.max];
+  const X = (v: number) => Math.round(toPosition(range, v) * width * 10) / 10;
+  let odd = '';
+  for (let i = 1; i + 1 < edges.length; i += 2) odd += `M${X(edges[i])},0 H${X(edges[i + 1])} V${TRACK_H} H${X(edges[i])} Z `;
   return (
-    <>
-      {edges.slice(0, -1).map((from, i) => (
-        <div key={i} className={`lf-band ${i % 2 ? 'lf-band-odd' : ''}`}
-          style={{ left: `${toPosition(range, from) * 100}%`, width: `${(toPosition(range, edges[i + 1]) - toPosition(range, from)) * 100}%` }} />
-      ))}
-      {breakpoints.filter((b) => b.interval > range.min && b.interval < range.max).map((b, i) => (
-        <div key={i} className="lf-tick" data-breakpoint={b.interval} style={{ left: `${toPosition(range, b.interval) * 100}%` }}
-          title={`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`} />
-      ))}
-    </>
+    <svg ref={svg} className="lf-track-marks" width="100%" height={TRACK_H} aria-hidden="true">
+      <defs>
+        <pattern id={HATCH_ID} width={7} height={7} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+          <rect width={2} height={7} fill="#ece9e1" />
+        </pattern>
+      </defs>
+      {width > 0 && odd && <path className="lf-bands-odd" d={odd} fill={`url(#${HATCH_ID})`} />}
+      {width > 0 &&
+        breakpoints
+          .filter((b) => b.interval > range.min && b.interval < range.max)
+          .map((b, i) => {
+            const x = X(b.interval);
+            return (
+              <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke="#8a5a12" strokeWidth={2} fill="#8a5a12">
+                <title>{`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`}</title>
+              </path>
+            );
+          })}
+    </svg>
   );
 });
 
