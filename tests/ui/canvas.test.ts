@@ -4,7 +4,7 @@ import { buildNodes, canvasLines, settledMove, type FlowNode } from '../../src/u
 import { dashScaleAt, scaledDash } from '../../src/ui/canvas/zoomDetail';
 import { drawnBetween, signPath } from '../../src/ui/canvas/CanvasDrawing';
 import { createDocumentStore, selectModel } from '../../src/state/document';
-import { boxExit, linkPath } from '../../src/ui/canvas/geometry';
+import { boxExit, headPath, linkPath } from '../../src/ui/canvas/geometry';
 import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
 import { equationId } from '../../src/core/ordering/types';
 import { applyChange, emptyModel, withLinkIds } from '../../src/state/changes';
@@ -45,6 +45,24 @@ describe('canvas nodes from the model', () => {
     expect(canvasLines(other).members.map((m) => m.variable).sort()).toEqual(['a', 'c']);
     const labelled = applyChange(model, { type: 'updateVariable', id: 'b', patch: { label: 'Level' } });
     expect(canvasLines(labelled).links[0].label).toBe('link from a to Level: integrating');
+  });
+});
+
+describe('arrowheads drawn as paths', () => {
+  const points = (d: string) => [...d.matchAll(/(-?[\d.]+),(-?[\d.]+)/g)].map((m) => ({ x: Number(m[1]), y: Number(m[2]) }));
+  it('puts the tip where the line meets the target, the base `length` back along the line, `half` to each side', () => {
+    // a line arriving from the left at (100, 50)
+    expect(points(headPath({ x: 100, y: 50 }, { x: 0, y: 50 }, 10, 5))).toEqual([{ x: 90, y: 55 }, { x: 100, y: 50 }, { x: 90, y: 45 }]);
+    // arriving from above, on a curve: the head follows the direction from the control point
+    const a = linkPath({ x: 0, y: 0, w: 100, h: 40 }, { x: 300, y: 200, w: 100, h: 40 });
+    const [p, tip, q] = points(headPath(a.tip, a.control, 11, 5.5));
+    expect(tip).toEqual({ x: Math.round(a.tip.x * 100) / 100, y: Math.round(a.tip.y * 100) / 100 });
+    const mid = { x: (p.x + q.x) / 2, y: (p.y + q.y) / 2 };
+    expect(Math.hypot(tip.x - mid.x, tip.y - mid.y)).toBeCloseTo(11, 1);
+    expect(Math.hypot(p.x - q.x, p.y - q.y)).toBeCloseTo(11, 1);
+    // the base is square to the line from the control point to the tip
+    const ux = a.tip.x - a.control.x, uy = a.tip.y - a.control.y;
+    expect(Math.abs((p.x - q.x) * ux + (p.y - q.y) * uy) / Math.hypot(ux, uy)).toBeLessThan(0.05);
   });
 });
 

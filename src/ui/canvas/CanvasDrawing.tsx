@@ -24,8 +24,7 @@ import { EdgeLabelRenderer, useStore, useStoreApi, type InternalNode } from '@xy
 import type { Link, Model, Variable } from '../../core/model/types';
 import { ACCUMULATOR_FLOOR, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, ROLE_STYLE, shapePath } from '../../theme/visual';
 import { selectionStore, useSelection } from '../../state/selection';
-import { HEAD_MARKER } from './Markers';
-import { linkPath, type Box } from './geometry';
+import { headPath, linkPath, type Box } from './geometry';
 import { scaledDash } from './zoomDetail';
 import { canvasLines } from './flow';
 import { fitText, fontMeasure } from './textFit';
@@ -59,6 +58,8 @@ interface Drawn {
   d: string;
   gx: number;
   gy: number;
+  /** The arrowheads of both kinds at this line's tip (the layer draws the one of the link's kind). */
+  heads: { filled: string; hollow: string };
 }
 
 /**
@@ -66,14 +67,17 @@ interface Drawn {
  * whose two boxes did not move keeps its previous path string, so its element
  * sees the same props and is not redrawn.
  */
-export function drawnBetween(cache: Map<string, Drawn>, id: string, a: Box, b: Box, draw: (a: Box, b: Box) => { path: string; glyph: { x: number; y: number } }): Drawn {
+export function drawnBetween(cache: Map<string, Drawn>, id: string, a: Box, b: Box, draw: (a: Box, b: Box) => ReturnType<typeof linkPath>): Drawn {
   const old = cache.get(id);
   if (old && sameBox(old.a, a) && sameBox(old.b, b)) return old;
-  const { path, glyph } = draw(a, b);
-  const next = { a, b, d: path, gx: glyph.x, gy: glyph.y };
+  const { path, glyph, tip, control } = draw(a, b);
+  const next = { a, b, d: path, gx: glyph.x, gy: glyph.y, heads: { filled: headPath(tip, control, HEAD.filled.length, HEAD.filled.half), hollow: headPath(tip, control, HEAD.hollow.length, HEAD.hollow.half) } };
   cache.set(id, next);
   return next;
 }
+
+/** The two heads: filled (instantaneous) and hollow (integrating), as the notation's legend draws them. */
+const HEAD = { filled: { length: 10, half: 5 }, hollow: { length: 11, half: 5.5 } } as const;
 
 const LINK_DASH = { instantaneous: undefined, integrating: LINK_STYLE.integrating.dash && scaledDash(LINK_STYLE.integrating.dash) };
 
@@ -81,13 +85,14 @@ interface LinkShapeProps {
   link: Link;
   label: string;
   d: string;
+  head: string;
   gx: number;
   gy: number;
   selected: boolean;
 }
 
 /** One link: instantaneous = solid with a filled head, integrating = dashed with a hollow head; sign near the head. */
-const LinkShape = memo(function LinkShape({ link, label, d, gx, gy, selected }: LinkShapeProps) {
+const LinkShape = memo(function LinkShape({ link, label, d, head, gx, gy, selected }: LinkShapeProps) {
   const style = LINK_STYLE[link.kind];
   const width = strokeForWeight(link.weight);
   const minus = link.sign === '-';
@@ -96,7 +101,12 @@ const LinkShape = memo(function LinkShape({ link, label, d, gx, gy, selected }: 
       {/* the wide stroke that takes the pointer: unpainted, shown as a soft band when the link has keyboard focus */}
       <path d={d} className="lf-link-hit" fill="none" stroke="#000" strokeWidth={18} />
       {selected && <path d={d} className="lf-link-halo" fill="none" stroke="#c77d0a" strokeOpacity={0.45} strokeWidth={width + 7} />}
-      <path d={d} className="lf-link-line" fill="none" markerEnd={HEAD_MARKER[link.kind]} stroke={style.stroke} strokeWidth={width} style={LINK_DASH[link.kind] ? { strokeDasharray: LINK_DASH[link.kind] } : undefined} />
+      <path d={d} className="lf-link-line" fill="none" stroke={style.stroke} strokeWidth={width} style={LINK_DASH[link.kind] ? { strokeDasharray: LINK_DASH[link.kind] } : undefined} />
+      {link.kind === 'integrating' ? (
+        <path d={head} className="lf-link-head" fill="#ffffff" stroke={style.stroke} strokeWidth={1.6} strokeLinejoin="round" />
+      ) : (
+        <path d={head} className="lf-link-head" fill={style.stroke} stroke={style.stroke} strokeWidth={1} strokeLinejoin="round" />
+      )}
       {link.sign && (
         <g className={`lf-sign${minus ? ' is-minus' : ''}`} aria-hidden="true">
           <circle cx={gx} cy={gy} r={8.5} fill={minus ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
@@ -204,7 +214,7 @@ export function CanvasDrawing({ model }: { model: Model }) {
     if (!a || !b) continue;
     seen.add(id);
     const g = drawnBetween(cache.current, id, a, b, linkPath);
-    (moving.has(link.from) || moving.has(link.to) ? carried : resting).push(<LinkShape key={id} link={link} label={label} d={g.d} gx={g.gx} gy={g.gy} selected={sel.has(id)} />);
+    (moving.has(link.from) || moving.has(link.to) ? carried : resting).push(<LinkShape key={id} link={link} label={label} d={g.d} head={link.kind === 'integrating' ? g.heads.hollow : g.heads.filled} gx={g.gx} gy={g.gy} selected={sel.has(id)} />);
   }
   const members: ReactElement[] = [];
   const carriedMembers: ReactElement[] = [];

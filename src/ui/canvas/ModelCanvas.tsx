@@ -24,7 +24,6 @@ import { useProblems } from '../diagnostics/useProblems';
 import { buildNodes, settledMove, type FlowNode } from './flow';
 import { Legend } from './Legend';
 import { CanvasDrawing } from './CanvasDrawing';
-import { LinkMarkers } from './Markers';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
@@ -183,7 +182,6 @@ export function ModelCanvas() {
 
   return (
     <div className="lf-canvas" ref={wrapper} style={canvasStyle} onPointerDownCapture={onPointerDown} onDoubleClick={onDoubleClick} onDragOver={onDragOver} onDrop={onDrop} aria-label="Mechanism canvas" role="region">
-      <LinkMarkers />
       <ReactFlow
         nodes={shownNodes}
         nodeTypes={nodeTypes}

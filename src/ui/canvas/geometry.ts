@@ -22,9 +22,10 @@ export function boxExit(b: Box, tx: number, ty: number): { x: number; y: number 
 /**
  * A gently bowed path from box `a` to box `b`. The bow always lies to the
  * left of the direction of travel, so links a→b and b→a never overlap.
- * Returns the SVG path and a point near the head for the sign glyph.
+ * Returns the SVG path, a point near the head for the sign glyph, the tip
+ * (where the path meets `b`) and the curve's control point (the head's direction).
  */
-export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x: number; y: number }; mid: { x: number; y: number } } {
+export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x: number; y: number }; mid: { x: number; y: number }; tip: { x: number; y: number }; control: { x: number; y: number } } {
   const acx = a.x + a.w / 2;
   const acy = a.y + a.h / 2;
   const bcx = b.x + b.w / 2;
@@ -45,7 +46,7 @@ export function linkPath(a: Box, b: Box, bow = 0.12): { path: string; glyph: { x
   // the sign sits a fixed distance back from the head, so it never lands on the target's outline
   const chord = Math.hypot(t.x - s.x, t.y - s.y) || 1;
   const g = at(Math.max(0.5, 1 - 30 / chord));
-  return { path: `M${s.x},${s.y} Q${qx},${qy} ${t.x},${t.y}`, glyph: { x: g.x + nx * 11, y: g.y + ny * 11 }, mid: at(0.5) };
+  return { path: `M${s.x},${s.y} Q${qx},${qy} ${t.x},${t.y}`, glyph: { x: g.x + nx * 11, y: g.y + ny * 11 }, mid: at(0.5), tip: t, control: { x: qx, y: qy } };
 }
 
 /** Whether two boxes come closer than `gap` to each other. */
@@ -75,4 +76,23 @@ export function freeSpot(taken: readonly Box[], want: { x: number; y: number }, 
     for (const c of ring) if (free(c.x, c.y)) return { x: c.x, y: c.y };
   }
   return { x: want.x, y: want.y };
+}
+
+/**
+ * An arrowhead drawn as a path (not an SVG marker: every marker instance is
+ * drawn under a transform of its own, one more piece for the browser to sort
+ * per link): a triangle with its tip at `tip`, pointing away from `from`
+ * (a point the line comes from, e.g. the curve's last control point),
+ * `length` long and `half` wide on each side.
+ */
+export function headPath(tip: { x: number; y: number }, from: { x: number; y: number }, length: number, half: number): string {
+  const dx = tip.x - from.x;
+  const dy = tip.y - from.y;
+  const len = Math.hypot(dx, dy) || 1;
+  const ux = dx / len;
+  const uy = dy / len;
+  const bx = tip.x - ux * length;
+  const by = tip.y - uy * length;
+  const r = (v: number) => Math.round(v * 100) / 100;
+  return `M${r(bx - uy * half)},${r(by + ux * half)} L${r(tip.x)},${r(tip.y)} L${r(bx + uy * half)},${r(by - ux * half)} Z`;
 }
