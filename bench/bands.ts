@@ -5,11 +5,11 @@
  * (the pane's data-compute-ms; median and p95 over up to 40 bands spread over
  * the control, each asked for once), beside the same bands computed in Node
  * in this process (the machine's pace), and the time from the pointer to the
- * band's figure on screen. At 2,000 variables: the main thread's longest task
+ * band's figure on screen. At 500 and 2,000 variables: the main thread's longest task
  * (PerformanceObserver 'longtask', which reports tasks of 50 ms and more) and
  * its longest gap between animation frames while the control is dragged across
- * many bands, and the longest task while the last band is then drawn; then
- * the same drags with the sketch canvas hidden, and on the Edit tab (no
+ * many bands, and the longest task while the last band is then drawn; at
+ * 2,000 variables then the same drags with the sketch canvas hidden, and on the Edit tab (no
  * timescale pane), to tell which part of the page holds the frames back.
  * Run alone: `npx tsx bench/bands.ts` (`--sizes 500` for one model).
  */
@@ -154,7 +154,7 @@ export async function benchBands(): Promise<void> {
       const c = stats(compute), s = stats(toScreen), node = inNode(model, intervals);
       console.log(`  ${String(n).padStart(5)} variables (${cuts + 1} bands, ${compute.length} measured, in the ${[...where].join(' / ')}): median ${ms(c.median)}, p95 ${ms(c.p95)}${n === 500 ? `  (goal p95 ≤ 8 ms: ${verdict(c.p95 <= 8)})` : ''}; pointer to figure on screen median ${ms(s.median)}, p95 ${ms(s.p95)}`);
       console.log(`         the same bands in Node (this process, warm, median of 3 runs): median ${ms(node.median)}, p95 ${ms(node.p95)}; worker/Node p95 ${(c.p95 / node.p95).toFixed(1)}×`);
-      if (n === 2000) {
+      if (n === 500 || n === 2000) {
         const drags = async (title: string) => {
           console.log(title);
           const longest: number[] = [];
@@ -168,7 +168,8 @@ export async function benchBands(): Promise<void> {
           }
           console.log(`    median of the drags: longest task ${longest.every((x) => x === 0) ? 'none of 50 ms or more' : ms(stats(longest).median)}, longest gap between frames ${ms(stats(gaps).median)} (a frame: 16.7 ms)`);
         };
-        await drags(`  main thread while the control is dragged end to end (one step a frame), ${DRAGS} drags at 2,000 variables:`);
+        await drags(`  main thread while the control is dragged end to end (one step a frame), ${DRAGS} drags at ${n.toLocaleString('en')} variables:`);
+        if (n === 500) { await page.close(); continue; }
         // which part of that is the page drawing the sketch canvas (2,000 nodes) again for every move of the thumb
         await page.addStyleTag({ content: '.react-flow { display: none; }' });
         await page.waitForTimeout(1000);
