@@ -60,16 +60,21 @@ export function equilibrate(s: EquationStructure, x: VariableId): OperatorResult
 export function equilibrateAll(s: EquationStructure, xs: VariableId[]): OperatorResult {
   const out = cloneStructure(s);
   const changed: EquationId[] = [];
+  const known = new Set(out.variables);
+  const byId = new Map(out.equations.map((e) => [e.id, e]));
+  const settled = new Set<VariableId>();
   for (const x of [...new Set(xs)].sort(compareIds)) {
-    requireVariable(out, x, 'equilibrate');
+    if (!known.has(x)) throw new Error(`equilibrate: no variable "${x}" in this structure`);
     const eq = out.derivatives[x];
     if (eq === undefined) throw new Error(`equilibrate: "${x}" is not a dynamic state, so it cannot settle`);
     const d = derivativeOf(x);
-    for (const e of out.equations) if (e.id === eq) e.variables = e.variables.filter((v) => v !== d);
+    const e = byId.get(eq);
+    if (e) e.variables = e.variables.filter((v) => v !== d);
     delete out.derivatives[x];
-    out.exogenous = out.exogenous.filter((v) => v !== x);
+    settled.add(x);
     changed.push(eq);
   }
+  out.exogenous = out.exogenous.filter((v) => !settled.has(v));
   return {
     structure: out,
     change: {
@@ -191,8 +196,9 @@ export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
  */
 export function exogenizeAll(s: EquationStructure, xs: VariableId[]): OperatorResult {
   const states = [...new Set(xs)].sort(compareIds);
+  const known = new Set(s.variables);
   for (const x of states) {
-    requireVariable(s, x, 'exogenize');
+    if (!known.has(x)) throw new Error(`exogenize: no variable "${x}" in this structure`);
     if (s.derivatives[x] === undefined) throw new Error(`exogenizeAll: "${x}" is not a dynamic state; use exogenize for it`);
   }
   const dropped = new Set(states.map((x) => s.derivatives[x]));

@@ -60,12 +60,26 @@ export function compareIds(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-/** A deep copy with every list sorted and de-duplicated: operators work on copies, never on their input. */
+/** Whether a list is sorted with no repeats (then a copy needs no sorting). */
+function strictlyIncreasing(xs: readonly string[]): boolean {
+  for (let i = 1; i < xs.length; i++) if (!(xs[i - 1] < xs[i])) return false;
+  return true;
+}
+const sortedUnique = (xs: readonly string[]): string[] => (strictlyIncreasing(xs) ? xs.slice() : [...new Set(xs)].sort(compareIds));
+
+/**
+ * A deep copy with every list sorted and de-duplicated: operators work on
+ * copies, never on their input. The operators' own results are sorted
+ * already, so a list found in order is copied as it is.
+ */
 export function cloneStructure(s: EquationStructure): EquationStructure {
+  const equations = s.equations.map((e) => ({ id: e.id, variables: sortedUnique(e.variables) }));
+  if (!strictlyIncreasing(equations.map((e) => e.id))) equations.sort((a, b) => compareIds(a.id, b.id));
+  const keys = Object.keys(s.derivatives);
   return {
-    equations: s.equations.map((e) => ({ id: e.id, variables: [...new Set(e.variables)].sort(compareIds) })).sort((a, b) => compareIds(a.id, b.id)),
-    exogenous: [...new Set(s.exogenous)].sort(compareIds),
-    variables: [...new Set(s.variables)].sort(compareIds),
-    derivatives: Object.fromEntries(Object.entries(s.derivatives).sort((a, b) => compareIds(a[0], b[0]))),
+    equations,
+    exogenous: sortedUnique(s.exogenous),
+    variables: sortedUnique(s.variables),
+    derivatives: strictlyIncreasing(keys) ? { ...s.derivatives } : Object.fromEntries(Object.entries(s.derivatives).sort((a, b) => compareIds(a[0], b[0]))),
   };
 }
