@@ -75,6 +75,21 @@ test('the editor and the timescale view work in Firefox', async ({ baseURL }, te
     expect(after.x - before.x).toBeGreaterThan(30);
     expect(after.y - before.y).toBeGreaterThan(10);
 
+    // a link is picked by a click on its line (the links are drawn in one svg under the variables)
+    const onLink = await ff.eval<{ x: number; y: number } | null>(`(() => {
+      for (const g of document.querySelectorAll('.lf-link')) {
+        const p = g.querySelector('.lf-link-line');
+        const q = p.getPointAtLength(p.getTotalLength() / 2);
+        const m = p.getScreenCTM();
+        const x = q.x * m.a + q.y * m.c + m.e, y = q.x * m.b + q.y * m.d + m.f;
+        if (document.elementFromPoint(x, y)?.closest('.lf-link') === g) return { x: Math.round(x), y: Math.round(y) };
+      }
+      return null;
+    })()`);
+    expect(onLink, 'a link with its middle free to click').not.toBeNull();
+    await ff.click(onLink!.x, onLink!.y);
+    await ff.waitFor(`document.querySelector('.lf-inspector h2')?.textContent === 'Link' && document.querySelectorAll('.lf-link.is-selected').length === 1`, 'a link picked by a click');
+
     // undo the drag, the label and the new variable; redo them all
     await ff.click(pane.x, pane.y);
     await ff.press(['z'], ['\uE009']);
