@@ -202,7 +202,7 @@ export function CanvasDrawing({ model }: { model: Model }) {
   // what depends on the document only, not on where the nodes are
   const lines = useMemo(() => canvasLines(model), [model]);
   const sel = new Set(selected);
-  // the lines of variables being dragged go to a layer of their own (see the styles of .lf-links.is-moving)
+  // what is being dragged (the variables and their lines) goes to a layer of its own (.lf-links.is-moving)
   const moving = new Set<string>();
   for (const n of flowNodes) if (n.dragging) moving.add(n.id);
   const seen = new Set<string>();

@@ -31,7 +31,7 @@ import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
 // Props of the flow that never change live outside the component: a new array,
 // object or function on every render would reach the flow's store as a change
-// (one more round of every node's and edge's subscriptions per pointer move).
+// (one more round of every node's subscriptions per pointer move).
 const MULTI_SELECT_KEYS = ['Shift', 'Meta', 'Control'];
 const ARIA_LABELS = { 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' };
 const MINIMAP_STYLE = { width: 150, height: 96 };
