@@ -285,4 +285,23 @@ test.describe('editing a model on the canvas', () => {
     await expect(page.locator('.lf-link.is-selected')).toHaveCount(0);
     await expect(page.locator('.lf-inspector h2')).toHaveText('Model');
   });
+
+  test('zoomed far out the drawing leaves out names and signs, and shows them again when zoomed in', async ({ page }) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    const names = page.locator('.lf-vars-drawn text');
+    await expect(names).toHaveCount(14); // a name and a kind per variable
+    await expect(page.locator('.lf-sign')).not.toHaveCount(0);
+    const zoom = () => page.evaluate(() => Number(/scale\(([\d.]+)\)/.exec(document.querySelector<HTMLElement>('.react-flow__viewport')!.style.transform)?.[1]));
+    const out = page.getByRole('button', { name: /zoom out/i });
+    for (let i = 0; i < 20 && (await zoom()) >= 0.3; i++) { await out.click(); await page.waitForTimeout(250); }
+    expect(await zoom()).toBeLessThan(0.3);
+    await expect(names).toHaveCount(0);
+    await expect(page.locator('.lf-sign')).toHaveCount(0);
+    // the variables and links are still drawn, and still picked by the keyboard
+    await expect(page.locator('.lf-var-drawn')).toHaveCount(7);
+    await expect(page.locator('.lf-link')).toHaveCount(11);
+    for (let i = 0; i < 20 && (await zoom()) < 0.3; i++) { await page.getByRole('button', { name: /zoom in/i }).click(); await page.waitForTimeout(250); }
+    await expect(names).toHaveCount(14);
+  });
 });

@@ -86,13 +86,15 @@ interface LinkShapeProps {
   label: string;
   d: string;
   head: string;
+  /** Zoomed far out: the sign glyph is left out (too small to read). */
+  far: boolean;
   gx: number;
   gy: number;
   selected: boolean;
 }
 
 /** One link: instantaneous = solid with a filled head, integrating = dashed with a hollow head; sign near the head. */
-const LinkShape = memo(function LinkShape({ link, label, d, head, gx, gy, selected }: LinkShapeProps) {
+const LinkShape = memo(function LinkShape({ link, label, d, head, gx, gy, selected, far }: LinkShapeProps) {
   const style = LINK_STYLE[link.kind];
   const width = strokeForWeight(link.weight);
   const minus = link.sign === '-';
@@ -107,7 +109,7 @@ const LinkShape = memo(function LinkShape({ link, label, d, head, gx, gy, select
       ) : (
         <path d={head} className="lf-link-head" fill={style.stroke} stroke={style.stroke} strokeWidth={1} strokeLinejoin="round" />
       )}
-      {link.sign && (
+      {link.sign && !far && (
         <g className={`lf-sign${minus ? ' is-minus' : ''}`} aria-hidden="true">
           <circle cx={gx} cy={gy} r={8.5} fill={minus ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
           <path d={signPath(link.sign, gx, gy)} stroke={minus ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
@@ -123,6 +125,9 @@ const MemberShape = memo(function MemberShape({ d }: { d: string }) {
 });
 
 const memberPath = (a: Box, b: Box) => linkPath({ x: a.x, y: a.y, w: 30, h: 30 }, b, 0); // the relation's ring is the left 30 px of its node
+
+/** Below this zoom names are under 4 px high: the drawing leaves out text, connectors and sign glyphs. */
+export const FAR_ZOOM = 0.3;
 
 const KIND_CAPTION = { input: 'input', state: 'state', derived: 'derived' } as const;
 const LABEL_PX = 13.5;
@@ -141,7 +146,7 @@ export function variableCaption(v: Variable): string {
  * is drawn from) on its right. Drawn in the drawing's own coordinates: a
  * transform per variable would make each one a separate piece again.
  */
-const VariableShape = memo(function VariableShape({ v, x, y, selected }: { v: Variable; x: number; y: number; selected: boolean }) {
+const VariableShape = memo(function VariableShape({ v, x, y, selected, far }: { v: Variable; x: number; y: number; selected: boolean; far: boolean }) {
   const label = v.label ?? v.id;
   const w = variableWidth(label);
   const h = NODE_H;
@@ -158,9 +163,9 @@ const VariableShape = memo(function VariableShape({ v, x, y, selected }: { v: Va
       {selected && <path d={d} fill="none" stroke="#c77d0a" strokeWidth={6} strokeOpacity={0.45} />}
       <path d={d} fill={style.fill} stroke={style.stroke} strokeWidth={style.strokeWidth} strokeDasharray={style.dash} />
       {shape === 'accumulator' && <rect x={x} y={y + h - ACCUMULATOR_FLOOR} width={w} height={ACCUMULATOR_FLOOR} fill={style.stroke} />}
-      <text x={x + left} y={top + LABEL_PX * 0.95} fontSize={LABEL_PX} fontWeight={600} fill={INK}>{fitText(label, room, labelMeasure)}</text>
-      <text x={x + left} y={top + LABEL_PX * 1.15 + CAPTION_PX * 0.95} fontSize={CAPTION_PX} fill={MUTED}>{fitText(variableCaption(v), room, captionMeasure)}</text>
-      <circle className="lf-connector" cx={x + w + 8} cy={y + h / 2} r={5} fill="#ffffff" fillOpacity={0.35} stroke={INK} strokeOpacity={0.35} strokeWidth={2} />
+      {!far && <text x={x + left} y={top + LABEL_PX * 0.95} fontSize={LABEL_PX} fontWeight={600} fill={INK}>{fitText(label, room, labelMeasure)}</text>}
+      {!far && <text x={x + left} y={top + LABEL_PX * 1.15 + CAPTION_PX * 0.95} fontSize={CAPTION_PX} fill={MUTED}>{fitText(variableCaption(v), room, captionMeasure)}</text>}
+      {!far && <circle className="lf-connector" cx={x + w + 8} cy={y + h / 2} r={5} fill="#ffffff" fillOpacity={0.35} stroke={INK} strokeOpacity={0.35} strokeWidth={2} />}
     </g>
   );
 });
@@ -179,6 +184,8 @@ function pickLink(id: string, add: boolean): void {
 export function CanvasDrawing({ model }: { model: Model }) {
   // a new node list from the flow = something moved or was measured
   const flowNodes = useStore((s) => s.nodes);
+  // zoomed far out, text and glyphs are too small to read: the drawing leaves them out (a third of its pieces)
+  const far = useStore((s) => s.transform[2] < FAR_ZOOM);
   const lookup = useStoreApi().getState().nodeLookup;
   const selected = useSelection((s) => s.links);
   const selectedNodes = useSelection((s) => s.nodes);
@@ -214,7 +221,7 @@ export function CanvasDrawing({ model }: { model: Model }) {
     if (!a || !b) continue;
     seen.add(id);
     const g = drawnBetween(cache.current, id, a, b, linkPath);
-    (moving.has(link.from) || moving.has(link.to) ? carried : resting).push(<LinkShape key={id} link={link} label={label} d={g.d} head={link.kind === 'integrating' ? g.heads.hollow : g.heads.filled} gx={g.gx} gy={g.gy} selected={sel.has(id)} />);
+    (moving.has(link.from) || moving.has(link.to) ? carried : resting).push(<LinkShape key={id} link={link} label={label} d={g.d} head={link.kind === 'integrating' ? g.heads.hollow : g.heads.filled} gx={g.gx} gy={g.gy} selected={sel.has(id)} far={far} />);
   }
   const members: ReactElement[] = [];
   const carriedMembers: ReactElement[] = [];
@@ -233,7 +240,7 @@ export function CanvasDrawing({ model }: { model: Model }) {
     const n = lookup.get(v.id);
     if (!n) continue;
     const p = n.internals.positionAbsolute;
-    (moving.has(v.id) ? carriedVariables : variables).push(<VariableShape key={v.id} v={v} x={p.x} y={p.y} selected={pickedNodes.has(v.id)} />);
+    (moving.has(v.id) ? carriedVariables : variables).push(<VariableShape key={v.id} v={v} x={p.x} y={p.y} selected={pickedNodes.has(v.id)} far={far} />);
   }
 
   return (
