@@ -103,7 +103,7 @@ export function createBandHost(options: BandHostOptions = {}): BandApi {
         try {
           compute(s, band, x);
         } catch {
-          // asked for, it will give its message then
+          // a band that fails here gives its message when it is asked for
         }
         running = true;
         schedule(step);
