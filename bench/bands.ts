@@ -13,8 +13,7 @@
  * timescale pane), to tell which part of the page holds the frames back.
  * Run alone: `npx tsx bench/bands.ts` (`--sizes 500` for one model).
  */
-import { ms, sizesFromArgs, stats, verdict } from './common';
-import { spawn, spawnSync } from 'node:child_process';
+import { buildApp, CHROMIUM, serveBuild, ms, sizesFromArgs, stats, verdict } from './common';
 import { existsSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -116,14 +115,11 @@ export async function benchBands(): Promise<void> {
   console.log(`load average ${load()} (2 shared cores: figures vary with other work)`);
   if (!existsSync('/usr/bin/chromium')) { console.log('no /usr/bin/chromium: browser figures skipped'); return; }
   const out = join(tmpdir(), 'loopfold-bench-bands-dist');
-  console.log(`building the app (vite build → ${out}) …`);
-  const b = spawnSync('npx', ['vite', 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'error'], { cwd: ROOT, encoding: 'utf8' });
-  if (b.status !== 0) { console.log(`  build failed: ${b.stderr.slice(0, 800)}`); return; }
-  const server = spawn('npx', ['vite', 'preview', '--outDir', out, '--port', String(PORT), '--strictPort', '--host', '127.0.0.1'], { cwd: ROOT, stdio: 'ignore', detached: true });
+  if (!buildApp(ROOT, out)) return;
+  const stopServer = await serveBuild(ROOT, out, PORT);
   const { chromium } = await import('@playwright/test');
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+  const browser = await chromium.launch(CHROMIUM);
   try {
-    for (let i = 0; i < 50; i++) { try { if ((await fetch(`http://127.0.0.1:${PORT}/`)).ok) break; } catch { /* not up yet */ } await new Promise((r) => setTimeout(r, 200)); }
     console.log(`recompute of a band's ordering inside the core worker (up to ${BANDS} bands spread over the control, each asked for once)`);
     for (const n of SIZES) {
       const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
@@ -183,7 +179,7 @@ export async function benchBands(): Promise<void> {
     }
   } finally {
     await browser.close();
-    if (server.pid) { try { process.kill(-server.pid); } catch { /* already gone */ } }
+    stopServer();
     console.log(`load average ${load()} at the end`);
   }
 }

@@ -31,7 +31,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Page } from 'playwright-core';
-import { traceOf } from './common';
+import { CHROMIUM, traceOf } from './common';
 import { build, createServer, preview } from 'vite';
 import type { Model, Variable, Link } from '../src/core/model/types';
 
@@ -274,10 +274,7 @@ export async function benchCanvas(): Promise<void> {
     const server = await preview({ root: ROOT, logLevel: 'error', build: { outDir }, preview: { port, strictPort: true, host: '127.0.0.1' } });
     close = () => new Promise<void>((resolve) => server.httpServer.close(() => resolve()));
   }
-  const browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
+  const browser = await chromium.launch(CHROMIUM);
   try {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
     const base = `http://127.0.0.1:${port}`;

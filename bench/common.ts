@@ -1,4 +1,5 @@
 /** Pieces every benchmark script prints with: the sizes asked for, median and p95, the wording of figures, and a Chromium trace's summary. */
+import { spawn, spawnSync } from 'node:child_process';
 import type { CDPSession } from 'playwright-core';
 
 /** `--sizes 500` (or `--sizes 200,500`) measures only those models; by default 50, 200, 500 and 2,000 variables. */
@@ -81,4 +82,40 @@ export async function traceOf(page: { context(): { newCDPSession(p: unknown): Pr
     rows.push({ thread: names.get(k) ?? k, busy, top: [...self].sort((a, b) => b[1] - a[1]).slice(0, 6).map(([n, us]) => [n, us / 1000 / steps]) });
   }
   return rows.sort((a, b) => b.busy - a.busy);
+}
+
+/** How every bench launches Chromium: Debian's browser, software rendering, nothing running in the background. */
+export const CHROMIUM = {
+  executablePath: '/usr/bin/chromium',
+  args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+};
+
+/** `vite build` of the app in `root` into `out`, printing what it is doing; false (with the build's message printed) when it fails. */
+export function buildApp(root: string, out: string): boolean {
+  console.log(`building the app (vite build → ${out}) …`);
+  const b = spawnSync('npx', ['vite', 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'error'], { cwd: root, encoding: 'utf8' });
+  if (b.status !== 0) console.log(`  build failed: ${b.stderr.slice(0, 800)}`);
+  return b.status === 0;
+}
+
+/** Serve the build in `out` with `vite preview` on 127.0.0.1:`port`; resolves once it answers (or after 10 s), with the function that stops it. */
+export async function serveBuild(root: string, out: string, port: number): Promise<() => void> {
+  const server = spawn('npx', ['vite', 'preview', '--outDir', out, '--port', String(port), '--strictPort', '--host', '127.0.0.1'], { cwd: root, stdio: 'ignore', detached: true });
+  for (let i = 0; i < 50; i++) {
+    try {
+      if ((await fetch(`http://127.0.0.1:${port}/`)).ok) break;
+    } catch {
+      /* not up yet */
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return () => {
+    if (server.pid) {
+      try {
+        process.kill(-server.pid);
+      } catch {
+        /* already gone */
+      }
+    }
+  };
 }

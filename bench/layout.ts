@@ -9,8 +9,7 @@
  * Run alone: `npx tsx bench/layout.ts` (`--browser --sizes 500` for one model in the browser only;
  * `--trace` adds where the time of one drag of the control goes at 500 variables).
  */
-import { ms, sizesFromArgs, stats, traceOf, verdict } from './common';
-import { spawn, spawnSync } from 'node:child_process';
+import { buildApp, CHROMIUM, serveBuild, ms, sizesFromArgs, stats, traceOf, verdict } from './common';
 import { readFileSync, existsSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
 import { loadavg, tmpdir } from 'node:os';
@@ -88,9 +87,7 @@ async function nodePart(): Promise<void> {
 
 async function browserPart(): Promise<void> {
   const out = join(tmpdir(), 'loopfold-bench-dist');
-  console.log(`building the app (vite build → ${out}) …`);
-  const b = spawnSync('npx', ['vite', 'build', '--outDir', out, '--emptyOutDir', '--logLevel', 'error'], { cwd: ROOT, encoding: 'utf8' });
-  if (b.status !== 0) { console.log(`  build failed: ${b.stderr.slice(0, 800)}`); return; }
+  if (!buildApp(ROOT, out)) return;
   // first load: index.html and what it references (entry script, its preloads, styles)
   const html = readFileSync(join(out, 'index.html'), 'utf8');
   const refs = [...html.matchAll(/(?:src|href)="\/?([^"]+\.(?:js|css))"/g)].map((m) => m[1]);
@@ -99,11 +96,10 @@ async function browserPart(): Promise<void> {
   console.log(`first page load: index.html + ${refs.length} files = ${(total / 1024).toFixed(0)} kB gzip (goal ≤ 600 kB: ${verdict(total <= 600 * 1024)})`);
 
   const port = 5288;
-  const server = spawn('npx', ['vite', 'preview', '--outDir', out, '--port', String(port), '--strictPort', '--host', '127.0.0.1'], { cwd: ROOT, stdio: 'ignore', detached: true });
+  const stopServer = await serveBuild(ROOT, out, port);
   const { chromium } = await import('@playwright/test');
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'] });
+  const browser = await chromium.launch(CHROMIUM);
   try {
-    for (let i = 0; i < 50; i++) { try { if ((await fetch(`http://127.0.0.1:${port}/`)).ok) break; } catch { /* not up yet */ } await new Promise((r) => setTimeout(r, 200)); }
     for (const n of SIZES) {
       const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
       await page.goto(`http://127.0.0.1:${port}/`);
@@ -164,7 +160,7 @@ async function browserPart(): Promise<void> {
     }
   } finally {
     await browser.close();
-    if (server.pid) { try { process.kill(-server.pid); } catch { /* already gone */ } }
+    stopServer();
   }
 }
 
