@@ -111,7 +111,9 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number 
   const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
   const kids: (El | string)[] = [
     el('title', {}, [`${e.pairs.map((p) => `${p.from} → ${p.to}`).join(', ')}: ${style.label}${sim ? ', within a simultaneous block' : ''}`]),
-    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
+    // the same attributes as a routed edge's line (round joins draw nothing on a line without corners): a
+    // figure whose edges go from straight to routed on screen has its values written in, not its parts parsed again
+    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
   ];
   if (e.sign) {
     // the sign glyph near the head, off the line

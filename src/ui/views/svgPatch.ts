@@ -3,7 +3,11 @@
  * parts (one `<g>` per node, edge, block and instant) are kept by key, and
  * only the parts whose element tree changed are parsed again. A new band
  * changes a few roles and links of a big model, so the browser restyles a
- * few elements instead of parsing and laying out the whole figure.
+ * few elements instead of parsing and laying out the whole figure. A part
+ * that only moved (the same elements with the same attributes, other
+ * values: coordinates, paths) keeps its elements and gets the new values
+ * written in: a new layout of a big figure moves every node, and parsing
+ * them all again took most of the time it took to show it.
  */
 import type { El } from '../../export/scene';
 import { serialize } from '../../export/svg';
@@ -44,6 +48,47 @@ function sameAttrs(a: El['attrs'], b: El['attrs']): boolean {
     if (String(a[k]) !== String(b[k])) return false;
   }
   return na === nb;
+}
+
+/** The defined attribute names of `a`, in order. */
+function attrNames(a: El['attrs']): string[] {
+  const out: string[] = [];
+  for (const k in a) if (a[k] !== undefined) out.push(k);
+  return out;
+}
+
+/**
+ * Same elements, attribute names and text positions, in the same order (the values may differ): `b`
+ * can be written into what shows `a`. Mixed text and elements under one parent are never the same shape
+ * (the file's white space between elements is not kept one to one).
+ */
+export function sameShape(a: El | string, b: El | string): boolean {
+  if (typeof a === 'string' || typeof b === 'string') return typeof a === 'string' && typeof b === 'string';
+  if (a.tag !== b.tag) return false;
+  const na = attrNames(a.attrs), nb = attrNames(b.attrs);
+  if (na.length !== nb.length) return false;
+  for (let i = 0; i < na.length; i++) if (na[i] !== nb[i]) return false;
+  const ak = a.children ?? [], bk = b.children ?? [];
+  if (ak.length !== bk.length) return false;
+  const texts = ak.filter((c) => typeof c === 'string').length;
+  if (texts && texts !== ak.length) return false;
+  if (texts) return true;
+  for (let i = 0; i < ak.length; i++) if (!sameShape(ak[i], bk[i])) return false;
+  return true;
+}
+
+/** Write `next` into `dom`, which shows `before` (same shape): only the values that differ. */
+function morph(dom: Element, before: El, next: El): void {
+  setAttrs(dom, before.attrs, next.attrs);
+  const bk = before.children ?? [], nk = next.children ?? [];
+  if (!nk.length) return;
+  if (typeof nk[0] === 'string') {
+    const text = (nk as string[]).join('');
+    if ((bk as string[]).join('') !== text) dom.textContent = text;
+    return;
+  }
+  const kids = dom.children;
+  for (let i = 0; i < nk.length; i++) if (!sameEl(bk[i], nk[i])) morph(kids[i], bk[i] as El, nk[i] as El);
 }
 
 /** Parse many elements at once (one parser run), in order. */
@@ -96,6 +141,10 @@ function patchChildren(parent: Element, before: Map<string, Shown>, next: (El | 
       return { el: e, dom: old.dom, parts: old.parts };
     }
     if (old && sameEl(old.el, e)) return { el: e, dom: old.dom, ...(old.parts ? { parts: old.parts } : {}) };
+    if (old && !old.parts && !deep?.(k) && sameShape(old.el, e)) {
+      morph(old.dom, old.el, e);
+      return { el: e, dom: old.dom };
+    }
     fresh.push(e);
     freshAt.push(i);
     return null;
