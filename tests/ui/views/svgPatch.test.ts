@@ -115,7 +115,7 @@ describe('the figure on screen, updated in place', () => {
     const cuts = breakpoints(model, { samples: 50 }).map((b) => b.interval).sort((a, b) => a - b);
     const interval = Math.sqrt(cuts[2] * cuts[3]);
     const vm = orderingView(model, orderingAt(model, { samples: 50, interval }), { mode: 'ordering', interval, samples: 50 });
-    const a = instantLayout(vm);
+    const a = instantLayout(vm, undefined);
     // every node and block elsewhere, each by its own amount
     const shift = (r: Record<string, { x: number; y: number; width: number; height: number }>) =>
       Object.fromEntries(Object.entries(r).map(([k, b], i) => [k, { ...b, x: b.x + 13 + (i % 7) * 5, y: b.y + 29 + (i % 3) * 11 }]));
