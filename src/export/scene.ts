@@ -13,6 +13,12 @@ export interface El {
   tag: string;
   attrs: Record<string, Attr>;
   children?: (El | string)[];
+  /**
+   * Not written to files: for a part of the figure, the box [x0, y0, x1, y1] it is drawn in (in the
+   * figure's coordinates); for the figure itself, where its coordinates start ([x, y], the first two).
+   * The app draws only the parts near what is in view of a big figure.
+   */
+  box?: readonly number[];
 }
 
 export interface SceneOptions {
@@ -44,6 +50,13 @@ export function wrapText(text: string, width: number, em: number): string[] {
   return lines;
 }
 const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
+const boxed = (e: El, x0: number, y0: number, x1: number, y1: number): El => ({ ...e, box: [x0, y0, x1, y1] });
+/** The box around points, grown by `pad` (a sign glyph, an arrowhead). */
+function around(ps: readonly { x: number; y: number }[], pad: number): [number, number, number, number] {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const p of ps) { x0 = Math.min(x0, p.x); y0 = Math.min(y0, p.y); x1 = Math.max(x1, p.x); y1 = Math.max(y1, p.y); }
+  return [x0 - pad, y0 - pad, x1 + pad, y1 + pad];
+}
 
 function markerDefs(): El {
   const head = (id: string, color: string, hollow: boolean) =>
@@ -86,7 +99,7 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
     const nx = -(p1.y - p0.y) / len, ny = (p1.x - p0.x) / len;
     kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
-  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
+  return boxed(el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), ...around(ps, 16));
 }
 
 /** `reach.top`: the highest point the edge's line or sign reaches (arcs over a row rise above it). */
@@ -124,7 +137,8 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number 
     reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
     kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
-  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
+  // a quadratic curve stays inside the triangle of its ends and control point
+  return boxed(el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), ...around(bend === 0 ? [p0, p1] : [p0, p1, ctrl], 24));
 }
 
 /**
@@ -138,13 +152,13 @@ function nodeEl(n: ViewNode, b: Box): El {
   if (n.count !== undefined) {
     const s = BLOCK_STYLE;
     const card = (o: number) => el('rect', { x: X(o), y: Y(o), width: r1(b.width - 8), height: r1(b.height - 8), rx: 8, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 });
-    return el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, class: 'lf-toggle' }, [
+    return boxed(el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, class: 'lf-toggle' }, [
       el('title', {}, [`${n.label} — a simultaneous block, folded; click to show its members`]),
       card(8), card(4), card(0),
       el('circle', { cx: X(20), cy: Y((b.height - 8) / 2), r: 12, fill: s.stroke }),
       el('text', { x: X(20), y: Y((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
       el('text', { x: X(38), y: Y((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
-    ]);
+    ]), ...around([b, { x: b.x + b.width, y: b.y + b.height }], 4));
   }
   const style = ROLE_STYLE[n.role];
   const shape = KIND_SHAPE[n.kind];
@@ -158,7 +172,7 @@ function nodeEl(n: ViewNode, b: Box): El {
   if (glyph) kids.push(el('text', { x: X(14), y: textY, 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: style.stroke }, [glyph]));
   const textX = X(glyph ? 22 + (b.width - 22 - (shape === 'tag' ? 10 : 0)) / 2 : (b.width - (shape === 'tag' ? 10 : 0)) / 2);
   kids.push(el('text', { x: textX, y: textY, 'text-anchor': 'middle', 'font-size': 13, fill: INK }, [n.label]));
-  return el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}) }, kids);
+  return boxed(el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}) }, kids), ...around([b, { x: b.x + b.width, y: b.y + b.height }], 4));
 }
 
 function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: number } {
@@ -210,26 +224,27 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const reach = { top: 0 };
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
-    body.push(el('g', { 'data-slice-frame': s }, [
+    body.push(boxed(el('g', { 'data-slice-frame': s }, [
       el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
       el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + box.height - 12), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
-    ]));
+    ]), ...around([box, { x: box.x + box.width, y: box.y + box.height }], 2)));
   }
   for (const g of vm.groups) {
     const b = layout.groups[g.id];
     if (!b) continue;
     const s = BLOCK_STYLE;
-    body.push(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
+    const blockBox = around([b, { x: b.x + b.width, y: b.y + b.height }], 2);
+    body.push(boxed(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
       el('rect', { x: r1(b.x), y: r1(b.y), width: r1(b.width), height: r1(b.height), rx: s.radius, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 }),
       el('rect', { x: r1(b.x + s.gap), y: r1(b.y + s.gap), width: r1(b.width - 2 * s.gap), height: r1(b.height - 2 * s.gap), rx: s.radius - s.gap, fill: 'none', stroke: s.stroke, 'stroke-width': 1 }),
-    ]));
+    ]), ...blockBox));
     // the block's name and fold button are drawn over the links (a link entering the block must not hide them)
-    labels.push(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
+    labels.push(boxed(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
       el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
       el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
       el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
-    ]));
+    ]), b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30));
   }
   const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
   for (const e of vm.edges) {
@@ -253,7 +268,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const top = (showTitle ? HEADER + (titleLines.length - 1) * 21 : 0) + rise;
   const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
   if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, titleLines.map((t, i) => el('tspan', { x: 24, dy: i ? 21 : 0 }, [t]))));
-  children.push(el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body));
+  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body), box: [0, top] });
   let y = top + layout.height;
   if (opts.legend !== false) {
     const lg = legendEl(vm, y, width);

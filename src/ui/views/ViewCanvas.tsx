@@ -11,6 +11,8 @@ import { ease, interpolateLayout } from '../../layout/geometry';
 import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { patchSvg, type SvgHost } from './svgPatch';
+import { contains, grown, partsInView, visibleRect, type Area } from './inView';
+import type { El } from '../../export/scene';
 
 const ANIMATION_MS = 320;
 /** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
@@ -21,6 +23,10 @@ const MIN_SCALE = 0.8;
 const FIT_SCALE_UNROLLED = 0.45;
 /** Above this many nodes, positions jump instead of moving (keeps the page responsive). */
 const ANIMATE_UP_TO = 250;
+/** Above this many nodes, only the parts near what is in view are put on the page (`inView.ts`). */
+const CULL_FROM = 150;
+/** How far beyond what is in view parts are drawn: this many times the view's width and height on each side. */
+const CULL_MARGIN = 0.5;
 
 export interface ViewCanvasProps {
   vm: ViewModel;
@@ -116,9 +122,55 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   // the nodes, links and blocks that differ are parsed again (React does not reconcile thousands of elements)
   const host = useRef<HTMLDivElement>(null);
   const shownSvg = useRef<SvgHost>({ root: null });
+  // a big figure: only the parts near what is in view go on the page; scrolling or resizing the pane
+  // draws the parts it brings near (none while it stays inside the area drawn)
+  const target = useRef<El | null>(null);
+  const area = useRef<Area | null>(null);
+  const fit = useRef({ cull: false, natural, scale: 1 });
+  fit.current = { cull: vm.nodes.length > CULL_FROM, natural, scale: zoom === 'fit' ? 0 : zoom };
+  /** What of the figure is in view, in its own units. */
+  const inSight = useCallback((h: HTMLElement): Area => {
+    const { natural: w, scale } = fit.current;
+    // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
+    const px = scale ? w * scale : Math.max(h.clientWidth, w * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE));
+    const v = visibleRect(h);
+    const k = px > 0 ? w / px : 1;
+    return { x0: v.x0 * k, y0: v.y0 * k, x1: v.x1 * k, y1: v.y1 * k };
+  }, [vm.mode]);
+  const draw = useCallback(() => {
+    const h = host.current, t = target.current;
+    if (h && t) patchSvg(h, shownSvg.current, area.current ? partsInView(t, area.current) : t);
+  }, []);
+  /** A new area to draw when what is in view left the one drawn; true if it did. */
+  const reframe = useCallback((h: HTMLElement): boolean => {
+    if (!fit.current.cull) {
+      const had = area.current !== null;
+      area.current = null;
+      return had;
+    }
+    const v = inSight(h);
+    if (area.current && (v.x1 <= v.x0 || v.y1 <= v.y0 || contains(area.current, v))) return false;
+    area.current = grown(v, CULL_MARGIN);
+    return true;
+  }, [inSight]);
   useLayoutEffect(() => {
-    if (host.current) patchSvg(host.current, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
-  }, [scene, sizeStyle]);
+    const h = host.current;
+    if (!h) return;
+    target.current = { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } };
+    reframe(h);
+    draw();
+  }, [scene, sizeStyle, reframe, draw]);
+  useEffect(() => {
+    const h = host.current;
+    if (!h) return;
+    let raf = 0;
+    const check = () => { raf = 0; if (reframe(h)) draw(); };
+    const soon = () => { if (!raf) raf = requestAnimationFrame(check); };
+    h.ownerDocument.addEventListener('scroll', soon, { capture: true, passive: true });
+    const ro = typeof ResizeObserver === 'undefined' ? null : new ResizeObserver(soon);
+    ro?.observe(h);
+    return () => { cancelAnimationFrame(raf); h.ownerDocument.removeEventListener('scroll', soon, { capture: true }); ro?.disconnect(); };
+  }, [reframe, draw]);
   const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
