@@ -30,6 +30,11 @@ export interface SceneOptions {
   title?: boolean;
   /** The caption text (the caller words the interval and study; default: the view's title). */
   captionText?: string;
+  /**
+   * Build only the figure's parts whose box meets this area ([x0, y0, x1, y1] in the svg's coordinates):
+   * the app's view of a big figure. The svg's size and everything outside the figure stay as without it.
+   */
+  area?: readonly number[];
 }
 
 const HEADER = 40;
@@ -103,8 +108,17 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
 }
 
 /** `reach.top`: the highest point the edge's line or sign reaches (arcs over a row rise above it). */
-function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number }): El {
-  const style = LINK_STYLE[e.kind];
+/** A part of the figure: the box it is drawn in, and its elements, made only when they are drawn. */
+interface Part {
+  box: readonly number[];
+  make(): El;
+}
+
+/**
+ * The geometry of an edge now (its reach above the figure counts for the figure's size, drawn or not),
+ * its elements when asked for.
+ */
+function edgePart(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number }): Part {
   const ac = { x: a.x + a.width / 2, y: a.y + a.height / 2 };
   const bc = { x: b.x + b.width / 2, y: b.y + b.height / 2 };
   const len = Math.hypot(bc.x - ac.x, bc.y - ac.y) || 1;
@@ -119,6 +133,19 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number 
   const ts = bend !== 0 && Math.abs(den) > 1e-9 ? (p0.y - ctrl.y) / den : -1;
   const peak = ts > 0 && ts < 1 ? (1 - ts) * (1 - ts) * p0.y + 2 * (1 - ts) * ts * ctrl.y + ts * ts * p1.y : Infinity;
   reach.top = Math.min(reach.top, p0.y, p1.y, peak);
+  // the sign glyph near the head, off the line
+  const t = 0.78;
+  const q = bend === 0
+    ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
+    : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
+  if (e.sign) reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
+  // a quadratic curve stays inside the triangle of its ends and control point
+  const box = around(bend === 0 ? [p0, p1] : [p0, p1, ctrl], 24);
+  return { box, make: () => edgeEl(e, d, q, nx, ny, box) };
+}
+
+function edgeEl(e: ViewEdge, d: string, q: { x: number; y: number }, nx: number, ny: number, box: readonly number[]): El {
+  const style = LINK_STYLE[e.kind];
   const sim = e.simultaneous;
   const color = sim ? BLOCK_STYLE.stroke : style.stroke;
   const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
@@ -129,16 +156,9 @@ function edgeEl(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number 
     el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
   ];
   if (e.sign) {
-    // the sign glyph near the head, off the line
-    const t = 0.78;
-    const q = bend === 0
-      ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
-      : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
-    reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
     kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
-  // a quadratic curve stays inside the triangle of its ends and control point
-  return boxed(el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), ...around(bend === 0 ? [p0, p1] : [p0, p1, ctrl], 24));
+  return { ...el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), box };
 }
 
 /**
@@ -218,49 +238,50 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const showTitle = opts.title !== false;
   const width = Math.max(layout.width, 560);
   const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
-  const body: (El | string)[] = [];
-  const labels: El[] = [];
+  const body: Part[] = [];
+  const labels: Part[] = [];
   // how far links rise above the laid-out box (arcs between instants on one row): room is made for them
   const reach = { top: 0 };
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
-    body.push(boxed(el('g', { 'data-slice-frame': s }, [
+    body.push({ box: around([box, { x: box.x + box.width, y: box.y + box.height }], 2), make: () => boxed(el('g', { 'data-slice-frame': s }, [
       el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
       el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + box.height - 12), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
-    ]), ...around([box, { x: box.x + box.width, y: box.y + box.height }], 2)));
+    ]), ...around([box, { x: box.x + box.width, y: box.y + box.height }], 2)) });
   }
   for (const g of vm.groups) {
     const b = layout.groups[g.id];
     if (!b) continue;
     const s = BLOCK_STYLE;
     const blockBox = around([b, { x: b.x + b.width, y: b.y + b.height }], 2);
-    body.push(boxed(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
+    body.push({ box: blockBox, make: () => boxed(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
       el('rect', { x: r1(b.x), y: r1(b.y), width: r1(b.width), height: r1(b.height), rx: s.radius, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 }),
       el('rect', { x: r1(b.x + s.gap), y: r1(b.y + s.gap), width: r1(b.width - 2 * s.gap), height: r1(b.height - 2 * s.gap), rx: s.radius - s.gap, fill: 'none', stroke: s.stroke, 'stroke-width': 1 }),
-    ]), ...blockBox));
+    ]), ...blockBox) });
     // the block's name and fold button are drawn over the links (a link entering the block must not hide them)
-    labels.push(boxed(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
+    const labelBox = [b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30];
+    labels.push({ box: labelBox, make: () => boxed(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
       el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
       el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
       el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
-    ]), b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30));
+    ]), labelBox[0], labelBox[1], labelBox[2], labelBox[3]) });
   }
   const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
   for (const e of vm.edges) {
     const a = layout.nodes[e.from], b = layout.nodes[e.to];
     if (!a || !b) continue;
     const route = layout.edges?.[e.id];
-    if (route && route.length >= 2) { body.push(routedEdgeEl(e, route)); continue; }
+    if (route && route.length >= 2) { body.push({ box: around(route, 16), make: () => routedEdgeEl(e, route) }); continue; }
     // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
     const across = vm.mode === 'unrolled' && e.kind === 'integrating';
     const sameRow = Math.abs(a.y + a.height / 2 - (b.y + b.height / 2)) < 30;
     const bend = across && sameRow ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
-    body.push(edgeEl(e, a, b, bend, reach));
+    body.push(edgePart(e, a, b, bend, reach));
   }
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
-    if (b) body.push(nodeEl(n, b));
+    if (b) body.push({ box: around([b, { x: b.x + b.width, y: b.y + b.height }], 4), make: () => nodeEl(n, b) });
   }
   body.push(...labels);
 
@@ -268,7 +289,10 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const top = (showTitle ? HEADER + (titleLines.length - 1) * 21 : 0) + rise;
   const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
   if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, titleLines.map((t, i) => el('tspan', { x: 24, dy: i ? 21 : 0 }, [t]))));
-  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, body), box: [0, top] });
+  // the area in the figure's coordinates (below its title and the arcs' room)
+  const area = opts.area && [opts.area[0], opts.area[1] - top, opts.area[2], opts.area[3] - top];
+  const drawn = area ? body.filter(({ box: b }) => b[0] <= area[2] && b[2] >= area[0] && b[1] <= area[3] && b[3] >= area[1]) : body;
+  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, drawn.map((p) => p.make())), box: [0, top] });
   let y = top + layout.height;
   if (opts.legend !== false) {
     const lg = legendEl(vm, y, width);

@@ -11,8 +11,7 @@ import { ease, interpolateLayout } from '../../layout/geometry';
 import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { patchSvg, type SvgHost } from './svgPatch';
-import { contains, grown, partsInView, visibleRect, type Area } from './inView';
-import type { El } from '../../export/scene';
+import { contains, grown, visibleRect, type Area } from './inView';
 
 const ANIMATION_MS = 320;
 /** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
@@ -27,6 +26,8 @@ const ANIMATE_UP_TO = 250;
 const CULL_FROM = 150;
 /** How far beyond what is in view parts are drawn: this many times the view's width and height on each side. */
 const CULL_MARGIN = 0.5;
+/** An area nothing meets. */
+const NOTHING: Area = { x0: 0, y0: 0, x1: -1, y1: -1 };
 
 export interface ViewCanvasProps {
   vm: ViewModel;
@@ -114,63 +115,55 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   useEffect(() => () => { cancelAnimationFrame(frame.current); void queue.dispose(); }, [queue]);
 
   const [zoom, setZoom] = useState<'fit' | number>('fit');
+  // a big figure: only the parts near what is in view are built and go on the page; scrolling or
+  // resizing the pane builds the parts it brings near (none while what is in view stays inside the area)
+  const cull = vm.nodes.length > CULL_FROM;
+  const [area, setArea] = useState<Area | null>(null);
+  // until the pane is measured (in the same frame, before it is painted), nothing of a big figure is built
+  const areaNow = cull ? area ?? NOTHING : null;
   // the pane has its own heading and summary: the figure's title line is for exported files
-  const scene = useMemo(() => buildScene(vm, shown, { legend: true, title: false }), [vm, shown]);
+  const scene = useMemo(() => buildScene(vm, shown, { legend: true, title: false, ...(areaNow ? { area: [areaNow.x0, areaNow.y0, areaNow.x1, areaNow.y1] } : {}) }), [vm, shown, areaNow]);
   const natural = Number(scene.attrs.width);
   const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE))}px` : `width:${Math.round(natural * zoom)}px`;
   // the exporter's own scene, put on screen as the file's markup and then changed in place: only
   // the nodes, links and blocks that differ are parsed again (React does not reconcile thousands of elements)
   const host = useRef<HTMLDivElement>(null);
   const shownSvg = useRef<SvgHost>({ root: null });
-  // a big figure: only the parts near what is in view go on the page; scrolling or resizing the pane
-  // draws the parts it brings near (none while it stays inside the area drawn)
-  const target = useRef<El | null>(null);
-  const area = useRef<Area | null>(null);
-  const fit = useRef({ cull: false, natural, scale: 1 });
-  fit.current = { cull: vm.nodes.length > CULL_FROM, natural, scale: zoom === 'fit' ? 0 : zoom };
-  /** What of the figure is in view, in its own units. */
-  const inSight = useCallback((h: HTMLElement): Area => {
-    const { natural: w, scale } = fit.current;
+  const fit = useRef({ cull, natural, scale: 1, min: MIN_SCALE, area });
+  fit.current = { cull, natural, scale: zoom === 'fit' ? 0 : zoom, min: vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE, area };
+  /** A new area to build when what is in view (in the figure's units) left the one built. */
+  const reframe = useCallback((h: HTMLElement) => {
+    const { cull: on, natural: w, scale, min, area: built } = fit.current;
+    if (!on) return;
     // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
-    const px = scale ? w * scale : Math.max(h.clientWidth, w * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE));
-    const v = visibleRect(h);
+    const px = scale ? w * scale : Math.max(h.clientWidth, w * min);
     const k = px > 0 ? w / px : 1;
-    return { x0: v.x0 * k, y0: v.y0 * k, x1: v.x1 * k, y1: v.y1 * k };
-  }, [vm.mode]);
-  const draw = useCallback(() => {
-    const h = host.current, t = target.current;
-    if (h && t) patchSvg(h, shownSvg.current, area.current ? partsInView(t, area.current) : t);
-  }, []);
-  /** A new area to draw when what is in view left the one drawn; true if it did. */
-  const reframe = useCallback((h: HTMLElement): boolean => {
-    if (!fit.current.cull) {
-      const had = area.current !== null;
-      area.current = null;
-      return had;
+    let v = visibleRect(h);
+    if (v.x1 <= v.x0 || v.y1 <= v.y0) {
+      // out of sight: what would show first
+      if (built) return;
+      v = { x0: 0, y0: 0, x1: h.clientWidth, y1: h.ownerDocument.defaultView?.innerHeight ?? 800 };
     }
-    const v = inSight(h);
-    if (area.current && (v.x1 <= v.x0 || v.y1 <= v.y0 || contains(area.current, v))) return false;
-    area.current = grown(v, CULL_MARGIN);
-    return true;
-  }, [inSight]);
+    const seen = { x0: v.x0 * k, y0: v.y0 * k, x1: v.x1 * k, y1: v.y1 * k };
+    if (built && contains(built, seen)) return;
+    setArea(grown(seen, CULL_MARGIN));
+  }, []);
   useLayoutEffect(() => {
     const h = host.current;
     if (!h) return;
-    target.current = { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } };
+    patchSvg(h, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
     reframe(h);
-    draw();
-  }, [scene, sizeStyle, reframe, draw]);
+  }, [scene, sizeStyle, reframe]);
   useEffect(() => {
     const h = host.current;
     if (!h) return;
     let raf = 0;
-    const check = () => { raf = 0; if (reframe(h)) draw(); };
-    const soon = () => { if (!raf) raf = requestAnimationFrame(check); };
+    const soon = () => { if (!raf) raf = requestAnimationFrame(() => { raf = 0; reframe(h); }); };
     h.ownerDocument.addEventListener('scroll', soon, { capture: true, passive: true });
     const ro = typeof ResizeObserver === 'undefined' ? null : new ResizeObserver(soon);
     ro?.observe(h);
     return () => { cancelAnimationFrame(raf); h.ownerDocument.removeEventListener('scroll', soon, { capture: true }); ro?.disconnect(); };
-  }, [reframe, draw]);
+  }, [reframe]);
   const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');

@@ -1,11 +1,11 @@
 /**
- * What of a big figure to put on the page: the parts near what is in view.
- * A timescale figure of 2,000 variables has some 6,000 parts (nodes, links,
- * blocks); on the page each change of band or layout cost the browser time
- * for all of them (style, layout, paint), most of a second per change,
- * although a pane shows a few dozen at a time.
+ * Where a big figure is in view: the area whose parts the timescale view
+ * builds and puts on the page (`buildScene`'s `area`). A figure of 2,000
+ * variables has some 6,000 parts (nodes, links, blocks); on the page each
+ * change of band or layout cost the browser time for all of them (style,
+ * layout, paint), most of a second per change, although a pane shows a few
+ * dozen at a time.
  */
-import type { El } from '../../export/scene';
 
 /** A rectangle in the figure's root coordinates (the svg's user units). */
 export interface Area {
@@ -22,24 +22,6 @@ export const contains = (outer: Area, inner: Area): boolean =>
 export function grown(a: Area, f: number): Area {
   const dx = (a.x1 - a.x0) * f, dy = (a.y1 - a.y0) * f;
   return { x0: a.x0 - dx, y0: a.y0 - dy, x1: a.x1 + dx, y1: a.y1 + dy };
-}
-
-/**
- * `scene` with only the figure's parts whose box meets `area`; parts without a box (and everything
- * outside the figure: legend, markers) stay. The parts kept are the scene's own objects, so the patcher
- * sees them unchanged; the scene itself is returned when nothing is left out.
- */
-export function partsInView(scene: El, area: Area): El {
-  const kids = scene.children ?? [];
-  const at = kids.findIndex((c) => typeof c !== 'string' && c.attrs['data-part'] === 'figure');
-  if (at < 0) return scene;
-  const figure = kids[at] as El;
-  const ox = figure.box?.[0] ?? 0, oy = figure.box?.[1] ?? 0;
-  const x0 = area.x0 - ox, x1 = area.x1 - ox, y0 = area.y0 - oy, y1 = area.y1 - oy;
-  const body = figure.children ?? [];
-  const kept = body.filter((c) => typeof c === 'string' || !c.box || (c.box[0] <= x1 && c.box[2] >= x0 && c.box[1] <= y1 && c.box[3] >= y0));
-  if (kept.length === body.length) return scene;
-  return { ...scene, children: kids.map((c, i) => (i === at ? { ...figure, children: kept } : c)) };
 }
 
 /**
