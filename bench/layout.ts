@@ -42,25 +42,29 @@ function bandIntervals(m: Model, limit: number): number[] {
 }
 
 async function nodePart(): Promise<void> {
-  console.log('recompute per band = orderingAt + derived view, fresh (no cache), 40 bands per model');
+  console.log('recompute per band in Node = orderingAt + derived view, fresh (no cache), 40 bands per model, median of 3 runs per band');
+  console.log('  (the goal, p95 ≤ 8 ms at 500 variables, is for the recompute inside the core worker: npm run bench -- bands)');
   for (const n of [50, 200, 500, 2000]) {
     const m = generatedModel(n);
     const xs = bandIntervals(m, 40);
     for (const x of xs.slice(0, 3)) orderingAt(m, { interval: x, samples: 50 }); // warm up
+    const mid = (a: number[]) => [...a].sort((p, q) => p - q)[1];
     const core: number[] = [];
     const view: number[] = [];
     const times = xs.map((interval) => {
-      const t0 = now();
-      const o = orderingAt(m, { interval, samples: 50 });
-      const t1 = now();
-      orderingView(m, o, { mode: 'ordering', interval, samples: 50 });
-      const t2 = now();
-      core.push(t1 - t0);
-      view.push(t2 - t1);
-      return t2 - t0;
+      const runs = [0, 1, 2].map(() => {
+        const t0 = now();
+        const o = orderingAt(m, { interval, samples: 50 });
+        const t1 = now();
+        orderingView(m, o, { mode: 'ordering', interval, samples: 50 });
+        return [t1 - t0, now() - t1];
+      });
+      core.push(mid(runs.map((r) => r[0])));
+      view.push(mid(runs.map((r) => r[1])));
+      return mid(runs.map((r) => r[0] + r[1]));
     });
     const s = stats(times), c = stats(core), v = stats(view);
-    console.log(`  ${String(n).padStart(5)} variables: median ${ms(s.median)}, p95 ${ms(s.p95)} (of which orderingAt p95 ${ms(c.p95)}, derived view p95 ${ms(v.p95)})${n === 500 ? `  (goal p95 ≤ 8 ms: ${verdict(s.p95 <= 8)})` : ''}`);
+    console.log(`  ${String(n).padStart(5)} variables: median ${ms(s.median)}, p95 ${ms(s.p95)} (of which orderingAt p95 ${ms(c.p95)}, derived view p95 ${ms(v.p95)})`);
   }
   console.log('ELK layered, tuned options vs ELK defaults (same graphs, same run; view at a middle band)');
   for (const n of [50, 200, 500, 2000]) {
