@@ -4,7 +4,7 @@ import { generatedSketch } from '../tests/helpers/sketches';
 
 const figure = 'figure[aria-label="The ordering at the interval"], [role=figure][aria-label="The ordering at the interval"]';
 
-test('a big figure puts only the parts near the view on the page, and draws more as the view scrolls to them', async ({ page }, testInfo) => {
+test('a big figure puts only the parts near the view on the page, and draws more as the view scrolls to them; its zoom buttons stay in view', async ({ page }, testInfo) => {
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
   await page.goto('/');
@@ -66,6 +66,13 @@ test('a big figure puts only the parts near the view on the page, and draws more
   // what scrolled far out of view has left the page
   const after = new Set(await drawn());
   expect([...before].some((id) => !after.has(id))).toBe(true);
+  // the zoom buttons stay in the view's corner however far it scrolled
+  const fitButton = await page.getByRole('group', { name: 'Zoom: The ordering at the interval' }).getByRole('button', { name: 'Fit' }).boundingBox();
+  const viewBox = await fig.evaluate((f) => { const r = f.closest('.lf-view')!.getBoundingClientRect(); return { x: r.x, y: r.y, width: r.width, height: r.height }; });
+  expect(fitButton!.x).toBeGreaterThanOrEqual(viewBox.x);
+  expect(fitButton!.y).toBeGreaterThanOrEqual(viewBox.y);
+  expect(fitButton!.x + fitButton!.width).toBeLessThanOrEqual(viewBox.x + viewBox.width);
+  expect(fitButton!.y + fitButton!.height).toBeLessThanOrEqual(viewBox.y + viewBox.height);
   await page.screenshot({ path: testInfo.outputPath('big-figure-scrolled.png') });
   expect(errors).toEqual([]);
 });
