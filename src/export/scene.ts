@@ -107,7 +107,6 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
   return boxed(el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), ...around(ps, 16));
 }
 
-/** `reach.top`: the highest point the edge's line or sign reaches (arcs over a row rise above it). */
 /** A part of the figure: the box it is drawn in, and its elements, made only when they are drawn. */
 interface Part {
   box: readonly number[];
@@ -115,8 +114,8 @@ interface Part {
 }
 
 /**
- * The geometry of an edge now (its reach above the figure counts for the figure's size, drawn or not),
- * its elements when asked for.
+ * The geometry of an edge now, its elements when asked for. `reach.top`: the highest point the edge's
+ * line or sign reaches (arcs over a row rise above it); it counts for the figure's size, drawn or not.
  */
 function edgePart(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number }): Part {
   const ac = { x: a.x + a.width / 2, y: a.y + a.height / 2 };

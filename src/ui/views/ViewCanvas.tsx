@@ -22,7 +22,7 @@ const MIN_SCALE = 0.8;
 const FIT_SCALE_UNROLLED = 0.45;
 /** Above this many nodes, positions jump instead of moving (keeps the page responsive). */
 const ANIMATE_UP_TO = 250;
-/** Above this many nodes, only the parts near what is in view are put on the page (`inView.ts`). */
+/** Above this many nodes, only the parts near what is in view are built and put on the page (`buildScene`'s `area`). */
 const CULL_FROM = 150;
 /** How far beyond what is in view parts are drawn: this many times the view's width and height on each side. */
 const CULL_MARGIN = 0.5;
