@@ -26,8 +26,6 @@ const ANIMATE_UP_TO = 250;
 const CULL_FROM = 150;
 /** How far beyond what is in view parts are drawn: this many times the view's width and height on each side. */
 const CULL_MARGIN = 0.5;
-/** An area nothing meets. */
-const NOTHING: Area = { x0: 0, y0: 0, x1: -1, y1: -1 };
 
 export interface ViewCanvasProps {
   vm: ViewModel;
@@ -118,52 +116,56 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   // a big figure: only the parts near what is in view are built and go on the page; scrolling or
   // resizing the pane builds the parts it brings near (none while what is in view stays inside the area)
   const cull = vm.nodes.length > CULL_FROM;
-  const [area, setArea] = useState<Area | null>(null);
-  // until the pane is measured (in the same frame, before it is painted), nothing of a big figure is built
-  const areaNow = cull ? area ?? NOTHING : null;
+  // what of the host is in view (grown by the margin), in its CSS pixels, and the host's width: measured
+  // when the pane scrolls or resizes, never while a band is drawn (a read then would force a layout)
+  const [seen, setSeen] = useState<{ rect: Area; width: number } | null>(null);
+  const fitScale = vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE;
   // the pane has its own heading and summary: the figure's title line is for exported files
-  const scene = useMemo(() => buildScene(vm, shown, { legend: true, title: false, ...(areaNow ? { area: [areaNow.x0, areaNow.y0, areaNow.x1, areaNow.y1] } : {}) }), [vm, shown, areaNow]);
+  const scene = useMemo(() => {
+    const width = Math.max(shown.width, 560);
+    let area: number[] | undefined;
+    if (cull) {
+      // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
+      const px = seen ? (zoom === 'fit' ? Math.max(seen.width, Math.ceil(width) * fitScale) : Math.ceil(width) * zoom) : 0;
+      const k = px > 0 ? Math.ceil(width) / px : 0;
+      // until the pane is measured (in the same frame, before it is painted), nothing of it is built
+      area = seen && k ? [seen.rect.x0 * k, seen.rect.y0 * k, seen.rect.x1 * k, seen.rect.y1 * k] : [0, 0, -1, -1];
+    }
+    return buildScene(vm, shown, { legend: true, title: false, ...(area ? { area } : {}) });
+  }, [vm, shown, cull, seen, zoom, fitScale]);
   const natural = Number(scene.attrs.width);
-  const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * (vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE))}px` : `width:${Math.round(natural * zoom)}px`;
+  const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * fitScale)}px` : `width:${Math.round(natural * zoom)}px`;
   // the exporter's own scene, put on screen as the file's markup and then changed in place: only
   // the nodes, links and blocks that differ are parsed again (React does not reconcile thousands of elements)
   const host = useRef<HTMLDivElement>(null);
   const shownSvg = useRef<SvgHost>({ root: null });
-  const fit = useRef({ cull, natural, scale: 1, min: MIN_SCALE, area });
-  fit.current = { cull, natural, scale: zoom === 'fit' ? 0 : zoom, min: vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE, area };
-  /** A new area to build when what is in view (in the figure's units) left the one built. */
-  const reframe = useCallback((h: HTMLElement) => {
-    const { cull: on, natural: w, scale, min, area: built } = fit.current;
-    if (!on) return;
-    // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
-    const px = scale ? w * scale : Math.max(h.clientWidth, w * min);
-    const k = px > 0 ? w / px : 1;
+  const seenNow = useRef(seen);
+  seenNow.current = seen;
+  /** Measure what of the host is in view; a new area when it left the one built or the host's width changed. */
+  const remeasure = useCallback((h: HTMLElement) => {
+    const width = h.clientWidth;
     let v = visibleRect(h);
-    if (v.x1 <= v.x0 || v.y1 <= v.y0) {
-      // out of sight: what would show first
-      if (built) return;
-      v = { x0: 0, y0: 0, x1: h.clientWidth, y1: h.ownerDocument.defaultView?.innerHeight ?? 800 };
-    }
-    const seen = { x0: v.x0 * k, y0: v.y0 * k, x1: v.x1 * k, y1: v.y1 * k };
-    if (built && contains(built, seen)) return;
-    setArea(grown(seen, CULL_MARGIN));
+    // out of sight: what would show first
+    if (v.x1 <= v.x0 || v.y1 <= v.y0) v = { x0: 0, y0: 0, x1: width, y1: h.ownerDocument.defaultView?.innerHeight ?? 800 };
+    const was = seenNow.current;
+    if (was && was.width === width && contains(was.rect, v)) return;
+    setSeen({ rect: grown(v, CULL_MARGIN), width });
   }, []);
   useLayoutEffect(() => {
-    const h = host.current;
-    if (!h) return;
-    patchSvg(h, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
-    reframe(h);
-  }, [scene, sizeStyle, reframe]);
+    if (host.current) patchSvg(host.current, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
+  }, [scene, sizeStyle]);
+  // the first measure of a big figure's pane, before it is painted
+  useLayoutEffect(() => { if (cull && !seenNow.current && host.current) remeasure(host.current); }, [cull, remeasure]);
   useEffect(() => {
     const h = host.current;
-    if (!h) return;
+    if (!h || !cull) return;
     let raf = 0;
-    const soon = () => { if (!raf) raf = requestAnimationFrame(() => { raf = 0; reframe(h); }); };
+    const soon = () => { if (!raf) raf = requestAnimationFrame(() => { raf = 0; remeasure(h); }); };
     h.ownerDocument.addEventListener('scroll', soon, { capture: true, passive: true });
     const ro = typeof ResizeObserver === 'undefined' ? null : new ResizeObserver(soon);
     ro?.observe(h);
     return () => { cancelAnimationFrame(raf); h.ownerDocument.removeEventListener('scroll', soon, { capture: true }); ro?.disconnect(); };
-  }, [reframe]);
+  }, [cull, remeasure]);
   const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
