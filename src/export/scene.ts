@@ -55,13 +55,14 @@ export function wrapText(text: string, width: number, em: number): string[] {
   return lines;
 }
 const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
-const boxed = (e: El, x0: number, y0: number, x1: number, y1: number): El => ({ ...e, box: [x0, y0, x1, y1] });
 /** The box around points, grown by `pad` (a sign glyph, an arrowhead). */
 function around(ps: readonly { x: number; y: number }[], pad: number): [number, number, number, number] {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
   for (const p of ps) { x0 = Math.min(x0, p.x); y0 = Math.min(y0, p.y); x1 = Math.max(x1, p.x); y1 = Math.max(y1, p.y); }
   return [x0 - pad, y0 - pad, x1 + pad, y1 + pad];
 }
+/** A layout box as [x0, y0, x1, y1], grown by `pad`. */
+const outline = (b: Box, pad: number) => around([b, { x: b.x + b.width, y: b.y + b.height }], pad);
 
 function markerDefs(): El {
   const head = (id: string, color: string, hollow: boolean) =>
@@ -104,7 +105,7 @@ function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El 
     const nx = -(p1.y - p0.y) / len, ny = (p1.x - p0.x) / len;
     kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
-  return boxed(el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), ...around(ps, 16));
+  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
 
 /** A part of the figure: the box it is drawn in, and its elements, made only when they are drawn. */
@@ -140,10 +141,10 @@ function edgePart(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: numbe
   if (e.sign) reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
   // a quadratic curve stays inside the triangle of its ends and control point
   const box = around(bend === 0 ? [p0, p1] : [p0, p1, ctrl], 24);
-  return { box, make: () => edgeEl(e, d, q, nx, ny, box) };
+  return { box, make: () => edgeEl(e, d, q, nx, ny) };
 }
 
-function edgeEl(e: ViewEdge, d: string, q: { x: number; y: number }, nx: number, ny: number, box: readonly number[]): El {
+function edgeEl(e: ViewEdge, d: string, q: { x: number; y: number }, nx: number, ny: number): El {
   const style = LINK_STYLE[e.kind];
   const sim = e.simultaneous;
   const color = sim ? BLOCK_STYLE.stroke : style.stroke;
@@ -157,7 +158,7 @@ function edgeEl(e: ViewEdge, d: string, q: { x: number; y: number }, nx: number,
   if (e.sign) {
     kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
   }
-  return { ...el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids), box };
+  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
 }
 
 /**
@@ -171,13 +172,13 @@ function nodeEl(n: ViewNode, b: Box): El {
   if (n.count !== undefined) {
     const s = BLOCK_STYLE;
     const card = (o: number) => el('rect', { x: X(o), y: Y(o), width: r1(b.width - 8), height: r1(b.height - 8), rx: 8, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 });
-    return boxed(el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, class: 'lf-toggle' }, [
+    return el('g', { 'data-block': n.block, 'data-folded': 'true', 'data-node': n.id, class: 'lf-toggle' }, [
       el('title', {}, [`${n.label} — a simultaneous block, folded; click to show its members`]),
       card(8), card(4), card(0),
       el('circle', { cx: X(20), cy: Y((b.height - 8) / 2), r: 12, fill: s.stroke }),
       el('text', { x: X(20), y: Y((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
       el('text', { x: X(38), y: Y((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
-    ]), ...around([b, { x: b.x + b.width, y: b.y + b.height }], 4));
+    ]);
   }
   const style = ROLE_STYLE[n.role];
   const shape = KIND_SHAPE[n.kind];
@@ -191,7 +192,7 @@ function nodeEl(n: ViewNode, b: Box): El {
   if (glyph) kids.push(el('text', { x: X(14), y: textY, 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: style.stroke }, [glyph]));
   const textX = X(glyph ? 22 + (b.width - 22 - (shape === 'tag' ? 10 : 0)) / 2 : (b.width - (shape === 'tag' ? 10 : 0)) / 2);
   kids.push(el('text', { x: textX, y: textY, 'text-anchor': 'middle', 'font-size': 13, fill: INK }, [n.label]));
-  return boxed(el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}) }, kids), ...around([b, { x: b.x + b.width, y: b.y + b.height }], 4));
+  return el('g', { 'data-variable': n.variable, 'data-node': n.id, 'data-role': n.role, 'data-kind': n.kind, ...(n.slice !== undefined ? { 'data-slice': n.slice } : {}) }, kids);
 }
 
 function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: number } {
@@ -232,10 +233,15 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
   return { el: el('g', { transform: `translate(24,${r1(y)})`, 'data-part': 'legend' }, items), height: items.length ? (row + 1) * 30 + 10 : 0 };
 }
 
+/** A figure is at least this wide, so its legend and caption fit. */
+const MIN_WIDTH = 560;
+/** The width of the svg drawn for a layout (its viewBox's width too). */
+export const sceneWidth = (layout: Layout): number => Math.ceil(Math.max(layout.width, MIN_WIDTH));
+
 /** The drawing of a view: a root `<svg>` element tree. */
 export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {}): El {
   const showTitle = opts.title !== false;
-  const width = Math.max(layout.width, 560);
+  const width = Math.max(layout.width, MIN_WIDTH);
   const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
   const body: Part[] = [];
   const labels: Part[] = [];
@@ -243,28 +249,26 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   const reach = { top: 0 };
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
-    body.push({ box: around([box, { x: box.x + box.width, y: box.y + box.height }], 2), make: () => boxed(el('g', { 'data-slice-frame': s }, [
+    body.push({ box: outline(box, 2), make: () => el('g', { 'data-slice-frame': s }, [
       el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
       el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + box.height - 12), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
-    ]), ...around([box, { x: box.x + box.width, y: box.y + box.height }], 2)) });
+    ]) });
   }
   for (const g of vm.groups) {
     const b = layout.groups[g.id];
     if (!b) continue;
     const s = BLOCK_STYLE;
-    const blockBox = around([b, { x: b.x + b.width, y: b.y + b.height }], 2);
-    body.push({ box: blockBox, make: () => boxed(el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
+    body.push({ box: outline(b, 2), make: () => el('g', { 'data-group': g.id, 'data-block': g.key, 'data-folded': 'false', 'data-members': g.variables.join(' ') }, [
       el('rect', { x: r1(b.x), y: r1(b.y), width: r1(b.width), height: r1(b.height), rx: s.radius, fill: s.fill, stroke: s.stroke, 'stroke-width': 1.5 }),
       el('rect', { x: r1(b.x + s.gap), y: r1(b.y + s.gap), width: r1(b.width - 2 * s.gap), height: r1(b.height - 2 * s.gap), rx: s.radius - s.gap, fill: 'none', stroke: s.stroke, 'stroke-width': 1 }),
-    ]), ...blockBox) });
+    ]) });
     // the block's name and fold button are drawn over the links (a link entering the block must not hide them)
-    const labelBox = [b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30];
-    labels.push({ box: labelBox, make: () => boxed(el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
+    labels.push({ box: [b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30], make: () => el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
       el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
       el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
       el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
-    ]), labelBox[0], labelBox[1], labelBox[2], labelBox[3]) });
+    ]) });
   }
   const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
   for (const e of vm.edges) {
@@ -280,7 +284,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   }
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
-    if (b) body.push({ box: around([b, { x: b.x + b.width, y: b.y + b.height }], 4), make: () => nodeEl(n, b) });
+    if (b) body.push({ box: outline(b, 4), make: () => nodeEl(n, b) });
   }
   body.push(...labels);
 
@@ -291,7 +295,8 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   // the area in the figure's coordinates (below its title and the arcs' room)
   const area = opts.area && [opts.area[0], opts.area[1] - top, opts.area[2], opts.area[3] - top];
   const drawn = area ? body.filter(({ box: b }) => b[0] <= area[2] && b[2] >= area[0] && b[1] <= area[3] && b[3] >= area[1]) : body;
-  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, drawn.map((p) => p.make())), box: [0, top] });
+  // each part made carries its box (for the app; files never hold it)
+  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, drawn.map((p) => ({ ...p.make(), box: p.box }))), box: [0, top] });
   let y = top + layout.height;
   if (opts.legend !== false) {
     const lg = legendEl(vm, y, width);

@@ -5,7 +5,7 @@
  */
 import { memo, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
 import type { ViewModel } from '../../core/view/types';
-import { buildScene } from '../../export/scene';
+import { buildScene, sceneWidth } from '../../export/scene';
 import { createLayoutQueue } from '../../layout/browser';
 import { ease, interpolateLayout } from '../../layout/geometry';
 import { instantLayout } from '../../layout/instant';
@@ -122,12 +122,12 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   const fitScale = vm.mode === 'unrolled' ? FIT_SCALE_UNROLLED : MIN_SCALE;
   // the pane has its own heading and summary: the figure's title line is for exported files
   const scene = useMemo(() => {
-    const width = Math.max(shown.width, 560);
+    const width = sceneWidth(shown);
     let area: number[] | undefined;
     if (cull) {
       // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
-      const px = seen ? (zoom === 'fit' ? Math.max(seen.width, Math.ceil(width) * fitScale) : Math.ceil(width) * zoom) : 0;
-      const k = px > 0 ? Math.ceil(width) / px : 0;
+      const px = seen ? (zoom === 'fit' ? Math.max(seen.width, width * fitScale) : width * zoom) : 0;
+      const k = px > 0 ? width / px : 0;
       // until the pane is measured (in the same frame, before it is painted), nothing of it is built
       area = seen && k ? [seen.rect.x0 * k, seen.rect.y0 * k, seen.rect.x1 * k, seen.rect.y1 * k] : [0, 0, -1, -1];
     }
