@@ -23,6 +23,9 @@ export function setViewCentreProvider(f: () => Position): void {
   viewCentre = f;
 }
 
+/** How wide a relation is on the canvas: its ring and the equation written beside it. */
+const relationWidth = (equation: string) => Math.min(320, 40 + equation.length * 7.5);
+
 /** The boxes the model's variables and relations take on the canvas (as drawn, before the page measures them). */
 export function canvasBoxes(m: ReturnType<typeof model>): Box[] {
   const boxes: Box[] = m.variables.map((v, i) => {
@@ -31,8 +34,7 @@ export function canvasBoxes(m: ReturnType<typeof model>): Box[] {
   });
   (m.relations ?? []).forEach((r, i) => {
     const p = r.position ?? defaultPosition(m.variables.length + i);
-    // the ring and the equation written beside it
-    boxes.push({ x: p.x, y: p.y, w: Math.min(320, 40 + r.equation.length * 7.5), h: 30 });
+    boxes.push({ x: p.x, y: p.y, w: relationWidth(r.equation), h: 30 });
   });
   return boxes;
 }
@@ -60,7 +62,7 @@ export function addRelation(at?: Position): string {
   const p = at ?? viewCentre();
   const ids = m.variables.slice(0, 2).map((v) => v.id);
   const equation = ids.length === 2 ? `${ids[0]} = ${ids[1]}` : '0 = 0';
-  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x), y: Math.round(p.y) }, Math.min(320, 40 + equation.length * 7.5), 30);
+  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x), y: Math.round(p.y) }, relationWidth(equation), 30);
   documentStore.getState().stopGesture();
   editDocument({ type: 'addRelation', relation: { id, equation, position: spot } });
   selectionStore.getState().select({ nodes: [id] });

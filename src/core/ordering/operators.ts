@@ -42,8 +42,9 @@ export interface OperatorResult {
   change: StructureChange;
 }
 
-function requireVariable(s: EquationStructure, x: VariableId, op: string): void {
-  if (!s.variables.includes(x)) throw new Error(`${op}: no variable "${x}" in this structure`);
+/** `known`: the structure's variables, as a set where many are checked. */
+function requireVariable(known: readonly VariableId[] | ReadonlySet<VariableId>, x: VariableId, op: string): void {
+  if (!(Array.isArray(known) ? known.includes(x) : (known as ReadonlySet<VariableId>).has(x))) throw new Error(`${op}: no variable "${x}" in this structure`);
 }
 
 /**
@@ -64,7 +65,7 @@ export function equilibrateAll(s: EquationStructure, xs: VariableId[]): Operator
   const byId = new Map(out.equations.map((e) => [e.id, e]));
   const settled = new Set<VariableId>();
   for (const x of [...new Set(xs)].sort(compareIds)) {
-    if (!known.has(x)) throw new Error(`equilibrate: no variable "${x}" in this structure`);
+    requireVariable(known, x, 'equilibrate');
     const eq = out.derivatives[x];
     if (eq === undefined) throw new Error(`equilibrate: "${x}" is not a dynamic state, so it cannot settle`);
     const d = derivativeOf(x);
@@ -172,7 +173,7 @@ function dropFor(s: EquationStructure, x: VariableId): { out: EquationStructure;
  * Example: `exogenize(s, 'x3')`.
  */
 export function exogenize(s: EquationStructure, x: VariableId): OperatorResult {
-  requireVariable(s, x, 'exogenize');
+  requireVariable(s.variables, x, 'exogenize');
   const { out, removed, candidates, alternatives } = dropFor(s, x);
   if (!out.exogenous.includes(x)) out.exogenous = [...out.exogenous, x].sort(compareIds);
   const change: StructureChange = {
@@ -198,7 +199,7 @@ export function exogenizeAll(s: EquationStructure, xs: VariableId[]): OperatorRe
   const states = [...new Set(xs)].sort(compareIds);
   const known = new Set(s.variables);
   for (const x of states) {
-    if (!known.has(x)) throw new Error(`exogenize: no variable "${x}" in this structure`);
+    requireVariable(known, x, 'exogenize');
     if (s.derivatives[x] === undefined) throw new Error(`exogenizeAll: "${x}" is not a dynamic state; use exogenize for it`);
   }
   const dropped = new Set(states.map((x) => s.derivatives[x]));
@@ -228,7 +229,7 @@ export function exogenizeAll(s: EquationStructure, xs: VariableId[]): OperatorRe
  * simultaneous block). Example: `hold(s, 'x2', 0)`.
  */
 export function hold(s: EquationStructure, x: VariableId, value: number): OperatorResult {
-  requireVariable(s, x, 'hold');
+  requireVariable(s.variables, x, 'hold');
   const { out, removed, candidates, alternatives } = dropFor(s, x);
   const h = equationId.hold(x);
   out.exogenous = out.exogenous.filter((v) => v !== x);

@@ -115,13 +115,13 @@ export function IntervalStripFor({ model }: { model: Model }) {
   );
 }
 
-/** Bands and breakpoint ticks: drawn once per model and study, not on every move of the thumb. */
 /** The hatch of every other band, in the control's pixels. */
 const HATCH_ID = 'lf-band-hatch';
 const TRACK_H = 26;
 
 /**
- * The bands and breakpoint ticks of the control, in one svg drawn in pixels
+ * The bands and breakpoint ticks of the control, drawn once per model and
+ * study (not on every move of the thumb), in one svg drawn in pixels
  * (its width measured): a model of 2,000 variables has some 1,600 of each,
  * and as positioned boxes they were 3,200 pieces the browser laid out,
  * painted and sorted into layers again at every move of the thumb.
