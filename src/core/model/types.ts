@@ -83,3 +83,36 @@ export interface Model {
 
 export const DEFAULT_SEPARATION = 5;
 export const DEFAULT_SAMPLES = 50;
+
+/**
+ * The study a modeller plans (model file version 2, `study`).
+ * Durations are a number in the model's time unit or text with a unit ("3h", "14 days").
+ */
+export type Duration = number | string;
+
+/** When prompts are given. */
+export type Schedule =
+  /** One prompt every `interval`, day and night. */
+  | { kind: 'fixed' }
+  /** `promptsPerDay` prompts between `from` and `to` ("09:00", "21:00"); the night is one long gap. */
+  | { kind: 'daily-window'; promptsPerDay: number; from: string; to: string; timing: 'fixed' | 'stratified-random' }
+  /** One prompt a day (the interval is one day). */
+  | { kind: 'daily' }
+  /** One prompt a week (the interval is one week). */
+  | { kind: 'weekly' };
+
+export interface Study {
+  /** The nominal interval between prompts. */
+  interval: Duration;
+  /** How long the study runs: text is a duration ("14 days"); a number is a count of samples (prompts planned). */
+  length: string | number;
+  schedule: Schedule;
+  /** Number of persons (default 1). */
+  persons?: number;
+  /** Share of planned prompts that go unanswered, 0 ≤ p < 1 (default 0). */
+  missedPrompts?: number;
+  /** Interventions: variables held at a value during the study. */
+  holds?: Record<VariableId, number>;
+  /** Seed for everything random about the study (prompt times, missed prompts, simulated data). */
+  seed?: number;
+}
