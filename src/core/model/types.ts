@@ -39,6 +39,12 @@ export interface Variable {
   unit?: string;
   note?: string;
   position?: Position;
+  /** States (file version 2): process noise intensity, the variance added per unit time (default 1). */
+  noise?: number;
+  /** Measured variables (file version 2): share of true-score variance in a measurement, 0 < r ≤ 1 (default 1: no measurement error). */
+  reliability?: number;
+  /** Inputs (file version 2): standard deviation of the input's value across persons (person differences; default 0). */
+  personSD?: number;
 }
 
 export interface Relation {
@@ -56,6 +62,8 @@ export interface Link {
   kind: LinkKind;
   sign?: LinkSign;
   weight?: number;
+  /** File version 2: standard deviation of the strength across persons (default 0). */
+  personSD?: number;
 }
 
 export interface ModelSettings {
