@@ -1,6 +1,7 @@
 import { parseModelText } from '../core/model/schema';
 import type { Model } from '../core/model/types';
 import { parseDuration } from '../core/model/units';
+import { parseInterval, studyInterval } from '../core/study/convert';
 import { CliError, type CliArgs, type CliIO } from './commands/types';
 
 /** Read and validate the model named by the first positional argument. */
@@ -18,12 +19,20 @@ export function loadModel(args: CliArgs, io: CliIO): Model {
   return r.model;
 }
 
-/** A duration option (`--interval 3h`) in the model's time unit, or undefined when absent. */
+/**
+ * A duration option (`--until 3h`) in the model's time unit, or undefined when absent.
+ * `--interval` also takes the words the app shows and accepts ("every 3 h", "daily", "5 a day"),
+ * and when it is absent the sampling interval of the file's study.
+ */
 export function durationOption(args: CliArgs, name: string, model: Model): number | undefined {
   const v = args.options[name];
+  if (name === 'interval' && v === undefined && model.study) {
+    const own = studyInterval(model.study, model.timeUnit);
+    if (own !== undefined) return own;
+  }
   if (v === undefined) return undefined;
   if (v === true) throw new CliError(`--${name} needs a value`, 2);
-  const d = parseDuration(v, model.timeUnit);
+  const d = name === 'interval' ? parseInterval(v, model.timeUnit) : parseDuration(v, model.timeUnit);
   if (!d.ok) throw new CliError(`--${name}: ${d.message}`, 2);
   return d.value;
 }

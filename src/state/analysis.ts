@@ -1,8 +1,8 @@
 /**
  * The latest core analysis of the document. Results come from the worker
  * and are never recorded in the undo history. The study design (sampling
- * interval, study length, interventions) is set by the timescale views
- * through `setStudyDesign`.
+ * interval, study length, interventions) follows the session's study
+ * (`src/state/session.ts`) through `setStudyDesign`.
  */
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
@@ -12,6 +12,7 @@ import type { Analysis } from '../worker/protocol';
 import type { CoreClient } from '../worker/client';
 import { documentStore, selectModel, validationOf } from './document';
 import { onlyPositionsDiffer } from './positions';
+import { onlyStudyDiffers } from './studyModel';
 
 export interface AnalysisState {
   design: StudyDesign;
@@ -65,7 +66,7 @@ export function startAnalysis(client: CoreClient, pauseMs = 120): () => void {
     const { design } = analysisStore.getState();
     if (model === lastModel && design === lastDesign) return;
     // a move changes no equation: the analysis (done, or on its way) holds for the moved model too
-    const moved = lastModel !== null && design === lastDesign && analysisStore.getState().status !== 'failed' && onlyPositionsDiffer(lastModel, model);
+    const moved = lastModel !== null && design === lastDesign && analysisStore.getState().status !== 'failed' && (onlyPositionsDiffer(lastModel, model) || onlyStudyDiffers(lastModel, model));
     lastModel = model;
     lastDesign = design;
     if (moved) {

@@ -3,7 +3,8 @@
  * The same change objects are the undo units of the editor and the
  * fixtures of its tests. The reducer never mutates its input.
  */
-import type { EquationId, Link, Model, Position, Relation, TimeUnit, Variable, VariableId, VariableKind } from '../core/model/types';
+import type { EquationId, Link, Model, Position, Relation, Study, TimeUnit, Variable, VariableId, VariableKind } from '../core/model/types';
+import { convertStudy, convertTimescale } from '../core/study/convert';
 
 export type VariablePatch = Partial<Omit<Variable, 'id' | 'kind'>>;
 export type LinkPatch = Partial<Omit<Link, 'id' | 'from' | 'to'>>;
@@ -21,7 +22,9 @@ export type Change =
   | { type: 'remove'; variables?: VariableId[]; links?: string[]; relations?: EquationId[] }
   | { type: 'move'; positions: Record<string, Position> }
   | { type: 'paste'; variables: Variable[]; links: Link[]; relations: Relation[] }
-  | { type: 'setMeta'; patch: { name?: string; description?: string; timeUnit?: TimeUnit } };
+  | { type: 'setMeta'; patch: { name?: string; description?: string; timeUnit?: TimeUnit } }
+  /** The study (interval, length, schedule, holds …); undefined removes it (the app's default design). */
+  | { type: 'setStudy'; study: Study | undefined };
 
 /** Fields a variable keeps only for some kinds. */
 const KIND_FIELDS: Record<VariableKind, (keyof Variable)[]> = {
@@ -216,8 +219,23 @@ export function applyChange(model: Model, change: Change): Model {
       if (change.relations.length > 0 || model.relations) out.relations = [...(model.relations ?? []), ...change.relations];
       return out;
     }
-    case 'setMeta':
-      return patched(model, change.patch);
+    case 'setMeta': {
+      const to = change.patch.timeUnit;
+      if (to === undefined || to === model.timeUnit) return patched(model, change.patch);
+      // a new time unit keeps every duration the same real time: timescales and the study
+      const from = model.timeUnit;
+      const out = patched(model, change.patch);
+      out.variables = model.variables.map((v) => (v.timescale === undefined ? v : { ...v, timescale: convertTimescale(v.timescale, from, to) }));
+      if (model.study) out.study = convertStudy(model.study, from, to);
+      return out;
+    }
+    case 'setStudy': {
+      if (change.study === model.study) return model;
+      const out: Model = { ...model };
+      if (change.study === undefined) delete out.study;
+      else out.study = change.study;
+      return out;
+    }
   }
 }
 

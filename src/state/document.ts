@@ -10,6 +10,7 @@ import type { Model } from '../core/model/types';
 import { applyChange, emptyModel, withLinkIds, type Change } from './changes';
 import { record, redo, startHistory, stop, undo, type History } from './history';
 import { movedValidation, onlyPositionsDiffer } from './positions';
+import { onlyStudyDiffers, withoutStudy } from './studyModel';
 import { validateModel, type Validation } from './validate';
 
 export interface DocumentState {
@@ -84,6 +85,11 @@ export function useModel(): Model {
   return useStore(documentStore, selectModel);
 }
 
+/** The checked model carries no study: the study is read through the session (src/state/session.ts). */
+function checked(v: Validation): Validation {
+  return v.model ? { ...v, model: withoutStudy(v.model) } : v;
+}
+
 const validations = new WeakMap<Model, Validation>();
 let lastChecked: { model: Model; validation: Validation } | undefined;
 /**
@@ -94,8 +100,10 @@ let lastChecked: { model: Model; validation: Validation } | undefined;
 export function validationOf(model: Model): Validation {
   let v = validations.get(model);
   if (!v) {
-    const moved = lastChecked && onlyPositionsDiffer(lastChecked.model, model) ? movedValidation(lastChecked.model, lastChecked.validation, model) : null;
-    v = moved ?? validateModel(model);
+    // an edit of the study alone (the interval control, a hold) changes nothing the checked model holds
+    const studyOnly = lastChecked && onlyStudyDiffers(lastChecked.model, model) ? lastChecked.validation : null;
+    const moved = !studyOnly && lastChecked && onlyPositionsDiffer(lastChecked.model, model) ? movedValidation(lastChecked.model, lastChecked.validation, model) : null;
+    v = studyOnly ?? moved ?? checked(validateModel(model));
     validations.set(model, v);
   }
   lastChecked = { model, validation: v };
@@ -109,7 +117,8 @@ export function useValidation(): Validation {
 
 /**
  * The current model when it passes the file schema, else null: what the
- * core and the timescale views may read.
+ * core and the timescale views may read (without its study: read that
+ * through `useSessionStudy`).
  */
 export function useValidatedModel(): Model | null {
   return useValidation().model;

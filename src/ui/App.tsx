@@ -13,12 +13,13 @@ import { IntervalStrip } from './interval/IntervalStrip';
 import { useShortcuts } from './useShortcuts';
 import { useEffect } from 'react';
 import { useUi } from '../state/ui';
-import { startHoldSync } from './interventions';
+import { startSession } from '../state/session';
+import { isIntervalDragging, onIntervalDrag } from './interval/dragging';
 
 function Shell() {
   useShortcuts();
-  // Holds live for the whole session, whichever pane is open.
-  useEffect(() => startHoldSync(), []);
+  // The analysis follows the session's study (interval, length, holds), whichever pane is open.
+  useEffect(() => startSession({ active: isIntervalDragging, subscribe: onIntervalDrag }), []);
   const wide = useUi((s) => s.pane !== 'edit');
   return (
     <div className="lf-app">

@@ -16,6 +16,8 @@ const all = (n: XNode): XNode[] => [n, ...n.children.flatMap(all)];
 const texts = (n: XNode) => all(n).filter((e) => e.tag === 'text').map((e) => e.text);
 
 const GREENHOUSE = 'src/examples/greenhouse.json';
+/** The greenhouse with no study in the file: no sampling interval unless --interval gives one. */
+const NO_STUDY = 'tests/fixtures/greenhouse-without-study.json';
 
 async function run(argv: string[]): Promise<{ code: number; out: string[]; err: string[]; files: Record<string, string> }> {
   const m = memoryIo();
@@ -25,7 +27,7 @@ async function run(argv: string[]): Promise<{ code: number; out: string[]; err: 
 
 describe('--svg on simulate, sampled and curves', () => {
   it('simulate --svg writes the chart of the first three states (as the app shows them) and still prints the table', async () => {
-    const r = await run(['simulate', GREENHOUSE, '--until', '1 day', '--every', '30 min', '--svg', 'sim.svg']);
+    const r = await run(['simulate', NO_STUDY, '--until', '1 day', '--every', '30 min', '--svg', 'sim.svg']);
     expect(r.code, r.err.join('\n')).toBe(0);
     expect(r.err).toEqual([expect.stringMatching(/^wrote sim\.svg \(\d+ bytes\)$/)]);
     expect(r.out[0]).toContain('simulation to');
@@ -102,8 +104,8 @@ describe('--svg on simulate, sampled and curves', () => {
       [[...sim, '--svg', 'x.svg', '--plot', 'nowhere'], /--plot: the model has no variable "nowhere"/],
       [[...sim, '--svg', 'x.svg', '--plot', 'sunlight'], /--plot: sunlight is an input/],
       [[...sim, '--svg', 'x.svg', '--plot', 'dust,dust'], /--plot names a variable twice/],
-      [[...sim, '--svg', 'x.svg', '--caption'], /--caption states the sampling interval .*give --interval/],
-      [[...sim, '--svg', 'x.svg', '--samples', '10'], /--window and --samples .*give --interval/],
+      [['simulate', NO_STUDY, '--until', '1 day', '--svg', 'x.svg', '--caption'], /--caption states the sampling interval .*give --interval/],
+      [['simulate', NO_STUDY, '--until', '1 day', '--svg', 'x.svg', '--samples', '10'], /--window and --samples .*give --interval/],
       [[...sim, '--svg', '-', '--csv'], /--svg - prints the SVG instead/],
       [['sampled', GREENHOUSE, '--interval', '1h', '--svg', 'x.svg', '--network', 'both'], /--network must be lagged or same/],
       [['sampled', GREENHOUSE, '--interval', '1h', '--svg', 'x.svg', '--network', 'same', '--standardized'], /--standardized applies to the lagged network/],

@@ -105,7 +105,8 @@ describe('the SVG renderer', () => {
     const errs: string[] = [];
     const io = { out: () => undefined, err: (t: string) => { errs.push(t); }, readFile: (p: string) => readFileSync(p, 'utf8'), writeFile: () => undefined };
     const path = fileURLToPath(new URL('../../src/examples/sleep-stress.json', import.meta.url));
-    expect(await runCli(['render', path, '--out', 'x.svg'], io)).toBe(2);
+    // a file without a study names no interval
+    expect(await runCli(['render', fileURLToPath(new URL('../fixtures/greenhouse-without-study.json', import.meta.url)), '--out', 'x.svg'], io)).toBe(2);
     expect(errs.at(-1)).toMatch(/--interval is needed/);
     expect(await runCli(['render', path, '--interval', '3h', '--view', 'sideways', '--out', 'x.svg'], io)).toBe(2);
     expect(errs.at(-1)).toMatch(/--view must be ordering, mechanism or unrolled/);

@@ -12,3 +12,5 @@ import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
 import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
+import { studyCommands } from './study';
+COMMANDS.push(...studyCommands);

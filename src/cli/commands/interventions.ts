@@ -103,7 +103,7 @@ export const interventionCommands: CliCommand[] = [
     options: { hold: true, interval: true, window: true, samples: true, json: false, until: true, trajectory: true },
     run(args, io) {
       const model = loadModel(args, io);
-      const hold = parseHoldOption(args.options.hold, model);
+      const hold = args.options.hold === undefined && model.study?.holds && Object.keys(model.study.holds).length > 0 ? { ...model.study.holds } : parseHoldOption(args.options.hold, model);
       const interval = durationOption(args, 'interval', model);
       if (interval === undefined) throw new CliError('name the sampling interval, e.g. --interval 1h', 2);
       if (!(interval > 0)) throw new CliError(`--interval must be positive, not ${interval}`, 2);
@@ -167,7 +167,7 @@ export const interventionCommands: CliCommand[] = [
       const model = loadModel(args, io);
       const out = args.options.out;
       if (out === undefined || out === true) throw new CliError('name the output file, e.g. --out report.html', 2);
-      const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : undefined;
+      const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : model.study?.holds && Object.keys(model.study.holds).length > 0 ? { ...model.study.holds } : undefined;
       const study = studyOptions(args, model);
       const html = await buildReport(model, { ...study, hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
       const write = (path: string, text: string) => {

@@ -6,7 +6,7 @@ import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis, windowOf } from '../../core/study/convert';
 
-/** Study design from --interval, --window, --samples and --hold. */
+/** Study design from --interval, --window, --samples and --hold; each one absent comes from the file's study (the length through the core). */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
   const design: StudyDesign = {};
   const interval = durationOption(args, 'interval', model);
@@ -22,6 +22,7 @@ export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
   }
   const hold = args.options.hold;
   if (hold !== undefined) design.hold = parseHold(hold, model);
+  else if (model.study?.holds && Object.keys(model.study.holds).length > 0) design.hold = { ...model.study.holds };
   return design;
 }
 

@@ -38,3 +38,15 @@ export function migrateV1(v1: Model): Model {
 export function migrateModel(model: Model): Model {
   return model.version === 1 ? migrateV1(model) : model;
 }
+
+/** The model as written to files and links: the current file version, its fields in a reader's order. */
+export function fileModel(model: Model): Model {
+  const m = migrateModel(model);
+  const { format, version, name, ...rest } = m;
+  return { format, version, name, ...rest };
+}
+
+/** The text of a model file (always the current file version). */
+export function modelFileText(model: Model): string {
+  return `${JSON.stringify(fileModel(model), null, 2)}\n`;
+}

@@ -77,7 +77,7 @@ export function exactDuration(value: number, unit: TimeUnit): string {
   // the largest unit in which the amount is a whole number, else the largest unit ≥ 1
   for (const u of order) {
     const amount = seconds / SECONDS_PER_UNIT[u];
-    if (amount >= 1 && Math.abs(amount - Math.round(amount)) < 1e-9 * amount) return `${Math.round(amount)} ${u}`;
+    if (amount >= 1 && Math.abs(amount - Math.round(amount)) <= 8 * Number.EPSILON * amount) return `${Math.round(amount)} ${u}`;
   }
   let chosen: TimeUnit = 's';
   for (const u of order) if (seconds >= SECONDS_PER_UNIT[u]) { chosen = u; break; }
@@ -164,6 +164,22 @@ export function convertStudy(study: Study, from: TimeUnit, to: TimeUnit): Study 
   const out: Study = { ...study, interval: convertStudyDuration(study.interval, from, to) };
   if (typeof study.length === 'string') out.length = String(convertStudyDuration(study.length, from, to));
   return out;
+}
+
+/**
+ * A state's timescale written for another time unit, meaning the same real time:
+ * numbers (and bare numbers in text) are converted, text with a unit is kept;
+ * any other form (such as a range { low, high }) has each number converted.
+ * Example: `convertTimescale(2, "h", "min")` → 120; `convertTimescale("90 min", "h", "day")` → "90 min".
+ */
+export function convertTimescale<T>(value: T, from: TimeUnit, to: TimeUnit): T {
+  if (typeof value === 'number' || typeof value === 'string') return convertStudyDuration(value, from, to) as T;
+  if (value && typeof value === 'object') {
+    const out: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(value)) out[k] = typeof v === 'number' || typeof v === 'string' ? convertStudyDuration(v, from, to) : v;
+    return out as T;
+  }
+  return value;
 }
 
 /** Process noise intensity of a state: its own, else a version-1 `settings.noise`, else 1. */

@@ -5,15 +5,17 @@
  * duration or a number of samples.
  */
 import { memo, useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
-import type { Model, TimeUnit } from '../../core/model/types';
+import type { Model, Study, TimeUnit } from '../../core/model/types';
 import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
 import { fromPosition, passed, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
-import { analysisStore, setStudyDesign, useAnalysisState } from '../../state/analysis';
-import { useValidatedModel } from '../../state/document';
-import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
+import { documentStore, useValidatedModel } from '../../state/document';
+import { setStudyInterval, setStudyLength, useSessionStudy, type StudyLength } from '../../state/session';
+import { exactDuration, intervalLabel, parseInterval } from '../../core/study/convert';
 import { useBandCache, type BandCache } from '../views/bandCache';
-import { setIntervalDrag, useIntervalDrag } from './dragging';
+import { setIntervalDrag } from './dragging';
 import './interval.css';
+
+const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
 
@@ -29,37 +31,22 @@ export function IntervalStrip() {
 }
 
 export function IntervalStripFor({ model }: { model: Model }) {
-  const length = useStudy((s) => s.length);
-  const interval = useStudy((s) => s.interval);
-  const hold = useAnalysisState((s) => s.design.hold);
+  const session = useSessionStudy();
+  const length = session?.length ?? DEFAULT_LENGTH;
+  const interval = session && Number.isFinite(session.interval) ? session.interval : null;
+  const holds = session?.holds;
+  const hold = holds && Object.keys(holds).length > 0 ? holds : undefined;
   const bc = useBandCache(model, length, hold);
   const track = useRef<HTMLDivElement>(null);
   const unit = model.timeUnit;
   const cache = bc.status === 'ready' ? bc.cache : null;
-  // while the band set of new arguments opens, the previous one stays on the control
-  const current = bc.status === 'ready' && bc.current;
-
-  // an interval inside the range once the range is known
-  useEffect(() => {
-    if (!cache || !current) return;
-    const { min, max } = cache.range;
-    if (interval === null || interval < min || interval > max) studyStore.getState().setInterval(Math.sqrt(min * max));
-  }, [cache, current, interval]);
-
-  // the analysis store follows the design (the core worker answers the other panes); during a drag,
-  // once the pointer lets go (every band the thumb passes would start an analysis)
-  const dragging = useIntervalDrag() !== null;
-  useEffect(() => {
-    if (interval === null || dragging) return;
-    const held = analysisStore.getState().design.hold;
-    setStudyDesign({ ...designOf({ interval, length }), ...(held ? { hold: held } : {}) });
-  }, [cache ? cache.band(interval ?? 0) : -1, length, dragging]); // eslint-disable-line react-hooks/exhaustive-deps
 
   if (bc.status === 'failed') return <div className="lf-interval" role="alert">The breakpoints could not be computed: {bc.message}</div>;
   if (!cache || interval === null) return <div className="lf-interval">Finding the model's timescales…</div>;
   const { range, cuts } = cache;
   const pos = toPosition(range, interval);
-  const set = (v: number) => studyStore.getState().setInterval(v);
+  // one drag or run of key steps is one undo step
+  const set = (v: number) => setStudyInterval(v, { squash: 'interval' });
   const fromPointer = (ev: PointerEvent) => {
     const r = track.current!.getBoundingClientRect();
     set(fromPosition(range, (ev.clientX - r.left) / r.width));
@@ -78,6 +65,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
       <div className="lf-interval-head">
         <span className="lf-interval-title" id="lf-interval-label">Sampling interval</span>
         <output className="lf-interval-value" aria-live="polite">{valueText}</output>
+        <IntervalField unit={unit} interval={interval} exact={session?.study.interval} />
         <span className="lf-interval-band">band {band + 1} of {cuts.length + 1}</span>
       </div>
       <div
@@ -92,8 +80,10 @@ export function IntervalStripFor({ model }: { model: Model }) {
         aria-valuetext={valueText}
         data-band={band}
         data-interval={interval}
+        data-interval-seconds={interval * SECONDS_PER_UNIT[unit]}
         onKeyDown={onKey}
-        onPointerDown={(ev) => { ev.preventDefault(); ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); setIntervalDrag(interval); fromPointer(ev); }}
+        onBlur={() => documentStore.getState().stopGesture()}
+        onPointerDown={(ev) => { ev.preventDefault(); documentStore.getState().stopGesture(); ev.currentTarget.setPointerCapture(ev.pointerId); ev.currentTarget.focus(); setIntervalDrag(interval); fromPointer(ev); }}
         onPointerMove={(ev) => { if (ev.currentTarget.hasPointerCapture(ev.pointerId)) fromPointer(ev); }}
         onPointerUp={() => setIntervalDrag(undefined)}
         onPointerCancel={() => setIntervalDrag(undefined)}
@@ -110,7 +100,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
       <div className="lf-interval-scale" aria-hidden="true">
         {unitMarks(range, unit).map((m) => <span key={m.label} style={{ left: `${toPosition(range, m.at) * 100}%` }}>{m.label}</span>)}
       </div>
-      <StudyLengthField unit={unit} interval={interval} length={length} />
+      <StudyLengthField key={`${unit}|${length.by}|${length.by === 'window' ? length.window : length.samples}`} unit={unit} interval={interval} length={length} />
     </div>
   );
 }
@@ -179,12 +169,12 @@ function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval
       const n = Number(value);
       if (!Number.isInteger(n) || n < 2) { setProblem('Study length: give a whole number of samples, 2 or more'); return; }
       setProblem(null);
-      studyStore.getState().setLength({ by: 'samples', samples: n });
+      setStudyLength({ by: 'samples', samples: n }, unit);
     } else {
       const d = parseDuration(value, unit);
       if (!d.ok) { setProblem(`Study length: ${d.message}`); return; }
       setProblem(null);
-      studyStore.getState().setLength({ by: 'window', window: d.value });
+      setStudyLength({ by: 'window', window: d.value }, unit);
     }
   };
   const switchTo = (as: StudyLength['by']) => {
@@ -208,5 +198,48 @@ function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval
       <span className="lf-study-other">{other}</span>
       {problem && <span className="lf-problem" role="alert">{problem}</span>}
     </div>
+  );
+}
+
+/**
+ * The interval typed exactly: "3h", "90 min", "every 3 h", "daily", "weekly",
+ * "5 a day", or any label the app shows. Kept as written with its unit, so a
+ * change of the model's time unit leaves it the same real time.
+ */
+function IntervalField({ unit, interval, exact }: { unit: TimeUnit; interval: number; exact: Study['interval'] | undefined }) {
+  const shown = typeof exact === 'string' ? exact : intervalLabel(interval, unit);
+  const [text, setText] = useState(shown);
+  const [editing, setEditing] = useState(false);
+  const [problem, setProblem] = useState<string | null>(null);
+  useEffect(() => {
+    if (!editing) setText(shown);
+  }, [shown, editing]);
+  const commit = () => {
+    const r = parseInterval(text, unit);
+    if (!r.ok) { setProblem(`Interval: ${r.message}`); return; }
+    setProblem(null);
+    setEditing(false);
+    documentStore.getState().stopGesture();
+    setStudyInterval(exactDuration(r.value, unit));
+  };
+  return (
+    <span className="lf-interval-typed">
+      <input
+        aria-label="Type the sampling interval"
+        data-testid="interval-text"
+        title='Type an interval: "3h", "90 min", "every 3 h", "daily", "weekly", "5 a day"'
+        value={text}
+        size={12}
+        aria-invalid={problem ? true : undefined}
+        onFocus={() => setEditing(true)}
+        onChange={(e) => { setEditing(true); setText(e.target.value); }}
+        onKeyDown={(e) => {
+          if (e.key === 'Enter') { e.preventDefault(); commit(); }
+          if (e.key === 'Escape') { setEditing(false); setProblem(null); setText(shown); }
+        }}
+        onBlur={() => { if (editing) commit(); }}
+      />
+      {problem && <span className="lf-problem" role="alert">{problem}</span>}
+    </span>
   );
 }

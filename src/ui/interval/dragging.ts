@@ -62,3 +62,14 @@ export function useIntervalDrag(): Drag | null {
     () => null,
   );
 }
+
+/** Whether a drag is in progress (for code outside React). */
+export function isIntervalDragging(): boolean {
+  return current !== null;
+}
+
+/** Call `listener` when a drag begins or ends; returns a function that stops it. */
+export function onIntervalDrag(listener: () => void): () => void {
+  listeners.add(listener);
+  return () => { listeners.delete(listener); };
+}

@@ -6,7 +6,7 @@ import { useEffect, useId, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
-import { holdStore, useHolds } from './holds';
+import { releaseAllHolds, releaseHold, setHold, useHolds } from './holds';
 import './interventions.css';
 
 function startValue(model: Model, id: string): string {
@@ -39,7 +39,7 @@ export function HoldControlFor({ model }: { model: Model }) {
   const valid = text.trim() !== '' && Number.isFinite(value);
   const known = ids.includes(variable);
   const submit = () => {
-    if (valid && known) holdStore.getState().setHold(variable, value);
+    if (valid && known) setHold(variable, value);
   };
   const held = Object.keys(holds).filter((h) => ids.includes(h));
   return (
@@ -61,10 +61,10 @@ export function HoldControlFor({ model }: { model: Model }) {
             <li key={h}>
               <span className="lf-hold-glyph" aria-hidden="true">⊥</span> {label(h)} = {holds[h]}
               {model.variables.find((v) => v.id === h)?.kind === 'state' && <span className="lf-hold-note"> (its rate is held at zero)</span>}
-              <button type="button" onClick={() => holdStore.getState().release(h)} aria-label={`Release ${label(h)}`}>Release</button>
+              <button type="button" onClick={() => releaseHold(h)} aria-label={`Release ${label(h)}`}>Release</button>
             </li>
           ))}
-          {held.length > 1 && <li><button type="button" onClick={() => holdStore.getState().releaseAll()}>Release all</button></li>}
+          {held.length > 1 && <li><button type="button" onClick={() => releaseAllHolds()}>Release all</button></li>}
         </ul>
       ) : (
         <p className="lf-hold-note">Nothing is held. Holding fixes a variable from outside and cuts the links into it.</p>

@@ -1,3 +1,3 @@
 export { HoldControl, HoldControlFor } from './HoldControl';
 export { CommutationPanel, CommutationPanelFor } from './CommutationPanel';
-export { holdStore, useHolds, startHoldSync, createHoldStore } from './holds';
+export { useHolds, setHold, releaseHold, releaseAllHolds } from './holds';

@@ -8,7 +8,7 @@ import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { useAnalysis, useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
-import { designOf, useStudy } from '../../state/study';
+import { useSessionStudy } from '../../state/session';
 import type { CurveAnswer, SampledAnswer, TimescalesAnswer } from '../../worker/numericApi';
 import { EquilibriumTable } from './EquilibriumTable';
 import { IntervalAdvisor } from './IntervalAdvisor';
@@ -44,9 +44,8 @@ function NumbersOf({ model }: { model: Model }) {
   const design = useAnalysisState((s) => s.design);
   const breakpoints = useAnalysis()?.breakpoints ?? [];
   // The interval as the user set it (the analysis design follows it band by band).
-  const studyInterval = useStudy((s) => s.interval);
-  const studyLengthChoice = useStudy((s) => s.length);
-  const exact = studyInterval !== null ? designOf({ interval: studyInterval, length: studyLengthChoice }) : design;
+  const session = useSessionStudy();
+  const exact = session ? session.design : design;
   const interval = exact.interval;
   const hold = design.hold;
   const study: StudyAt = { interval, window: exact.window, samples: exact.samples };

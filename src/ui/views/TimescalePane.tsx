@@ -12,7 +12,9 @@ import { drawnPositions } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
-import { useAnalysisState } from '../../state/analysis';
+import { useSessionStudy, type StudyLength } from '../../state/session';
+
+const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 import { studyCaption } from '../../export/caption';
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
@@ -28,8 +30,9 @@ export function TimescalePane() {
 }
 
 export function TimescalePaneFor({ model }: { model: Model }) {
-  const length = useStudy((s) => s.length);
-  const liveInterval = useStudy((s) => s.interval);
+  const session = useSessionStudy();
+  const length = session?.length ?? DEFAULT_LENGTH;
+  const liveInterval = session ? session.interval : null;
   // while the control is dragged the figure follows the band where the thumb rests (a drag across a
   // big model passes a band every few pixels; drawing each would hold the thumb back)
   const drag = useIntervalDrag();
@@ -43,8 +46,9 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const folded = useStudy((s) => s.folded);
   const view = useStudy((s) => s.view);
   const sideBySide = useStudy((s) => s.sideBySide);
-  // interventions come with the analysis design (the interventions pane writes them)
-  const hold = useAnalysisState((s) => s.design.hold);
+  // interventions are the study's holds
+  const holds = session?.holds;
+  const hold = holds && Object.keys(holds).length > 0 ? holds : undefined;
   const bc = useBandCache(model, length, hold);
   const cache = bc.status === 'ready' ? bc.cache : null;
   // the band's ordering comes from the core worker; until it arrives the band drawn before stays,

@@ -4,7 +4,8 @@ import { act } from 'react';
 import { mount, unmountAll } from '../../helpers/mount';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { CommutationPanelFor, HoldControl } from '../../../src/ui/interventions/index';
-import { holdStore, startHoldSync } from '../../../src/ui/interventions/holds';
+import { releaseAllHolds, setHold } from '../../../src/ui/interventions/holds';
+import { currentStudy, startSession } from '../../../src/state/session';
 import { analysisStore, setStudyDesign } from '../../../src/state/analysis';
 import { documentStore } from '../../../src/state/document';
 import { parseModel } from '../../../src/core/model/schema';
@@ -19,15 +20,15 @@ const model = (() => {
 
 afterEach(() => {
   unmountAll();
-  holdStore.getState().releaseAll();
+  releaseAllHolds();
   setStudyDesign({});
 });
 
 describe('HoldControl', () => {
   it('holds the chosen variable at the typed value and puts it into the study design', () => {
     act(() => documentStore.getState().load(model));
-    // The app shell keeps the holds in step with the design for the whole session.
-    const stop = startHoldSync();
+    // The app shell keeps the analysis design in step with the session's study.
+    const stop = startSession();
     const el = mount(<HoldControl />);
     const select = el.querySelector('select')!;
     const input = el.querySelector('input')!;
@@ -41,12 +42,11 @@ describe('HoldControl', () => {
       input.dispatchEvent(new Event('input', { bubbles: true }));
     });
     act(() => el.querySelector('form')!.dispatchEvent(new Event('submit', { bubbles: true, cancelable: true })));
-    expect(holdStore.getState().holds).toEqual({ heater: 0 });
+    expect(currentStudy()?.holds).toEqual({ heater: 0 });
+    // the hold is part of the study in the document: saved with it, undone with it
+    expect(documentStore.getState().history.present.study?.holds).toEqual({ heater: 0 });
     expect(analysisStore.getState().design.hold).toEqual({ heater: 0 });
     expect(el.textContent).toMatch(/Heating power = 0/);
-    // Another writer of the design (the interval control) sets it without holds: they come back.
-    act(() => setStudyDesign({ interval: 60, samples: 50 }));
-    expect(analysisStore.getState().design).toEqual({ interval: 60, samples: 50, hold: { heater: 0 } });
     act(() => (el.querySelector('button[aria-label="Release Heating power"]') as HTMLButtonElement).click());
     expect(analysisStore.getState().design.hold).toBeUndefined();
     stop();
@@ -93,22 +93,25 @@ describe('CommutationPanel', () => {
 
   it('releases a hold when the document no longer has the variable', () => {
     act(() => documentStore.getState().load(model));
-    const stop = startHoldSync();
-    holdStore.getState().setHold('vent', 1);
-    const { variables, ...rest } = model;
-    act(() => documentStore.getState().load({ ...rest, variables: variables.filter((v) => v.id !== 'vent'), links: model.links.filter((l) => l.from !== 'vent' && l.to !== 'vent') }));
-    expect(holdStore.getState().holds).toEqual({});
+    const stop = startSession();
+    act(() => setHold('vent', 1));
+    expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
+    // deleting the variable releases its hold (one edit, undone together)
+    act(() => documentStore.getState().apply({ type: 'remove', variables: ['vent'] }));
+    expect(currentStudy()?.holds).toEqual({});
     expect(analysisStore.getState().design.hold).toBeUndefined();
+    act(() => documentStore.getState().undo());
+    expect(currentStudy()?.holds).toEqual({ vent: 1 });
     stop();
   });
 
-  it('the hold sync stops when asked', () => {
+  it('the session stops when asked', () => {
     act(() => documentStore.getState().load(model));
-    const stop = startHoldSync();
-    holdStore.getState().setHold('vent', 1);
+    const stop = startSession();
+    setHold('vent', 1);
     expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
     stop();
-    holdStore.getState().setHold('vent', 2);
+    setHold('vent', 2);
     expect(analysisStore.getState().design.hold).toEqual({ vent: 1 });
   });
 });

@@ -1,0 +1,101 @@
+import { readFileSync } from 'node:fs';
+import { expect, test, type Page } from '@playwright/test';
+
+const nodes = (page: Page) => page.locator('.react-flow__node-variable');
+const slider = (page: Page) => page.getByRole('slider', { name: 'Sampling interval' });
+
+/** The design as the page holds it: the study in the document and the interval in seconds. */
+async function design(page: Page): Promise<{ study: unknown; seconds: number; value: string; unit: string }> {
+  const m = await page.evaluate(() => window.__loopfold!.model());
+  return {
+    study: (m as { study?: unknown }).study,
+    seconds: Number(await slider(page).getAttribute('data-interval-seconds')),
+    value: (await page.locator('.lf-interval-value').textContent()) ?? '',
+    unit: (m as { timeUnit: string }).timeUnit,
+  };
+}
+
+async function shot(page: Page, path: string): Promise<void> {
+  await page.waitForTimeout(200);
+  await page.screenshot({ path });
+}
+
+test.describe('the study is exact, saved and shared', () => {
+  test('type 3h; save, reload, open the share link in a fresh context, change the time unit: the same design each time', async ({ page, browser, context }, testInfo) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await context.grantPermissions(['clipboard-read', 'clipboard-write']);
+    await page.goto('/?example=sleep-stress');
+    await expect(nodes(page)).toHaveCount(7);
+    await expect(slider(page)).toBeVisible();
+
+    const field = page.getByTestId('interval-text');
+    await field.fill('3h');
+    await field.press('Enter');
+    await expect(slider(page)).toHaveAttribute('data-interval-seconds', '10800');
+    await expect(page.locator('.lf-interval-value')).toHaveText('every 3 h');
+    const typed = await design(page);
+    expect(typed.study).toMatchObject({ interval: '3 h' });
+    await shot(page, testInfo.outputPath('01-typed-3h.png'));
+
+    // saved to a file: the study is in it, exactly
+    const downloading = page.waitForEvent('download');
+    await page.getByRole('button', { name: 'Save as…' }).click();
+    const download = await downloading;
+    const path = testInfo.outputPath(download.suggestedFilename());
+    await download.saveAs(path);
+    const saved = JSON.parse(readFileSync(path, 'utf8'));
+    expect(saved.version).toBe(2);
+    expect(saved.study).toEqual(typed.study);
+
+    // reloaded (autosave): the same design
+    await page.waitForTimeout(1200);
+    await page.reload();
+    await expect(nodes(page)).toHaveCount(7);
+    await expect(slider(page)).toHaveAttribute('data-interval-seconds', '10800');
+    expect(await design(page)).toEqual(typed);
+    await shot(page, testInfo.outputPath('02-reloaded.png'));
+
+    // the share link, opened in a fresh browser context (no autosave there)
+    await page.getByRole('button', { name: 'Share link' }).click();
+    await expect(page.locator('.lf-toast')).toContainText('Share link copied');
+    const link = await page.evaluate(() => navigator.clipboard.readText());
+    const fresh = await browser.newContext({ viewport: { width: 1024, height: 768 } });
+    const other = await fresh.newPage();
+    await other.goto(link);
+    await expect(other.locator('.react-flow__node-variable')).toHaveCount(7);
+    await expect(slider(other)).toHaveAttribute('data-interval-seconds', '10800');
+    expect(await design(other)).toEqual(typed);
+    await shot(other, testInfo.outputPath('03-share-link-fresh-context-1024.png'));
+    await fresh.close();
+
+    // the time unit changes from hours to days: the same real interval, the same study
+    await page.locator('.react-flow__pane').click({ position: { x: 20, y: 20 } });
+    await page.getByLabel('Time unit of the model').selectOption('day');
+    await expect(page.getByLabel('Time unit of the model')).toHaveValue('day');
+    await expect(slider(page)).toHaveAttribute('data-interval-seconds', '10800');
+    const inDays = await design(page);
+    expect(inDays).toEqual({ ...typed, unit: 'day' });
+    expect(Number(await slider(page).getAttribute('data-interval'))).toBe(0.125);
+    await shot(page, testInfo.outputPath('04-time-unit-day.png'));
+
+    // undo brings back hours, and the same design
+    await page.keyboard.press('Control+z');
+    await expect(page.getByLabel('Time unit of the model')).toHaveValue('h');
+    expect(await design(page)).toEqual(typed);
+  });
+
+  test('a typo in the interval field is explained and changes nothing', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(slider(page)).toBeVisible();
+    const before = await design(page);
+    const field = page.getByTestId('interval-text');
+    await field.fill('every now and then');
+    await field.press('Enter');
+    await expect(page.getByRole('alert').filter({ hasText: 'is not an interval' })).toBeVisible();
+    expect(await design(page)).toEqual(before);
+    await field.fill('daily');
+    await field.press('Enter');
+    await expect(slider(page)).toHaveAttribute('data-interval-seconds', '86400');
+    await shot(page, testInfo.outputPath('05-daily.png'));
+  });
+});
