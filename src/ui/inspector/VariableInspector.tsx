@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import type { Model, Variable, VariableKind } from '../../core/model/types';
 import { parseDuration, formatDuration } from '../../core/model/units';
+import { DEFAULT_NOISE, DEFAULT_RELIABILITY } from '../../core/study/convert';
 import { isReservedName } from '../../core/expr/parse';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
@@ -131,8 +132,26 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
             />
             Self-regulating (its rate depends on the state itself)
           </label>
+          <CheckedField
+            label="Process noise"
+            value={v.noise === undefined ? '' : String(v.noise)}
+            check={(t) => (t.trim() === '' ? null : numberCheck(t) ?? (Number(t) < 0 ? 'must not be negative' : null))}
+            commit={(t) => update('noise', { noise: t.trim() === '' ? undefined : toNumber(t) })}
+            onBlur={stop}
+            placeholder={`default ${DEFAULT_NOISE}`}
+            hint={`Variance the state gains per ${model.timeUnit} from everything the model leaves out (default ${DEFAULT_NOISE}). It sets the stationary spread and the same-interval network; the lagged effects do not depend on it.`}
+          />
         </>
       )}
+      <CheckedField
+        label="Reliability of its measurement"
+        value={v.reliability === undefined ? '' : String(v.reliability)}
+        check={(t) => (t.trim() === '' ? null : numberCheck(t) ?? (Number(t) > 0 && Number(t) <= 1 ? null : 'must be above 0 and at most 1'))}
+        commit={(t) => update('reliability', { reliability: t.trim() === '' ? undefined : toNumber(t) })}
+        onBlur={stop}
+        placeholder={`default ${DEFAULT_RELIABILITY} (no measurement error)`}
+        hint={`Share of a measurement's variance that is the true value, 0–1 (default ${DEFAULT_RELIABILITY}). Below 1, estimated effects from this variable shrink towards zero.`}
+      />
       {v.kind === 'input' && <CheckedField label="Value" value={v.value === undefined ? '' : String(v.value)} check={numberCheck} commit={(t) => update('value', { value: toNumber(t) })} onBlur={stop} />}
       <TextField label="Unit" value={v.unit ?? ''} onChange={(t) => update('unit', { unit: t === '' ? undefined : t })} onBlur={stop} placeholder="e.g. mg/L" />
       <TextField label="Note" multiline value={v.note ?? ''} onChange={(t) => update('note', { note: t === '' ? undefined : t })} onBlur={stop} />
