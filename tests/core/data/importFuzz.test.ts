@@ -100,7 +100,7 @@ describe('import fuzzing', () => {
     for (let k = 0; k < 1_000_000; k++) {
       const p = k % 500;
       // Some rows repeat the person's previous time (a duplicate when that row was not moved itself); others fall between earlier ones (out of order).
-      const shift = (i: number) => (i % 997 === 0 && i >= 500 ? 3 : i % 991 === 0 && i >= 500 ? 1.5 : 0);
+      const shift = (i: number) => (i % 997 === 0 && i >= 500 ? 3 : i % 991 === 0 && i >= 1000 ? 4.5 : 0);
       if (shift(k) === 3 && shift(k - 500) === 0) repeats++;
       const t = Math.floor(k / 500) * 3 - shift(k);
       parts.push(`p${p},${t},${(r() * 10).toFixed(2)},${k % 13 === 0 ? 'NA' : '5'},${k % 100_003 === 0 ? 'x' : '1'}`);
