@@ -201,3 +201,5 @@ export function picturesAt(model: Model, options: PictureOptions): { ok: true; p
     },
   };
 }
+export { orderingProbabilities, breakpointRanges, logUniformBelow, seededUniform } from './uncertain';
+export type { OrderingProbabilities, OrderingShare, StateUncertainty, BreakpointRange, UncertainOptions } from './uncertain';
