@@ -12,3 +12,5 @@ import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
 import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
+import { pictureCommands } from './pictures';
+COMMANDS.push(...pictureCommands);

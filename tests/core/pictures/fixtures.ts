@@ -15,7 +15,7 @@ export const SLOW_TAU = 500;
 export const SLOW_NOISE = 0.002;
 
 export function chainModel(chain: number, personSD: number, slow = false): Model {
-  const variables: Model['variables'] = [{ id: 'load', kind: 'input', value: 1, personSD }, ...SYMPTOMS.map((id, i) => ({ id, kind: 'state' as const, timescale: TAUS[i] }))];
+  const variables: Model['variables'] = [{ id: 'load', kind: 'input', value: 1, ...(personSD !== 0 ? { personSD } : {}) }, ...SYMPTOMS.map((id, i) => ({ id, kind: 'state' as const, timescale: TAUS[i] }))];
   const links: Model['links'] = SYMPTOMS.map((id, i) => ({ from: slow ? 'strain' : 'load', to: id, kind: 'integrating' as const, weight: GAINS[i] }));
   if (slow) {
     variables.push({ id: 'strain', kind: 'state', timescale: SLOW_TAU, noise: SLOW_NOISE });
