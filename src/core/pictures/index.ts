@@ -87,7 +87,13 @@ function levelWords(level: Level, fit: FactorFit | null, lv: LevelCovariances, u
   fit.correlation.forEach((row, i) => row.forEach((r, j) => { if (i !== j) largest = Math.max(largest, Math.abs(r)); }));
   const where = level === 'within' ? `Within persons at ${at}` : level === 'between' ? 'Across persons' : `In a one-time survey of ${lv.persons} persons`;
   if (largest < 0.1) return `${where}, the variables barely correlate (largest correlation ${f2(largest)}): there is little for any factor or network to explain.`;
+  if (fit.rmsea === null) return `${where}, ${fitWords(fit)}: analyse at least four variables to tell a common factor from a network.`;
   const fits = fit.rmsea !== null && fit.rmsea <= RMSEA_REASONABLE;
+  // A first eigenvalue carrying most of the variance: one factor dominates even where the exact fit detects the loops.
+  const p = fit.eigenvalues.length;
+  const share = fit.eigenvalues[0] / p;
+  if (!fits && share >= 0.75 && level !== 'within')
+    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; the loops still leave a trace the exact fit detects (RMSEA ${f2(fit.rmsea!)}).`;
   const strongest = fit.loadings.map((l, i) => ({ i, l: Math.abs(l[0]) })).sort((a, b) => b.l - a.l)[0];
   if (level === 'between')
     return fits
