@@ -35,6 +35,9 @@ test('Pictures pane on the evening-unrest example: three pictures with readings,
   // No person differences yet: the pane says so; an SD for workload brings the common factor across persons.
   await expect(pane.locator('.lf-pic-summary').first()).toContainText('No input differs across persons');
   await pane.getByLabel('SD of Workload across persons').fill('0.8');
+  // Strain is the unmeasured driver: analyse the four symptoms only.
+  await pane.locator('.lf-pic-observed').getByLabel('Strain').uncheck();
+  await expect(pane.locator('[data-picture="factor"] [data-variable="strain"]')).toHaveCount(0, { timeout: 60_000 });
   await expect(pane.locator('[data-picture="factor"] .lf-pic-reading')).toContainText('one factor dominates', { timeout: 60_000 });
   await expect(pane.locator('[data-picture="factor"] [data-variable="worry"]')).toBeVisible();
   // The worker did the work.

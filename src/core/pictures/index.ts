@@ -101,7 +101,7 @@ function levelWords(level: Level, fit: FactorFit | null, lv: LevelCovariances, u
       : `Across persons, ${fitWords(fit)}: the person means differ in more than one direction.`;
   if (level === 'cross')
     return fits
-      ? `In a one-time survey of ${lv.persons} persons, ${fitWords(fit)}: person differences and momentary states mix, and ${driverText} dominates.`
+      ? `In a one-time survey of ${lv.persons} persons, ${fitWords(fit)}: person differences and momentary states mix, and the person differences dominate (${driverText}).`
       : `In a one-time survey of ${lv.persons} persons, ${fitWords(fit)}: the momentary links between the variables show through the person differences.`;
   return fits
     ? `Within persons at ${at}, ${fitWords(fit)}: the fluctuations move together, as if one common cause drove them${strongest ? ` (strongest loading: ${names(lv.observed[strongest.i])})` : ''}.`
@@ -170,9 +170,13 @@ export function picturesAt(model: Model, options: PictureOptions): { ok: true; p
     const r = v?.timescale !== undefined ? readTimescale(v.timescale, model.timeUnit) : null;
     return r && r.ok ? r.point : 1;
   });
-  const lo = Math.min(...taus) / 10, hi = Math.max(...taus) * k5 * 4;
+  const lo = Math.min(...taus) / 10, hi = Math.max(Math.max(...taus) * k5 * 4, lv.interval * 40);
   const curve = laggedRankCurve(lv.drift, lv.states, lv.observed, Math.min(lo, lv.interval), Math.max(hi, lv.interval * 2), 60);
-  const longAt = curve.find((c) => c.interval >= lv.interval && c.secondRatio <= 0.1)?.interval ?? Math.max(lv.interval, k5 * Math.max(...taus));
+  // "Long": at least four study intervals and k times the middle timescale of the analysed states, then
+  // the first interval on the grid where Φ is nearly rank one (else that minimum).
+  const sortedTaus = [...taus].sort((a, b) => a - b);
+  const minLong = Math.max(4 * lv.interval, k5 * sortedTaus[Math.floor((sortedTaus.length - 1) / 2)]);
+  const longAt = curve.find((c) => c.interval >= minLong && c.secondRatio <= 0.1)?.interval ?? minLong;
   const rankLong = laggedRank(lv.drift, lv.states, lv.observed, longAt);
   const longWords = formatDuration(longAt, model.timeUnit);
   let longReading: string;

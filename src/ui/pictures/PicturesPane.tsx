@@ -121,7 +121,7 @@ function PicturesOf({ model }: { model: Model }) {
           {!wide && row}
           {wide && (
             <div className="lf-pic-overlay" role="dialog" aria-modal="true" aria-label="The three pictures side by side" onKeyDown={(e) => { if (e.key === 'Escape') setWide(false); }}>
-              <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong><button type="button" autoFocus onClick={() => setWide(false)}>Close</button></div>
+              <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong>{model.caution && <span className="lf-pic-note">{model.caution}</span>}<button type="button" autoFocus onClick={() => setWide(false)}>Close</button></div>
               {row}
             </div>
           )}
