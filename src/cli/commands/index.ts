@@ -14,3 +14,5 @@ import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
 import { dataCommands } from './data';
 COMMANDS.push(...dataCommands);
+import { pictureCommands } from './pictures';
+COMMANDS.push(...pictureCommands);
