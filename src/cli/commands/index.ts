@@ -12,3 +12,4 @@ import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
 import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
+import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);

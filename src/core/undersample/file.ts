@@ -95,7 +95,7 @@ export function parseGraphData(data: unknown): GraphParse {
       issues: r.error.issues.map((i) => {
         let message = i.message;
         if (i.code === 'unrecognized_keys') message = `has unknown field${i.keys.length > 1 ? 's' : ''} ${i.keys.map((k) => `"${k}"`).join(', ')}`;
-        if (i.code === 'invalid_type' && i.input === undefined) message = 'is missing';
+        if ((i.code === 'invalid_type' || i.code === 'invalid_union') && i.input === undefined) message = 'is missing';
         return { path: formatPath(i.path), message };
       }),
     };
@@ -206,6 +206,6 @@ export function stepGraphOfModel(model: Model): { graph: MeasuredGraph; ids: Var
   notes.push('each state carries over from one step to the next (a self-loop); each integrating link into a state is a one-step effect');
   if (folded.size) notes.push(`derived ${folded.size === 1 ? 'variable' : 'variables'} ${[...folded].map((id) => byId.get(id)?.label?.trim() || id).join(', ')} pass on within the step the states and inputs ${folded.size === 1 ? 'it follows' : 'they follow'}`);
   const inputs = ids.filter((id) => byId.get(id)?.kind === 'input');
-  if (inputs.length) notes.push(`${inputs.length === 1 ? 'input' : 'inputs'} ${inputs.map((id) => byId.get(id)?.label?.trim() || id).join(', ')} act on states without a self-loop of their own (set from outside at each step)`);
+  if (inputs.length) notes.push(`${inputs.length === 1 ? 'input' : 'inputs'} ${inputs.map((id) => byId.get(id)?.label?.trim() || id).join(', ')} ${inputs.length === 1 ? 'acts' : 'act'} on states without a self-loop of ${inputs.length === 1 ? 'its' : 'their'} own (set from outside at each step)`);
   return { graph: { names, directed: directed.map((x) => x >>> 0), bidirected: new Array<number>(ids.length).fill(0) }, ids, notes };
 }
