@@ -47,6 +47,7 @@ function nearestJson(h: MeasuredGraph, near: NearestAnswer) {
     complete: near.complete,
     graphs: near.graphs.map((g) => ({
       rate: g.rate,
+      rates: g.rates,
       ...edgeList(g.measured),
       added: { directed: nm(g.added.directed), bidirected: nm(g.added.bidirected) },
       removed: { directed: nm(g.removed.directed), bidirected: nm(g.removed.bidirected) },
@@ -157,7 +158,7 @@ export const undersampleCommands: CliCommand[] = [
         for (const g of near.graphs) {
           const nm = (p: [number, number][], a: string) => p.map(([i, j]) => `${h.names[i]} ${a} ${h.names[j]}`);
           const changes = [...nm(g.added.directed, '→').map((x) => `+ ${x}`), ...nm(g.added.bidirected, '↔').map((x) => `+ ${x}`), ...nm(g.removed.directed, '→').map((x) => `− ${x}`), ...nm(g.removed.bidirected, '↔').map((x) => `− ${x}`)];
-          lines.push(`  u = ${g.rate}, ${g.distance} edge${g.distance === 1 ? '' : 's'} changed: ${changes.join(', ')} (e.g. from causal graph ${pairs(causalEdges(h, g.example), '→')})`);
+          lines.push(`  u = ${g.rates.join(', ')}, ${g.distance} edge${g.distance === 1 ? '' : 's'} changed: ${changes.join(', ')} (e.g. from causal graph ${pairs(causalEdges(h, g.example), '→')})`);
         }
         if (!near.complete) lines.push('  (the search for nearer graphs stopped at its budget: a nearer one may exist)');
       } else {

@@ -255,7 +255,10 @@ export function causalGraphsFor(h: MeasuredGraph, rates: readonly number[], opti
 
 /** A measured graph that some causal graph gives, near the one asked about. */
 export interface NearGraph {
+  /** The first rate that gives it. */
   rate: number;
+  /** Every rate searched that gives it. */
+  rates: number[];
   /** Edges changed: directed edges plus bidirected pairs added or removed. */
   distance: number;
   measured: MeasuredGraph;
@@ -335,11 +338,13 @@ export function nearestMeasuredGraphs(h: MeasuredGraph, rates: readonly number[]
       if (same) {
         // every completion gives the same measured graph: the bound is its distance
         if (bound < best) { best = bound; found.clear(); }
-        const key = `${u}|${Array.from(lo.d).join(',')}|${Array.from(lo.b).join(',')}`;
-        if (!found.has(key) && found.size < maxResults) {
+        const key = `${Array.from(lo.d).join(',')}|${Array.from(lo.b).join(',')}`;
+        const seen = found.get(key);
+        if (seen) { if (!seen.rates.includes(u)) seen.rates.push(u); }
+        else if (found.size < maxResults) {
           const { added, removed } = diff(lo.d, lo.b);
           found.set(key, {
-            rate: u, distance: bound, example: Array.from(L, (x) => x >>> 0), added, removed,
+            rate: u, rates: [u], distance: bound, example: Array.from(L, (x) => x >>> 0), added, removed,
             measured: { names: h.names, directed: Array.from(lo.d, (x) => x >>> 0), bidirected: Array.from(lo.b, (x) => x >>> 0) },
           });
         }

@@ -85,7 +85,7 @@ export default function StepsPane() {
       <div className="lf-steps-row">
         <span>Graph: {source ? <strong>{source.name}</strong> : '—'} {source && <span className="lf-steps-note">({source.from === 'sketch' ? 'from the sketch' : source.measured ? 'a measured graph from a file' : 'a causal-step graph from a file'})</span>}</span>
         <button type="button" onClick={() => input.current?.click()}>Open graph file…</button>
-        {source?.from === 'file' && <button type="button" onClick={() => stepsStore.getState().set({ file: null })}>Use the sketch</button>}
+        {source?.from === 'file' && <button type="button" onClick={() => { setError(null); stepsStore.getState().set({ file: null }); }}>Use the sketch</button>}
         <input ref={input} type="file" accept=".json,application/json" hidden aria-label="Graph file" onChange={open} />
       </div>
       {error && <p className="lf-steps-error" role="alert">{error}</p>}
@@ -242,7 +242,7 @@ function InverseResult({ graph, rates, outcome }: { graph: MeasuredGraph; rates:
                 {a.nearest.graphs.map((g, k) => {
                   const nm = (p: [number, number][], s: string, arrow: string) => p.map(([i, j]) => `${s} ${names[i]} ${arrow} ${names[j]}`);
                   const changes = [...nm(g.added.directed, '+', '→'), ...nm(g.added.bidirected, '+', '↔'), ...nm(g.removed.directed, '−', '→'), ...nm(g.removed.bidirected, '−', '↔')];
-                  return <li key={k}>u = {g.rate}: {changes.join(', ')} <span className="lf-steps-edges">(e.g. from {edgesText(names, g.example)})</span></li>;
+                  return <li key={k}>u = {g.rates.join(', ')}: {changes.join(', ')} <span className="lf-steps-edges">(e.g. from {edgesText(names, g.example)})</span></li>;
                 })}
               </ul>
             </>

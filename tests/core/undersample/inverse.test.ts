@@ -129,7 +129,7 @@ describe('causal graphs behind a measured graph, against exhaustive enumeration'
         expect(near.complete).toBe(true);
         expect(near.distance, `seed 404, case ${k}`).toBe(best);
         const want = new Set(reachable.filter((x) => dist(x.m, h) === best).map((x) => `${x.u}|${x.m.directed}|${x.m.bidirected}`));
-        const got = new Set(near.graphs.map((g) => `${g.rate}|${g.measured.directed}|${g.measured.bidirected}`));
+        const got = new Set(near.graphs.flatMap((g) => g.rates.map((u) => `${u}|${g.measured.directed}|${g.measured.bidirected}`)));
         expect(got).toEqual(want);
         for (const g of near.graphs) {
           const check = referenceMeasured(matrixOf(g.example, 3), g.rate);
