@@ -151,7 +151,7 @@ function StepsView({ source, rate, maxRate }: { source: Source; rate: number; ma
           <ReasonList lines={reasons.map((r) => r.text)} />
         </section>
       )}
-      <InverseSection graph={shown} rate={source.measured && source.measured ? u : u} maxRate={maxRate} fromFile={!!source.measured} />
+      <InverseSection graph={shown} rate={u} maxRate={maxRate} fromFile={!!source.measured} />
     </>
   );
 }
