@@ -9,6 +9,7 @@ import { lazy, Suspense } from 'react';
 // The Numbers pane and its worker load only when the tab is first opened.
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
 const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
+const StepsPane = lazy(() => import('./undersample/StepsPane'));
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
@@ -17,6 +18,7 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'intervene', name: 'Intervene' },
   { id: 'numbers', name: 'Numbers' },
   { id: 'pictures', name: 'Pictures' },
+  { id: 'steps', name: 'Steps' },
 ];
 
 /** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
@@ -72,6 +74,7 @@ export function RightPane() {
             <PicturesPane />
           </Suspense>
         )}
+        {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}
       </div>
     </aside>
   );

@@ -16,3 +16,4 @@ import { dataCommands } from './data';
 COMMANDS.push(...dataCommands);
 import { pictureCommands } from './pictures';
 COMMANDS.push(...pictureCommands);
+import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);
