@@ -14,3 +14,8 @@ import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
 import { studyCommands } from './study';
 COMMANDS.push(...studyCommands);
+import { dataCommands } from './data';
+COMMANDS.push(...dataCommands);
+import { pictureCommands } from './pictures';
+COMMANDS.push(...pictureCommands);
+import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);

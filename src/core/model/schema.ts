@@ -3,7 +3,8 @@ import { lengthAxis, parseInterval } from '../study/convert';
 import { nominalSpacing } from '../study/schedule';
 import { migrateV1 } from './migrate';
 import { MODEL_VERSION, TIME_UNITS, type Model, type Study } from './types';
-import { convertDuration, formatDuration, parseDuration } from './units';
+import { convertDuration, formatDuration } from './units';
+import { readTimescale } from './timescale';
 
 /** One problem found in a model file, located by its JSON path. */
 export interface ModelIssue {
@@ -28,7 +29,9 @@ const position = z.strictObject({ x: finite('x'), y: finite('y') }, { error: 'mu
  * A state's characteristic time: a number in the model's time unit or a duration in text.
  * Kept in one place so that it can take further forms (such as a range) without touching the rest.
  */
-const timescaleSchema = z.union([z.number(), z.string()], { error: 'must be a number in the model time unit or a duration such as "90 min"' });
+const timescaleSchema = z.union([z.number(), z.string(), z.strictObject({ low: z.union([z.number(), z.string()]), high: z.union([z.number(), z.string()]) })], {
+  error: 'must be a number in the model time unit, a duration such as "90 min", or a range { "low": "30 min", "high": "3 h" }',
+});
 
 const variableFieldsV1 = {
   id: idField,
@@ -242,8 +245,8 @@ function checkModel(model: Model): ParseResult {
     if (v.kind !== 'input' && v.value !== undefined) issues.push({ path: `${p}.value`, message: `only an input has "value"; "${v.id}" is a ${v.kind} (use "initial" for a state)` });
     if (v.kind !== 'derived' && v.formula !== undefined) issues.push({ path: `${p}.formula`, message: `only a derived variable has "formula"; "${v.id}" is ${v.kind === 'input' ? 'an input' : 'a state (use "rate")'}` });
     if (v.timescale !== undefined) {
-      const d = parseDuration(v.timescale, model.timeUnit);
-      if (!d.ok) issues.push({ path: `${p}.timescale`, message: d.message });
+      const d = readTimescale(v.timescale, model.timeUnit);
+      if (!d.ok) issues.push({ path: `${p}.timescale${d.field ? `.${d.field}` : ''}`, message: d.message });
     }
   });
   (model.relations ?? []).forEach((r2, i) => {
