@@ -11,6 +11,7 @@ interface Props {
   relation?: boolean;
   placeholder?: string;
   hint?: string;
+  autoFocus?: boolean;
   onChange(text: string): void;
   onBlur?(): void;
 }
@@ -22,7 +23,7 @@ interface Props {
  * model keeps what the modeller wrote and the Checks list the problem.
  * Escape brings back the stored formula.
  */
-export function ExpressionField({ label, value: stored, model, relation, placeholder, hint, onChange, onBlur }: Props) {
+export function ExpressionField({ label, value: stored, model, relation, placeholder, hint, autoFocus, onChange, onBlur }: Props) {
   const id = useId();
   const d = useDraft(stored, onChange);
   const value = d.text;
@@ -40,6 +41,7 @@ export function ExpressionField({ label, value: stored, model, relation, placeho
         value={value}
         placeholder={placeholder}
         spellCheck={false}
+        autoFocus={autoFocus}
         autoComplete="off"
         aria-invalid={error ? true : undefined}
         aria-describedby={`${id}-msg`}
