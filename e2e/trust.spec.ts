@@ -80,6 +80,7 @@ test.describe('fields, selection and checks a modeller can trust', () => {
   });
 
   test('a sketch with a growing mode is a finding in the Checks, the timescale view and the Numbers', async ({ page }, testInfo) => {
+    test.setTimeout(240_000);
     await page.goto('/');
     await page.evaluate(() => window.__loopfold!.load({
       format: 'loopfold-model', version: 1, name: 'Household budget', timeUnit: 'week',
@@ -93,7 +94,7 @@ test.describe('fields, selection and checks a modeller can trust', () => {
       ],
     }));
     const checks = page.locator('.lf-diagnostics');
-    await expect(checks).toContainText('growing mode');
+    await expect(checks).toContainText('growing mode', { timeout: 60_000 });
     await expect(checks).toContainText('Savings');
     await expect(checks).not.toContainText('no problems found');
     await page.getByRole('tab', { name: 'Timescales' }).click();
@@ -108,6 +109,7 @@ test.describe('fields, selection and checks a modeller can trust', () => {
 test.describe('a projector at 1024×768', () => {
   test.use({ viewport: { width: 1024, height: 768 } });
   test('the toolbar keeps one row, the model name is whole, and every example\'s canvas text is at least 11 px after Fit', async ({ page }, testInfo) => {
+    test.setTimeout(300_000);
     for (const id of ['sleep-stress', 'lake', 'greenhouse', 'warehouse']) {
       await page.goto(`/?example=${id}`);
       await expect(page.locator('.react-flow__node-variable').first()).toBeVisible();
@@ -138,13 +140,14 @@ test.describe('a projector at 1024×768', () => {
 
 test.describe('accessibility (axe-core, WCAG 2.1 AA)', () => {
   test('every tab and dialog with an example open has no violations', async ({ page }, testInfo) => {
+    test.setTimeout(360_000);
     await page.goto('/?example=sleep-stress');
     await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
     await page.waitForTimeout(500);
     const found: Record<string, string[]> = {};
     for (const tab of ['Edit', 'Equations', 'Timescales', 'Intervene', 'Numbers']) {
       await page.getByRole('tab', { name: tab }).click();
-      if (tab === 'Numbers') await expect(page.locator('.lf-net-edge').first()).toBeVisible({ timeout: 30_000 });
+      if (tab === 'Numbers') await expect(page.locator('.lf-net-edge').first()).toBeVisible({ timeout: 90_000 });
       await page.waitForTimeout(600);
       found[tab] = await axeViolations(page);
       await shot(page, testInfo.outputPath(`axe-${tab}.png`));
