@@ -18,6 +18,7 @@ import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
 import { ExplainList } from './ExplainList';
+import { GrowthNotice } from '../diagnostics/GrowthNotice';
 import { restDelay, useIntervalDrag } from '../interval/dragging';
 import './views.css';
 
@@ -152,6 +153,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
       </div>
       <aside className="lf-explain" aria-label="What changes at this interval">
         <h3>What changes at this interval</h3>
+        <GrowthNotice what="settling (and the timescales it rests on)" />
         <ExplainList lines={lines} />
         {model.caution && <p className="lf-caution">{model.caution}</p>}
       </aside>
