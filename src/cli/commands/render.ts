@@ -13,7 +13,10 @@ import { renderSvg } from '../../export/svg';
 import { figureLayout } from '../../layout/figure';
 import { drawnPositions } from '../../layout/instant';
 import { nodeElk } from '../../layout/node';
-import { durationOption, loadModel } from '../load';
+import { durationOption, loadModel, variableByIdOrLabel } from '../load';
+import { printView } from '../../export/print/figure';
+import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from '../output/write';
+import { parseHoldOption } from './interventions';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
 const VIEWS: readonly ViewMode[] = ['ordering', 'mechanism', 'unrolled'];
@@ -62,30 +65,41 @@ function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
     if (samples === true || !Number.isInteger(n) || n < 2) throw new CliError(`--samples must be a whole number of at least 2, not "${samples}"`, 2);
     design.samples = n;
   }
+  if (args.options.hold !== undefined) {
+    if (view === 'mechanism') throw new CliError('--hold applies to the ordering and unrolled views (the mechanism is drawn as sketched)', 2);
+    design.hold = parseHoldOption(args.options.hold, model);
+  }
   const fold = args.options.fold;
-  return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded: typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').sort().join('+')) : undefined };
+  if (fold === true) throw new CliError('--fold needs block keys, e.g. --fold a+b (see loopfold order --json for the blocks)', 2);
+  const folded = typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').map((v) => variableByIdOrLabel(model, v, 'fold')).sort().join('+')) : undefined;
+  if (folded && view !== 'mechanism') checkFoldKeys(folded, model, design);
+  return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded };
+}
+
+/** Every key of --fold must name a simultaneous block at this interval; the message lists the blocks there are. */
+function checkFoldKeys(keys: string[], model: Model, design: StudyDesign): void {
+  const o = orderingAt(model, design);
+  const blocks = o.blocks.filter((b) => b.variables.length > 1).map((b) => [...b.variables].sort().join('+'));
+  for (const k of keys) {
+    if (blocks.includes(k)) continue;
+    const there = blocks.length ? `the blocks at this interval are ${blocks.join(', ')}` : 'there is no simultaneous block at this interval';
+    throw new CliError(`--fold: "${k}" is not a simultaneous block; ${there}`, 2);
+  }
 }
 
 export const renderCommand: CliCommand = {
   name: 'render',
-  summary: 'write the figure of a view at a sampling interval as SVG (the same as the app exports)',
-  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--fold a+b,…] [--caption] --out fig.svg',
-  options: { interval: true, window: true, samples: true, view: true, caption: false, out: true, fold: true },
+  summary: 'write the figure of a view at a sampling interval as SVG, PNG or PDF (the same as the app exports)',
+  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
+  options: { interval: true, window: true, samples: true, view: true, caption: false, fold: true, hold: true, ...PRINT_OPTIONS },
   async run(args, io) {
     const model = loadModel(args, io);
+    const out = outTarget(args);
+    if (out === undefined) throw new CliError('--out FILE is needed: .svg, .png or .pdf (use --out - to print the SVG)', 2);
     const req = requestFromArgs(args, model);
-    const out = args.options.out;
-    if (out === undefined || out === true) throw new CliError('--out FILE.svg is needed (use --out - to print the SVG)', 2);
-    const svg = await renderFigure(req);
-    if (out === '-') io.out(svg);
-    else {
-      try {
-        io.writeFile(out, svg);
-      } catch (e) {
-        throw new CliError(`cannot write ${out}: ${(e as Error).message}`);
-      }
-      io.err(`wrote ${out} (${svg.length} bytes)`);
-    }
+    const opts = printOptionsOf(args);
+    const fig = await printView(req, opts, (vm) => figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined));
+    await writeFigure(out, fig, opts, io, String(fig.root.attrs['aria-label'] ?? 'Loopfold figure'));
     return 0;
   },
 };
