@@ -12,3 +12,5 @@ import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
 import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
+import { batchCommand } from './batch';
+COMMANDS.push(batchCommand((argv, io) => import('../run').then((m) => m.runCli(argv, io))));

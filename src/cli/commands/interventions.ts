@@ -10,7 +10,6 @@ import type { Ordering, StudyDesign } from '../../core/ordering/types';
 import { commutationAt, confirmAdaptation, hasFormulas, interventionEffect, InterventionError, perfectAdaptation, type Commutation, type InterventionEffect } from '../../core/interventions/index';
 import { buildReport } from '../../report/html';
 import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
-import { layoutInNode } from '../../layout/node';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
@@ -168,6 +167,7 @@ export const interventionCommands: CliCommand[] = [
       if (out === undefined || out === true) throw new CliError('name the output file, e.g. --out report.html', 2);
       const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : undefined;
       const study = studyOptions(args, model);
+      const { layoutInNode } = await import('../../layout/node');
       const html = await buildReport(model, { ...study, hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
       const write = (path: string, text: string) => {
         try {
@@ -175,7 +175,7 @@ export const interventionCommands: CliCommand[] = [
         } catch (e) {
           throw new CliError(`cannot write ${path}: ${(e as Error).message}`);
         }
-        io.out(`wrote ${path} (${text.length} characters)`);
+        io.err(`wrote ${path} (${new TextEncoder().encode(text).length} bytes)`);
       };
       write(out, html);
       const axis = study.window !== undefined ? { window: study.window } : { samples: study.samples ?? model.settings?.samples };

@@ -10,9 +10,7 @@ import { mechanismView, orderingView } from '../../core/view/derive';
 import type { ViewMode, ViewModel } from '../../core/view/types';
 import { studyCaption } from '../../export/caption';
 import { renderSvg } from '../../export/svg';
-import { figureLayout } from '../../layout/figure';
 import { drawnPositions } from '../../layout/instant';
-import { nodeElk } from '../../layout/node';
 import { durationOption, loadModel, variableByIdOrLabel } from '../load';
 import { printView } from '../../export/print/figure';
 import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from '../output/write';
@@ -44,6 +42,7 @@ export function renderView(req: RenderRequest): ViewModel {
 
 /** The SVG text of a render request. */
 export async function renderFigure(req: RenderRequest): Promise<string> {
+  const [{ figureLayout }, { nodeElk }] = await Promise.all([import('../../layout/figure'), import('../../layout/node')]);
   const vm = renderView(req);
   const layout = await figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
   return renderSvg(vm, layout, { caption: req.caption, captionText: figureCaption(req.model, req.design) });
@@ -71,7 +70,9 @@ function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
   }
   const fold = args.options.fold;
   if (fold === true) throw new CliError('--fold needs block keys, e.g. --fold a+b (see loopfold order --json for the blocks)', 2);
-  const folded = typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').map((v) => variableByIdOrLabel(model, v, 'fold')).sort().join('+')) : undefined;
+  // members by id or label; a name that is neither is kept, and the check below lists the blocks there are
+  const member = (v: string) => { try { return variableByIdOrLabel(model, v, 'fold'); } catch { return v.trim(); } };
+  const folded = typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').map(member).sort().join('+')) : undefined;
   if (folded && view !== 'mechanism') checkFoldKeys(folded, model, design);
   return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded };
 }
@@ -98,6 +99,8 @@ export const renderCommand: CliCommand = {
     if (out === undefined) throw new CliError('--out FILE is needed: .svg, .png or .pdf (use --out - to print the SVG)', 2);
     const req = requestFromArgs(args, model);
     const opts = printOptionsOf(args);
+    // ELK is loaded only by the commands that lay out a figure (a quicker start for the others)
+    const [{ figureLayout }, { nodeElk }] = await Promise.all([import('../../layout/figure'), import('../../layout/node')]);
     const fig = await printView(req, opts, (vm) => figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined));
     await writeFigure(out, fig, opts, io, String(fig.root.attrs['aria-label'] ?? 'Loopfold figure'));
     return 0;
