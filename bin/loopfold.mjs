@@ -1,4 +1,5 @@
 #!/usr/bin/env node
+/* global process */
 // The `loopfold` command line, started fast: the TypeScript sources are bundled once into
 // .cache/loopfold-cli/ (esbuild, about a second) and the bundle is run; the bundle is made again
 // whenever a source file is newer than it, so a fresh clone after `npm ci` and every edit of
