@@ -13,7 +13,7 @@ import type { StudyDesign } from '../../core/ordering/types';
 import { mechanismView, nodeSize, orderingView } from '../../core/view/derive';
 import type { ViewMode, ViewModel } from '../../core/view/types';
 import { MARGIN, type Layout } from '../../layout/types';
-import { studyCaption } from '../caption';
+import { viewCaption } from '../caption';
 import { buildScene, type El } from '../scene';
 import { stackInstants, wrapRows } from './adapt';
 import { DEFAULT_FONT_PT, MIN_TEXT_PT, widthPt, widthText, type PrintOptions } from './options';
@@ -112,7 +112,8 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
       }
     }
   }
-  const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : studyCaption(req.model, req.design))) : opts.caption;
+  // the caption adds what the title does not say (the title names the interval and the study)
+  const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
   let root = buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room });
   root = finish(root, opts);
   const smallestPt = smallestTextPt(root, opts.width);
