@@ -13,6 +13,8 @@ import { renderSvg } from '../../export/svg';
 import { drawnPositions } from '../../layout/instant';
 import { durationOption, loadModel, variableByIdOrLabel } from '../load';
 import { printView } from '../../export/print/figure';
+import { printMultiples } from '../../export/print/multiples';
+import { parseDuration } from '../../core/model/units';
 import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from '../output/write';
 import { parseHoldOption } from './interventions';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -46,6 +48,13 @@ export async function renderFigure(req: RenderRequest): Promise<string> {
   const vm = renderView(req);
   const layout = await figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
   return renderSvg(vm, layout, { caption: req.caption, captionText: figureCaption(req.model, req.design) });
+}
+
+/** A comma-separated list option. */
+function listOption(args: CliArgs, name: string, example: string): string[] {
+  const v = args.options[name];
+  if (v === true || v === undefined || v.trim() === '') throw new CliError(`--${name} needs a list, e.g. --${name} ${example}`, 2);
+  return v.split(',').map((x) => x.trim()).filter(Boolean);
 }
 
 function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
@@ -91,17 +100,41 @@ function checkFoldKeys(keys: string[], model: Model, design: StudyDesign): void 
 export const renderCommand: CliCommand = {
   name: 'render',
   summary: 'write the figure of a view at a sampling interval as SVG, PNG or PDF (the same as the app exports)',
-  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
-  options: { interval: true, window: true, samples: true, view: true, caption: false, fold: true, hold: true, ...PRINT_OPTIONS },
+  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--at D1,D2,… [--columns N]] [--focus x,y] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
+  options: { interval: true, window: true, samples: true, view: true, caption: false, fold: true, hold: true, at: true, columns: true, focus: true, ...PRINT_OPTIONS },
   async run(args, io) {
     const model = loadModel(args, io);
     const out = outTarget(args);
     if (out === undefined) throw new CliError('--out FILE is needed: .svg, .png or .pdf (use --out - to print the SVG)', 2);
-    const req = requestFromArgs(args, model);
+    const multiples = args.options.at !== undefined;
+    if (multiples && args.options.interval !== undefined) throw new CliError('give either --interval (one figure) or --at (one panel per interval), not both', 2);
+    const req = requestFromArgs(multiples ? { ...args, options: { ...args.options, interval: '1' } } : args, model);
     const opts = printOptionsOf(args);
+    const focus = args.options.focus === undefined ? undefined : listOption(args, 'focus', 'stress,mood').map((v) => variableByIdOrLabel(model, v, 'focus'));
+    if (focus && req.view === 'mechanism') throw new CliError('--focus summarises an ordering: use it with --view ordering or unrolled', 2);
     // ELK is loaded only by the commands that lay out a figure (a quicker start for the others)
     const [{ figureLayout }, { nodeElk }] = await Promise.all([import('../../layout/figure'), import('../../layout/node')]);
-    const fig = await printView(req, opts, (vm) => figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined));
+    const layoutOf = (vm: ViewModel) => figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
+    let fig;
+    if (multiples) {
+      if (req.view === 'mechanism') throw new CliError('--at draws the ordering (or --view unrolled) at each interval; the mechanism has no interval', 2);
+      if (focus) throw new CliError('--focus and --at cannot be combined; draw the summary at one --interval', 2);
+      const intervals = listOption(args, 'at', '"10 min,3h,1 day,4 weeks"').map((t) => {
+        const d = parseDuration(t, model.timeUnit);
+        if (!d.ok) throw new CliError(`--at: ${d.message}`, 2);
+        return d.value;
+      });
+      if (intervals.length < 2) throw new CliError('--at needs two intervals or more, e.g. --at "10 min,3h,1 day,4 weeks"', 2);
+      const c = args.options.columns;
+      const columns = c === undefined ? undefined : Number(c);
+      if (columns !== undefined && !(Number.isInteger(columns) && columns >= 1)) throw new CliError(`--columns must be a whole number of at least 1, not "${String(c)}"`, 2);
+      const { interval: _ignored, ...rest } = req.design;
+      void _ignored;
+      fig = await printMultiples({ model, intervals, design: rest, view: req.view === 'unrolled' ? 'unrolled' : 'ordering', columns, caption: req.caption }, opts, layoutOf);
+    } else {
+      if (args.options.columns !== undefined) throw new CliError('--columns lays out the panels of --at', 2);
+      fig = await printView(req, opts, layoutOf, focus);
+    }
     await writeFigure(out, fig, opts, io, String(fig.root.attrs['aria-label'] ?? 'Loopfold figure'));
     return 0;
   },

@@ -16,6 +16,7 @@ import { MARGIN, type Layout } from '../../layout/types';
 import { viewCaption } from '../caption';
 import { buildScene, type El } from '../scene';
 import { stackInstants, wrapRows } from './adapt';
+import { foldedAwayFrom, summaryView } from './summary';
 import { DEFAULT_FONT_PT, MIN_TEXT_PT, widthPt, widthText, type PrintOptions } from './options';
 import { fontSizes, minusSigns, recolour, sized, smallestTextPt, withBackground } from './transform';
 
@@ -85,24 +86,43 @@ export function finish(root: El, opts: PrintOptions): El {
  * A view drawn for print. `layoutOf` lays out a view model (ELK in Node or in a worker); `drawn` gives
  * the mechanism's positions as the modeller drew them.
  */
-export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: (vm: ViewModel) => Promise<Layout>): Promise<PrintedFigure> {
-  const notes: string[] = [];
+export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: (vm: ViewModel) => Promise<Layout>, focus?: readonly string[]): Promise<PrintedFigure> {
   const scale = targetScale(opts.fontSize ?? DEFAULT_FONT_PT, SCENE_MAIN, SCENE_MIN);
   const room = opts.width ? widthPt(opts.width) / scale : undefined;
-  let vm = viewOf(req);
+  const { vm, layout, notes } = await adaptedView(req, room, layoutOf, opts.width ? widthText(opts.width) : '', focus);
+  // the caption adds what the title does not say (the title names the interval and the study)
+  const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
+  let root = buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room });
+  root = finish(root, opts);
+  const smallestPt = smallestTextPt(root, opts.width);
+  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the figure does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset or fold blocks`);
+  return { root, notes, smallestPt };
+}
+
+/**
+ * The view of a request laid out to fit `room` drawing units where it can: the three instants stacked,
+ * then every block folded, then the rows wrapped. `focus`: the summary of a big model (see summaryView).
+ */
+export async function adaptedView(req: ViewRequest, room: number | undefined, layoutOf: (vm: ViewModel) => Promise<Layout>, at: string, focus?: readonly string[]): Promise<{ vm: ViewModel; layout: Layout; notes: string[] }> {
+  const notes: string[] = [];
+  const view = (folded?: string[]) => {
+    const v = viewOf(req, folded);
+    return focus ? summaryView(v, focus) : v;
+  };
+  let vm = focus ? view(foldedAwayFrom(viewOf(req), focus)) : view();
+  if (focus) notes.push(`summary: ${focus.join(', ')} and their neighbours; the other blocks folded, the rest left out`);
   let layout = await layoutOf(vm);
   if (room !== undefined && layout.width > room) {
-    const at = widthText(opts.width!);
     if (vm.mode === 'unrolled') {
       layout = stackInstants(vm, layout, room);
       notes.push(`the three instants are stacked top to bottom to fit ${at}`);
     }
     if (layout.width > room && vm.groups.length > 0) {
-      const all = [...new Set([...(req.folded ?? []), ...vm.groups.map((g) => g.key)])];
-      vm = narrowFoldedCards(viewOf(req, all), room);
+      const all = [...new Set([...(req.folded ?? []), ...vm.folded, ...vm.groups.map((g) => g.key)])];
+      vm = narrowFoldedCards(view(all), room);
       layout = await layoutOf(vm);
       if (vm.mode === 'unrolled') layout = stackInstants(vm, layout, room);
-      notes.push(`${all.length === 1 ? 'the simultaneous block is' : `all ${all.length} simultaneous blocks are`} folded to fit ${at}`);
+      notes.push(`${vm.groups.length + vm.folded.length === 1 ? 'the simultaneous block is' : 'the simultaneous blocks are'} folded to fit ${at}`);
     }
     if (layout.width > room && vm.mode !== 'unrolled') {
       const wrapped = wrapRows(vm, layout, room);
@@ -112,13 +132,7 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
       }
     }
   }
-  // the caption adds what the title does not say (the title names the interval and the study)
-  const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
-  let root = buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room });
-  root = finish(root, opts);
-  const smallestPt = smallestTextPt(root, opts.width);
-  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the figure does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset or fold blocks`);
-  return { root, notes, smallestPt };
+  return { vm, layout, notes };
 }
 
 /**
