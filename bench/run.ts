@@ -10,6 +10,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'canvas', file: './canvas.ts', fn: 'benchCanvas' },
   { name: 'bands', file: './bands.ts', fn: 'benchBands' },
   { name: 'cli', file: './cli.ts', fn: 'benchCli' },
+  { name: 'undersample', file: './undersample.ts', fn: 'benchUndersample' },
 ];
 
 const wanted = process.argv.slice(2);

@@ -37,6 +37,7 @@ export interface ReportOptions {
 
 import { htmlEscape } from './html-escape';
 import { trajectoryChart } from './chart';
+import { designAxis } from '../core/study/convert';
 
 export { htmlEscape };
 
@@ -167,8 +168,9 @@ function numbersSection(model: Model): string {
 }
 
 /** Durations of the model file as written ("3h") or in the model's unit. */
-function durationText(model: Model, d: number | string | undefined): string {
+function durationText(model: Model, d: number | string | { low: number | string; high: number | string } | undefined): string {
   if (d === undefined) return '—';
+  if (typeof d === 'object') return `${durationText(model, d.low)} to ${durationText(model, d.high)}`;
   return typeof d === 'number' ? formatDuration(d, model.timeUnit) : d;
 }
 
@@ -233,7 +235,7 @@ function effectSection(model: Model, hold: Record<string, number>): string {
  */
 export async function buildReport(model: Model, options: ReportOptions = {}): Promise<string> {
   const e = htmlEscape;
-  const axis = options.window !== undefined ? { window: options.window } : { samples: options.samples ?? model.settings?.samples };
+  const axis = designAxis(model, options);
   const bps = breakpoints(model, axis);
   const bds = bands(model, axis);
   const parts: string[] = [];

@@ -8,6 +8,8 @@ import { lazy, Suspense } from 'react';
 
 // The Numbers pane and its worker load only when the tab is first opened.
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
+const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
+const StepsPane = lazy(() => import('./undersample/StepsPane'));
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
@@ -15,6 +17,8 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'timescales', name: 'Timescales' },
   { id: 'intervene', name: 'Intervene' },
   { id: 'numbers', name: 'Numbers' },
+  { id: 'pictures', name: 'Pictures' },
+  { id: 'steps', name: 'Steps' },
 ];
 
 /** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
@@ -65,6 +69,12 @@ export function RightPane() {
             <NumbersPane />
           </Suspense>
         )}
+        {pane === 'pictures' && (
+          <Suspense fallback={<p className="lf-pic-note">Loading the pictures…</p>}>
+            <PicturesPane />
+          </Suspense>
+        )}
+        {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}
       </div>
     </aside>
   );

@@ -2,7 +2,7 @@
 import { formatDuration } from '../../core/model/units';
 import { breakpoints } from '../../core/ordering/index';
 import { linkCurveChart } from '../../export/charts';
-import { adviceOf, curveOf } from '../../worker/numericApi';
+import { adviceOf, curveOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
 import { variableByIdOrLabel } from '../load';
 import { loadModel } from '../load';

@@ -1,0 +1,81 @@
+import { execFileSync } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { expect, test } from '@playwright/test';
+
+function cli(args: string[]): { directed: [string, string][]; bidirected: [string, string][]; count?: number } {
+  return JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', ...args, '--json'], { encoding: 'utf8' }));
+}
+
+const graphFile = (x: unknown) => ({ name: 'graph.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(x)) });
+
+test('Steps tab: the lake measured every u-th step, as the command line gives it; the search back, with cancel', async ({ page }, testInfo) => {
+  // The command line runs beside the browser: on a shared machine both take their time.
+  test.setTimeout(300_000);
+  const want = cli(['undersample', 'src/examples/lake.json', '--rate', '3']);
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=lake');
+  await page.getByRole('tab', { name: 'Steps' }).click();
+  const pane = page.getByTestId('steps-pane');
+  const figure = page.getByTestId('steps-figure');
+  await expect(figure).toHaveAttribute('data-rate', '2');
+  await expect(figure.locator('svg')).toBeVisible();
+  await page.screenshot({ path: testInfo.outputPath('steps-lake-u2-1440.png') });
+
+  // One step up with the + button: u = 3, the same edges as `loopfold undersample --rate 3`.
+  await pane.getByRole('button', { name: 'Measure less often (u + 1)' }).click();
+  await expect(figure).toHaveAttribute('data-rate', '3');
+  const drawn = await figure.locator('[data-edge]').evaluateAll((els) => els.map((e) => e.getAttribute('data-edge')!));
+  const names = (p: [string, string], arrow: string) => `${p[0]}${arrow}${p[1]}`;
+  expect(drawn.sort()).toEqual([...want.directed.map((p) => names(p, '>')), ...want.bidirected.map((p) => names(p, '<>'))].sort());
+  await expect(page.getByTestId('steps-reasons')).toContainText('appears at u = 3');
+  // The slider takes the keyboard too.
+  const slider = pane.getByRole('slider', { name: 'Measured every u-th step' });
+  await slider.focus();
+  await page.keyboard.press('ArrowLeft');
+  await expect(figure).toHaveAttribute('data-rate', '2');
+
+  // Any u ≤ 8 for the six lake variables runs the solver long enough to be stopped.
+  await pane.getByLabel(/at any u ≤ 8/).check();
+  await pane.getByRole('button', { name: 'Find causal graphs' }).click();
+  await expect(page.getByTestId('steps-progress')).toBeVisible();
+  await page.screenshot({ path: testInfo.outputPath('steps-searching-1440.png') });
+  await pane.getByRole('button', { name: 'Cancel' }).click();
+  await expect(pane.getByText('The search was stopped.')).toBeVisible();
+
+  // A causal-step graph from a file: the chain 1 → 2 → 3 at u = 2; the search back finds as many graphs as the command line.
+  await pane.locator('input[type=file]').setInputFiles(graphFile({ format: 'loopfold-graph', version: 1, name: 'Three-step chain', variables: 3, directed: [[1, 2], [2, 3]] }));
+  await expect(pane).toContainText('a causal-step graph from a file');
+  await expect(page.getByTestId('steps-summary')).toContainText('1 directed and 0 bidirected edges');
+  await pane.getByLabel(/at u = 2/).check();
+  await pane.getByRole('button', { name: 'Find causal graphs' }).click();
+  const result = page.getByTestId('steps-result');
+  await expect(result).toBeVisible();
+  await expect(result).toContainText(/gives? this measured graph/);
+  const chainFile = testInfo.outputPath('chain.json');
+  writeFileSync(chainFile, JSON.stringify({ format: 'loopfold-graph', version: 1, variables: 3, directed: [[1, 3]] }));
+  await expect(result).toHaveAttribute('data-count', String(cli(['unsample', chainFile, '--rate', '2']).count));
+  await expect(page.getByTestId('steps-cost')).toContainText('nodes');
+
+  // A measured graph no causal graph gives: said so, with the nearest consistent graphs.
+  await pane.locator('input[type=file]').setInputFiles(graphFile({ format: 'loopfold-graph', version: 1, variables: ['a', 'b', 'c'], directed: [['a', 'a']], bidirected: [['a', 'b'], ['b', 'c'], ['a', 'c']] }));
+  await expect(pane).toContainText('a measured graph from a file');
+  await pane.getByLabel(/at any u ≤ 8/).check();
+  await pane.getByRole('button', { name: 'Find causal graphs' }).click();
+  await expect(result).toContainText('No causal graph at any u ≤ 8 gives this measured graph.');
+  await expect(result).toContainText('common case for graphs estimated from data');
+  await expect(result.locator('li').first()).toContainText('+ a → b');
+  await result.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('steps-no-graph-1440.png') });
+
+  // A bad file loses nothing: the measured graph stays, the message names the field.
+  await pane.locator('input[type=file]').setInputFiles(graphFile({ format: 'loopfold-graph', version: 1, variables: ['a'], directed: [['a', 'z']] }));
+  await expect(pane.getByRole('alert')).toContainText('directed[0][1] no variable "z"');
+  await expect(pane).toContainText('a measured graph from a file');
+
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await pane.getByRole('button', { name: 'Use the sketch' }).click();
+  await expect(figure).toHaveAttribute('data-rate', '2');
+  await page.screenshot({ path: testInfo.outputPath('steps-lake-1024.png') });
+  expect(errors).toEqual([]);
+});
