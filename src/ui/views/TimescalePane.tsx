@@ -13,7 +13,7 @@ import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
 import { useAnalysisState } from '../../state/analysis';
-import { studyCaption } from '../../export/caption';
+import { viewCaption } from '../../export/caption';
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
@@ -80,7 +80,6 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval">{problem ? <p role="alert">The ordering could not be computed: {problem}</p> : <p>Finding the model's timescales…</p>}</section>;
 
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
-  const caption = studyCaption(model, { interval, ...study });
   const doExport = (kind: 'svg' | 1 | 2 | 4) => {
     const base = model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model';
     if (exportOf === 'mechanism') {
@@ -100,8 +99,10 @@ export function TimescalePaneFor({ model }: { model: Model }) {
       if (!r.ok) { setExportProblem(`The figure could not be exported: ${r.message}`); return; }
       setExportProblem(null);
       const figure = orderingView(model, r.ordering, { mode: view, folded: foldedList, interval, ...study });
-      if (kind === 'svg') await exportSvg(figure, { caption: true, captionText: caption }, name, at);
-      else await exportPng(figure, { caption: true, captionText: caption }, name, kind, at);
+      // the caption says what the title does not: the roles, the blocks and the links (as `loopfold render --caption`)
+      const captionText = viewCaption(figure);
+      if (kind === 'svg') await exportSvg(figure, { caption: true, captionText }, name, at);
+      else await exportPng(figure, { caption: true, captionText }, name, kind, at);
     })();
   };
   return (
