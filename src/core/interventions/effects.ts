@@ -6,7 +6,7 @@
  * confirmation of perfect adaptation: a step in the input, from rest.
  */
 import type { Model, VariableId } from '../model/types';
-import { parseDuration } from '../model/units';
+import { readTimescale } from '../model/timescale';
 import { compareIds } from '../ordering/structure';
 import { orderingAt } from '../ordering/index';
 import { solveEquilibrium } from '../numeric/equilibrium';
@@ -54,8 +54,8 @@ export function longestTimescale(model: Model): number {
   let tau = 0;
   for (const v of model.variables) {
     if (v.kind !== 'state' || v.timescale === undefined) continue;
-    const d = parseDuration(v.timescale, model.timeUnit);
-    if (d.ok) tau = Math.max(tau, d.value);
+    const d = readTimescale(v.timescale, model.timeUnit);
+    if (d.ok) tau = Math.max(tau, d.high);
   }
   return tau > 0 ? tau : 1;
 }

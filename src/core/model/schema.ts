@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { TIME_UNITS, type Model } from './types';
-import { parseDuration } from './units';
+import { readTimescale } from './timescale';
 
 /** One problem found in a model file, located by its JSON path. */
 export interface ModelIssue {
@@ -27,7 +27,11 @@ const variableSchema = z.strictObject(
     kind: z.enum(['input', 'state', 'derived'], { error: 'must be "input", "state" or "derived"' }),
     value: finite('value').optional(),
     initial: finite('initial').optional(),
-    timescale: z.union([z.number(), z.string()], { error: 'must be a number in the model time unit or a duration such as "90 min"' }).optional(),
+    timescale: z
+      .union([z.number(), z.string(), z.strictObject({ low: z.union([z.number(), z.string()]), high: z.union([z.number(), z.string()]) })], {
+        error: 'must be a number in the model time unit, a duration such as "90 min", or a range { "low": "30 min", "high": "3 h" }',
+      })
+      .optional(),
     selfRegulating: z.boolean({ error: 'must be true or false' }).optional(),
     rate: text(4000).optional(),
     formula: text(4000).optional(),
@@ -125,8 +129,8 @@ export function parseModel(json: unknown): ParseResult {
     if (v.kind !== 'input' && v.value !== undefined) issues.push({ path: `${p}.value`, message: `only an input has "value"; "${v.id}" is a ${v.kind} (use "initial" for a state)` });
     if (v.kind !== 'derived' && v.formula !== undefined) issues.push({ path: `${p}.formula`, message: `only a derived variable has "formula"; "${v.id}" is ${v.kind === 'input' ? 'an input' : 'a state (use "rate")'}` });
     if (v.timescale !== undefined) {
-      const d = parseDuration(v.timescale, model.timeUnit);
-      if (!d.ok) issues.push({ path: `${p}.timescale`, message: d.message });
+      const d = readTimescale(v.timescale, model.timeUnit);
+      if (!d.ok) issues.push({ path: `${p}.timescale${d.field ? `.${d.field}` : ''}`, message: d.message });
     }
   });
   (model.relations ?? []).forEach((r2, i) => {

@@ -15,6 +15,12 @@ export type VariableKind = 'input' | 'state' | 'derived';
 export type LinkKind = 'instantaneous' | 'integrating';
 export type LinkSign = '+' | '-';
 
+/** A timescale known only to lie between two durations, low ≤ high (read by `readTimescale` in timescale.ts). */
+export interface TimescaleRange {
+  low: number | string;
+  high: number | string;
+}
+
 export interface Position {
   x: number;
   y: number;
@@ -28,8 +34,11 @@ export interface Variable {
   value?: number;
   /** States: the initial value for simulation. */
   initial?: number;
-  /** States: characteristic response time, a number in timeUnit or a duration such as "90 min". */
-  timescale?: number | string;
+  /**
+   * States: characteristic response time, a number in timeUnit or a duration such as "90 min";
+   * or a range `{ low, high }` when it is only roughly known (point analyses use √(low·high)).
+   */
+  timescale?: number | string | TimescaleRange;
   /** States: whether the rate involves the state itself (a sketch assumes it does). */
   selfRegulating?: boolean;
   /** States: expression for the time derivative. */

@@ -15,7 +15,7 @@
  * Inputs are held at `value` (default 0); states start at `initial` (default 0).
  */
 import type { EquationId, Model, VariableId, VariableKind } from '../model/types';
-import { parseDuration } from '../model/units';
+import { readTimescale } from '../model/timescale';
 import { parseExpression, parseRelation } from '../expr/parse';
 import { compileExpression, type CompiledExpression } from '../expr/compile';
 import { partials } from '../expr/derivative';
@@ -151,8 +151,9 @@ export function buildNumericSystem(model: Model): NumericSystem {
     let tau = 1;
     let given = false;
     if (v.timescale !== undefined) {
-      const d = parseDuration(v.timescale, model.timeUnit);
-      if (d.ok) { tau = d.value; given = true; }
+      // A range counts at its geometric mean √(low·high).
+      const d = readTimescale(v.timescale, model.timeUnit);
+      if (d.ok) { tau = d.point; given = true; }
       else err('timescale', `the timescale of ${v.id}: ${d.message}`, [v.id], []);
     }
     timescales[v.id] = { value: tau, given };

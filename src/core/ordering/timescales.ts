@@ -8,7 +8,8 @@
  * Methods in Control", 1986, ch. 1).
  */
 import { DEFAULT_SAMPLES, DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
-import { formatDuration, parseDuration } from '../model/units';
+import { formatDuration } from '../model/units';
+import { readTimescale } from '../model/timescale';
 import type { Band, Breakpoint, Diagnostic, Role, StudyDesign } from './types';
 import { compareIds } from './structure';
 
@@ -30,8 +31,9 @@ function stateScales(model: Model): StateScale[] {
     .filter((v) => v.kind === 'state')
     .map((v) => {
       if (v.timescale === undefined) return { id: v.id, tau: null, text: '' };
-      const d = parseDuration(v.timescale, model.timeUnit);
-      return { id: v.id, tau: d.ok ? d.value : null, text: typeof v.timescale === 'string' ? v.timescale.trim() : d.ok ? formatDuration(d.value, model.timeUnit) : String(v.timescale) };
+      // A range counts at its geometric mean here (orderingProbabilities draws from the whole range).
+      const d = readTimescale(v.timescale, model.timeUnit);
+      return { id: v.id, tau: d.ok ? d.point : null, text: d.ok ? (d.uncertain ? `≈ ${formatDuration(d.point, model.timeUnit)} (${d.text})` : d.text) : '' };
     })
     .sort((a, b) => compareIds(a.id, b.id));
 }

@@ -3,7 +3,8 @@
  * with respect to the mechanism as drawn, and why, in words a modeller reads.
  */
 import { DEFAULT_SAMPLES, DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
-import { formatDuration, parseDuration } from '../model/units';
+import { formatDuration } from '../model/units';
+import { readTimescale } from '../model/timescale';
 import type { Breakpoint, Ordering, Role, StudyDesign } from './contract';
 import { simultaneousBlocks } from './derive';
 
@@ -15,12 +16,12 @@ export interface ExplanationLine {
   variables: VariableId[];
 }
 
-/** A state's timescale in the model unit, or undefined when it has none (or it is not readable). */
+/** A state's timescale in the model unit (a range's geometric mean), or undefined when it has none (or it is not readable). */
 export function timescaleOf(model: Model, id: VariableId): number | undefined {
   const v = model.variables.find((x) => x.id === id);
   if (v?.timescale === undefined) return undefined;
-  const d = parseDuration(v.timescale, model.timeUnit);
-  return d.ok ? d.value : undefined;
+  const d = readTimescale(v.timescale, model.timeUnit);
+  return d.ok ? d.point : undefined;
 }
 
 /** "A", "A and B", "A, B and C". */

@@ -22,6 +22,7 @@
 import { memo, useCallback, useMemo, useRef, type KeyboardEvent, type MouseEvent, type ReactElement } from 'react';
 import { EdgeLabelRenderer, useStore, useStoreApi, type InternalNode } from '@xyflow/react';
 import type { Link, Model, Variable } from '../../core/model/types';
+import { timescaleText } from '../../core/model/timescale';
 import { ACCUMULATOR_FLOOR, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, ROLE_STYLE, shapePath } from '../../theme/visual';
 import { selectionStore, useSelection } from '../../state/selection';
 import { headPath, linkPath, type Box } from './geometry';
@@ -137,7 +138,7 @@ const captionMeasure = fontMeasure(`${CAPTION_PX}px ${FONT_STACK}`, CAPTION_PX, 
 
 /** What a variable's box says: its name and, below it, its kind (a state with its timescale). */
 export function variableCaption(v: Variable): string {
-  return v.kind === 'state' && v.timescale !== undefined ? `state · τ ${String(v.timescale)}` : KIND_CAPTION[v.kind];
+  return v.kind === 'state' && v.timescale !== undefined ? `state · τ ${timescaleText(v.timescale)}` : KIND_CAPTION[v.kind];
 }
 
 /**

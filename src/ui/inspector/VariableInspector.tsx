@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import type { Model, Variable, VariableKind } from '../../core/model/types';
-import { parseDuration, formatDuration } from '../../core/model/units';
+import { formatDuration } from '../../core/model/units';
+import { parseTimescaleText, readTimescale, timescaleText } from '../../core/model/timescale';
 import { isReservedName } from '../../core/expr/parse';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
@@ -108,15 +109,18 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
           />
           <CheckedField
             label="Timescale τ"
-            value={v.timescale === undefined ? '' : String(v.timescale)}
+            value={v.timescale === undefined ? '' : timescaleText(v.timescale)}
             check={(t) => {
               if (t.trim() === '') return null;
-              const d = parseDuration(t, model.timeUnit);
+              const d = parseTimescaleText(t, model.timeUnit);
               return d.ok ? null : d.message;
             }}
-            commit={(t) => update('timescale', { timescale: t.trim() === '' ? undefined : t.trim() })}
+            commit={(t) => {
+              const d = t.trim() === '' ? null : parseTimescaleText(t, model.timeUnit);
+              update('timescale', { timescale: d === null ? undefined : d.ok ? d.value : t.trim() });
+            }}
             onBlur={stop}
-            placeholder={`e.g. 90 min, 2 days (bare numbers in ${model.timeUnit})`}
+            placeholder={`e.g. 90 min, 2 days, or a range 30 min..3 h (bare numbers in ${model.timeUnit})`}
             hint={timescaleHint(v, model)}
           />
           <CheckedField label="Initial value" value={v.initial === undefined ? '' : String(v.initial)} check={numberCheck} commit={(t) => update('initial', { initial: toNumber(t) })} onBlur={stop} />
@@ -163,10 +167,11 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
 }
 
 function timescaleHint(v: Variable, model: Model): string {
-  if (v.timescale === undefined) return 'How fast the state responds, such as "90 min" or "2 days".';
-  const d = parseDuration(v.timescale, model.timeUnit);
+  if (v.timescale === undefined) return 'How fast the state responds, such as "90 min" or "2 days"; a range such as "30 min..3 h" when only roughly known.';
+  const d = readTimescale(v.timescale, model.timeUnit);
   if (!d.ok) return '';
-  const words = formatDuration(d.value, model.timeUnit);
-  const inUnit = `${+d.value.toPrecision(4)} ${model.timeUnit}`;
-  return words === inUnit ? `= ${words}` : `= ${words} (${inUnit})`;
+  const words = formatDuration(d.point, model.timeUnit);
+  const inUnit = `${+d.point.toPrecision(4)} ${model.timeUnit}`;
+  const point = words === inUnit ? `= ${words}` : `= ${words} (${inUnit})`;
+  return d.uncertain ? `a range: ${formatDuration(d.low, model.timeUnit)} to ${formatDuration(d.high, model.timeUnit)}; single-value analyses use its geometric mean ${point.slice(2)}` : point;
 }
