@@ -46,6 +46,8 @@ export function normalQuantile(p: number): number {
   if (!(p >= 0 && p <= 1)) return NaN;
   if (p === 0) return -Infinity;
   if (p === 1) return Infinity;
+  // The upper half by symmetry: 1 − p is exact there (Sterbenz), and the lower tail keeps its relative accuracy.
+  if (p > 0.5) return -normalQuantile(1 - p);
   const a = [-3.969683028665376e1, 2.209460984245205e2, -2.759285104469687e2, 1.38357751867269e2, -3.066479806614716e1, 2.506628277459239];
   const b = [-5.447609879822406e1, 1.615858368580409e2, -1.556989798598866e2, 6.680131188771972e1, -1.328068155288572e1];
   const c = [-7.784894002430293e-3, -3.223964580411365e-1, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];
