@@ -9,6 +9,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'layout', file: './layout.ts', fn: 'benchLayout' },
   { name: 'canvas', file: './canvas.ts', fn: 'benchCanvas' },
   { name: 'bands', file: './bands.ts', fn: 'benchBands' },
+  { name: 'cli', file: './cli.ts', fn: 'benchCli' },
   { name: 'undersample', file: './undersample.ts', fn: 'benchUndersample' },
 ];
 

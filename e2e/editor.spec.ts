@@ -52,6 +52,7 @@ test.describe('editing a model on the canvas', () => {
     await inspector.getByLabel('Label', { exact: true }).fill('Soil water');
     await inspector.getByRole('radio', { name: /State/ }).check();
     await inspector.getByLabel('Timescale τ').fill('2 days');
+    await inspector.getByLabel('Timescale τ').press('Enter');
     await expect(inspector.getByText('= 2 days (48 h)')).toBeVisible();
 
     // 3. third variable with the keyboard shortcut N (focus on the canvas, not in a field)
@@ -95,6 +96,7 @@ test.describe('editing a model on the canvas', () => {
     await page.locator('.react-flow__node[data-id="fungalRisk"]').click();
     const formula = inspector.getByLabel('Formula', { exact: true });
     await formula.fill('leafWetness * (0.5 + ');
+    await formula.press('Enter'); // stored as written; the Checks and the badge report it
     await expect(inspector.getByRole('alert')).toContainText('syntax error');
     await expect(inspector.locator('.lf-caret')).toBeVisible();
     await expect(page.locator('.react-flow__node[data-id="fungalRisk"] .lf-badge.is-error')).toBeVisible();
@@ -104,8 +106,8 @@ test.describe('editing a model on the canvas', () => {
     await formula.fill('leafWetness * (0.5 + soilWater)');
     await expect(inspector.getByRole('alert')).toHaveCount(0);
     await expect(inspector.getByRole('button', { name: 'Soil water', exact: true })).toBeVisible(); // symbols used, as links
-    await expect(page.locator('.react-flow__node[data-id="fungalRisk"] .lf-badge.is-error')).toHaveCount(0);
     await formula.blur();
+    await expect(page.locator('.react-flow__node[data-id="fungalRisk"] .lf-badge.is-error')).toHaveCount(0);
     await shot(page, testInfo.outputPath('04-formula-fixed.png'));
 
     // 7. undo and redo from the keyboard: typing the formula was one step
@@ -199,6 +201,7 @@ test.describe('editing a model on the canvas', () => {
     await eq.fill('rumination * 2 = mood +');
     await expect(inspector.getByRole('alert')).toContainText('syntax error');
     await eq.fill('rumination * 2 = mood + coping');
+    await eq.press('Enter');
     await expect(inspector.getByRole('alert')).toHaveCount(0);
     // one dotted member line per variable of the relation
     await expect(page.locator('.lf-member')).toHaveCount(3);

@@ -100,6 +100,7 @@ test.describe('files and share links', () => {
     await expect(nodes(page)).toHaveCount(1);
     await page.locator('.react-flow__node[data-id="stock"]').click();
     await page.locator('.lf-inspector').getByLabel('Label', { exact: true }).fill('Stock on hand');
+    await page.locator('.lf-inspector').getByLabel('Label', { exact: true }).press('Enter');
     await expect(page.locator('.lf-dirty')).toBeVisible();
     await shot(page, testInfo.outputPath('unsaved.png'));
     const asked = new Promise<string>((resolve) => page.once('dialog', (d) => { resolve(d.type()); void d.accept(); }));

@@ -13,6 +13,8 @@ has_py networkx || need_apt="$need_apt python3-networkx"
 # statsmodels and scikit-learn: oracles for fits and factor analysis; Debian installs them for /usr/bin/python3 only
 /usr/bin/python3 -c "import statsmodels" 2>/dev/null || need_apt="$need_apt python3-statsmodels"
 /usr/bin/python3 -c "import sklearn" 2>/dev/null || need_apt="$need_apt python3-sklearn"
+# pdftoppm: the print tests turn the figures' PDF files into pixels to compare them with Chromium's rendering
+command -v pdftoppm >/dev/null || need_apt="$need_apt poppler-utils"
 fc-list 2>/dev/null | grep -qi dejavu || need_apt="$need_apt fonts-dejavu-core"
 if [ -n "$need_apt" ]; then
   apt-get update -qq

@@ -5,6 +5,7 @@ import { openInitialDocument, startAutosave } from './ui/startup';
 import { startAnalysis } from './state/analysis';
 import { createAppCoreClient } from './worker/transport';
 import { documentStore } from './state/document';
+import { startSelectionPruning } from './state/selection';
 import type { Model } from './core/model/types';
 import { parseModel } from './core/model/schema';
 
@@ -18,6 +19,7 @@ declare global {
 async function start() {
   await openInitialDocument();
   startAutosave();
+  startSelectionPruning(documentStore);
   startAnalysis(createAppCoreClient());
   window.__loopfold = {
     load: (m) => {

@@ -1,45 +1,44 @@
 /**
- * `--svg FILE` for the commands that draw a chart or a network (`simulate`,
- * `sampled`, `curves`): the file the app's Numbers pane exports for the same
- * inputs, from the same builders in `src/export/charts.ts`.
+ * `--out FILE` for the commands that draw a chart or a network (`simulate`,
+ * `sampled`, `curves`): the figure the app's Numbers pane exports for the
+ * same inputs, from the same builders in `src/export/charts.ts`, made ready
+ * for print (`src/export/print/`) and written as SVG, PNG or PDF by the
+ * file's extension. `--svg FILE` is the older name of `--out FILE`.
  */
 import type { Model } from '../core/model/types';
 import { studyCaption, type StudyAt } from '../export/caption';
 import type { FigureOptions } from '../export/charts';
+import { printChart } from '../export/print/figure';
 import type { El } from '../export/scene';
-import { svgDocument } from '../export/svg';
+import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from './output/write';
 import { CliError, type CliArgs, type CliIO } from './commands/types';
 
-/** The options every figure-drawing command takes. */
-export const figureOptions = { svg: true, caption: false } as const;
+/** The options every chart-drawing command takes. */
+export const figureOptions = { svg: true, caption: false, ...PRINT_OPTIONS } as const;
 
-/** Where --svg goes ('-' prints it), or undefined without --svg; options that only shape the figure need --svg. */
+/** Where the figure goes ('-' prints the SVG), or undefined without --out; options that only shape the figure need --out. */
 export function svgTarget(args: CliArgs, figureOnly: string[]): string | undefined {
-  const v = args.options.svg;
-  if (v === true || v === '') throw new CliError('--svg needs a file name, e.g. --svg figure.svg (--svg - prints the SVG)', 2);
-  if (v === undefined) {
-    const stray = ['caption', ...figureOnly].find((o) => args.options[o] !== undefined);
-    if (stray) throw new CliError(`--${stray} shapes the figure: give --svg FILE too`, 2);
-  }
-  return v;
+  return outTarget(args, ['caption', ...figureOnly]);
 }
 
-/** Heading always; the caption (interval and study length) with --caption. */
+/** Title (unless --no-title); the caption: --caption-text, or with --caption the interval and study length. */
 export function figureOptionsOf(args: CliArgs, model: Model, study: StudyAt): FigureOptions {
-  if (args.options.caption !== true) return { heading: true };
+  const heading = args.options['no-title'] !== true;
+  const text = args.options['caption-text'];
+  if (typeof text === 'string') return { heading, caption: text };
+  if (args.options.caption !== true) return { heading };
   const caption = studyCaption(model, study);
   if (caption === undefined) throw new CliError('--caption states the sampling interval and the study length: give --interval too', 2);
-  return { heading: true, caption };
+  return { heading, caption };
 }
 
-/** Write the figure to `target` (or print it for '-'); reports the file on stderr. */
-export function writeSvg(target: string, figure: El, io: CliIO): void {
-  const svg = svgDocument(figure);
-  if (target === '-') { io.out(svg); return; }
-  try {
-    io.writeFile(target, svg);
-  } catch (e) {
-    throw new CliError(`cannot write ${target}: ${(e as Error).message}`);
-  }
-  io.err(`wrote ${target} (${new TextEncoder().encode(svg).length} bytes)`);
+/** Did the command line ask for the table too (it goes to stdout only on request when a figure is written)? */
+export function tableWanted(args: CliArgs): boolean {
+  return args.options.table === true || args.options.json === true || args.options.csv === true;
+}
+
+/** Write a chart or network to `target` in the format its extension names; notes and the size go to stderr. */
+export async function writeSvg(target: string, figure: El, io: CliIO, args?: CliArgs): Promise<void> {
+  const opts = args ? printOptionsOf(args) : { dpi: 300, textAsPaths: false };
+  await writeFigure(target, printChart(figure, opts), opts, io, String(figure.attrs['aria-label'] ?? 'Loopfold figure'));
 }

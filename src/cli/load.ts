@@ -36,3 +36,17 @@ export function durationOption(args: CliArgs, name: string, model: Model): numbe
   if (!d.ok) throw new CliError(`--${name}: ${d.message}`, 2);
   return d.value;
 }
+
+/**
+ * A variable named on the command line by its id or its label (ids first; a label is matched ignoring case
+ * and spaces at the ends). Unknown or ambiguous names are errors that list the variables.
+ */
+export function variableByIdOrLabel(model: Model, name: string, option: string): string {
+  if (model.variables.some((v) => v.id === name)) return name;
+  const norm = (s: string) => s.trim().toLowerCase();
+  const hits = model.variables.filter((v) => v.label !== undefined && norm(v.label) === norm(name));
+  if (hits.length === 1) return hits[0].id;
+  const list = model.variables.map((v) => (v.label && v.label !== v.id ? `${v.id} ("${v.label}")` : v.id)).join(', ');
+  if (hits.length > 1) throw new CliError(`--${option}: "${name}" is the label of ${hits.length} variables (${hits.map((h) => h.id).join(', ')}); give the id`, 2);
+  throw new CliError(`--${option}: the model has no variable "${name}" (variables: ${list})`, 2);
+}

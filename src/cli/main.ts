@@ -6,5 +6,6 @@ const code = await runCli(process.argv.slice(2), {
   err: (t) => process.stderr.write(t.endsWith('\n') ? t : `${t}\n`),
   readFile: (p) => readFileSync(p, 'utf8'),
   writeFile: (p, c) => writeFileSync(p, c),
+  writeBytes: (p, c) => writeFileSync(p, c),
 });
 process.exitCode = code;

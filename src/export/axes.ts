@@ -52,10 +52,10 @@ export function extent(values: Iterable<number>): [number, number] {
   return [lo - pad, hi + pad];
 }
 
-/** Tick label: short, no floating-point noise. */
+/** Tick label: short, no floating-point noise, minus as U+2212 (the one minus sign of every figure). */
 export function tickText(x: number): string {
   if (x === 0) return '0';
   const a = Math.abs(x);
-  if (a >= 1e5 || a < 1e-3) return x.toExponential(0).replace('e+', 'e');
-  return String(Number(x.toPrecision(4)));
+  if (a >= 1e5 || a < 1e-3) return x.toExponential(0).replace('e+', 'e').replace(/-/g, '−');
+  return String(Number(x.toPrecision(4))).replace('-', '−');
 }

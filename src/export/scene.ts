@@ -35,6 +35,8 @@ export interface SceneOptions {
    * the app's view of a big figure. The svg's size and everything outside the figure stay as without it.
    */
   area?: readonly number[];
+  /** The figure's width in its units when printed (legend and caption wrap to it); default: the layout's, at least 560. */
+  width?: number;
 }
 
 const HEADER = 40;
@@ -241,7 +243,7 @@ export const sceneWidth = (layout: Layout): number => Math.ceil(Math.max(layout.
 /** The drawing of a view: a root `<svg>` element tree. */
 export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {}): El {
   const showTitle = opts.title !== false;
-  const width = Math.max(layout.width, MIN_WIDTH);
+  const width = Math.max(layout.width, opts.width ?? MIN_WIDTH);
   const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
   const body: Part[] = [];
   const labels: Part[] = [];

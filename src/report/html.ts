@@ -15,7 +15,10 @@ import type { ViewModel } from '../core/view/types';
 import type { Layout } from '../layout/types';
 import { renderSvg } from '../export/svg';
 import { perfectAdaptation } from '../core/interventions/adaptation';
-import { commutationAt, hasFormulas, interventionEffect, modelNumbers } from '../core/interventions/index';
+import { commutationAt, hasFormulas, interventionEffect } from '../core/interventions/index';
+import { solveEquilibrium, timescalesAt } from '../core/numeric/index';
+import { viewCaption } from '../export/caption';
+import pkg from '../../package.json';
 
 export interface ReportOptions {
   /** A fixed study length W (model time unit). */
@@ -26,8 +29,10 @@ export interface ReportOptions {
   layout?: (vm: ViewModel) => Promise<Layout>;
   /** Interventions to check for commutation in every band. */
   hold?: Record<string, number>;
-  /** The date line printed under the title (left out when absent, so reports compare byte for byte). */
+  /** The date printed under the title (left out when absent, so reports compare byte for byte). */
   generated?: string;
+  /** The tool's version printed under the title (default: the package's). */
+  version?: string;
 }
 
 import { htmlEscape } from './html-escape';
@@ -61,7 +66,10 @@ table{border-collapse:collapse;margin:.5rem 0}td,th{border:1px solid #999;paddin
 .figure svg{max-width:100%;height:auto}.error::before{content:"✖ "}.warning::before{content:"▲ "}
 @media screen{.charts{display:flex;flex-wrap:wrap;gap:.5rem}}.agree::before{content:"= "}.differ::before{content:"≠ "}
 code{font-family:ui-monospace,Menlo,Consolas,monospace;font-size:.9em}
-@media print{body{margin:0;max-width:none}section.band{break-before:page}h2{break-after:avoid}.figure{break-inside:avoid}}
+details.band-details{border-top:1px solid #999;margin:.4rem 0}details.band-details>summary{cursor:pointer;font-weight:600;padding:.3rem 0}
+.held{border:2px solid #8f2d2d;padding:.4rem .8rem;font-weight:600}.num{text-align:right;font-variant-numeric:tabular-nums}
+.summary-page{break-after:page}
+@media print{body{margin:0;max-width:none}h2{break-after:avoid}.figure{break-inside:avoid}}
 `;
 
 function rangeText(model: Model, b: Band): string {
@@ -73,19 +81,35 @@ function rangeText(model: Model, b: Band): string {
   return `${open}${from}, ${to}${close}`;
 }
 
+/** A role in the report's words: a state that keeps moving is "dynamic". */
+const roleWord = (r: string): string => (r === 'state' ? 'dynamic' : r);
+
 function label(model: Model, id: string): string {
   return model.variables.find((v) => v.id === id)?.label ?? id;
+}
+
+/** An equation in the modeller's words: "the formula of Mood", "the rate of Stress", a relation by its text. */
+export function equationWords(model: Model, id: string): string {
+  const m = /^(formula|rate|hold)\((.+)\)$/.exec(id);
+  if (m) return `${m[1] === 'formula' ? 'the formula of' : m[1] === 'rate' ? 'the rate of' : 'the hold of'} ${label(model, m[2])}`;
+  const rel = model.relations?.find((r) => r.id === id);
+  return rel ? `the relation ${rel.equation}` : `the relation ${id}`;
+}
+
+/** Text from the core with equation ids (formula(x), rate(x), hold(x)) put in words. */
+export function withEquationWords(model: Model, text: string): string {
+  return text.replace(/\b(formula|rate|hold)\(([^()\s]+)\)/g, (_m, k: string, v: string) => equationWords(model, `${k}(${v})`));
 }
 
 function orderingTables(model: Model, o: Ordering): string {
   const e = htmlEscape;
   const rows = o.blocks.map((b) => {
     const vars = b.variables.map((v) => `${e(label(model, v))} <span class="sub">(${e(o.roles[v] ?? '')})</span>`).join(', ');
-    const eqs = b.equations.length ? b.equations.map((q) => `<code>${e(q)}</code>`).join(', ') : '<span class="sub">given</span>';
+    const eqs = b.equations.length ? b.equations.map((q) => e(equationWords(model, q))).join('; ') : '<span class="sub">given</span>';
     return `<tr><td>${b.level}</td><td>${vars}</td><td>${eqs}</td><td>${e(b.determination)}</td></tr>`;
   });
-  const within = o.edges.filter((x) => x.kind === 'instantaneous').map((x) => `<li>${e(label(model, x.from))} ${x.simultaneous ? '↔' : '→'} ${e(label(model, x.to))} <span class="sub">by <code>${e(x.equation)}</code></span></li>`);
-  const across = o.edges.filter((x) => x.kind === 'integrating').map((x) => `<li>${e(label(model, x.from))} ⇒ ${e(label(model, x.to))} <span class="sub">across time, by <code>${e(x.equation)}</code></span></li>`);
+  const within = o.edges.filter((x) => x.kind === 'instantaneous').map((x) => `<li>${e(label(model, x.from))} ${x.simultaneous ? '↔' : '→'} ${e(label(model, x.to))} <span class="sub">by ${e(equationWords(model, x.equation))}</span></li>`);
+  const across = o.edges.filter((x) => x.kind === 'integrating').map((x) => `<li>${e(label(model, x.from))} ⇒ ${e(label(model, x.to))} <span class="sub">across time, by ${e(equationWords(model, x.equation))}</span></li>`);
   return [
     '<table><thead><tr><th>level</th><th>variables</th><th>determined by</th><th>determination</th></tr></thead><tbody>',
     ...rows,
@@ -97,14 +121,14 @@ function orderingTables(model: Model, o: Ordering): string {
   ].join('\n');
 }
 
-function diagnosticsList(o: Ordering): string {
+function diagnosticsList(model: Model, o: Ordering): string {
   if (o.diagnostics.length === 0) return '<p class="sub">No diagnostics.</p>';
-  return `<ul>${o.diagnostics.map((d) => `<li class="${d.level}">${htmlEscape(d.message)}</li>`).join('')}</ul>`;
+  return `<ul>${o.diagnostics.map((d) => `<li class="${d.level}">${htmlEscape(withEquationWords(model, d.message))}</li>`).join('')}</ul>`;
 }
 
 function changesAt(model: Model, bp: Breakpoint | undefined): string {
   if (!bp) return '<p class="sub">The start of the interval axis: the ordering of the shortest intervals.</p>';
-  const items = bp.changes.map((c) => `<li><strong>${htmlEscape(label(model, c.variable))}</strong>: ${htmlEscape(c.from)} → ${htmlEscape(c.to)} — ${htmlEscape(c.reason)}</li>`);
+  const items = bp.changes.map((c) => `<li><strong>${htmlEscape(label(model, c.variable))}</strong>: ${htmlEscape(roleWord(c.from))} → ${htmlEscape(roleWord(c.to))} — ${htmlEscape(withEquationWords(model, c.reason))}</li>`);
   return `<p>At ${htmlEscape(formatDuration(bp.interval, model.timeUnit))}${bp.exclusive ? ' (just above it)' : ''}:</p><ul>${items.join('')}</ul>`;
 }
 
@@ -115,25 +139,67 @@ function num(x: number): string {
   return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
 }
 
+/**
+ * The equilibrium and the timescales, computed by the same calls as the `equilibrium` and `timescales`
+ * commands (so the report and the command line agree); a sketch has them too (its links' semantics).
+ */
 function numbersSection(model: Model): string {
   const e = htmlEscape;
-  if (!hasFormulas(model)) return '<p class="sub">The model is a sketch without formulas: no equilibrium values or derived timescales.</p>';
-  const n = modelNumbers(model);
+  const u = model.timeUnit;
   const out: string[] = [];
-  if (n.equilibrium) {
-    out.push('<h3>Equilibrium (every state settled)</h3><table><thead><tr><th>variable</th><th>value</th><th>unit</th></tr></thead><tbody>');
-    for (const v of model.variables) out.push(`<tr><td>${e(v.label ?? v.id)}</td><td>${e(num(n.equilibrium[v.id]))}</td><td>${e(v.unit ?? '')}</td></tr>`);
-    out.push('</tbody></table>');
-  }
-  if (n.timescales) {
-    const u = model.timeUnit;
-    out.push('<h3>Timescales derived at the equilibrium</h3><p class="sub">From the mechanism linearized at the equilibrium: the characteristic time of the mode each state takes most part in, beside the timescale the model gives.</p>');
+  const eq = solveEquilibrium(model);
+  out.push(`<h3>Equilibrium (every state settled)</h3>${hasFormulas(model) ? '' : '<p class="sub">From the sketch: each variable the weighted sum of its sources, each state relaxing to it (the model has no formulas).</p>'}`);
+  out.push('<table><thead><tr><th>variable</th><th>value</th><th>unit</th></tr></thead><tbody>');
+  for (const v of model.variables) out.push(`<tr><td>${e(label(model, v.id))}</td><td class="num" data-equilibrium="${e(v.id)}">${e(num(eq.values[v.id]))}</td><td>${e(v.unit ?? '')}</td></tr>`);
+  out.push('</tbody></table>');
+  if (!eq.ok) out.push(`<p class="warning">The equilibrium was not found for every block.</p>`);
+  if (eq.diagnostics.length) out.push(`<ul>${eq.diagnostics.map((d) => `<li class="${d.level}">${e(withEquationWords(model, d.message))}</li>`).join('')}</ul>`);
+  const ts = timescalesAt(model);
+  out.push('<h3>Timescales at the equilibrium</h3>');
+  if (!ts.ok) out.push(`<p class="warning">${e(ts.reason)}</p>`);
+  else {
+    out.push('<p class="sub">From the mechanism linearised at the equilibrium: the characteristic time 1/|Re λ| of each mode, and for each state the mode it takes most part in (participation factors), beside the timescale the model gives.</p>');
     out.push('<table><thead><tr><th>state</th><th>given</th><th>derived</th><th>share in its mode</th></tr></thead><tbody>');
-    for (const r of n.timescales.perState) out.push(`<tr><td>${e(label(model, r.state))}</td><td>${r.given !== undefined ? e(formatDuration(r.given, u)) : '—'}</td><td>${Number.isFinite(r.derived) ? e(formatDuration(r.derived, u)) : 'none (does not settle)'}</td><td>${e(num(r.share))}</td></tr>`);
+    for (const r of ts.report.perState) out.push(`<tr><td>${e(label(model, r.state))}</td><td>${r.given !== undefined ? e(formatDuration(r.given, u)) : '—'}</td><td data-timescale="${e(r.state)}" data-value="${Number.isFinite(r.derived) ? r.derived : ''}">${Number.isFinite(r.derived) ? e(formatDuration(r.derived, u)) : 'none (does not settle)'}</td><td class="num">${e(num(r.share))}</td></tr>`);
     out.push('</tbody></table>');
-    if (n.timescales.warnings.length) out.push(`<ul>${n.timescales.warnings.map((w) => `<li class="warning">${e(w)}</li>`).join('')}</ul>`);
+    if (ts.warnings.length) out.push(`<ul>${ts.warnings.map((w) => `<li class="warning">${e(withEquationWords(model, w))}</li>`).join('')}</ul>`);
   }
-  if (n.messages.length) out.push(`<ul>${n.messages.map((m) => `<li class="error">${e(m)}</li>`).join('')}</ul>`);
+  return out.join('\n');
+}
+
+/** Durations of the model file as written ("3h") or in the model's unit. */
+function durationText(model: Model, d: number | string | { low: number | string; high: number | string } | undefined): string {
+  if (d === undefined) return '—';
+  if (typeof d === 'object') return `${durationText(model, d.low)} to ${durationText(model, d.high)}`;
+  return typeof d === 'number' ? formatDuration(d, model.timeUnit) : d;
+}
+
+/** The model specification: variables, links, relations, noise and the study design. */
+function specification(model: Model, axis: { window?: number; samples?: number }): string {
+  const e = htmlEscape;
+  const out: string[] = ['<h2>Model specification</h2>'];
+  const noiseOf = (id: string) => model.variables.find((v) => v.id === id)?.noise ?? model.settings?.noise?.[id];
+  out.push(`<h3>Variables (${model.variables.length})</h3><table class="spec" data-spec="variables"><thead><tr><th>name</th><th>id</th><th>kind</th><th>timescale</th><th>formula or rate</th><th>unit</th><th>noise</th></tr></thead><tbody>`);
+  for (const v of model.variables) {
+    const f = v.kind === 'state' ? (v.rate ? `d/dt = ${v.rate}` : v.selfRegulating === false ? 'accumulates its sources' : 'relaxes to its sources') : v.kind === 'derived' ? (v.formula ?? 'weighted sum of its sources') : v.value !== undefined ? `set to ${v.value}` : 'set from outside';
+    const n = noiseOf(v.id);
+    out.push(`<tr><td>${e(label(model, v.id))}</td><td><code>${e(v.id)}</code></td><td>${e(v.kind)}</td><td>${v.kind === 'state' ? e(durationText(model, v.timescale)) : '—'}</td><td>${e(f)}</td><td>${e(v.unit ?? '')}</td><td class="num">${n !== undefined ? e(num(n)) : '—'}</td></tr>`);
+  }
+  out.push('</tbody></table>');
+  out.push(`<h3>Links (${model.links.length})</h3><table class="spec" data-spec="links"><thead><tr><th>from</th><th>to</th><th>acts</th><th>sign</th><th>strength</th></tr></thead><tbody>`);
+  for (const l of model.links) out.push(`<tr><td>${e(label(model, l.from))}</td><td>${e(label(model, l.to))}</td><td>${l.kind === 'integrating' ? 'accumulates over time (lagged)' : 'within the instant'}</td><td>${l.sign === '-' ? '−' : '+'}</td><td class="num">${l.weight !== undefined ? e(num(l.weight)) : '—'}</td></tr>`);
+  out.push('</tbody></table>');
+  if (model.relations?.length) {
+    out.push(`<h3>Relations (${model.relations.length})</h3><ul>${model.relations.map((r) => `<li><code>${e(r.equation)}</code>${r.note ? ` <span class="sub">${e(r.note)}</span>` : ''}</li>`).join('')}</ul>`);
+  }
+  const study = (model as Model & { study?: { interval?: unknown; length?: unknown; persons?: unknown } }).study;
+  const design = [
+    axis.window !== undefined ? `a study of fixed length ${formatDuration(axis.window, model.timeUnit)} at every interval` : `a study of ${axis.samples ?? model.settings?.samples ?? 50} samples at every interval`,
+    `timescale separation k = ${model.settings?.separation ?? 5} (a state settles when its timescale is under Δ/k, freezes when over k times the study length)`,
+    `time unit ${model.timeUnit}`,
+  ];
+  if (study) design.push(`the model file's study: ${e(JSON.stringify(study))}`);
+  out.push(`<h3>Study design</h3><ul>${design.map((d) => `<li>${d.startsWith('the model file') ? d : e(d)}</li>`).join('')}</ul>`);
   return out.join('\n');
 }
 
@@ -174,17 +240,30 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
   const bds = bands(model, axis);
   const parts: string[] = [];
   parts.push(`<h1>${e(model.name)}</h1>`);
-  parts.push(`<p class="sub">How the causal ordering changes with the sampling interval · time unit ${e(model.timeUnit)}${options.generated ? ` · ${e(options.generated)}` : ''}</p>`);
+  parts.push(`<p class="sub">Loopfold ${e(options.version ?? pkg.version)} report: how the causal ordering changes with the sampling interval${options.generated ? ` · ${e(options.generated)}` : ''}</p>`);
+  const held = options.hold && Object.keys(options.hold).length > 0 ? options.hold : undefined;
+  if (held) parts.push(`<p class="held">Held (fixed by an intervention) throughout this report: ${e(Object.entries(held).map(([k, v]) => `${label(model, k)} = ${v}`).join(', '))}. “Frozen” below means constant by slowness; “held” means fixed by the intervention.</p>`);
   if (model.caution) parts.push(`<p class="caution">${e(model.caution)}</p>`);
   if (model.description) parts.push(`<p>${e(model.description)}</p>`);
   parts.push('<p class="sub">The orderings are model-based hypotheses: they say what the model implies at each sampling interval, not what the measured system does.</p>');
+  parts.push(specification(model, axis));
 
-  parts.push('<h2>Bands of the interval axis</h2><table><thead><tr><th>band</th><th>intervals</th><th>settled</th><th>frozen</th><th>dynamic</th></tr></thead><tbody>');
+  parts.push('<div class="summary-page"><h2>The interval axis at a glance</h2>');
+  parts.push('<p class="sub">Settled: fast states at balance at that interval. Frozen: slow states, constant over the study. Dynamic: states that move from one sample to the next.</p>');
+  parts.push('<table><thead><tr><th>band</th><th>intervals</th><th>settled</th><th>frozen</th><th>dynamic</th></tr></thead><tbody>');
   bds.forEach((b, i) => {
     const ids = (r: string) => Object.keys(b.roles).filter((v) => b.roles[v] === r).map((v) => e(label(model, v))).join(', ') || '—';
     parts.push(`<tr><td><a href="#band-${i + 1}">${i + 1}</a></td><td>${e(rangeText(model, b))}</td><td>${ids('settled')}</td><td>${ids('frozen')}</td><td>${ids('state')}</td></tr>`);
   });
   parts.push('</tbody></table>');
+  if (bps.length) {
+    parts.push('<h3>What changes where</h3><ul class="changes">');
+    for (const bp of bps) parts.push(`<li>At ${e(formatDuration(bp.interval, model.timeUnit))}${bp.exclusive ? ' (just above)' : ''}: ${bp.changes.map((c) => `${e(label(model, c.variable))} ${e(roleWord(c.from))} → ${e(roleWord(c.to))}`).join('; ')}</li>`);
+    parts.push('</ul>');
+  }
+  parts.push('</div>');
+  parts.push('<section><h2>Equilibrium and timescales</h2>', numbersSection(model), '</section>');
+  parts.push('<h2>Band by band</h2><p class="sub">Each band opens to its figure, the changes that start it, a reading in words and the ordering as tables.</p>');
 
   if (!options.layout) parts.push('<p class="sub">Figures were left out (no layout engine was given); the orderings are listed as text.</p>');
   for (let i = 0; i < bds.length; i++) {
@@ -193,25 +272,24 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
     const design: StudyDesign = options.window !== undefined ? { interval, window: options.window } : { interval, samples: axis.samples };
     const o = orderingAt(model, design);
     const opening = i === 0 ? undefined : bps.find((p) => p.interval === b.from && Boolean(p.exclusive) === Boolean(b.excludesFrom));
-    parts.push(`<section class="band" id="band-${i + 1}">`);
-    parts.push(`<h2>Band ${i + 1}: intervals ${e(rangeText(model, b))}</h2>`);
+    parts.push(`<details class="band-details"${i === 0 ? ' open' : ''}><summary>Band ${i + 1}: intervals ${e(rangeText(model, b))}</summary><section class="band" id="band-${i + 1}">`);
     parts.push(`<p class="sub">Shown at ${e(formatDuration(interval, model.timeUnit))}, ${e(studyText(model, interval, design.window, design.samples))}.</p>`);
     parts.push('<h3>What changed and why</h3>', changesAt(model, opening));
     if (options.layout) {
       const vm = orderingView(model, o, { mode: 'ordering', interval, window: design.window, samples: design.samples });
       const layout = await options.layout(vm);
-      parts.push(`<div class="figure">${prefixSvgIds(renderSvg(vm, layout, { caption: true }), `b${i + 1}-`)}</div>`);
+      parts.push(`<div class="figure">${prefixSvgIds(renderSvg(vm, layout, { caption: true, captionText: viewCaption(vm) }), `b${i + 1}-`)}</div>`);
     }
-    parts.push('<h3>Reading</h3>', `<ul>${explainOrdering(model, o, design, bps).map((l) => `<li>${e(l.text)}</li>`).join('')}</ul>`);
+    parts.push('<h3>Reading</h3>', `<ul>${explainOrdering(model, o, design, bps).map((l) => `<li>${e(withEquationWords(model, l.text))}</li>`).join('')}</ul>`);
     parts.push('<h3>The ordering</h3>', orderingTables(model, o));
-    parts.push('<h3>Diagnostics</h3>', diagnosticsList(o));
+    parts.push('<h3>Diagnostics</h3>', diagnosticsList(model, o));
     if (options.hold && Object.keys(options.hold).length > 0) {
       const c = commutationAt(model, { ...design, hold: options.hold });
       parts.push('<h3>Holding ' + e(Object.entries(options.hold).map(([k, v]) => `${label(model, k)} = ${v}`).join(', ')) + '</h3>');
       parts.push(`<p class="${c.agree ? 'agree' : 'differ'}">${c.agree ? 'Hold then settle and settle then hold agree.' : 'Hold then settle and settle then hold differ.'}</p>`);
-      parts.push(`<ul>${c.explanation.map((l) => `<li>${e(l)}</li>`).join('')}</ul>`);
+      parts.push(`<ul>${c.explanation.map((l) => `<li>${e(withEquationWords(model, l))}</li>`).join('')}</ul>`);
     }
-    parts.push('</section>');
+    parts.push('</section></details>');
   }
 
   if (options.hold && Object.keys(options.hold).length > 0 && hasFormulas(model)) parts.push('<section><h2>The intervention with the formulas</h2>', effectSection(model, options.hold), '</section>');
@@ -225,7 +303,6 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
   }
   if (pa.unjudged.length) parts.push(`<p class="sub">Not judged (no well-determined equilibrium): ${e(pa.unjudged.map((v) => label(model, v)).join(', '))}.</p>`);
   parts.push('</section>');
-  parts.push('<section><h2>Numbers</h2>', numbersSection(model), '</section>');
 
   return `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n<title>${e(model.name)} — Loopfold report</title>\n<style>${CSS}</style>\n</head>\n<body>\n${parts.join('\n')}\n</body>\n</html>\n`;
 }

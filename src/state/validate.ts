@@ -66,6 +66,10 @@ export function validateModel(model: Model): Validation {
     if (!r.ok) problems.push({ target: v.id, field: v.kind === 'derived' ? 'formula' : 'rate', message: r.error.message, position: r.error.position, unknown: r.error.unknown });
   }
   for (const rel of model.relations ?? []) {
+    if (rel.equation.trim() === '') {
+      problems.push({ target: rel.id, field: 'equation', message: 'no equation yet: write what this relation states, such as a*b = c*d' });
+      continue;
+    }
     const r = parseRelation(rel.equation, known);
     if (!r.ok) problems.push({ target: rel.id, field: 'equation', message: r.error.message, position: r.error.position, unknown: r.error.unknown });
   }

@@ -25,6 +25,7 @@ export function KeysHelp() {
           </div>
         ))}
       </dl>
+      <p className="lf-credit">The canvas is drawn with the xyflow library (MIT licence).</p>
     </details>
   );
 }

@@ -56,15 +56,18 @@ export function addVariable(kind: VariableKind = 'derived', at?: Position): stri
   return id;
 }
 
+/**
+ * A new relation, with its equation left empty: adding a relation never adds
+ * an equation the modeller did not write (a made-up one over-determined the
+ * model). The inspector asks for the equation; the Checks list it until then.
+ */
 export function addRelation(at?: Position): string {
   const m = model();
   const id = freshId('rel', usedIds(m));
   const p = at ?? viewCentre();
-  const ids = m.variables.slice(0, 2).map((v) => v.id);
-  const equation = ids.length === 2 ? `${ids[0]} = ${ids[1]}` : '0 = 0';
-  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x), y: Math.round(p.y) }, relationWidth(equation), 30);
+  const spot = freeSpot(canvasBoxes(m), { x: Math.round(p.x), y: Math.round(p.y) }, relationWidth(''), 30);
   documentStore.getState().stopGesture();
-  editDocument({ type: 'addRelation', relation: { id, equation, position: spot } });
+  editDocument({ type: 'addRelation', relation: { id, equation: '', position: spot } });
   selectionStore.getState().select({ nodes: [id] });
   return id;
 }

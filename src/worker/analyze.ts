@@ -5,7 +5,11 @@
 import type { Model } from '../core/model/types';
 import type { StudyDesign } from '../core/ordering/types';
 import { breakpoints, equationMatching, orderingAt } from '../core/ordering/index';
+import { dynamicsDiagnostics } from '../core/numeric/stability';
 import type { AnalysisResult, CoreApi } from './protocol';
+
+/** Above this many states the live checks skip the eigenvalue checks (the Numbers tab and `loopfold check` still run them). */
+export const LIVE_DYNAMICS_CHECK_STATES = 150;
 
 const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
@@ -19,6 +23,8 @@ export function analyzeModel(model: Model, design: StudyDesign): AnalysisResult 
   const t0 = now();
   try {
     const ordering = orderingAt(model, design);
+    if (!ordering.diagnostics.some((d) => d.level === 'error') && model.variables.filter((v) => v.kind === 'state').length <= LIVE_DYNAMICS_CHECK_STATES)
+      ordering.diagnostics = [...ordering.diagnostics, ...dynamicsDiagnostics(model)];
     const axis = design.window !== undefined ? { window: design.window } : { samples: design.samples };
     const bps = breakpoints(model, axis);
     const matching = equationMatching(model, design);

@@ -26,11 +26,14 @@ async function run(argv: string[]): Promise<{ code: number; out: string[]; err: 
 }
 
 describe('--svg on simulate, sampled and curves', () => {
-  it('simulate --svg writes the chart of the first three states (as the app shows them) and still prints the table', async () => {
-    const r = await run(['simulate', NO_STUDY, '--until', '1 day', '--every', '30 min', '--svg', 'sim.svg']);
+  it('simulate --out writes the chart of the first three states (as the app shows them); the table goes to stdout only with --table', async () => {
+    const r = await run(['simulate', NO_STUDY, '--until', '1 day', '--every', '30 min', '--out', 'sim.svg']);
     expect(r.code, r.err.join('\n')).toBe(0);
-    expect(r.err).toEqual([expect.stringMatching(/^wrote sim\.svg \(\d+ bytes\)$/)]);
-    expect(r.out[0]).toContain('simulation to');
+    expect(r.err).toEqual([`wrote sim.svg (${new TextEncoder().encode(r.files['sim.svg']).length} bytes)`]);
+    expect(r.out).toEqual([]);
+    const withTable = await run(['simulate', NO_STUDY, '--until', '1 day', '--every', '30 min', '--out', 'sim.svg', '--table']);
+    expect(withTable.out[0]).toContain('simulation to');
+    expect(withTable.files['sim.svg']).toBe(r.files['sim.svg']);
     const root = parse(r.files['sim.svg']);
     // the greenhouse's states in file order: air temperature, humidity, soil water, dust (src/examples/greenhouse.json)
     expect(all(root).filter((e) => e.tag === 'polyline').map((e) => e.attrs['data-series'])).toEqual(['airTemp', 'humidity', 'soilWater']);
@@ -98,8 +101,8 @@ describe('--svg on simulate, sampled and curves', () => {
     const sim = ['simulate', GREENHOUSE, '--until', '1 day'];
     const cases: [string[], RegExp][] = [
       [[...sim, '--svg'], /--svg needs a value/],
-      [[...sim, '--svg='], /--svg needs a file name/],
-      [[...sim, '--plot', 'humidity'], /--plot shapes the figure: give --svg FILE too/],
+      [[...sim, '--svg='], /--out needs a file name/],
+      [[...sim, '--plot', 'humidity'], /--plot shapes the figure: give --out FILE too/],
       [[...sim, '--caption'], /--caption shapes the figure/],
       [[...sim, '--svg', 'x.svg', '--plot', 'nowhere'], /--plot: the model has no variable "nowhere"/],
       [[...sim, '--svg', 'x.svg', '--plot', 'sunlight'], /--plot: sunlight is an input/],

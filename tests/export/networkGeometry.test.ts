@@ -10,7 +10,7 @@ import type { Model } from '../../src/core/model/types';
 import { drawnLinks, laggedNetwork, networkDiagram, sameIntervalNetwork } from '../../src/export/charts';
 import type { El } from '../../src/export/scene';
 import { EXAMPLES } from '../../src/examples/index';
-import { sampledOf } from '../../src/worker/numericApi';
+import { sampledOf } from '../../src/core/numeric/answers';
 import { problems, readFigure } from '../helpers/figureGeometry';
 import { seededRandom } from '../helpers/random';
 

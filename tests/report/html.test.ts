@@ -59,15 +59,18 @@ describe('the HTML report', () => {
     expect(htmlEscape(`<a href="x">'&'</a>`)).toBe('&lt;a href=&quot;x&quot;&gt;&#39;&amp;&#39;&lt;/a&gt;');
   });
 
-  it('gives the equilibrium and the derived timescales of a model with formulas, and says a sketch has none', async () => {
+  it('gives the equilibrium and the derived timescales of a model with formulas, and of a sketch too', async () => {
     const html = await buildReport(example('greenhouse'));
     const r = read(html);
-    expect(r.titles).toContain('Numbers');
+    expect(r.titles).toContain('Equilibrium and timescales');
     // Hand-derived from the example's formulas: 0 = (8 − T)/12 + 0.04·2·(21 − T) + 0.3·0.6·(1 − 0.4) ⇒ T = 2.4547/0.163333 = 15.03.
     expect(r.text).toMatch(/Air temperature\s*15\.03/);
-    expect(r.text).toMatch(/Timescales derived at the equilibrium/);
+    expect(r.text).toMatch(/Timescales at the equilibrium/);
     const sketch: Model = { format: 'loopfold-model', version: 1, name: 'Sketch', timeUnit: 'h', variables: [{ id: 'a', kind: 'input' }, { id: 'b', kind: 'derived' }], links: [{ from: 'a', to: 'b', kind: 'instantaneous' }] };
-    expect(read(await buildReport(sketch)).text).toMatch(/sketch without formulas/);
+    // the sketch's semantics: b = 1 · a with the input a at its default value 0 (common practice: v = Σ sign·weight·source)
+    const st = read(await buildReport(sketch)).text;
+    expect(st).not.toMatch(/no equilibrium values/);
+    expect(st).toMatch(/Equilibrium \(every state settled\)/);
   });
 
   it('lists the commutation check of a hold in each band', async () => {
@@ -101,8 +104,9 @@ describe('loopfold report', () => {
     };
     expect(await runCli(['report', 'm.json', '--out', 'r.html', '--no-figures'], io)).toBe(0);
     expect(files['r.html']).toMatch(/^<!DOCTYPE html>/);
-    expect(out[0]).toMatch(/wrote r\.html/);
+    expect(err[0]).toBe(`wrote r.html (${new TextEncoder().encode(files['r.html']).length} bytes)`);
+    expect(out).toEqual([]);
     expect(await runCli(['report', 'm.json'], io)).toBe(2);
-    expect(err[0]).toMatch(/name the output file/);
+    expect(err[1]).toMatch(/name the output file/);
   });
 });

@@ -3,7 +3,8 @@ import { formatDuration } from '../../core/model/units';
 import { breakpoints } from '../../core/ordering/index';
 import { linkCurveChart } from '../../export/charts';
 import { adviceOf, curveOf } from '../../core/numeric/answers';
-import { figureOptions, figureOptionsOf, svgTarget, writeSvg } from '../figure';
+import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
+import { variableByIdOrLabel } from '../load';
 import { loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -32,13 +33,13 @@ function pointsOption(args: CliArgs): number {
 export const curveCommands: CliCommand[] = [
   {
     name: 'curves',
-    summary: 'the lagged effect of one state on another against the sampling interval, with its peak; --svg draws the chart the app exports',
-    usage: 'MODEL.json --from X --to Y [--points N] [--json] [--svg FILE [--interval D] [--window W | --samples N] [--caption]]',
+    summary: 'the lagged effect of one state on another against the sampling interval, with its peak; --out draws the chart the app exports (.svg, .png, .pdf)',
+    usage: 'MODEL.json --from X --to Y [--points N] [--json] [--out FILE [--table] [--interval D] [--window W | --samples N] [--caption]]',
     options: { from: true, to: true, points: true, json: false, ...figureOptions, interval: true, window: true, samples: true },
-    run(args, io) {
+    async run(args, io) {
       const model = loadModel(args, io);
-      const from = stringOption(args, 'from', 'sleep');
-      const to = stringOption(args, 'to', 'mood');
+      const from = variableByIdOrLabel(model, stringOption(args, 'from', 'sleep'), 'from');
+      const to = variableByIdOrLabel(model, stringOption(args, 'to', 'mood'), 'to');
       const svg = svgTarget(args, ['interval', 'window', 'samples']);
       if (svg === '-' && args.options.json) throw new CliError('--svg - prints the SVG instead of the curve: leave out --json, or write the SVG to a file', 2);
       const design = designFromArgs(args, model);
@@ -50,8 +51,8 @@ export const curveCommands: CliCommand[] = [
         // The intervals where the ordering changes over the study (as the app's analysis gives them), and the current Δ.
         const axis = design.window !== undefined ? { window: design.window } : { samples: design.samples };
         const marks = breakpoints(model, axis).map((b) => b.interval);
-        writeSvg(svg, linkCurveChart({ model, curve: c, breakpoints: marks, current: design.interval }, figure), io);
-        if (svg === '-') return 0;
+        await writeSvg(svg, linkCurveChart({ model, curve: c, breakpoints: marks, current: design.interval }, figure), io, args);
+        if (svg === '-' || !tableWanted(args)) return 0;
       }
       const peak = c.peaks.length > 0 ? c.peaks.reduce((a, b) => (Math.abs(b.effect) > Math.abs(a.effect) ? b : a)) : null;
       if (args.options.json) io.out(JSON.stringify({ from, to, timeUnit: model.timeUnit, intervals: c.intervals, effect: c.effect, peak, peaks: c.peaks }, null, 2));

@@ -19,3 +19,5 @@ COMMANDS.push(...dataCommands);
 import { pictureCommands } from './pictures';
 COMMANDS.push(...pictureCommands);
 import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);
+import { batchCommand } from './batch';
+COMMANDS.push(batchCommand((argv, io) => import('../run').then((m) => m.runCli(argv, io))));

@@ -10,7 +10,6 @@ import type { Ordering, StudyDesign } from '../../core/ordering/types';
 import { commutationAt, confirmAdaptation, hasFormulas, interventionEffect, InterventionError, perfectAdaptation, type Commutation, type InterventionEffect } from '../../core/interventions/index';
 import { buildReport } from '../../report/html';
 import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
-import { layoutInNode } from '../../layout/node';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis } from '../../core/study/convert';
@@ -161,22 +160,26 @@ export const interventionCommands: CliCommand[] = [
   {
     name: 'report',
     summary: 'a self-contained, printable HTML report of the interval axis, band by band',
-    usage: 'MODEL.json --out report.html [--window W | --samples N] [--hold x=v] [--no-figures] [--bands-csv bands.csv] [--breakpoints-csv breakpoints.csv]',
-    options: { out: true, window: true, samples: true, hold: true, 'no-figures': false, 'bands-csv': true, 'breakpoints-csv': true },
+    usage: 'MODEL.json --out report.html [--window W | --samples N] [--hold x=v] [--no-figures] [--bands-csv bands.csv] [--breakpoints-csv breakpoints.csv] [--date YYYY-MM-DD]',
+    options: { out: true, window: true, samples: true, hold: true, 'no-figures': false, 'bands-csv': true, 'breakpoints-csv': true, date: true },
     async run(args, io) {
       const model = loadModel(args, io);
       const out = args.options.out;
       if (out === undefined || out === true) throw new CliError('name the output file, e.g. --out report.html', 2);
       const hold = args.options.hold !== undefined ? parseHoldOption(args.options.hold, model) : model.study?.holds && Object.keys(model.study.holds).length > 0 ? { ...model.study.holds } : undefined;
       const study = studyOptions(args, model);
-      const html = await buildReport(model, { ...study, hold, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
+      const { layoutInNode } = await import('../../layout/node');
+      const date = args.options.date;
+      if (date === true || (date !== undefined && !/^\d{4}-\d{2}-\d{2}$/.test(date))) throw new CliError('--date must be a day as YYYY-MM-DD (it is printed under the title)', 2);
+      const generated = `generated ${date ?? new Date().toISOString().slice(0, 10)}`;
+      const html = await buildReport(model, { ...study, hold, generated, layout: args.options['no-figures'] ? undefined : (vm) => layoutInNode(vm) });
       const write = (path: string, text: string) => {
         try {
           io.writeFile(path, text);
         } catch (e) {
           throw new CliError(`cannot write ${path}: ${(e as Error).message}`);
         }
-        io.out(`wrote ${path} (${text.length} characters)`);
+        io.err(`wrote ${path} (${new TextEncoder().encode(text).length} bytes)`);
       };
       write(out, html);
       const axis = designAxis(model, study);

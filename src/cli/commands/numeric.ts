@@ -4,7 +4,7 @@ import { sampledAt, simulate, solveEquilibrium, timescalesAt, toRows, type Mat }
 import type { Diagnostic } from '../../core/ordering/types';
 import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../export/charts';
 import { sampledOf } from '../../core/numeric/answers';
-import { figureOptions, figureOptionsOf, svgTarget, writeSvg } from '../figure';
+import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -83,10 +83,10 @@ export const numericCommands: CliCommand[] = [
   },
   {
     name: 'simulate',
-    summary: 'simulate the mechanism from the initial values with a stiff integrator; --svg draws the chart the app exports',
-    usage: 'MODEL.json --until T [--every D] [--hold x=v,...] [--json | --csv] [--svg FILE [--plot x,y,...] [--interval D [--window W | --samples N]] [--caption]]',
+    summary: 'simulate the mechanism from the initial values with a stiff integrator; --out draws the chart the app exports (.svg, .png, .pdf)',
+    usage: 'MODEL.json --until T [--every D] [--hold x=v,...] [--json | --csv] [--out FILE [--table] [--plot x,y,...] [--interval D [--window W | --samples N]] [--caption]]',
     options: { until: true, every: true, hold: true, json: false, csv: false, ...figureOptions, plot: true, interval: true, window: true, samples: true },
-    run(args, io) {
+    async run(args, io) {
       const model = loadModel(args, io);
       const until = durationOption(args, 'until', model);
       if (until === undefined) throw new CliError('--until is required, e.g. --until 3days', 2);
@@ -100,8 +100,8 @@ export const numericCommands: CliCommand[] = [
       const figure = svg === undefined ? undefined : figureOptionsOf(args, model, design);
       const r = simulate(model, { until, every, hold: design.hold });
       if (!r.ok && r.times.length === 0) throw new CliError(r.diagnostics.find((d) => d.level === 'error')?.message ?? 'the simulation failed');
-      if (svg !== undefined) writeSvg(svg, simulationChart(model, r, plot, design, figure), io);
-      if (svg === '-') {
+      if (svg !== undefined) await writeSvg(svg, simulationChart(model, r, plot, design, figure), io, args);
+      if (svg === '-' || (svg !== undefined && !tableWanted(args))) {
         if (!r.ok) io.err(`loopfold simulate: ${r.diagnostics.find((d) => d.level === 'error')?.message ?? 'the simulation stopped early'}; the chart shows the part computed`);
         return r.ok ? 0 : 1;
       }
@@ -126,10 +126,10 @@ export const numericCommands: CliCommand[] = [
   },
   {
     name: 'sampled',
-    summary: 'the exact sampled model at an interval: lagged effects, innovations, stationary covariance; --svg draws a network',
-    usage: 'MODEL.json --interval D [--json] [--svg FILE [--network lagged|same] [--standardized] [--window W | --samples N] [--caption]]',
+    summary: 'the exact sampled model at an interval: lagged effects, innovations, stationary covariance; --out draws a network (.svg, .png, .pdf)',
+    usage: 'MODEL.json --interval D [--json] [--out FILE [--table] [--network lagged|same] [--standardized] [--window W | --samples N] [--caption]]',
     options: { interval: true, json: false, ...figureOptions, network: true, standardized: false, window: true, samples: true },
-    run(args, io) {
+    async run(args, io) {
       const model = loadModel(args, io);
       const interval = durationOption(args, 'interval', model);
       if (interval === undefined) throw new CliError('--interval is required, e.g. --interval 1day', 2);
@@ -150,8 +150,8 @@ export const numericCommands: CliCommand[] = [
             ? 'the same-interval network is not defined here: some states receive no noise'
             : 'the standardized lagged network is not defined here: some states have no stationary spread (zero noise reaches them); leave out --standardized');
         }
-        writeSvg(svg, fig, io);
-        if (svg === '-') return 0;
+        await writeSvg(svg, fig, io, args);
+        if (svg === '-' || !tableWanted(args)) return 0;
       }
       const s = r.sampled;
       if (args.options.json) {

@@ -2,6 +2,7 @@ import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { breakpoints, orderingAt } from '../../core/ordering/index';
 import type { Diagnostic, Ordering, StudyDesign } from '../../core/ordering/types';
+import { dynamicsDiagnostics } from '../../core/numeric/stability';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis, windowOf } from '../../core/study/convert';
@@ -84,6 +85,7 @@ export const orderingCommands: CliCommand[] = [
     run(args, io) {
       const model = loadModel(args, io);
       const o = orderingAt(model, {});
+      if (!o.diagnostics.some((d) => d.level === 'error')) o.diagnostics = [...o.diagnostics, ...dynamicsDiagnostics(model)];
       const errors = o.diagnostics.filter((d) => d.level === 'error').length;
       if (args.options.json) io.out(JSON.stringify({ ok: errors === 0, diagnostics: o.diagnostics }, null, 2));
       else if (o.diagnostics.length === 0) io.out(`${model.name}: no problems found`);

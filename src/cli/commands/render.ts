@@ -10,10 +10,13 @@ import { mechanismView, orderingView } from '../../core/view/derive';
 import type { ViewMode, ViewModel } from '../../core/view/types';
 import { studyCaption } from '../../export/caption';
 import { renderSvg } from '../../export/svg';
-import { figureLayout } from '../../layout/figure';
 import { drawnPositions } from '../../layout/instant';
-import { nodeElk } from '../../layout/node';
-import { durationOption, loadModel } from '../load';
+import { durationOption, loadModel, variableByIdOrLabel } from '../load';
+import { printView } from '../../export/print/figure';
+import { printMultiples } from '../../export/print/multiples';
+import { parseDuration } from '../../core/model/units';
+import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from '../output/write';
+import { parseHoldOption } from './interventions';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
 const VIEWS: readonly ViewMode[] = ['ordering', 'mechanism', 'unrolled'];
@@ -41,9 +44,17 @@ export function renderView(req: RenderRequest): ViewModel {
 
 /** The SVG text of a render request. */
 export async function renderFigure(req: RenderRequest): Promise<string> {
+  const [{ figureLayout }, { nodeElk }] = await Promise.all([import('../../layout/figure'), import('../../layout/node')]);
   const vm = renderView(req);
   const layout = await figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
   return renderSvg(vm, layout, { caption: req.caption, captionText: figureCaption(req.model, req.design) });
+}
+
+/** A comma-separated list option. */
+function listOption(args: CliArgs, name: string, example: string): string[] {
+  const v = args.options[name];
+  if (v === true || v === undefined || v.trim() === '') throw new CliError(`--${name} needs a list, e.g. --${name} ${example}`, 2);
+  return v.split(',').map((x) => x.trim()).filter(Boolean);
 }
 
 function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
@@ -62,30 +73,69 @@ function requestFromArgs(args: CliArgs, model: Model): RenderRequest {
     if (samples === true || !Number.isInteger(n) || n < 2) throw new CliError(`--samples must be a whole number of at least 2, not "${samples}"`, 2);
     design.samples = n;
   }
+  if (args.options.hold !== undefined) {
+    if (view === 'mechanism') throw new CliError('--hold applies to the ordering and unrolled views (the mechanism is drawn as sketched)', 2);
+    design.hold = parseHoldOption(args.options.hold, model);
+  }
   const fold = args.options.fold;
-  return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded: typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').sort().join('+')) : undefined };
+  if (fold === true) throw new CliError('--fold needs block keys, e.g. --fold a+b (see loopfold order --json for the blocks)', 2);
+  // members by id or label; a name that is neither is kept, and the check below lists the blocks there are
+  const member = (v: string) => { try { return variableByIdOrLabel(model, v, 'fold'); } catch { return v.trim(); } };
+  const folded = typeof fold === 'string' ? fold.split(',').map((k) => k.split('+').map(member).sort().join('+')) : undefined;
+  if (folded && view !== 'mechanism') checkFoldKeys(folded, model, design);
+  return { model, view: view as ViewMode, design, caption: args.options.caption === true, folded };
+}
+
+/** Every key of --fold must name a simultaneous block at this interval; the message lists the blocks there are. */
+function checkFoldKeys(keys: string[], model: Model, design: StudyDesign): void {
+  const o = orderingAt(model, design);
+  const blocks = o.blocks.filter((b) => b.variables.length > 1).map((b) => [...b.variables].sort().join('+'));
+  for (const k of keys) {
+    if (blocks.includes(k)) continue;
+    const there = blocks.length ? `the blocks at this interval are ${blocks.join(', ')}` : 'there is no simultaneous block at this interval';
+    throw new CliError(`--fold: "${k}" is not a simultaneous block; ${there}`, 2);
+  }
 }
 
 export const renderCommand: CliCommand = {
   name: 'render',
-  summary: 'write the figure of a view at a sampling interval as SVG (the same as the app exports)',
-  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--fold a+b,…] [--caption] --out fig.svg',
-  options: { interval: true, window: true, samples: true, view: true, caption: false, out: true, fold: true },
+  summary: 'write the figure of a view at a sampling interval as SVG, PNG or PDF (the same as the app exports)',
+  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--at D1,D2,… [--columns N]] [--focus x,y] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
+  options: { interval: true, window: true, samples: true, view: true, caption: false, fold: true, hold: true, at: true, columns: true, focus: true, ...PRINT_OPTIONS },
   async run(args, io) {
     const model = loadModel(args, io);
-    const req = requestFromArgs(args, model);
-    const out = args.options.out;
-    if (out === undefined || out === true) throw new CliError('--out FILE.svg is needed (use --out - to print the SVG)', 2);
-    const svg = await renderFigure(req);
-    if (out === '-') io.out(svg);
-    else {
-      try {
-        io.writeFile(out, svg);
-      } catch (e) {
-        throw new CliError(`cannot write ${out}: ${(e as Error).message}`);
-      }
-      io.err(`wrote ${out} (${svg.length} bytes)`);
+    const out = outTarget(args);
+    if (out === undefined) throw new CliError('--out FILE is needed: .svg, .png or .pdf (use --out - to print the SVG)', 2);
+    const multiples = args.options.at !== undefined;
+    if (multiples && args.options.interval !== undefined) throw new CliError('give either --interval (one figure) or --at (one panel per interval), not both', 2);
+    const req = requestFromArgs(multiples ? { ...args, options: { ...args.options, interval: '1' } } : args, model);
+    const opts = printOptionsOf(args);
+    const focus = args.options.focus === undefined ? undefined : listOption(args, 'focus', 'stress,mood').map((v) => variableByIdOrLabel(model, v, 'focus'));
+    if (focus && req.view === 'mechanism') throw new CliError('--focus summarises an ordering: use it with --view ordering or unrolled', 2);
+    // ELK is loaded only by the commands that lay out a figure (a quicker start for the others)
+    const [{ figureLayout }, { nodeElk }] = await Promise.all([import('../../layout/figure'), import('../../layout/node')]);
+    const layoutOf = (vm: ViewModel) => figureLayout(nodeElk(), vm, vm.mode === 'mechanism' ? drawnPositions(req.model.variables) : undefined);
+    let fig;
+    if (multiples) {
+      if (req.view === 'mechanism') throw new CliError('--at draws the ordering (or --view unrolled) at each interval; the mechanism has no interval', 2);
+      if (focus) throw new CliError('--focus and --at cannot be combined; draw the summary at one --interval', 2);
+      const intervals = listOption(args, 'at', '"10 min,3h,1 day,4 weeks"').map((t) => {
+        const d = parseDuration(t, model.timeUnit);
+        if (!d.ok) throw new CliError(`--at: ${d.message}`, 2);
+        return d.value;
+      });
+      if (intervals.length < 2) throw new CliError('--at needs two intervals or more, e.g. --at "10 min,3h,1 day,4 weeks"', 2);
+      const c = args.options.columns;
+      const columns = c === undefined ? undefined : Number(c);
+      if (columns !== undefined && !(Number.isInteger(columns) && columns >= 1)) throw new CliError(`--columns must be a whole number of at least 1, not "${String(c)}"`, 2);
+      const { interval: _ignored, ...rest } = req.design;
+      void _ignored;
+      fig = await printMultiples({ model, intervals, design: rest, view: req.view === 'unrolled' ? 'unrolled' : 'ordering', columns, caption: req.caption }, opts, layoutOf);
+    } else {
+      if (args.options.columns !== undefined) throw new CliError('--columns lays out the panels of --at', 2);
+      fig = await printView(req, opts, layoutOf, focus);
     }
+    await writeFigure(out, fig, opts, io, String(fig.root.attrs['aria-label'] ?? 'Loopfold figure'));
     return 0;
   },
 };

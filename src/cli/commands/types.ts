@@ -20,6 +20,8 @@ export interface CliIO {
   err(text: string): void;
   readFile(path: string): string;
   writeFile(path: string, content: string): void;
+  /** Write binary content (PNG, PDF); without it binary figures cannot be written. */
+  writeBytes?(path: string, content: Uint8Array): void;
 }
 
 /** An error whose message is shown as the one-line reason, with exit code 2 (usage) or 1. */

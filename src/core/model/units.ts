@@ -42,8 +42,9 @@ export function parseDuration(text: number | string, unit: TimeUnit): DurationRe
   const n = Number(m[1]);
   if (!(n > 0) || !Number.isFinite(n)) return { ok: false, message: `a duration must be positive, not "${text}"` };
   if (m[2] === '') return { ok: true, value: n };
+  if (m[2] === 'ms') return { ok: true, value: (n * 0.001) / SECONDS_PER_UNIT[unit] };
   const u = UNIT_ALIASES[m[2].toLowerCase()];
-  if (!u) return { ok: false, message: `"${m[2]}" in "${text}" is not a time unit: use s, min, h, day, week, month or year` };
+  if (!u) return { ok: false, message: `"${m[2]}" in "${text}" is not a time unit: use ms, s, min, h, day, week, month or year` };
   return { ok: true, value: (n * SECONDS_PER_UNIT[u]) / SECONDS_PER_UNIT[unit] };
 }
 
@@ -58,6 +59,8 @@ export function convertDuration(value: number, from: TimeUnit, to: TimeUnit): nu
  */
 export function formatDuration(value: number, unit: TimeUnit): string {
   const seconds = value * SECONDS_PER_UNIT[unit];
+  // Below a second: milliseconds with three significant digits (never "0 s").
+  if (seconds > 0 && seconds < 0.9995) return `${Number((seconds * 1000).toPrecision(3))} ms`;
   const order: TimeUnit[] = ['year', 'month', 'week', 'day', 'h', 'min', 's'];
   let chosen: TimeUnit = 's';
   for (const u of order) {

@@ -56,6 +56,8 @@ export interface TimescalesAnswer {
   report: TimescaleReport;
   settled: VariableId[];
   warnings: string[];
+  /** reach[i][j]: state j reaches state i through the drift (lagged effects can be non-zero). */
+  reach: boolean[][];
 }
 
 export interface CurveAnswer {
@@ -194,7 +196,7 @@ export function adviceOf(model: Model, links: { from: VariableId; to: VariableId
     if (!g.drift.ok) return { ok: false, reason: g.drift.reason };
     for (const l of links)
       for (const v of [l.from, l.to]) if (!g.states.includes(v)) return { ok: false, reason: `${v} is not a state: lagged effects run between states (${g.states.join(', ')})` };
-    return { ok: true, advice: adviseInterval(g.drift.drift, g.states, links, g.intervals, fraction, model.timeUnit), intervals: g.intervals };
+    return { ok: true, advice: adviseInterval(g.drift.drift, g.states, links, g.intervals, fraction, model.timeUnit, Object.fromEntries(model.variables.map((v) => [v.id, v.label || v.id]))), intervals: g.intervals };
   } catch (e) {
     return failure(e);
   }

@@ -6,7 +6,7 @@ import type { Model, VariableId } from '../model/types';
 import type { Mat } from './dense';
 import { solveEquilibrium, type EquilibriumResult } from './equilibrium';
 import { linearize } from './linearize';
-import { sampledModel, type SampledModel } from './sampled';
+import { lagReach, sampledModel, type SampledModel } from './sampled';
 import { fastPartWarnings, timescalesOf, type TimescaleReport } from './timescales';
 import { orderingAt } from '../ordering/index';
 import { noiseOf } from '../study/convert';
@@ -16,8 +16,8 @@ export type { EquilibriumResult } from './equilibrium';
 export { simulate, outputGrid } from './simulate';
 export { sampleTimes, valueAt } from './samples';
 export type { SimulateOptions, SimulationResult } from './simulate';
-export { sampledModel, linkCurve, adviseInterval, logGrid } from './sampled';
-export type { SampledModel, LinkCurve, IntervalAdvice } from './sampled';
+export { sampledModel, linkCurve, adviseInterval, logGrid, lagReach } from './sampled';
+export type { SampledModel, LinkCurve, IntervalAdvice, AdvisedLink } from './sampled';
 export { timescalesOf, fastPartWarnings } from './timescales';
 export type { TimescaleReport, Mode, StateTimescaleReport } from './timescales';
 export { buildNumericSystem } from './system';
@@ -69,7 +69,7 @@ export function sampledAt(model: Model, interval: number): ({ ok: true; sampled:
  * With an interval, also checks that the states settled at that interval
  * form a stable fast part.
  */
-export function timescalesAt(model: Model, interval?: number): ({ ok: true; report: TimescaleReport; settled: VariableId[]; warnings: string[] }) | { ok: false; reason: string } {
+export function timescalesAt(model: Model, interval?: number): ({ ok: true; report: TimescaleReport; settled: VariableId[]; warnings: string[]; reach: boolean[][] }) | { ok: false; reason: string } {
   const d = driftAtEquilibrium(model);
   if (!d.ok) return d;
   const report = timescalesOf(d.drift, d.states, d.equilibrium.system.timescales);
@@ -80,5 +80,5 @@ export function timescalesAt(model: Model, interval?: number): ({ ok: true; repo
     settled = d.states.filter((s) => roles[s] === 'settled');
     warnings.push(...fastPartWarnings(d.drift, d.states, settled));
   }
-  return { ok: true, report, settled, warnings };
+  return { ok: true, report, settled, warnings, reach: lagReach(d.drift) };
 }

@@ -124,8 +124,19 @@ export function linkCurve(drift: Mat, states: VariableId[], from: VariableId, to
   return { from, to, intervals, effect, peaks };
 }
 
+export interface AdvisedLink {
+  from: VariableId;
+  to: VariableId;
+  peak: { interval: number; effect: number } | null;
+  range: [number, number] | null;
+  /** No chain of links leads from `from` to `to`: the lagged effect is zero at every interval. */
+  noPath?: boolean;
+  /** Φ_{to,from} at the recommended interval (absolute size, per unit of `from`). */
+  atBest?: number;
+}
+
 export interface IntervalAdvice {
-  links: { from: VariableId; to: VariableId; peak: { interval: number; effect: number } | null; range: [number, number] | null }[];
+  links: AdvisedLink[];
   /** The interval at which the weakest of the chosen links is strongest relative to its own peak. */
   best: number | null;
   /** min over links of |effect(best)| / |peak| */
@@ -134,35 +145,67 @@ export interface IntervalAdvice {
 }
 
 /**
+ * reach[i][j]: whether state j reaches state i through the drift (a chain of
+ * non-zero entries A_ij, j → i), i.e. whether Φ_ij(Δ) = (e^{AΔ})_ij can differ
+ * from zero for i ≠ j (the exponential's pattern is the transitive closure of
+ * A's: common practice).
+ */
+export function lagReach(drift: Mat): boolean[][] {
+  const n = drift.rows;
+  let scale = 0;
+  for (const v of drift.data) scale = Math.max(scale, Math.abs(v));
+  const tol = 1e-14 * scale;
+  const reach = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => i === j || Math.abs(drift.data[i * n + j]) > tol));
+  for (let k = 0; k < n; k++) for (let i = 0; i < n; i++) if (reach[i][k]) for (let j = 0; j < n; j++) if (reach[k][j]) reach[i][j] = true;
+  return reach;
+}
+
+/**
  * For chosen links, the range of Δ where each lagged effect is at least
  * `fraction` of its peak, and one Δ that serves them all best (maximising the
- * smallest share of peak), explained in words.
+ * smallest share of peak), explained in words with the modeller's labels and
+ * each effect's absolute size. Links with no path between their states are
+ * left out of the choice.
+ * Example: `adviseInterval(A, ['a', 'b'], [{ from: 'a', to: 'b' }], logGrid(0.1, 100, 121), 0.5, 'h', { a: 'Stress', b: 'Mood' })`.
  */
-export function adviseInterval(drift: Mat, states: VariableId[], links: { from: VariableId; to: VariableId }[], intervals: number[], fraction = 0.5, unit = ''): IntervalAdvice {
-  const curves = links.map((l) => linkCurve(drift, states, l.from, l.to, intervals));
-  const out: IntervalAdvice['links'] = curves.map((c) => {
-    if (c.peaks.length === 0) return { from: c.from, to: c.to, peak: null, range: null };
+export function adviseInterval(drift: Mat, states: VariableId[], links: { from: VariableId; to: VariableId }[], intervals: number[], fraction = 0.5, unit = '', labels: Record<VariableId, string> = {}): IntervalAdvice {
+  const name = (id: VariableId) => labels[id] || id;
+  const reach = lagReach(drift);
+  const connected = links.map((l) => reach[states.indexOf(l.to)]?.[states.indexOf(l.from)] === true);
+  const curves = links.map((l, li) => (connected[li] ? linkCurve(drift, states, l.from, l.to, intervals) : null));
+  const out: AdvisedLink[] = curves.map((c, li) => {
+    const { from, to } = links[li];
+    if (!c) return { from, to, peak: null, range: null, noPath: true };
+    if (c.peaks.length === 0) return { from, to, peak: null, range: null };
     const peak = c.peaks.reduce((a, b) => (Math.abs(b.effect) > Math.abs(a.effect) ? b : a));
     const ok = c.intervals.filter((_, k) => Math.abs(c.effect[k]) >= fraction * Math.abs(peak.effect));
-    return { from: c.from, to: c.to, peak, range: ok.length > 0 ? [ok[0], ok[ok.length - 1]] : null };
+    return { from, to, peak, range: ok.length > 0 ? [ok[0], ok[ok.length - 1]] : null };
   });
-  let best: number | null = null, score = 0;
-  if (out.every((l) => l.peak)) {
+  const used = out.map((_, li) => li).filter((li) => !out[li].noPath);
+  let best: number | null = null, score = 0, bestK = -1;
+  if (used.length > 0 && used.every((li) => out[li].peak)) {
     intervals.forEach((d, k) => {
-      const s = Math.min(...curves.map((c, li) => Math.abs(c.effect[k]) / Math.abs(out[li].peak!.effect)));
-      if (s > score) { score = s; best = d; }
+      const s = Math.min(...used.map((li) => Math.abs(curves[li]!.effect[k]) / Math.abs(out[li].peak!.effect)));
+      if (s > score) { score = s; best = d; bestK = k; }
     });
   }
+  if (bestK >= 0) for (const li of used) out[li].atBest = curves[li]!.effect[bestK];
   const u = unit ? ` ${unit}` : '';
+  const pct = Math.round(fraction * 100);
   const parts = out.map((l) =>
-    l.peak
-      ? `${l.from} → ${l.to} peaks at Δ ≈ ${fmt(l.peak.interval)}${u} (effect ${fmt(l.peak.effect)}) and stays above ${Math.round(fraction * 100)}% of that from ${fmt(l.range![0])} to ${fmt(l.range![1])}${u}`
-      : `${l.from} → ${l.to} has no peak in the range examined (it only grows or only fades there)`,
+    l.noPath
+      ? `${name(l.from)} → ${name(l.to)} is left out: no chain of links leads from ${name(l.from)} to ${name(l.to)}, so no interval shows an effect`
+      : l.peak
+        ? `${name(l.from)} → ${name(l.to)} peaks at Δ ≈ ${fmt(l.peak.interval)}${u} with an effect of ${fmt(l.peak.effect)} (the change in ${name(l.to)} one interval later per unit of ${name(l.from)}) and stays above ${pct}% of that (${fmt(Math.abs(l.peak.effect) * fraction)} in size) from ${fmt(l.range![0])} to ${fmt(l.range![1])}${u}`
+        : `${name(l.from)} → ${name(l.to)} has no peak in the range examined (it only grows or only fades there)`,
   );
+  const sizes = used.filter((li) => out[li].atBest !== undefined).map((li) => `${name(out[li].from)} → ${name(out[li].to)} ${fmt(out[li].atBest!)}`);
   const explanation =
     best !== null
-      ? `${parts.join('; ')}. Sampling every ${fmt(best)}${u} keeps every chosen link at ${Math.round(score * 100)}% or more of its own peak.`
-      : `${parts.join('; ')}. No single interval can be recommended for these links.`;
+      ? `${parts.join('; ')}. Sampling every ${fmt(best)}${u} keeps every chosen link at ${Math.round(score * 100)}% or more of its own peak (effects there: ${sizes.join(', ')}).`
+      : used.length === 0
+        ? `${parts.join('; ')}. None of the chosen links can be seen at any interval.`
+        : `${parts.join('; ')}. No single interval can be recommended for these links.`;
   return { links: out, best, score, explanation };
 }
 

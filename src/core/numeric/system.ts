@@ -11,11 +11,15 @@
  *   dx/dt = (Σ sign·weight·source − x)/τ over its integrating links, or
  *   Σ sign·weight·source / τ when the state is marked not self-regulating,
  *   with τ its timescale (default 1 model time unit, with a warning);
+ *   a link without a strength shares 0.8 with the other links into its
+ *   target (src/core/model/strength.ts), so every loop of an unweighted
+ *   sketch has a gain below one;
  * - a relation `lhs = rhs`: lhs − rhs = 0.
  * Inputs are held at `value` (default 0); states start at `initial` (default 0).
  */
 import type { EquationId, Model, VariableId, VariableKind } from '../model/types';
 import { readTimescale } from '../model/timescale';
+import { linkStrengths, signedStrength } from '../model/strength';
 import { parseExpression, parseRelation } from '../expr/parse';
 import { compileExpression, type CompiledExpression } from '../expr/compile';
 import { partials } from '../expr/derivative';
@@ -103,10 +107,11 @@ export function buildNumericSystem(model: Model): NumericSystem {
   const timescales: Record<VariableId, StateTimescale> = {};
   const equations: NumericEquation[] = [];
   const incoming = new Map<VariableId, { slot: number; coef: number; kind: string }[]>();
-  for (const l of model.links) {
+  const strengths = linkStrengths(model);
+  for (const [k, l] of model.links.entries()) {
     if (!known.has(l.from) || !known.has(l.to) || l.from === l.to) continue;
     const list = incoming.get(l.to) ?? [];
-    list.push({ slot: slot.get(l.from)!, coef: (l.sign === '-' ? -1 : 1) * (l.weight ?? 1), kind: l.kind });
+    list.push({ slot: slot.get(l.from)!, coef: signedStrength(l, strengths[k]), kind: l.kind });
     incoming.set(l.to, list);
   }
   const inRelation = new Set<VariableId>();

@@ -42,6 +42,16 @@ const ROLE_WORD: Record<Role, string> = {
   settled: 'settles', frozen: 'becomes frozen', held: 'is held',
 };
 
+/** "1 sample", "50 samples". */
+function count(n: number): string {
+  return `${n} ${n === 1 ? 'sample' : 'samples'}`;
+}
+
+const ROLE_VERB: Record<Role, string> = {
+  input: 'be set from outside', state: 'carry over from sample to sample', derived: 'follow within the instant',
+  settled: 'settle', frozen: 'be frozen', held: 'be held',
+};
+
 /**
  * Sentences for the explanation panel, most important first.
  * `explainOrdering(model, ordering, { interval: 4 })[0].text` → "Every 4 h, over a study of 50 samples (8.33 days): …".
@@ -65,8 +75,8 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
   if (design.interval !== undefined) {
     const axis = designAxis(model, design);
     const study = axis.window !== undefined
-      ? `a study of ${formatDuration(axis.window, u)} (${Math.max(1, Math.round(axis.window / design.interval))} samples)`
-      : `a study of ${axis.samples} samples (${formatDuration(W!, u)})`;
+      ? `a study of ${formatDuration(axis.window, u)} (${count(Math.max(1, Math.round(axis.window / design.interval)))})`
+      : `a study of ${count(axis.samples)} (${formatDuration(W!, u)})`;
     const parts: string[] = [];
     if (settled.length) parts.push(`${settled.length} ${settled.length === 1 ? 'state settles' : 'states settle'}`);
     if (frozen.length) parts.push(`${frozen.length} ${frozen.length === 1 ? 'is' : 'are'} frozen`);
@@ -121,11 +131,12 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
     const above = sorted.find((b) => !passed(b));
     const below = [...sorted].reverse().find(passed);
     if (below) {
-      const undo = below.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.from]}`);
+      // A held variable keeps its hold on both sides of a breakpoint: the change is what it would do unheld.
+      const undo = below.changes.map((c) => (role(c.variable) === 'held' ? `${name(c.variable)} stays held (unheld it would ${ROLE_VERB[c.from]})` : `${name(c.variable)} ${ROLE_WORD[c.from]}`));
       lines.push({ topic: 'nearby', text: `Below ${formatDuration(below.interval, u)}: ${listWords(undo)}.`, variables: below.changes.map((c) => c.variable) });
     }
     if (above) {
-      const next = above.changes.map((c) => `${name(c.variable)} ${ROLE_WORD[c.to]}`);
+      const next = above.changes.map((c) => (role(c.variable) === 'held' ? `${name(c.variable)} stays held (unheld it would ${ROLE_VERB[c.to]})` : `${name(c.variable)} ${ROLE_WORD[c.to]}`));
       lines.push({ topic: 'nearby', text: `${above.exclusive ? 'Above' : 'From'} ${formatDuration(above.interval, u)}${above.exclusive ? '' : ' on'}: ${listWords(next)}.`, variables: above.changes.map((c) => c.variable) });
     }
   }

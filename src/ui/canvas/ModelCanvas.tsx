@@ -35,6 +35,8 @@ const nodeTypes = { variable: VariableNode, relation: RelationNode };
 const MULTI_SELECT_KEYS = ['Shift', 'Meta', 'Control'];
 const ARIA_LABELS = { 'node.a11yDescription.default': 'Press Enter or Space to select this variable, arrow keys to move it, Delete to remove it.' };
 const MINIMAP_STYLE = { width: 150, height: 96 };
+// The library is credited in the Keys help (KeysHelp.tsx), not by a mark over the drawing.
+const PRO_OPTIONS = { hideAttribution: true };
 function minimapColor(n: FlowNode): string {
   const d = n.data as { variable?: { kind: 'input' | 'state' | 'derived' } };
   return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
@@ -201,7 +203,7 @@ export function ModelCanvas() {
         maxZoom={3}
         fitView={fitOnMount}
         fitViewOptions={fitOptions}
-        attributionPosition="top-right"
+        proOptions={PRO_OPTIONS}
         ariaLabelConfig={ARIA_LABELS}
       >
         <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
@@ -213,6 +215,10 @@ export function ModelCanvas() {
           ariaLabel="Overview of the canvas"
           nodeColor={minimapColor}
           nodeStrokeWidth={2}
+          bgColor="#fffdf8"
+          maskColor="rgba(29, 43, 54, 0.10)"
+          maskStrokeColor="#1f6f80"
+          maskStrokeWidth={2}
           style={MINIMAP_STYLE}
         />
         <CanvasDrawing model={model} />

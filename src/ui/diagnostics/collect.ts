@@ -37,7 +37,10 @@ export function collectProblems(model: Model, validation: Validation, diagnostic
     if (covered.has(text)) return;
     out.push({ key: `i${i}`, level: validation.model ? 'warning' : 'error', message: text, targets: [], source: 'file' });
   });
+  // A formula that does not parse is reported once, at its field's problem: the core's copy of it is left out.
+  const unreadable = new Set(validation.problems.filter((p) => p.field === 'formula' || p.field === 'rate' || p.field === 'equation').map((p) => p.target));
   (diagnostics ?? []).forEach((d, i) =>
+    d.code === 'formula-error' && [...d.variables, ...d.equations.map(nodeOfEquation)].some((t) => unreadable.has(t)) ? undefined :
     out.push({ key: `c${i}`, level: d.level, message: d.message, targets: [...new Set([...d.variables, ...d.equations.map(nodeOfEquation)])], source: 'core' }),
   );
   return out;

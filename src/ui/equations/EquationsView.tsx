@@ -4,6 +4,12 @@ import { selectionStore } from '../../state/selection';
 import { nodeOfEquation } from '../diagnostics/collect';
 import { MatchingGrid } from './MatchingGrid';
 
+/** Why a block needs no equation at this instant, in the modeller's words. */
+function givenWords(roles: readonly (string | undefined)[]): string {
+  const words = new Set(roles.map((r) => (r === 'state' ? 'given by its past: it carries over from the instant before' : r === 'frozen' ? 'held constant over the study' : r === 'held' ? 'held by an intervention' : 'set from outside')));
+  return [...words].join('; ');
+}
+
 /** The equation–variable structure: which equations determine which variables, block by block, in causal order. */
 export function EquationsView() {
   const model = useModel();
@@ -29,7 +35,7 @@ export function EquationsView() {
             <tr key={i} className={b.determination !== 'well' ? 'is-bad' : undefined}>
               <td>{b.level}</td>
               <td>
-                {b.equations.length === 0 ? <span className="lf-hint">(exogenous)</span> : b.equations.map((e) => (
+                {b.equations.length === 0 ? <span className="lf-hint">({givenWords(b.variables.map((v) => ordering.roles[v]))})</span> : b.equations.map((e) => (
                   <button key={e} type="button" className="lf-linkish lf-mono" onClick={() => selectionStore.getState().select({ nodes: [nodeOfEquation(e)] })}>{e}</button>
                 ))}
               </td>

@@ -2,6 +2,7 @@ import { useId } from 'react';
 import type { Model } from '../../core/model/types';
 import { checkFormula, checkRelation, symbolsOf } from '../../state/validate';
 import { selectionStore } from '../../state/selection';
+import { finishKeys, useDraft } from './fields';
 
 interface Props {
   label: string;
@@ -10,13 +11,22 @@ interface Props {
   relation?: boolean;
   placeholder?: string;
   hint?: string;
+  autoFocus?: boolean;
   onChange(text: string): void;
   onBlur?(): void;
 }
 
-/** A formula in the restricted syntax, checked as it is typed: where the error is, which names are unknown, which are used. */
-export function ExpressionField({ label, value, model, relation, placeholder, hint, onChange, onBlur }: Props) {
+/**
+ * A formula in the restricted syntax, checked as it is typed: where the error
+ * is, which names are unknown, which are used. It is stored on Enter or when
+ * the field is left (never per keystroke), also when it has an error: the
+ * model keeps what the modeller wrote and the Checks list the problem.
+ * Escape brings back the stored formula.
+ */
+export function ExpressionField({ label, value: stored, model, relation, placeholder, hint, autoFocus, onChange, onBlur }: Props) {
   const id = useId();
+  const d = useDraft(stored, onChange);
+  const value = d.text;
   const blank = value.trim() === '';
   const error = blank ? null : relation ? checkRelation(value, model) : checkFormula(value, model);
   const symbols = error ? [] : symbolsOf(value, relation);
@@ -31,18 +41,17 @@ export function ExpressionField({ label, value, model, relation, placeholder, hi
         value={value}
         placeholder={placeholder}
         spellCheck={false}
+        autoFocus={autoFocus}
         autoComplete="off"
         aria-invalid={error ? true : undefined}
         aria-describedby={`${id}-msg`}
-        onChange={(e) => onChange(e.target.value.replace(/\n/g, ' '))}
-        onKeyDown={(e) => {
-          // one expression per field: Enter finishes instead of starting a second line
-          if (e.key === 'Enter') {
-            e.preventDefault();
-            (e.target as HTMLTextAreaElement).blur();
-          }
+        onChange={(e) => d.edit(e.target.value.replace(/\n/g, ' '))}
+        // one expression per field: Enter finishes instead of starting a second line
+        onKeyDown={finishKeys(() => d.finish(), d.cancel)}
+        onBlur={() => {
+          d.finish();
+          onBlur?.();
         }}
-        onBlur={onBlur}
       />
       <div id={`${id}-msg`} aria-live="polite">
         {error && (

@@ -3,7 +3,29 @@ import type { Link, LinkKind, Model } from '../../core/model/types';
 import { LINK_STYLE } from '../../theme/visual';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
+import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths } from '../../core/model/strength';
 import { CheckedField, numberCheck, toNumber } from './fields';
+
+/** What the strength is in the equations, its unit and the default when empty. */
+function strengthHint(link: Link, model: Model, name: (id: string) => string) {
+  const to = model.variables.find((w) => w.id === link.to);
+  const k = model.links.indexOf(link);
+  const s = linkStrengths(model)[k];
+  const t = name(link.to), f = name(link.from);
+  if (!to || !linkCounts(model, link)) return <>Drawn as line width. This link does not enter {t}'s sketched equation ({link.kind} links into a {to?.kind ?? 'variable'} are not read).</>;
+  if (to.formula !== undefined || to.rate !== undefined) return <>Drawn as line width only: {t} has a {to.kind === 'state' ? 'rate' : 'formula'} of its own, which sets its equation.</>;
+  const eq = to.kind === 'state'
+    ? `d${t}/dt = (Σ strength × source − ${t}) / τ`
+    : `${t} = Σ strength × source`;
+  const def = Number((DEFAULT_TOTAL_GAIN / s.sharedBy).toPrecision(3));
+  return (
+    <>
+      The coefficient of {f} in {t}'s equation, <span className="lf-mono">{eq}</span>, with the sign above. No unit: the change in {t}{to.kind === 'state' ? '’s balance' : ''} per unit of {f}.
+      {' '}Empty: {def}{s.sharedBy > 1 ? ` (${DEFAULT_TOTAL_GAIN} shared by the ${s.sharedBy} links into ${t})` : ''}, so that a sketch without strengths keeps every loop’s gain below one and comes to rest.
+      {' '}Drawn as line width.
+    </>
+  );
+}
 
 export function LinkInspector({ link, model }: { link: Link; model: Model }) {
   const kindName = useId();
@@ -44,7 +66,8 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
         check={numberCheck}
         commit={(t) => editDocument({ type: 'updateLink', id: link.id!, patch: { weight: toNumber(t) } }, { squash: `${link.id}:weight` })}
         onBlur={stop}
-        hint="Drawn as line width."
+        hint={strengthHint(link, model, name)}
+        placeholder={`empty: ${Number((DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy).toPrecision(3))}`}
       />
     </div>
   );

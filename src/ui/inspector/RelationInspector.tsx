@@ -14,6 +14,8 @@ export function RelationInspector({ relation, model }: { relation: Relation; mod
         value={relation.equation}
         model={model}
         placeholder="e.g. a*b = c*d"
+        hint="Write the equation this relation states between variables (their names in formulas), such as a*b = c*d. Until then it is left out of the model."
+        autoFocus={relation.equation.trim() === ''}
         onChange={(t) => editDocument({ type: 'updateRelation', id: relation.id, patch: { equation: t } }, { squash: `${relation.id}:eq` })}
         onBlur={stop}
       />

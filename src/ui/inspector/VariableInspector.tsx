@@ -42,12 +42,12 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
         label="Label"
         value={v.label ?? ''}
         onChange={(t) => update('label', { label: t === '' ? undefined : t })}
-        onBlur={() => {
+        onBlur={(label) => {
           // a variable still carrying its made-up name takes one from its label, so formulas read well
-          if (isGeneratedId(v.id) && v.label) {
+          if (isGeneratedId(v.id) && label) {
             const taken = usedIds(model);
             taken.delete(v.id);
-            const id = idFromLabel(v.label, taken, isReservedName);
+            const id = idFromLabel(label, taken, isReservedName);
             if (id && id !== v.id) {
               editDocument({ type: 'renameVariable', id: v.id, newId: id }, { squash: `${v.id}:label` });
               selectionStore.getState().select({ nodes: [id] });
@@ -60,7 +60,6 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
         label="Name in formulas"
         value={v.id}
         check={checkId}
-        commitOn="blur"
         commit={(t) => {
           stop();
           editDocument({ type: 'renameVariable', id: v.id, newId: t });

@@ -1,4 +1,11 @@
-import { useEffect, useId, useState, type ReactNode } from 'react';
+/**
+ * Inspector fields keep what is typed in a draft and store it only when the
+ * modeller finishes: Enter or leaving the field. Nothing is stored per
+ * keystroke (typing "5 fortnights" never stores "5" on the way), and text
+ * that does not check out stays in the field with its message until it is
+ * corrected or Escape brings back the stored value.
+ */
+import { useId, useState, type KeyboardEvent, type ReactNode } from 'react';
 
 export function Field({ label, children, id }: { label: string; children: ReactNode; id: string }) {
   return (
@@ -9,72 +16,98 @@ export function Field({ label, children, id }: { label: string; children: ReactN
   );
 }
 
-export function TextField({ label, value, onChange, onBlur, multiline, placeholder }: { label: string; value: string; onChange(v: string): void; onBlur?(): void; multiline?: boolean; placeholder?: string }) {
+/**
+ * The draft of one field: `text` is shown, `edit` follows typing, `finish`
+ * stores (through `store`) when the draft differs and checks out, `cancel`
+ * drops the draft. A draft that fails its check is kept.
+ */
+export function useDraft(value: string, store: (text: string) => void, check: (text: string) => string | null = () => null) {
+  const [draft, setDraft] = useState<string | null>(null);
+  const text = draft ?? value;
+  return {
+    text,
+    error: check(text),
+    edit: (t: string) => setDraft(t),
+    finish: (): string | null => {
+      if (draft === null) return null;
+      if (check(draft)) return null; // stays in the field with its message
+      setDraft(null);
+      if (draft !== value) store(draft);
+      return draft;
+    },
+    cancel: () => setDraft(null),
+  };
+}
+
+/** Enter finishes a one-line field, Ctrl/Cmd+Enter a multi-line one; Escape drops the draft. */
+export function finishKeys(finish: () => void, cancel: () => void, multiline = false) {
+  return (e: KeyboardEvent<HTMLInputElement | HTMLTextAreaElement>) => {
+    if (e.key === 'Enter' && (!multiline || e.ctrlKey || e.metaKey)) {
+      e.preventDefault();
+      finish();
+    }
+    if (e.key === 'Escape') {
+      e.stopPropagation();
+      cancel();
+    }
+  };
+}
+
+/** Free text (labels, notes). `onChange` receives the finished text; `onBlur` runs after it, with that text. */
+export function TextField({ label, value, onChange, onBlur, multiline, placeholder }: { label: string; value: string; onChange(v: string): void; onBlur?(finished: string): void; multiline?: boolean; placeholder?: string }) {
   const id = useId();
-  return (
-    <Field label={label} id={id}>
-      {multiline ? (
-        <textarea id={id} value={value} rows={3} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} onBlur={onBlur} />
-      ) : (
-        <input id={id} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} onBlur={onBlur} />
-      )}
-    </Field>
-  );
+  const d = useDraft(value, onChange);
+  const finish = () => onBlur?.(d.finish() ?? value);
+  const common = {
+    id,
+    value: d.text,
+    placeholder,
+    onChange: (e: { target: { value: string } }) => d.edit(e.target.value),
+    onBlur: finish,
+    onKeyDown: finishKeys(() => (document.activeElement as HTMLElement | null)?.blur(), d.cancel, multiline),
+  };
+  return <Field label={label} id={id}>{multiline ? <textarea {...common} rows={3} /> : <input {...common} />}</Field>;
 }
 
 /**
  * A text box whose content is checked before it is stored: `check` returns
- * an error message or null; only valid text reaches `commit`.
+ * an error message or null; only valid text reaches `commit`, on Enter or
+ * when the field is left.
  */
-export function CheckedField({ label, value, check, commit, onBlur, hint, placeholder, commitOn = 'change' }: {
+export function CheckedField({ label, value, check, commit, onBlur, hint, placeholder }: {
   label: string;
   value: string;
   check(text: string): string | null;
   commit(text: string): void;
   onBlur?(): void;
-  hint?: string;
+  hint?: ReactNode;
   placeholder?: string;
-  commitOn?: 'change' | 'blur';
 }) {
   const id = useId();
-  const [draft, setDraft] = useState(value);
-  const [editing, setEditing] = useState(false);
-  useEffect(() => {
-    if (!editing) setDraft(value);
-  }, [value, editing]);
-  const error = check(draft);
-  const finish = () => {
-    setEditing(false);
-    if (commitOn === 'blur' && !check(draft) && draft !== value) commit(draft);
-    else if (check(draft)) setDraft(value);
-    onBlur?.();
-  };
+  const d = useDraft(value, commit, check);
   return (
     <div className="lf-field">
       <label htmlFor={id}>{label}</label>
       <input
         id={id}
-        value={draft}
+        value={d.text}
         placeholder={placeholder}
-        aria-invalid={error ? true : undefined}
+        aria-invalid={d.error ? true : undefined}
         aria-describedby={`${id}-msg`}
-        className={error ? 'is-invalid' : undefined}
-        onFocus={() => setEditing(true)}
-        onChange={(e) => {
-          setDraft(e.target.value);
-          if (commitOn === 'change' && !check(e.target.value)) commit(e.target.value);
+        className={d.error ? 'is-invalid' : undefined}
+        onChange={(e) => d.edit(e.target.value)}
+        onBlur={() => {
+          d.finish();
+          onBlur?.();
         }}
-        onBlur={finish}
-        onKeyDown={(e) => {
-          if (e.key === 'Enter') (e.target as HTMLInputElement).blur();
-          if (e.key === 'Escape') {
-            setDraft(value);
-            setEditing(false);
-          }
-        }}
+        onKeyDown={finishKeys(() => d.finish(), d.cancel)}
       />
       <div id={`${id}-msg`} aria-live="polite">
-        {error ? <p className="lf-field-error" role="alert">{error}</p> : hint ? <p className="lf-hint">{hint}</p> : null}
+        {d.error ? (
+          <p className="lf-field-error" role="alert">{d.error} <span className="lf-hint">(not stored: correct it, or press Escape for the stored value)</span></p>
+        ) : hint ? (
+          <p className="lf-hint">{hint}</p>
+        ) : null}
       </div>
     </div>
   );

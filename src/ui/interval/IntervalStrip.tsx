@@ -198,7 +198,8 @@ function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval
       : String(Math.max(2, Math.round((length.by === 'window' ? length.window : 50 * interval) / interval)));
     apply(next, as);
   };
-  const other = by === 'window' ? `${Math.max(1, Math.round(length.window / interval))} samples` : `lasts ${formatDuration(length.samples * interval, unit)}`;
+  const nSamples = by === 'window' ? Math.max(1, Math.round(length.window / interval)) : 0;
+  const other = by === 'window' ? `${nSamples} ${nSamples === 1 ? 'sample' : 'samples'}` : `lasts ${formatDuration(length.samples * interval, unit)}`;
   return (
     <div className="lf-study">
       <label>

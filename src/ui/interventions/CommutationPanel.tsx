@@ -14,6 +14,32 @@ import { useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import './interventions.css';
 
+/** An equation id in the modeller's words: rate(x) → "the rate equation of X", a relation → its text. */
+export function equationWords(model: Model, id: string): string {
+  const label = (v: string) => model.variables.find((x) => x.id === v)?.label || v;
+  const m = /^(rate|formula|hold)\((.+)\)$/.exec(id);
+  if (m) return m[1] === 'rate' ? `the rate equation of ${label(m[2])}` : m[1] === 'formula' ? `the formula of ${label(m[2])}` : `the hold on ${label(m[2])}`;
+  const r = (model.relations ?? []).find((x) => x.id === id);
+  return r ? `the relation ${r.equation}` : id;
+}
+
+function orWords(items: string[]): string {
+  return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} or ${items[items.length - 1]}`;
+}
+
+/** Words of the core's sentences never read as variable names. */
+const PLAIN_WORDS = new Set('a an and any are as at be by each either equation for from give held holding if in is it its keeps let loop model no none not of on or order own replaced running settle settles system that the their them then this through to with'.split(' '));
+
+/** A core sentence with equation ids and variable ids put in words and labels. */
+export function inWords(model: Model, text: string): string {
+  const byId = new Map(model.variables.map((v) => [v.id, v.label || v.id]));
+  const rel = new Set((model.relations ?? []).map((r) => r.id));
+  return text
+    .replace(/d\(([A-Za-z_]\w*)\)\/dt/g, (_, v: string) => `the change of ${byId.get(v) ?? v}`)
+    .replace(/\b(rate|formula|hold)\(([A-Za-z_]\w*)\)/g, (e: string) => equationWords(model, e))
+    .replace(/\b[A-Za-z_]\w*\b/g, (w) => (PLAIN_WORDS.has(w.toLowerCase()) ? w : rel.has(w) ? equationWords(model, w) : byId.get(w) ?? w));
+}
+
 export function CommutationPanel() {
   const model = useValidatedModel();
   const design = useAnalysisState((s) => s.design);
@@ -59,11 +85,17 @@ export function CommutationPanelFor({ model, design }: { model: Model; design: S
       <p className={c.agree ? 'lf-commute-verdict lf-agree' : 'lf-commute-verdict lf-differ'} data-agree={c.agree}>
         <span aria-hidden="true">{c.agree ? '=' : '≠'}</span> {c.agree ? 'The two orders agree.' : 'The two orders differ.'}
       </p>
-      <ul className="lf-commute-why">{c.explanation.map((l, i) => <li key={i}>{l}</li>)}</ul>
+      <ul className="lf-commute-why">{c.explanation.map((l, i) => <li key={i}>{inWords(model, l)}</li>)}</ul>
       {c.ambiguous.length > 0 && (
         <div className="lf-commute-ambiguous">
           <h4>Ambiguous in the equilibrium model</h4>
-          <ul>{c.ambiguous.map((a) => <li key={a.variable}>{label(a.variable)}: any of {a.candidates.join(', ')} could be replaced (shown: {a.chosen})</li>)}</ul>
+          <ul>
+            {c.ambiguous.map((a) => (
+              <li key={a.variable}>
+                {label(a.variable)} is determined together with other variables, so a hold on it could take the place of {orWords(a.candidates.map((e) => equationWords(model, e)))}. The equilibrium model alone cannot say which; the figures show {equationWords(model, a.chosen)} replaced.
+              </li>
+            ))}
+          </ul>
         </div>
       )}
       {c.drift && <p className="lf-commute-drift" role="note"><span aria-hidden="true">↗</span> {c.drift.message}</p>}

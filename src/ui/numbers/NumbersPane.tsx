@@ -23,6 +23,7 @@ import { linkCurveChart } from '../../export/charts';
 import { svgDocument } from '../../export/svg';
 import { ExportButtons } from './ExportButtons';
 import { isFailed, useNumeric } from './useNumeric';
+import { GrowthNotice, useGrowingStates } from '../diagnostics/GrowthNotice';
 import './numbers.css';
 
 function Section({ title, children, id }: { title: string; children: React.ReactNode; id: string }) {
@@ -54,6 +55,7 @@ function NumbersOf({ model }: { model: Model }) {
   const sampled = useNumeric<SampledAnswer>(interval !== undefined ? (c) => c.ask('sampled', model, interval) : null, [model, interval]);
   const tsOk = ts.status === 'done' && !isFailed(ts.answer) ? ts.answer : null;
   const states = tsOk?.report.states ?? model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
+  const growing = useGrowingStates();
   const [pair, setPair] = useState<{ from: VariableId | null; to: VariableId | null }>({ from: null, to: null });
   const slowest = tsOk ? Math.max(...tsOk.report.modes.map((m) => m.time).filter(Number.isFinite)) : undefined;
   return (
@@ -63,13 +65,18 @@ function NumbersOf({ model }: { model: Model }) {
         {interval !== undefined ? ` Sampling interval Δ: every ${formatDuration(interval, u)}.` : ' No sampling interval is set: the mechanism itself.'}
       </p>
       <Section id="equilibrium" title="Balance point (equilibrium)">
-        <p className="lf-num-note">Where every state comes to rest when the inputs stay as they are.</p>
+        {growing ? (
+          <GrowthNotice what="this balance as a rest point (the values below only make every rate zero; the states leave them)" />
+        ) : (
+          <p className="lf-num-note">Where every state comes to rest when the inputs stay as they are.</p>
+        )}
         <EquilibriumTable model={model} hold={hold} />
       </Section>
       <Section id="simulation" title="Simulation from the initial values">
         <SimulationPanel model={model} hold={hold} study={study} slowest={slowest !== undefined && Number.isFinite(slowest) && slowest > 0 ? slowest : undefined} />
       </Section>
       <Section id="timescales" title="How fast each state responds">
+        <GrowthNotice what="a settling time for the states it carries" />
         {ts.status !== 'done' ? <p className="lf-num-wait">Working out the timescales…</p> : isFailed(ts.answer) ? <p className="lf-num-error">{ts.answer.reason}</p> : <TimescalesTable model={model} answer={ts.answer} />}
       </Section>
       <Section id="sampled" title="What a study sampling every Δ would see">
@@ -95,7 +102,7 @@ function NumbersOf({ model }: { model: Model }) {
         <LinkPicker model={model} states={states} breakpoints={breakpoints.map((b) => b.interval)} study={study} pair={pair} setPair={setPair} />
       </Section>
       <Section id="advisor" title="Which interval to choose">
-        <IntervalAdvisor model={model} states={states} />
+        <IntervalAdvisor model={model} states={states} reach={tsOk?.reach} />
       </Section>
     </div>
   );

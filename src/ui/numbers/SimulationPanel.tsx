@@ -113,7 +113,9 @@ export function SimulationPanel({ model, hold, study, slowest }: Props) {
               ? 'Set a sampling interval to see the samples a study would take.'
               : samples === null
                 ? `A study sampling every ${formatDuration(interval, unit)} would take too many samples in this run to draw.`
-                : `Open circles: the ${samples.length} samples a study taking one every ${formatDuration(interval, unit)} would see in this run.`}
+                : samples.length === 1
+                  ? `Open circle: the one sample a study taking one every ${formatDuration(interval, unit)} would see in this run.`
+                  : `Open circles: the ${samples.length} samples a study taking one every ${formatDuration(interval, unit)} would see in this run.`}
           </p>
           <button
             type="button"

@@ -42,9 +42,9 @@ export function TimescalesTable({ model, answer }: { model: Model; answer: Times
           {report.modes.map((m, i) => (
             <li key={i}>
               {numText(m.re)}
-              {m.im !== 0 ? ` ${m.im > 0 ? '+' : '−'} ${numText(Math.abs(m.im))}i` : ''}: settles over {dur(m.time)}
+              {m.im !== 0 ? ` ${m.im > 0 ? '+' : '−'} ${numText(Math.abs(m.im))}i` : ''}:{' '}
+              {m.re < 0 ? `settles over ${dur(m.time)}` : m.re > 0 ? `grows, doubling every ${dur(Math.LN2 / m.re)} — unstable: it does not settle` : 'neither grows nor decays'}
               {m.period !== undefined ? `, swings with period ${dur(m.period)}` : ''}
-              {m.stable ? '' : ' — grows: unstable'}
             </li>
           ))}
         </ul>

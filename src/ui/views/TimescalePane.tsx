@@ -13,13 +13,14 @@ import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
 import { useSessionStudy, type StudyLength } from '../../state/session';
+import { viewCaption } from '../../export/caption';
 
 const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
-import { studyCaption } from '../../export/caption';
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ViewCanvas } from './ViewCanvas';
 import { ExplainList } from './ExplainList';
+import { GrowthNotice } from '../diagnostics/GrowthNotice';
 import { restDelay, useIntervalDrag } from '../interval/dragging';
 import './views.css';
 
@@ -83,7 +84,6 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval">{problem ? <p role="alert">The ordering could not be computed: {problem}</p> : <p>Finding the model's timescales…</p>}</section>;
 
   const blocks = simultaneousBlocks(ordering).map((b) => blockKey(b.variables));
-  const caption = studyCaption(model, { interval, ...study });
   const doExport = (kind: 'svg' | 1 | 2 | 4) => {
     const base = model.name.replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'model';
     if (exportOf === 'mechanism') {
@@ -103,8 +103,10 @@ export function TimescalePaneFor({ model }: { model: Model }) {
       if (!r.ok) { setExportProblem(`The figure could not be exported: ${r.message}`); return; }
       setExportProblem(null);
       const figure = orderingView(model, r.ordering, { mode: view, folded: foldedList, interval, ...study });
-      if (kind === 'svg') await exportSvg(figure, { caption: true, captionText: caption }, name, at);
-      else await exportPng(figure, { caption: true, captionText: caption }, name, kind, at);
+      // the caption says what the title does not: the roles, the blocks and the links (as `loopfold render --caption`)
+      const captionText = viewCaption(figure);
+      if (kind === 'svg') await exportSvg(figure, { caption: true, captionText }, name, at);
+      else await exportPng(figure, { caption: true, captionText }, name, kind, at);
     })();
   };
   return (
@@ -156,6 +158,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
       </div>
       <aside className="lf-explain" aria-label="What changes at this interval">
         <h3>What changes at this interval</h3>
+        <GrowthNotice what="settling (and the timescales it rests on)" />
         <ExplainList lines={lines} />
         {model.caution && <p className="lf-caution">{model.caution}</p>}
       </aside>

@@ -118,8 +118,9 @@ describe('equilibrium, block by block', () => {
     expect(settled.values.comfort).toBeCloseTo(-3, 12);
     const lin = linearize(eq.system, eq.point);
     if (!lin.ok) throw new Error(lin.reason);
-    // d warmth/dt = (3 sun − warmth)/0.5; d savings/dt = comfort/10 = −0.05·warmth. (hand derivation, common practice)
-    expectClose(toRows(lin.drift), [[-2, 0], [-0.05, 0]], {}, 'sketch drift');
+    // d warmth/dt = (3 sun − warmth)/0.5; d savings/dt = 0.8·comfort/10 = −0.04·warmth, 0.8 being the
+    // default strength of comfort → savings, its only link (hand derivation, common practice).
+    expectClose(toRows(lin.drift), [[-2, 0], [-0.04, 0]], {}, 'sketch drift');
   });
 });
 

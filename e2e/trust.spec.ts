@@ -1,0 +1,164 @@
+import { expect, test, type Page } from '@playwright/test';
+import { readFileSync } from 'node:fs';
+
+const AXE = readFileSync('node_modules/axe-core/axe.min.js', 'utf8');
+
+type AxeResult = { violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] };
+
+/** WCAG 2.1 A and AA rules of axe-core 4.14 over the page as it is now. */
+async function axeViolations(page: Page): Promise<string[]> {
+  if (!(await page.evaluate(() => 'axe' in window))) await page.addScriptTag({ content: AXE });
+  const r = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run(ctx: unknown, opts: unknown): Promise<unknown> } }).axe;
+    return axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] }, resultTypes: ['violations'] });
+  }) as AxeResult;
+  return r.violations.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+}
+
+async function shot(page: Page, path: string): Promise<void> {
+  await page.waitForTimeout(200);
+  await page.screenshot({ path });
+}
+
+test.describe('fields, selection and checks a modeller can trust', () => {
+  test('a timescale is stored on Enter, never per keystroke; bad text stays with its message until Escape', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await page.locator('.react-flow__node[data-id="mood"]').click();
+    const inspector = page.locator('.lf-inspector');
+    const tau = inspector.getByLabel('Timescale τ');
+    await expect(tau).toHaveValue('3 days');
+    await tau.fill('');
+    await tau.pressSequentially('5 fortnights');
+    // nothing stored on the way: "5" would be 5 h
+    expect(await page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'mood')!.timescale)).toBe('3 days');
+    await tau.press('Enter');
+    await expect(inspector.getByRole('alert')).toContainText('"fortnights" in "5 fortnights" is not a time unit');
+    await expect(tau).toHaveValue('5 fortnights');
+    await tau.blur();
+    await expect(tau).toHaveValue('5 fortnights'); // kept, not silently reverted
+    expect(await page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'mood')!.timescale)).toBe('3 days');
+    await shot(page, testInfo.outputPath('field-invalid-kept.png'));
+    await tau.focus();
+    await tau.press('Escape');
+    await expect(tau).toHaveValue('3 days');
+    await tau.fill('0.5 s');
+    await tau.press('Enter');
+    expect(await page.evaluate(() => window.__loopfold!.model().variables.find((v) => v.id === 'mood')!.timescale)).toBe('0.5 s');
+    // under a second reads in milliseconds, never "0 s"
+    await expect(inspector.getByText('= 500 ms')).toBeVisible();
+  });
+
+  test('after undoing an added variable and an added relation, a click selects exactly what was clicked', async ({ page }, testInfo) => {
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.getByRole('button', { name: '+ Variable' }).click();
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(8);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.getByRole('button', { name: '+ Relation' }).click();
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await page.locator('.react-flow__node[data-id="stress"]').click();
+    const inspector = page.locator('.lf-inspector');
+    await expect(inspector.getByRole('heading', { level: 2 })).toHaveText('Variable: Stress');
+    await page.locator('.react-flow__node[data-id="mood"]').click();
+    await expect(inspector.getByRole('heading', { level: 2 })).toHaveText('Variable: Mood');
+    await shot(page, testInfo.outputPath('selection-after-undo.png'));
+  });
+
+  test('+ Relation with nothing selected adds an empty relation that asks for its equation, not a made-up one', async ({ page }) => {
+    await page.goto('/?example=lake');
+    const before = await page.evaluate(() => window.__loopfold!.model());
+    await page.getByRole('button', { name: '+ Relation' }).click();
+    const after = await page.evaluate(() => window.__loopfold!.model());
+    expect(after.relations!.length).toBe((before.relations ?? []).length + 1);
+    expect(after.relations![after.relations!.length - 1].equation).toBe('');
+    const eq = page.locator('.lf-inspector').getByLabel('Equation', { exact: true });
+    await expect(eq).toBeFocused();
+    await page.getByRole('tab', { name: 'Edit' }).click();
+    await expect(page.locator('.lf-diagnostics')).toContainText('no equation yet');
+    await expect(page.locator('.lf-diagnostics')).not.toContainText('over-determined');
+  });
+
+  test('a sketch with a growing mode is a finding in the Checks, the timescale view and the Numbers', async ({ page }, testInfo) => {
+    test.setTimeout(240_000);
+    await page.goto('/');
+    await page.evaluate(() => window.__loopfold!.load({
+      format: 'loopfold-model', version: 1, name: 'Household budget', timeUnit: 'week',
+      variables: [
+        { id: 'savings', label: 'Savings', kind: 'state', timescale: 4, position: { x: 0, y: 0 } },
+        { id: 'confidence', label: 'Spending confidence', kind: 'state', timescale: 1, position: { x: 260, y: 0 } },
+      ],
+      links: [
+        { from: 'confidence', to: 'savings', kind: 'integrating', sign: '+', weight: 1.2 },
+        { from: 'savings', to: 'confidence', kind: 'integrating', sign: '+', weight: 1 },
+      ],
+    }));
+    const checks = page.locator('.lf-diagnostics');
+    await expect(checks).toContainText('growing mode', { timeout: 60_000 });
+    await expect(checks).toContainText('Savings');
+    await expect(checks).not.toContainText('no problems found');
+    await page.getByRole('tab', { name: 'Timescales' }).click();
+    await expect(page.locator('.lf-explain .lf-growth-notice')).toContainText('Not at rest');
+    await page.getByRole('tab', { name: 'Numbers' }).click();
+    await expect(page.locator('[data-section="equilibrium"] .lf-growth-notice')).toBeVisible();
+    await expect(page.locator('[data-section="equilibrium"]')).not.toContainText('Where every state comes to rest');
+    await shot(page, testInfo.outputPath('growing-numbers.png'));
+  });
+});
+
+test.describe('a projector at 1024×768', () => {
+  test.use({ viewport: { width: 1024, height: 768 } });
+  test('the toolbar keeps one row, the model name is whole, and every example\'s canvas text is at least 11 px after Fit', async ({ page }, testInfo) => {
+    test.setTimeout(300_000);
+    for (const id of ['sleep-stress', 'lake', 'greenhouse', 'warehouse']) {
+      await page.goto(`/?example=${id}`);
+      await expect(page.locator('.react-flow__node-variable').first()).toBeVisible();
+      await page.waitForTimeout(400);
+      const bar = await page.locator('.lf-topbar').boundingBox();
+      const buttons = await page.locator('.lf-toolbar button').evaluateAll((bs) => bs.map((b) => b.getBoundingClientRect().top));
+      expect(Math.max(...buttons) - Math.min(...buttons), `${id}: toolbar in one row`).toBeLessThan(4);
+      expect(bar!.height, `${id}: top bar height`).toBeLessThan(56);
+      const name = page.locator('.lf-docname');
+      const cut = await name.evaluate((el) => el.scrollWidth > el.clientWidth + 1);
+      expect(cut, `${id}: model name cut off`).toBe(false);
+      // text drawn on the canvas, measured on screen after the view is fitted
+      const sizes = await page.locator('.react-flow__renderer text').evaluateAll((ts) => ts.filter((t) => (t as SVGTextElement).getBBox().width > 0).map((t) => t.getBoundingClientRect().height));
+      expect(sizes.length, id).toBeGreaterThan(0);
+      const fontPx = await page.locator('.react-flow__renderer text').evaluateAll((ts) => {
+        const scale = (el: Element) => {
+          const vp = el.closest('.react-flow__viewport') as HTMLElement | null;
+          const m = vp ? new DOMMatrix(getComputedStyle(vp).transform) : new DOMMatrix();
+          return m.a;
+        };
+        return ts.filter((t) => (t as SVGTextElement).getBBox().width > 0).map((t) => parseFloat(getComputedStyle(t).fontSize) * scale(t));
+      });
+      expect(Math.min(...fontPx), `${id}: smallest canvas text after Fit`).toBeGreaterThanOrEqual(11);
+      await shot(page, testInfo.outputPath(`1024-${id}.png`));
+    }
+  });
+});
+
+test.describe('accessibility (axe-core, WCAG 2.1 AA)', () => {
+  test('every tab and dialog with an example open has no violations', async ({ page }, testInfo) => {
+    test.setTimeout(360_000);
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    await page.waitForTimeout(500);
+    const found: Record<string, string[]> = {};
+    for (const tab of ['Edit', 'Equations', 'Timescales', 'Intervene', 'Numbers']) {
+      await page.getByRole('tab', { name: tab }).click();
+      if (tab === 'Numbers') await expect(page.locator('.lf-net-edge').first()).toBeVisible({ timeout: 90_000 });
+      await page.waitForTimeout(600);
+      found[tab] = await axeViolations(page);
+      await shot(page, testInfo.outputPath(`axe-${tab}.png`));
+    }
+    await page.getByRole('tab', { name: 'Edit' }).click();
+    await page.getByRole('button', { name: 'Examples' }).click();
+    await expect(page.locator('dialog.lf-dialog[open]')).toBeVisible();
+    found.gallery = await axeViolations(page);
+    await page.keyboard.press('Escape');
+    await page.locator('.react-flow__node[data-id="stress"]').click();
+    found['variable inspector'] = await axeViolations(page);
+    expect(found).toEqual({ Edit: [], Equations: [], Timescales: [], Intervene: [], Numbers: [], gallery: [], 'variable inspector': [] });
+  });
+});
