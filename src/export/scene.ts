@@ -5,7 +5,8 @@
  * elements, so the screen and the exported figure are one picture.
  */
 import type { ViewEdge, ViewModel, ViewNode } from '../core/view/types';
-import type { Box, Layout } from '../layout/types';
+import { Occupancy, placeMark, pointAlong, polylineLength, quadPoints, rectOf, type Rect } from '../layout/space';
+import type { Box, Layout, Point } from '../layout/types';
 import { ACCUMULATOR_FLOOR, BLOCK_STYLE, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, PAPER, ROLE_STYLE, shapePath } from '../theme/visual';
 
 export type Attr = string | number | undefined;
@@ -89,38 +90,22 @@ function exitPoint(b: Box, tx: number, ty: number, pad = 2): { x: number; y: num
   return { x: cx + dx * s, y: cy + dy * s };
 }
 
-/** An edge along a routed polyline (ELK's route, border to border). */
-function routedEdgeEl(e: ViewEdge, ps: readonly { x: number; y: number }[]): El {
-  const style = LINK_STYLE[e.kind];
-  const sim = e.simultaneous;
-  const color = sim ? BLOCK_STYLE.stroke : style.stroke;
-  const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
-  const d = ps.map((p, i) => `${i ? 'L' : 'M'}${r1(p.x)},${r1(p.y)}`).join(' ');
-  const kids: (El | string)[] = [
-    el('title', {}, [`${e.pairs.map((p) => `${p.from} → ${p.to}`).join(', ')}: ${style.label}${sim ? ', within a simultaneous block' : ''}`]),
-    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
-  ];
-  if (e.sign && ps.length >= 2) {
-    const p0 = ps[ps.length - 2], p1 = ps[ps.length - 1];
-    const len = Math.hypot(p1.x - p0.x, p1.y - p0.y) || 1;
-    const t = Math.max(0.3, 1 - 22 / len);
-    const nx = -(p1.y - p0.y) / len, ny = (p1.x - p0.x) / len;
-    kids.push(el('text', { x: r1(p0.x + (p1.x - p0.x) * t + nx * 9), y: r1(p0.y + (p1.y - p0.y) * t + ny * 9 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
-  }
-  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
-}
-
 /** A part of the figure: the box it is drawn in, and its elements, made only when they are drawn. */
 interface Part {
   box: readonly number[];
   make(): El;
 }
 
-/**
- * The geometry of an edge now, its elements when asked for. `reach.top`: the highest point the edge's
- * line or sign reaches (arcs over a row rise above it); it counts for the figure's size, drawn or not.
- */
-function edgePart(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: number }): Part {
+/** The line of an edge: its path data and the points it passes (a curve sampled), from source to head. */
+interface EdgeLine {
+  d: string;
+  ps: Point[];
+  /** The control point of a curve (its path data names it; the part's box holds it). */
+  hull?: Point[];
+}
+
+/** A line between two boxes, straight or bent by `bend` px at its middle (a quadratic curve). */
+function edgeLine(a: Box, b: Box, bend: number): EdgeLine {
   const ac = { x: a.x + a.width / 2, y: a.y + a.height / 2 };
   const bc = { x: b.x + b.width / 2, y: b.y + b.height / 2 };
   const len = Math.hypot(bc.x - ac.x, bc.y - ac.y) || 1;
@@ -128,39 +113,48 @@ function edgePart(e: ViewEdge, a: Box, b: Box, bend: number, reach: { top: numbe
   const mid = { x: (ac.x + bc.x) / 2 + nx * bend, y: (ac.y + bc.y) / 2 + ny * bend };
   const p0 = exitPoint(a, mid.x, mid.y);
   const p1 = exitPoint(b, mid.x, mid.y, 3);
+  if (bend === 0) return { d: `M${r1(p0.x)},${r1(p0.y)} L${r1(p1.x)},${r1(p1.y)}`, ps: [p0, p1] };
   const ctrl = { x: 2 * mid.x - (p0.x + p1.x) / 2, y: 2 * mid.y - (p0.y + p1.y) / 2 };
-  const d = bend === 0 ? `M${r1(p0.x)},${r1(p0.y)} L${r1(p1.x)},${r1(p1.y)}` : `M${r1(p0.x)},${r1(p0.y)} Q${r1(ctrl.x)},${r1(ctrl.y)} ${r1(p1.x)},${r1(p1.y)}`;
-  // the curve's lowest y: at its ends or at its turning point B(t*), t* = (p0 − c) / (p0 − 2c + p1)
-  const den = p0.y - 2 * ctrl.y + p1.y;
-  const ts = bend !== 0 && Math.abs(den) > 1e-9 ? (p0.y - ctrl.y) / den : -1;
-  const peak = ts > 0 && ts < 1 ? (1 - ts) * (1 - ts) * p0.y + 2 * (1 - ts) * ts * ctrl.y + ts * ts * p1.y : Infinity;
-  reach.top = Math.min(reach.top, p0.y, p1.y, peak);
-  // the sign glyph near the head, off the line
-  const t = 0.78;
-  const q = bend === 0
-    ? { x: p0.x + (p1.x - p0.x) * t, y: p0.y + (p1.y - p0.y) * t }
-    : { x: (1 - t) * (1 - t) * p0.x + 2 * (1 - t) * t * ctrl.x + t * t * p1.x, y: (1 - t) * (1 - t) * p0.y + 2 * (1 - t) * t * ctrl.y + t * t * p1.y };
-  if (e.sign) reach.top = Math.min(reach.top, q.y + ny * 10 - 8);
-  // a quadratic curve stays inside the triangle of its ends and control point
-  const box = around(bend === 0 ? [p0, p1] : [p0, p1, ctrl], 24);
-  return { box, make: () => edgeEl(e, d, q, nx, ny) };
+  return { d: `M${r1(p0.x)},${r1(p0.y)} Q${r1(ctrl.x)},${r1(ctrl.y)} ${r1(p1.x)},${r1(p1.y)}`, ps: quadPoints(p0, ctrl, p1, 16), hull: [ctrl] };
 }
 
-function edgeEl(e: ViewEdge, d: string, q: { x: number; y: number }, nx: number, ny: number): El {
+/** A routed polyline (ELK's route, border to border). */
+function routedLine(ps: readonly Point[]): EdgeLine {
+  return { d: ps.map((p, i) => `${i ? 'L' : 'M'}${r1(p.x)},${r1(p.y)}`).join(' '), ps: [...ps] };
+}
+
+/** The same polyline moved `by` px to its left (seen from its start towards its end). */
+function shiftedLeft(ps: readonly Point[], by: number): Point[] {
+  const a = ps[0], b = ps[ps.length - 1];
+  const len = Math.hypot(b.x - a.x, b.y - a.y) || 1;
+  const nx = (b.y - a.y) / len, ny = -(b.x - a.x) / len;
+  return ps.map((p) => ({ x: p.x + nx * by, y: p.y + ny * by }));
+}
+
+/** The sign glyph's box (13 px bold, centred on its spot). */
+const SIGN_BOX = { width: 12, height: 12 };
+
+/**
+ * An edge's elements: its line, and its sign glyph at `mark` (null: no glyph; an edge whose line another
+ * edge draws — several members of one block driven by one source — names that edge in `data-along`).
+ */
+function edgeEl(e: ViewEdge, line: EdgeLine, sign: string | undefined, mark: Point | null, along?: string): El {
   const style = LINK_STYLE[e.kind];
   const sim = e.simultaneous;
   const color = sim ? BLOCK_STYLE.stroke : style.stroke;
   const width = 1.3 + 1.5 * Math.min(1, Math.abs(e.weight ?? 0.5));
+  // every edge has the same elements and attribute names whether it draws its line or another edge draws
+  // it (`visibility`): a figure whose bundles change on screen has its values written in, not its parts parsed again
+  const shown = along ? 'hidden' : 'visible';
   const kids: (El | string)[] = [
     el('title', {}, [`${e.pairs.map((p) => `${p.from} → ${p.to}`).join(', ')}: ${style.label}${sim ? ', within a simultaneous block' : ''}`]),
-    // the same attributes as a routed edge's line (round joins draw nothing on a line without corners): a
-    // figure whose edges go from straight to routed on screen has its values written in, not its parts parsed again
-    el('path', { d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})` }),
+    el('path', { d: line.d, fill: 'none', stroke: color, 'stroke-width': r1(width), 'stroke-dasharray': style.dash, 'stroke-linejoin': 'round', 'marker-end': `url(#lf-head-${sim ? 'simultaneous' : e.kind})`, visibility: shown }),
   ];
-  if (e.sign) {
-    kids.push(el('text', { x: r1(q.x + nx * 10), y: r1(q.y + ny * 10 + 4), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke' }, [e.sign === '-' ? '−' : '+']));
+  if (e.sign || sign) {
+    const at = mark ?? besideHead(line.ps);
+    kids.push(el('text', { x: r1(at.x), y: r1(at.y + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: color, stroke: PAPER, 'stroke-width': 3, 'paint-order': 'stroke', visibility: sign && mark ? 'visible' : 'hidden' }, [sign ?? '+']));
   }
-  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}) }, kids);
+  return el('g', { 'data-edge': e.id, 'data-kind': e.kind, 'data-from': e.from, 'data-to': e.to, ...(sim ? { 'data-simultaneous': 'true' } : {}), ...(e.carry ? { 'data-carry': 'true' } : {}), 'data-along': along ?? '' }, kids);
 }
 
 /**
@@ -235,6 +229,169 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
   return { el: el('g', { transform: `translate(24,${r1(y)})`, 'data-part': 'legend' }, items), height: items.length ? (row + 1) * 30 + 10 : 0 };
 }
 
+/**
+ * Every edge's line and sign, placed together: a link into or out of an unfolded block is drawn to or
+ * from the block's border (one line for several members driven by one source: the block's equations are
+ * solved together); two links between one pair run apart; each sign goes to the first spot near its head
+ * that covers no node, block header, other sign or other line (`placeMark`). `reach.top`: the highest
+ * point a line or sign reaches (arcs over a row rise above the laid-out box), drawn or not.
+ */
+function edgeParts(vm: ViewModel, layout: Layout, reach: { top: number }): Part[] {
+  const groupOf = new Map<string, string>();
+  for (const g of vm.groups) if (layout.groups[g.id]) for (const m of g.members) groupOf.set(m, g.id);
+  /** The box an end is drawn at: the node, or its block when the other end lies outside that block. */
+  const endBox = (id: string, other: string): Box | undefined => {
+    const g = groupOf.get(id);
+    return g && groupOf.get(other) !== g ? layout.groups[g] : layout.nodes[id];
+  };
+  const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
+  const space = new Occupancy(64);
+  for (const n of vm.nodes) { const b = layout.nodes[n.id]; if (b) space.addBox(rectOf(b, 1), n.id); }
+  for (const g of vm.groups) { const b = layout.groups[g.id]; if (b) space.addBox(headerRect(b), g.id); }
+  const lines: { e: ViewEdge; line: EdgeLine; key: string }[] = [];
+  let laneCache: number[] | undefined;
+  const lanes = () => (laneCache ??= freeLanes([...Object.values(layout.nodes), ...Object.values(layout.groups)]));
+  const laneUse = new Map<number, number>();
+  const entries = new Map<Box, number>();
+  for (const e of vm.edges) {
+    const a = endBox(e.from, e.to), b = endBox(e.to, e.from);
+    if (!a || !b || !layout.nodes[e.from] || !layout.nodes[e.to]) continue;
+    const route = layout.edges?.[e.id];
+    const reverse = pairs.has(`${e.to}>${e.from}`) && e.from !== e.to;
+    let line: EdgeLine;
+    if (route && route.length >= 2) line = routedLine(reverse && groupOf.get(e.from) !== undefined && groupOf.get(e.from) === groupOf.get(e.to) ? shiftedLeft(route, 5) : route);
+    else {
+      // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
+      const across = vm.mode === 'unrolled' && e.kind === 'integrating';
+      const sameRow = Math.abs(a.y + a.height / 2 - (b.y + b.height / 2)) < 30;
+      const bend = across && sameRow ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : reverse ? 16 : 0;
+      // the first bend whose line passes through no node but its own ends (nor a block's header)
+      const ends = new Set([e.from, e.to, groupOf.get(e.from) ?? e.from, groupOf.get(e.to) ?? e.to]);
+      const tries = bend !== 0 ? [1, 1.5, 2, 2.6, 3.3, -1, -1.6].map((k) => bend * k) : [0, 30, -30, 60, -60, 100, -100, 150, -150, 220, -220, 300, -300, 400, -400];
+      let found: EdgeLine | null = null;
+      for (const t of tries) {
+        const l = edgeLine(a, b, t);
+        if (space.lineClear(l.ps, ends)) { found = l; break; }
+      }
+      // else along a free lane between the rows: up or down from the source, across, into the target
+      // (in the three instants, the free channel between the target's instant and the one before or after it)
+      const frame = layout.slices?.[/@(-?\d+)$/.exec(e.to)?.[1] ?? ''];
+      const channel = frame && (b.x > a.x + a.width ? frame.x - 14 : frame.x + frame.width + 14);
+      found ??= laneLine(a, b, lanes(), laneUse, entries, space, ends, channel);
+      line = found ?? edgeLine(a, b, bend);
+    }
+    lines.push({ e, line, key: '' });
+  }
+  // a corner shared with a line of another source: the later line moves aside (lines never merge at a corner)
+  for (let i = 0; i < lines.length; i++) {
+    for (let shift = 4; shift <= 12 && lines[i].line.ps.length > 2; shift += 4) {
+      const li = lines[i];
+      if (!lines.some((o, j) => j !== i && o.e.from !== li.e.from && sharesCorner(o.line.ps, li.line.ps))) break;
+      const moved = shiftedLeft(li.line.ps, shift);
+      if (space.lineClear(moved, new Set([li.e.from, li.e.to, groupOf.get(li.e.from) ?? li.e.from, groupOf.get(li.e.to) ?? li.e.to]))) lines[i] = { ...li, line: routedLine(moved) };
+    }
+  }
+  for (const l of lines) l.key = `${l.e.kind}|${l.e.simultaneous}|${l.line.d}`;
+  // one line per bundle (the first edge of it draws); its sign when all the modeller's links in it agree
+  const first = new Map<string, number>();
+  const signs = new Map<string, Set<string>>();
+  lines.forEach((l, k) => {
+    if (!first.has(l.key)) first.set(l.key, k);
+    if (l.e.sign) (signs.get(l.key) ?? signs.set(l.key, new Set()).get(l.key)!).add(l.e.sign);
+  });
+  lines.forEach((l, k) => { if (first.get(l.key) === k) space.addLine(l.line.ps, l.key); });
+  const parts: Part[] = [];
+  lines.forEach((l, k) => {
+    const lead = first.get(l.key)!;
+    if (lead !== k) {
+      const along = lines[lead].e.id;
+      parts.push({ box: around([...l.line.ps, ...(l.line.hull ?? [])], 24), make: () => edgeEl(l.e, l.line, undefined, null, along) });
+      return;
+    }
+    const set = signs.get(l.key);
+    const sign = set?.size === 1 ? ([...set][0] === '-' ? '−' : '+') : set && set.size > 1 ? '±' : undefined;
+    // no free spot at all: beside the line near its head all the same (a sign is never dropped)
+    const mark = sign ? placeMark(space, l.line.ps, l.key, SIGN_BOX.width, SIGN_BOX.height, { from: 12, offset: 3 }) ?? besideHead(l.line.ps) : null;
+    reach.top = Math.min(reach.top, ...l.line.ps.map((p) => p.y), mark ? mark.y - 8 : Infinity);
+    const box = around([...l.line.ps, ...(l.line.hull ?? []), ...(mark ? [mark] : [])], 24);
+    parts.push({ box, make: () => edgeEl(l.e, l.line, sign, mark) });
+  });
+  return parts;
+}
+
+/** Whether two polylines have a corner (a point but the ends) within 2 px of each other. */
+function sharesCorner(p: readonly Point[], q: readonly Point[]): boolean {
+  for (let i = 1; i < p.length - 1; i++) for (let j = 0; j < q.length; j++) if (Math.abs(p[i].x - q[j].x) < 2.5 && Math.abs(p[i].y - q[j].y) < 2.5) return true;
+  return false;
+}
+
+/** The y of each horizontal strip no box covers (the middle of each gap between rows), and one above and one below everything. */
+function freeLanes(boxes: readonly Box[]): number[] {
+  const spans = boxes.map((b) => [b.y, b.y + b.height] as const).sort((p, q) => p[0] - q[0]);
+  if (!spans.length) return [];
+  const out = [spans[0][0] - 14];
+  let end = spans[0][1];
+  for (const [y0, y1] of spans) {
+    if (y0 > end + 10) out.push((end + y0) / 2);
+    end = Math.max(end, y1);
+  }
+  out.push(end + 14);
+  return out;
+}
+
+/**
+ * A line from a to b along a free lane: from a's top or bottom to the lane, along it, then into b's top
+ * or bottom; the first (nearest lane first) that passes through no box but its own ends. Lines sharing a
+ * lane are set 5 px apart, so they never run on top of each other.
+ */
+function laneLine(a: Box, b: Box, lanes: readonly number[], use: Map<number, number>, entries: Map<Box, number>, space: Occupancy, ends: ReadonlySet<string>, channel?: number): EdgeLine | null {
+  const ay = a.y + a.height / 2, by = b.y + b.height / 2;
+  const order = [...lanes].sort((p, q) => Math.abs(p - ay) + Math.abs(p - by) - (Math.abs(q - ay) + Math.abs(q - by)));
+  // a second line into the same box enters at another point (lines never share their last stretch)
+  const spread = [0.5, 0.3, 0.7, 0.2, 0.8];
+  const nth = entries.get(b) ?? 0;
+  const fbs = [...spread.slice(nth % spread.length), ...spread.slice(0, nth % spread.length)];
+  const right = b.x > a.x + a.width;
+  for (const lane of order) {
+    const k = use.get(lane) ?? 0;
+    const y = lane + (k % 2 ? 1 : -1) * 5 * Math.ceil(k / 2);
+    const tries: { x: number; y: number }[][] = [];
+    for (const fa of [0.5, 0.3, 0.7]) for (const fb of fbs) {
+      const ax = a.x + a.width * fa, bx = b.x + b.width * fb;
+      const p0 = { x: ax, y: y < ay ? a.y - 2 : a.y + a.height + 2 };
+      const p1 = { x: bx, y: y < by ? b.y - 3 : b.y + b.height + 3 };
+      tries.push([p0, { x: ax, y }, { x: bx, y }, p1]);
+    }
+    // into the target's side, from the free space beside it (the gap between two instants)
+    const hy = by + (nth % 2 ? 1 : -1) * 6 * Math.ceil(nth / 2);
+    const sides = [right ? b.x - 16 - 4 * nth : b.x + b.width + 16 + 4 * nth];
+    if (channel !== undefined) sides.push(channel + (right ? 1 : -1) * 4 * nth);
+    for (const side of sides) for (const fa of [0.5, 0.3, 0.7]) {
+      const ax = a.x + a.width * fa;
+      tries.push([{ x: ax, y: y < ay ? a.y - 2 : a.y + a.height + 2 }, { x: ax, y }, { x: side, y }, { x: side, y: hy }, { x: right ? b.x - 3 : b.x + b.width + 3, y: hy }]);
+    }
+    for (const ps of tries) {
+      if (space.lineClear(ps, ends)) {
+        use.set(lane, k + 1);
+        entries.set(b, nth + 1);
+        return routedLine(ps);
+      }
+    }
+  }
+  return null;
+}
+
+/** A spot 9 px to the left of a line, 22 px before its head. */
+function besideHead(ps: readonly Point[]): Point {
+  const { p, ux, uy } = pointAlong(ps, Math.max(0, polylineLength(ps) - 22));
+  return { x: p.x + uy * 9, y: p.y - ux * 9 };
+}
+
+/** The header of a block drawn at box b: its fold button and name (drawn over links; nothing may cover it). */
+function headerRect(b: Box): Rect {
+  return [b.x + 6, b.y + 5, b.x + Math.min(b.width - 6, 200), b.y + 27];
+}
+
 /** A figure is at least this wide, so its legend and caption fit. */
 const MIN_WIDTH = 560;
 /** The width of the svg drawn for a layout (its viewBox's width too). */
@@ -272,18 +429,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
     ]) });
   }
-  const pairs = new Set(vm.edges.map((e) => `${e.from}>${e.to}`));
-  for (const e of vm.edges) {
-    const a = layout.nodes[e.from], b = layout.nodes[e.to];
-    if (!a || !b) continue;
-    const route = layout.edges?.[e.id];
-    if (route && route.length >= 2) { body.push({ box: around(route, 16), make: () => routedEdgeEl(e, route) }); continue; }
-    // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
-    const across = vm.mode === 'unrolled' && e.kind === 'integrating';
-    const sameRow = Math.abs(a.y + a.height / 2 - (b.y + b.height / 2)) < 30;
-    const bend = across && sameRow ? -Math.max(40, 0.12 * Math.abs(b.x - a.x)) : pairs.has(`${e.to}>${e.from}`) ? 16 : 0;
-    body.push(edgePart(e, a, b, bend, reach));
-  }
+  body.push(...edgeParts(vm, layout, reach));
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
     if (b) body.push({ box: outline(b, 4), make: () => nodeEl(n, b) });

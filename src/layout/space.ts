@@ -75,6 +75,7 @@ export function quadPoints(p0: Point, c: Point, p1: Point, n = 16): Point[] {
 export class Occupancy {
   private readonly cells = new Map<number, number[]>();
   private readonly rects: Rect[] = [];
+  private readonly names: (string | undefined)[] = [];
   private readonly lines: { p: Point; q: Point; owner: string }[] = [];
   private readonly kinds: ('box' | 'line')[] = [];
   private readonly refs: number[] = [];
@@ -92,11 +93,12 @@ export class Occupancy {
         if (list) list.push(id); else this.cells.set(k, [id]);
       }
   }
-  /** A box nothing may cover (a node, a mark, a block's header). */
-  addBox(r: Rect): void {
+  /** A box nothing may cover (a node, a mark, a block's header); `name` lets a line through it be allowed. */
+  addBox(r: Rect, name?: string): void {
     const id = this.kinds.length;
     this.kinds.push('box'); this.refs.push(this.rects.length); this.seen.push(0);
     this.rects.push(r);
+    this.names.push(name);
     this.insert(r, id);
   }
   /** A line of `owner` (an edge id): marks of other edges keep off it. */
@@ -108,6 +110,26 @@ export class Occupancy {
       this.lines.push({ p, q, owner });
       this.insert([Math.min(p.x, q.x), Math.min(p.y, q.y), Math.max(p.x, q.x), Math.max(p.y, q.y)], id);
     }
+  }
+  /** Whether the line passes through no box but those named in `allowed`. */
+  lineClear(ps: readonly Point[], allowed: ReadonlySet<string>): boolean {
+    const c = this.cell;
+    for (let k = 1; k < ps.length; k++) {
+      const p = ps[k - 1], q = ps[k];
+      this.stamp++;
+      for (let i = Math.floor(Math.min(p.x, q.x) / c); i <= Math.floor(Math.max(p.x, q.x) / c); i++)
+        for (let j = Math.floor(Math.min(p.y, q.y) / c); j <= Math.floor(Math.max(p.y, q.y) / c); j++) {
+          for (const id of this.cells.get(this.key(i, j)) ?? []) {
+            if (this.seen[id] === this.stamp || this.kinds[id] !== 'box') continue;
+            this.seen[id] = this.stamp;
+            const ref = this.refs[id];
+            const name = this.names[ref];
+            if (name !== undefined && allowed.has(name)) continue;
+            if (segmentMeetsRect(p, q, this.rects[ref])) return false;
+          }
+        }
+    }
+    return true;
   }
   /** Whether r is free: covers no box, and no line but those of `owner` (when lines count). */
   free(r: Rect, owner: string, lines = true): boolean {
@@ -129,6 +151,11 @@ export class Occupancy {
   }
 }
 
+/** Whether a line passes through no box of `space` but those named in `allowed` (its own ends). */
+export function lineClear(space: Occupancy, ps: readonly Point[], allowed: ReadonlySet<string>): boolean {
+  return space.lineClear(ps, allowed);
+}
+
 /**
  * Where a mark of w × h goes beside its line `ps` (drawn from source to
  * head): the first free spot, trying distances from `from` px before the head
@@ -141,15 +168,17 @@ export function placeMark(space: Occupancy, ps: readonly Point[], owner: string,
   const len = polylineLength(ps);
   if (len === 0) return null;
   const steps: number[] = [];
-  for (let d = opts.from; d < len - 4; d += 7) steps.push(d);
+  for (let d = opts.from; d < len - 4; d += 4) steps.push(d);
   if (!steps.length) steps.push(len / 2);
   for (const lines of opts.strict ? [true] : [true, false]) {
     for (const d of steps) {
       const { p, ux, uy } = pointAlong(ps, len - d);
-      const sides = opts.onLine ? [0, 1, -1] : [1, -1];
+      const sides = opts.onLine ? [0, 1, -1] : [1, -1, 2, -2, 3, -3];
       for (const side of sides) {
-        const off = side === 0 ? 0 : opts.offset + (Math.abs(ux) * h + Math.abs(uy) * w) / 2;
-        const cx = p.x - uy * off * side, cy = p.y + ux * off * side;
+        // a second ring further out (|side| 2) when the spots next to the line are taken
+        const off = side === 0 ? 0 : opts.offset * Math.abs(side) ** 2 + (Math.abs(ux) * h + Math.abs(uy) * w) / 2;
+        const dir = Math.sign(side);
+        const cx = p.x - uy * off * dir, cy = p.y + ux * off * dir;
         const r: Rect = [cx - w / 2, cy - h / 2, cx + w / 2, cy + h / 2];
         if (space.free(r, owner, lines)) { space.addBox(r); return { x: cx, y: cy }; }
       }

@@ -94,7 +94,9 @@ describe('the SVG renderer', () => {
       const o = orderingAt(m, { interval: hours[intervals[i]] / perUnit, samples: 40 });
       expect(p.variables).toEqual(m.variables.map((v) => v.id).sort());
       expect(p.groups).toEqual(o.blocks.filter((b) => b.variables.length > 1).map((b) => b.variables.join(' ')).sort());
-      const want = [...new Set(o.edges.map((e) => JSON.stringify([e.from, e.to, e.kind])))].map((s) => JSON.parse(s) as string[]).sort();
+      // the ordering's edges, and inside each block every link drawn between two of its members (both directions of a loop)
+      const inBlock = (a: string, b: string) => o.blocks.some((k) => k.variables.length > 1 && k.variables.includes(a) && k.variables.includes(b));
+      const want = [...new Set([...o.edges.map((e) => JSON.stringify([e.from, e.to, e.kind])), ...m.links.filter((l) => l.from !== l.to && inBlock(l.from, l.to)).map((l) => JSON.stringify([l.from, l.to, 'instantaneous']))])].map((s) => JSON.parse(s) as string[]).sort();
       expect(p.edges.map((e) => JSON.stringify(e)).sort()).toEqual(want.map((e) => JSON.stringify(e)).sort());
       for (const v of m.variables) expect(p.texts).toContain(v.label ?? v.id);
       expect(p.texts.some((t) => t.startsWith('Sampling interval every'))).toBe(true);

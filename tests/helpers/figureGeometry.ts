@@ -20,7 +20,7 @@ export interface Drawn {
   nodes: Map<string, R>;
   /** Block boxes (unfolded simultaneous blocks) and their headers (the fold button and name). */
   groups: Map<string, { box: R; header: R; members: string[] }>;
-  edges: { id: string; from: string; to: string; kind?: string; points: P[]; marks: { text: string; box: R }[]; lagged: boolean; dashed: boolean; hasHead: boolean }[];
+  edges: { id: string; from: string; to: string; kind?: string; points: P[]; bends: P[]; marks: { text: string; box: R }[]; lagged: boolean; dashed: boolean; hasHead: boolean }[];
 }
 
 const EM: Record<string, number> = { '.': 651 / 2048, ' ': 651 / 2048, ',': 651 / 2048, '−': 1716 / 2048, '+': 1716 / 2048 };
@@ -41,9 +41,12 @@ function textBox(e: El, dx: number, dy: number): R {
   return [x0, y - 0.73 * size, x0 + w, y + 0.05 * size];
 }
 
-/** Points of an SVG path (M, L, Q, C, Z; absolute), curves sampled in 24 steps. */
+/**
+ * Points of an SVG path (M, L, H, V, Q, C, A, Z; absolute), curves sampled in 24 steps; an arc of half a
+ * circle (the ends of a pill) adds its middle, where it bulges furthest.
+ */
 export function pathPoints(d: string, dx = 0, dy = 0): P[] {
-  const toks = d.match(/[MLQCZmlqcz]|-?\d*\.?\d+(?:e-?\d+)?/g) ?? [];
+  const toks = d.match(/[MLHVQCAZmlhvqcaz]|-?\d*\.?\d+(?:e-?\d+)?/g) ?? [];
   const out: P[] = [];
   let i = 0, cmd = '';
   const num = () => Number(toks[i++]);
@@ -51,7 +54,19 @@ export function pathPoints(d: string, dx = 0, dy = 0): P[] {
   while (i < toks.length) {
     if (/[A-Za-z]/.test(toks[i])) cmd = toks[i++];
     if (cmd === 'M' || cmd === 'L') { cur = { x: num() + dx, y: num() + dy }; out.push(cur); }
-    else if (cmd === 'Q') {
+    else if (cmd === 'H') { cur = { x: num() + dx, y: cur.y }; out.push(cur); }
+    else if (cmd === 'V') { cur = { x: cur.x, y: num() + dy }; out.push(cur); }
+    else if (cmd === 'A') {
+      const r = num(); num(); num(); num(); const sweep = num();
+      const e = { x: num() + dx, y: num() + dy };
+      const len = Math.hypot(e.x - cur.x, e.y - cur.y);
+      if (len > 0 && Math.abs(len - 2 * r) < 0.5) {
+        const s = sweep ? 1 : -1;
+        out.push({ x: (cur.x + e.x) / 2 + (s * (e.y - cur.y) / len) * r, y: (cur.y + e.y) / 2 - (s * (e.x - cur.x) / len) * r });
+      }
+      out.push(e);
+      cur = e;
+    } else if (cmd === 'Q') {
       const c = { x: num() + dx, y: num() + dy }, e = { x: num() + dx, y: num() + dy };
       for (let k = 1; k <= 24; k++) { const t = k / 24, u = 1 - t; out.push({ x: u * u * cur.x + 2 * u * t * c.x + t * t * e.x, y: u * u * cur.y + 2 * u * t * c.y + t * t * e.y }); }
       cur = e;
@@ -63,6 +78,12 @@ export function pathPoints(d: string, dx = 0, dy = 0): P[] {
     else throw new Error(`path command ${cmd} not read by the check`);
   }
   return out;
+}
+
+/** The corners of a path of straight pieces (M, L): its points but the first and the last; a curve has none. */
+function cornersOf(d: string, dx: number, dy: number): P[] {
+  if (/[QCAqca]/.test(d)) return [];
+  return pathPoints(d, dx, dy).slice(1, -1);
 }
 
 function boundsOf(ps: readonly P[]): R {
@@ -85,12 +106,13 @@ export function readFigure(root: El): Drawn {
     const x = dx + t.x, y = dy + t.y;
     const a = e.attrs;
     if (a['data-edge'] !== undefined) {
-      const line = kids(e).find((k) => k.tag === 'path' && k.attrs.class !== 'lf-net-hit');
+      // a line or mark with visibility hidden is not drawn
+      const line = kids(e).find((k) => k.tag === 'path' && k.attrs.class !== 'lf-net-hit' && k.attrs.visibility !== 'hidden');
       const [from, to] = a['data-from'] !== undefined ? [String(a['data-from']), String(a['data-to'])] : String(a['data-edge']).split('>');
-      const marks = kids(e).filter((k) => k.tag === 'text').map((k) => ({ text: (k.children ?? []).join(''), box: textBox(k, x, y) }));
+      const marks = kids(e).filter((k) => k.tag === 'text' && k.attrs.visibility !== 'hidden').map((k) => ({ text: (k.children ?? []).join(''), box: textBox(k, x, y) }));
       out.edges.push({
         id: String(a['data-edge']), from, to, kind: a['data-kind'] === undefined ? undefined : String(a['data-kind']),
-        points: line ? pathPoints(String(line.attrs.d), x, y) : [], marks,
+        points: line ? pathPoints(String(line.attrs.d), x, y) : [], bends: line ? cornersOf(String(line.attrs.d), x, y) : [], marks,
         lagged: a['data-kind'] === 'integrating', dashed: !!line?.attrs['stroke-dasharray'], hasHead: !!line?.attrs['marker-end'],
       });
       return;
@@ -211,13 +233,13 @@ export function problems(d: Drawn, rules: Rules): string[] {
   return out;
 }
 
-/** Interior bend points shared by lines of different sources (lines that merge there cannot be told apart). */
+/** Bend points (inside a line, not its ends at a node's border) shared by lines of different sources: lines that merge there cannot be told apart. */
 export function sharedBends(d: Drawn, tol = 2): string[] {
   const out: string[] = [];
-  const bends = d.edges.map((e) => e.points.slice(1, -1));
+  const bends = d.edges.map((e) => e.bends);
   for (let i = 0; i < d.edges.length; i++) for (let j = i + 1; j < d.edges.length; j++) {
     if (d.edges[i].from === d.edges[j].from) continue;
-    const hit = bends[i].find((p) => d.edges[j].points.some((q) => Math.hypot(p.x - q.x, p.y - q.y) < tol));
+    const hit = bends[i].find((p) => d.edges[j].points.some((q) => Math.hypot(p.x - q.x, p.y - q.y) < tol) && bends[j].some((q) => Math.hypot(p.x - q.x, p.y - q.y) < tol));
     if (hit) out.push(`${d.edges[i].id} and ${d.edges[j].id} meet at a bend (${hit.x.toFixed(0)}, ${hit.y.toFixed(0)})`);
   }
   return out;

@@ -159,6 +159,16 @@ export function orderingView(model: Model, ordering: Ordering, opts: ViewOptions
       add(nodeOf(e.from, 0), nodeOf(e.to, 1), e.kind, false, pair);
     }
   }
+  // Inside a block every link the modeller drew between two members acts within the instant (the
+  // block's equations are solved together): both directions of a loop are drawn, not only the
+  // dependencies the ordering's pairing of equations to variables happens to name.
+  for (const b of blocks) {
+    const members = new Set(b.variables);
+    for (const l of model.links) {
+      if (l.from === l.to || !members.has(l.from) || !members.has(l.to)) continue;
+      for (const s of slices) add(nodeOf(l.from, s), nodeOf(l.to, s), 'instantaneous', true, { from: l.from, to: l.to });
+    }
+  }
   if (opts.mode === 'unrolled') {
     // A dynamic state carries its own value to the next instant.
     for (const v of model.variables) {
