@@ -58,7 +58,7 @@ function PicturesOf({ model }: { model: Model }) {
   useEffect(() => {
     if (interval === null) return;
     let live = true;
-    void appPicturesClient().then((c) => c.ask('pictures', model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
+    void appPicturesClient().then((c) => c.pictures(model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
     return () => { live = false; };
   }, [model, interval, samples, persons, obs.join(','), JSON.stringify(sdOverrides)]); // eslint-disable-line react-hooks/exhaustive-deps
 
@@ -164,7 +164,7 @@ function UncertainOrderings({ model, interval, samples, length }: { model: Model
     if (ranged.length === 0) return;
     let live = true;
     const design = { ...designOf({ interval, length }), interval };
-    void appPicturesClient().then((c) => c.ask('probabilities', model, design, draws, seed)).then((a) => { if (live && a) setAnswer(a); });
+    void appPicturesClient().then((c) => c.probabilities(model, design, draws, seed)).then((a) => { if (live && a) setAnswer(a); });
     return () => { live = false; };
   }, [model, interval, samples, draws, seed, JSON.stringify(length)]); // eslint-disable-line react-hooks/exhaustive-deps
   return (
