@@ -14,3 +14,5 @@ import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
 import { pictureCommands } from './pictures';
 COMMANDS.push(...pictureCommands);
+import { dataCommands } from './data';
+COMMANDS.push(...dataCommands);

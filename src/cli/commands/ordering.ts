@@ -5,6 +5,7 @@ import type { Diagnostic, Ordering, StudyDesign } from '../../core/ordering/type
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { uncertainOrdering, uncertainText } from './pictures';
+import { designAxis, windowOf } from '../../core/study/convert';
 
 /** Study design from --interval, --window, --samples and --hold. */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -43,7 +44,7 @@ export function parseHold(text: string | true, model: Model): Record<string, num
 function describeDesign(model: Model, design: StudyDesign): string {
   if (design.interval === undefined) return 'the mechanism (every state dynamic)';
   const u = model.timeUnit;
-  const window = design.window ?? design.interval * (design.samples ?? model.settings?.samples ?? 50);
+  const window = windowOf(designAxis(model, design), design.interval);
   return `sampling every ${formatDuration(design.interval, u)}, over a study of ${formatDuration(window, u)}`;
 }
 
