@@ -9,7 +9,7 @@ import { useEffect, useMemo, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { readTimescale } from '../../core/model/timescale';
-import { defaultObserved, type Level } from '../../core/pictures/index';
+import { DEFAULT_PERSONS, defaultObserved, type Level } from '../../core/pictures/index';
 import { useValidatedModel } from '../../state/document';
 import { designOf, useStudy } from '../../state/study';
 import { factorFigure, laggedMatrixFigure, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
@@ -45,7 +45,7 @@ function PicturesOf({ model }: { model: Model }) {
   const length = useStudy((s) => s.length);
   const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
   const inputs = model.variables.filter((v) => v.kind === 'input');
-  const [persons, setPersons] = useState(100);
+  const [persons, setPersons] = useState(model.study?.persons !== undefined && model.study.persons >= 2 ? model.study.persons : DEFAULT_PERSONS);
   const [observed, setObserved] = useState<string[] | null>(null);
   const [personSD, setPersonSD] = useState<Record<string, number>>({});
   const [level, setLevel] = useState<Level>('between');
