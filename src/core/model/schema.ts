@@ -3,7 +3,7 @@ import { lengthAxis, parseInterval } from '../study/convert';
 import { nominalSpacing } from '../study/schedule';
 import { migrateV1 } from './migrate';
 import { MODEL_VERSION, TIME_UNITS, type Model, type Study } from './types';
-import { convertDuration, formatDuration, parseDuration } from './units';
+import { convertDuration, formatDuration } from './units';
 import { readTimescale } from './timescale';
 
 /** One problem found in a model file, located by its JSON path. */
