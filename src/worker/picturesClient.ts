@@ -1,60 +1,34 @@
 /**
- * Main-thread client of the pictures worker: each kind of question keeps
- * only its latest answer (older ones resolve with null); when the worker
- * cannot start or fails, the same code answers on the main thread.
+ * Main-thread client of the pictures worker, on a lane (lane.ts): each kind
+ * of question is a serial latest-wins queue (a newer question replaces one
+ * still waiting, whose promise resolves null); when the worker cannot start
+ * or fails, the same code answers on the main thread (`?noworker` too).
  */
-import { latestWins } from './client';
 import { startWorker } from './guard';
-import type { PicturesApi } from './picturesApi';
-
-type Kind = keyof PicturesApi;
-type Answer<K extends Kind> = Awaited<ReturnType<PicturesApi[K]>>;
+import { createLane, noWorkerRequested, type Transport, type Where } from './lane';
+import type { PicturesApi, PicturesAnswer, ProbabilitiesAnswer } from './picturesApi';
 
 export interface PicturesClient {
-  ask<K extends Kind>(kind: K, ...args: Parameters<PicturesApi[K]>): Promise<Answer<K> | null>;
-  readonly where: () => 'worker' | 'main thread';
+  pictures(...args: Parameters<PicturesApi['pictures']>): Promise<PicturesAnswer | null>;
+  probabilities(...args: Parameters<PicturesApi['probabilities']>): Promise<ProbabilitiesAnswer | null>;
+  where(): Where;
   dispose(): void;
 }
 
-export function createPicturesClient(primary: (() => PicturesApi & { dispose?: () => void }) | null, fallback: () => PicturesApi): PicturesClient {
-  let onMain = primary === null;
-  let remote: (PicturesApi & { dispose?: () => void }) | null = null;
-  let started = false;
-  const api = (): PicturesApi => {
-    if (!started && !onMain && primary) {
-      started = true;
-      try { remote = primary(); } catch { onMain = true; }
-    }
-    return onMain || !remote ? fallback() : remote;
-  };
-  const call = async (kind: Kind, args: unknown[]): Promise<unknown> => {
-    const a = api();
-    try {
-      return await (a[kind] as (...x: unknown[]) => Promise<unknown>)(...args);
-    } catch (e) {
-      if (a === fallback()) throw e;
-      onMain = true;
-      remote?.dispose?.();
-      return (fallback()[kind] as (...x: unknown[]) => Promise<unknown>)(...args);
-    }
-  };
-  const lanes = new Map<Kind, ReturnType<typeof latestWins<unknown[], unknown>>>();
+export function createPicturesClient(worker: (() => Transport<PicturesApi>) | null, fallback: () => PicturesApi): PicturesClient {
+  const lane = createLane<PicturesApi>({ worker, fallback, lazy: true });
+  const failed = (e: unknown) => ({ ok: false as const, reason: (e as Error)?.message ?? String(e) });
+  const pictures = lane.latest((...a: Parameters<PicturesApi['pictures']>) => lane.run((x) => x.pictures(...a)).then((r) => r.value), { failed });
+  const probabilities = lane.latest((...a: Parameters<PicturesApi['probabilities']>) => lane.run((x) => x.probabilities(...a)).then((r) => r.value), { failed });
   return {
-    async ask(kind, ...args) {
-      let l = lanes.get(kind);
-      if (!l) { l = latestWins((...a: unknown[]) => call(kind, a)); lanes.set(kind, l); }
-      const d = await l.call(...(args as unknown[]));
-      return d.stale ? null : (d.value as never);
-    },
-    where: () => (onMain || !remote ? 'main thread' : 'worker'),
-    dispose() {
-      for (const l of lanes.values()) l.invalidate();
-      remote?.dispose?.();
-    },
+    pictures: (...a) => pictures.latest(...a),
+    probabilities: (...a) => probabilities.latest(...a),
+    where: () => lane.where(),
+    dispose: () => lane.dispose(),
   };
 }
 
-function workerPictures(): PicturesApi & { dispose: () => void } {
+function workerPictures(): Transport<PicturesApi> {
   const w = startWorker<PicturesApi>(() => new Worker(new URL('./pictures.worker.ts', import.meta.url), { type: 'module' }), 'pictures worker');
   return {
     pictures: (m, o) => w.call(() => w.remote.pictures(m, o)),
@@ -64,11 +38,8 @@ function workerPictures(): PicturesApi & { dispose: () => void } {
 }
 
 let appClient: Promise<PicturesClient> | null = null;
-/** The app's pictures client, created on first use; `?noworker` runs it on the main thread. */
+/** The app's pictures client, created on first use (the worker and the core load when the pane opens). */
 export function appPicturesClient(): Promise<PicturesClient> {
-  appClient ??= import('./picturesApi').then(({ localPictures }) => {
-    const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
-    return createPicturesClient(noWorker ? null : workerPictures, () => localPictures);
-  });
+  appClient ??= import('./picturesApi').then(({ localPictures }) => createPicturesClient(noWorkerRequested() ? null : workerPictures, () => localPictures));
   return appClient;
 }

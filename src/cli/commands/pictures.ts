@@ -7,6 +7,7 @@ import { formatDuration } from '../../core/model/units';
 import { LEVELS, laggedRank, orderingProbabilities, picturesAt, type Level, type OrderingProbabilities } from '../../core/pictures/index';
 import type { StudyDesign } from '../../core/ordering/types';
 import { durationOption, loadModel } from '../load';
+import { studyInterval } from '../../core/study/convert';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
 function num(x: number | null): string {
@@ -56,9 +57,9 @@ function personSdOption(args: CliArgs, model: Model): Record<string, number> | u
   return out;
 }
 
-/** The study interval: --interval, else one model time unit (said so in the output). */
+/** The study interval: --interval, else the file's study, else one model time unit (said so in the output). */
 function intervalOf(args: CliArgs, model: Model): { interval: number; given: boolean } {
-  const d = durationOption(args, 'interval', model);
+  const d = durationOption(args, 'interval', model) ?? (model.study ? studyInterval(model.study, model.timeUnit) : undefined);
   return d === undefined ? { interval: 1, given: false } : { interval: d, given: true };
 }
 
@@ -132,7 +133,7 @@ export const pictureCommands: CliCommand[] = [
           heywood: fit.heywood.map((i) => P.levels.observed[i]),
           reading: pic.reading,
           summary: P.summary,
-          warnings: [...(given ? [] : [`no --interval: the study is taken to sample every 1 ${model.timeUnit}`]), ...fit.warnings],
+          warnings: [...(given ? [] : [`no --interval and no study in the file: the study is taken to sample every 1 ${model.timeUnit}`]), ...fit.warnings],
         }, null, 2));
         return 0;
       }
@@ -140,7 +141,7 @@ export const pictureCommands: CliCommand[] = [
       const w = Math.max(...names.map((n) => n.length), 8);
       const lines = [
         `${model.name}: ${factors}-factor analysis ${level === 'within' ? 'within persons' : level === 'between' ? 'of the person means' : 'of a one-time survey'} (model-based, not a finding)`,
-        `  study: every ${formatDuration(interval, model.timeUnit)}${given ? '' : ' (default; give --interval)'}, ${P.levels.samples} prompts, ${P.levels.persons} persons; N = ${pic.n}`,
+        `  study: every ${formatDuration(interval, model.timeUnit)}${given ? '' : ' (default; give --interval or a study in the file)'}, ${P.levels.samples} prompts, ${P.levels.persons} persons; N = ${pic.n}`,
         '',
         `  ${'variable'.padEnd(w)}  ${Array.from({ length: factors }, (_, c) => `loading ${c + 1}`.padStart(10)).join(' ')}  uniqueness`,
         ...names.map((n, i) => `  ${n.padEnd(w)}  ${fit.loadings[i].map((x) => num(x).padStart(10)).join(' ')}  ${num(fit.uniqueness[i]).padStart(10)}`),

@@ -22,7 +22,8 @@
  * within-person variance) adds e = Σ_ii(1 − r)/r per occasion: e(1 − 1/T)
  * within, e/T to the means, e to the cross-section.
  */
-import type { Model, VariableId } from '../model/types';
+import { DEFAULT_SAMPLES, type Model, type VariableId } from '../model/types';
+import { modelAxis, noiseOf } from '../study/convert';
 import { driftAtEquilibrium } from '../numeric/index';
 import { identity, luFactor, luSolveMat, mul, transpose, zeros, type Mat } from '../numeric/dense';
 import { expm } from '../numeric/expm';
@@ -37,9 +38,9 @@ export const LEVELS: readonly Level[] = ['within', 'between', 'cross'];
 export interface LevelOptions {
   /** The study's interval Δ (model time unit). */
   interval: number;
-  /** Prompts per person T (default: settings.samples, else 50). */
+  /** Prompts per person T (default: the model's study length, else 50). */
   samples?: number;
-  /** Persons in the study (default 100). */
+  /** Persons in the study (default: the model's study, else 100). */
   persons?: number;
   /** The variables analysed (default: the states that carry a reliability, else every state). */
   observed?: VariableId[];
@@ -137,9 +138,11 @@ function sub(m: Mat, idx: number[]): number[][] {
 export function levelCovariances(model: Model, options: LevelOptions): LevelResult {
   const warnings: string[] = [];
   if (!(options.interval > 0) || !Number.isFinite(options.interval)) return { ok: false, reason: `the interval must be a positive duration, not ${options.interval}` };
-  const samples = options.samples ?? model.settings?.samples ?? 50;
+  // Prompts per person: the option, else the model's study (a length given as a duration counts its intervals).
+  const axis = modelAxis(model);
+  const samples = options.samples ?? (axis.window !== undefined ? Math.max(2, Math.round(axis.window / options.interval)) : axis.samples ?? DEFAULT_SAMPLES);
   if (!Number.isInteger(samples) || samples < 2) return { ok: false, reason: `the study needs at least 2 prompts per person, not ${samples}` };
-  const persons = options.persons ?? DEFAULT_PERSONS;
+  const persons = options.persons ?? (model.study?.persons !== undefined && model.study.persons >= 2 ? model.study.persons : DEFAULT_PERSONS);
   if (!Number.isInteger(persons) || persons < 2) return { ok: false, reason: `the study needs at least 2 persons, not ${persons}` };
   const d = driftAtEquilibrium(model);
   if (!d.ok) return { ok: false, reason: d.reason };
@@ -154,7 +157,7 @@ export function levelCovariances(model: Model, options: LevelOptions): LevelResu
     if (i < 0) return { ok: false, reason: `"${id}" is not a state of the model: only states are analysed (their covariance comes from the linearized dynamics)` };
     idx.push(i);
   }
-  const noise = states.map((s) => model.variables.find((v) => v.id === s)?.noise ?? model.settings?.noise?.[s] ?? 1);
+  const noise = states.map((s) => noiseOf(model, s));
   const badNoise = states.find((s, i) => !(noise[i] >= 0) || !Number.isFinite(noise[i]));
   if (badNoise) return { ok: false, reason: `the noise of ${badNoise} must be a non-negative number` };
   const ly = lyapunov(d.drift, diagonalNoise(noise.map(Math.sqrt)));

@@ -16,6 +16,7 @@ import { formatDuration } from '../model/units';
 import { orderingAt } from '../ordering/index';
 import type { OrderingBlock, Role, StudyDesign } from '../ordering/types';
 import { compareIds } from '../ordering/structure';
+import { designAxis } from '../study/convert';
 
 export interface UncertainOptions {
   /** Number of Monte Carlo draws (default 2000). */
@@ -101,7 +102,9 @@ export function orderingProbabilities(model: Model, design: StudyDesign & { inte
   if (!Number.isInteger(draws) || draws < 1 || draws > 1e6) throw new Error(`the number of draws must be a whole number from 1 to 1,000,000, not ${draws}`);
   if (!Number.isInteger(seed)) throw new Error(`the seed must be a whole number, not ${seed}`);
   const k = model.settings?.separation ?? DEFAULT_SEPARATION;
-  const rule: RoleRule = { k, interval: design.interval, window: design.window, samples: design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES };
+  // The study length as the ordering reads it: the design's, else the model's study (designAxis).
+  const axis = designAxis(model, design);
+  const rule: RoleRule = { k, interval: design.interval, window: axis.window, samples: axis.samples ?? DEFAULT_SAMPLES };
   const uncertain: { id: VariableId; low: number; high: number; index: number }[] = [];
   model.variables.forEach((v, index) => {
     if (v.kind !== 'state' || v.timescale === undefined) return;
@@ -182,7 +185,9 @@ export interface BreakpointRange {
  */
 export function breakpointRanges(model: Model, axis: { window?: number; samples?: number } = {}): BreakpointRange[] {
   const k = model.settings?.separation ?? DEFAULT_SEPARATION;
-  const samples = axis.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES;
+  const a = designAxis(model, axis);
+  const samples = a.samples ?? DEFAULT_SAMPLES;
+  axis = { window: a.window, samples };
   const out: BreakpointRange[] = [];
   for (const v of model.variables) {
     if (v.kind !== 'state' || v.timescale === undefined) continue;

@@ -9,7 +9,7 @@ import { useEffect, useMemo, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { readTimescale } from '../../core/model/timescale';
-import { defaultObserved, type Level } from '../../core/pictures/index';
+import { DEFAULT_PERSONS, defaultObserved, type Level } from '../../core/pictures/index';
 import { useValidatedModel } from '../../state/document';
 import { designOf } from '../../state/study';
 import { useSessionStudy } from '../../state/session';
@@ -47,7 +47,7 @@ function PicturesOf({ model }: { model: Model }) {
   const length = session?.length ?? { by: 'samples' as const, samples: 50 };
   const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
   const inputs = model.variables.filter((v) => v.kind === 'input');
-  const [persons, setPersons] = useState(100);
+  const [persons, setPersons] = useState(model.study?.persons !== undefined && model.study.persons >= 2 ? model.study.persons : DEFAULT_PERSONS);
   const [observed, setObserved] = useState<string[] | null>(null);
   const [personSD, setPersonSD] = useState<Record<string, number>>({});
   const [level, setLevel] = useState<Level>('between');
@@ -60,7 +60,7 @@ function PicturesOf({ model }: { model: Model }) {
   useEffect(() => {
     if (interval === null) return;
     let live = true;
-    void appPicturesClient().then((c) => c.ask('pictures', model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
+    void appPicturesClient().then((c) => c.pictures(model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
     return () => { live = false; };
   }, [model, interval, samples, persons, obs.join(','), JSON.stringify(sdOverrides)]); // eslint-disable-line react-hooks/exhaustive-deps
 
@@ -166,7 +166,7 @@ function UncertainOrderings({ model, interval, samples, length }: { model: Model
     if (ranged.length === 0) return;
     let live = true;
     const design = { ...designOf({ interval, length }), interval };
-    void appPicturesClient().then((c) => c.ask('probabilities', model, design, draws, seed)).then((a) => { if (live && a) setAnswer(a); });
+    void appPicturesClient().then((c) => c.probabilities(model, design, draws, seed)).then((a) => { if (live && a) setAnswer(a); });
     return () => { live = false; };
   }, [model, interval, samples, draws, seed, JSON.stringify(length)]); // eslint-disable-line react-hooks/exhaustive-deps
   return (
