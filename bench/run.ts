@@ -9,6 +9,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'layout', file: './layout.ts', fn: 'benchLayout' },
   { name: 'canvas', file: './canvas.ts', fn: 'benchCanvas' },
   { name: 'bands', file: './bands.ts', fn: 'benchBands' },
+  { name: 'data', file: './data.ts', fn: 'benchData' },
 ];
 
 const wanted = process.argv.slice(2);
