@@ -11,6 +11,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'bands', file: './bands.ts', fn: 'benchBands' },
   { name: 'cli', file: './cli.ts', fn: 'benchCli' },
   { name: 'undersample', file: './undersample.ts', fn: 'benchUndersample' },
+  { name: 'data', file: './data.ts', fn: 'benchData' },
 ];
 
 const wanted = process.argv.slice(2);

@@ -129,9 +129,7 @@ def m2ll(th):
 start = np.array(d["start"], dtype=float)
 out = {"start": m2ll(start)}
 if d.get("optimize", True):
-    res = minimize(m2ll, start, method="BFGS", options={"gtol": 1e-7, "maxiter": 2000})
-    res2 = minimize(m2ll, res.x, method="Nelder-Mead", options={"xatol": 1e-9, "fatol": 1e-10, "maxiter": 20000})
-    best = res2 if res2.fun < res.fun else res
-    out["min"] = float(best.fun)
-    out["x"] = best.x.tolist()
+    res = minimize(m2ll, start, method="BFGS", options={"gtol": 1e-6, "maxiter": 2000})
+    out["min"] = float(res.fun)
+    out["x"] = res.x.tolist()
 json.dump(out, sys.stdout)

@@ -1,0 +1,66 @@
+// Data benchmark: import of 10^6 rows × 8 columns, and the continuous-time
+// likelihood and fit of 100 persons × 70 prompts × 4 states beside the SciPy
+// implementation of the same likelihood (tests/reference/fit_ct.py), timed in
+// the same run from the same start. Run alone with `npx tsx bench/data.ts`
+// (`--scipy-fit` also times SciPy's whole BFGS fit, which takes tens of minutes).
+import { spawnSync } from 'node:child_process';
+import { importText } from '../src/core/data/import';
+import { ctMinus2LL, ctSpec, ctStart, fitCt } from '../src/core/fit/ct';
+import { seededRandom, simulateCt } from '../src/core/fit/simulate';
+import { PYTHON } from '../tests/helpers/python';
+
+function ms(t0: number): number {
+  return performance.now() - t0;
+}
+
+export async function benchData(): Promise<void> {
+  // Import: 10^6 rows, person + time + 6 data columns (8 columns), 2,000 persons.
+  const r = seededRandom(1);
+  const rows = ['pid,hours,a,b,c,d,e,f'];
+  for (let k = 0; k < 1_000_000; k++) rows.push(`p${k % 2000},${(Math.floor(k / 2000) * 2.5).toFixed(2)},${Array.from({ length: 6 }, () => (r() * 10).toFixed(3)).join(',')}`);
+  const text = rows.join('\n');
+  const vars = ['a', 'b', 'c', 'd', 'e', 'f'].map((c) => ({ column: c, variable: c }));
+  let t0 = performance.now();
+  const res = importText(text, { format: 'long', person: 'pid', time: 'hours', timeFormat: 'number', timeUnit: 'h', variables: vars });
+  const importMs = ms(t0);
+  console.log(`import 10^6 rows × 8 columns (${(text.length / 1e6).toFixed(0)} MB, Node, one thread): ${(importMs / 1000).toFixed(2)} s; kept ${res.summary.kept} (goal ≤ 5 s)`);
+
+  // Continuous-time fit: 100 persons × 70 prompts, 4 states, irregular intervals, 5 % missing cells.
+  const rr = seededRandom(2);
+  const times = Array.from({ length: 100 }, () => { let t = 0; return Array.from({ length: 70 }, () => (t += 0.5 + rr() * 3)); });
+  const truth = { states: ['w', 'x', 'y', 'z'], drift: [[-0.9, 0.2, 0, 0], [0, -0.6, 0.3, 0], [0, 0, -0.5, -0.2], [0.25, 0, 0, -0.7]], diffusion: [[1, 0, 0, 0], [0, 0.8, 0, 0], [0, 0, 0.6, 0], [0, 0, 0, 0.5]], levels: [0, 1, 2, 3], between: [[0.3, 0, 0, 0], [0, 0.3, 0, 0], [0, 0, 0.3, 0], [0, 0, 0, 0.3]] };
+  const panel = simulateCt(truth, times, { seed: 3, missing: 0.05 });
+  const opts = { initial: 'stationary' as const, intercepts: 'random' as const, diffusion: 'diagonal' as const };
+  const spec = ctSpec(panel, opts);
+  const start = ctStart(panel, spec);
+  t0 = performance.now();
+  const reps = 5;
+  for (let k = 0; k < reps; k++) ctMinus2LL(panel, spec, start);
+  const evalMs = ms(t0) / reps;
+  const input = {
+    persons: panel.persons.map((p) => ({ time: Array.from(p.time), values: Array.from(p.time, (_, k) => [0, 1, 2, 3].map((j) => (Number.isFinite(p.values[k * 4 + j]) ? p.values[k * 4 + j] : null))) })),
+    n: 4, reads: spec.reads, free: spec.free, initial: spec.initial, intercepts: spec.intercepts, error: false, diffusion: spec.diffusion, start, optimize: process.argv.includes('--scipy-fit'),
+  };
+  const py = spawnSync(PYTHON, ['-c', `
+import json, sys, time, runpy
+d = sys.stdin.read()
+t0 = time.perf_counter()
+sys.stdin = __import__('io').StringIO(d)
+sys.argv = ['fit_ct.py']
+out = io_out = __import__('io').StringIO()
+real = sys.stdout; sys.stdout = out
+runpy.run_path('tests/reference/fit_ct.py', run_name='__main__')
+sys.stdout = real
+r = json.loads(out.getvalue()); r['seconds'] = time.perf_counter() - t0
+print(json.dumps(r))
+`], { input: JSON.stringify(input), encoding: 'utf8', maxBuffer: 1 << 28 });
+  if (py.status !== 0) throw new Error(py.stderr);
+  const ref = JSON.parse(py.stdout) as { start: number; min?: number; seconds: number };
+  console.log(`CT −2LL, 100 × 70 × 4 states (one evaluation): ${evalMs.toFixed(1)} ms; SciPy ${(ref.seconds * 1000).toFixed(0)} ms (ratio ${(ref.seconds * 1000 / evalMs).toFixed(1)}×); values ${ctMinus2LL(panel, spec, start).toFixed(6)} vs ${ref.start.toFixed(6)}`);
+  t0 = performance.now();
+  const fit = fitCt(panel, { ...opts, start });
+  const fitS = ms(t0) / 1000;
+  console.log(`CT fit from the same start: ${fitS.toFixed(1)} s (${fit.iterations} iterations, −2LL ${fit.minus2LL.toFixed(4)}, ${fit.parameters} parameters, standard errors included)${ref.min !== undefined ? `; SciPy BFGS ${ref.seconds.toFixed(1)} s, −2LL ${ref.min.toFixed(4)}` : '; SciPy whole fit: run with --scipy-fit'}`);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) await benchData();
