@@ -1,6 +1,8 @@
-// Writes the published JSON Schema of the model file from the definition the app validates with.
+// Writes the published JSON Schemas of the model file (every version this program reads) from the definitions the app validates with.
 import { writeFileSync } from 'node:fs';
 import { modelJsonSchema } from '../src/core/model/schema';
 
-const schema = { $id: 'loopfold-model.v1.json', title: 'Loopfold model file, version 1', ...(modelJsonSchema() as object) };
-writeFileSync(new URL('../public/schema/loopfold-model.v1.json', import.meta.url), `${JSON.stringify(schema, null, 2)}\n`);
+for (const version of [1, 2] as const) {
+  const schema = { $id: `loopfold-model.v${version}.json`, title: `Loopfold model file, version ${version}`, ...(modelJsonSchema(version) as object) };
+  writeFileSync(new URL(`../public/schema/loopfold-model.v${version}.json`, import.meta.url), `${JSON.stringify(schema, null, 2)}\n`);
+}

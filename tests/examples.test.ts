@@ -8,6 +8,10 @@ describe('example gallery', () => {
     if (!r.ok) throw new Error(r.issues.map((i) => `${i.path} ${i.message}`).join('\n'));
     expect(r.model.name.length).toBeGreaterThan(0);
   });
+  it('the evening-unrest example carries a caution', () => {
+    const r = parseModel(EXAMPLES.find((e) => e.id === 'evening-unrest')!.model);
+    expect(r.ok && r.model.caution).toMatch(/no clinical advice/);
+  });
   it('the clinical example carries a caution', () => {
     const r = parseModel(EXAMPLES.find((e) => e.id === 'sleep-stress')!.model);
     expect(r.ok && r.model.caution).toMatch(/no clinical advice/);

@@ -3,6 +3,7 @@ import sleepStress from './sleep-stress.json';
 import lake from './lake.json';
 import greenhouse from './greenhouse.json';
 import warehouse from './warehouse.json';
+import eveningUnrest from './evening-unrest.json';
 
 /** An example of the gallery: a scenario of Loopfold's own, with a short description. */
 export interface Example {
@@ -37,6 +38,12 @@ export const EXAMPLES: Example[] = [
     title: 'Warehouse restocking',
     summary: 'Orders, goods in transit, deliveries and stock, with an implicit transit relation the ordering orients.',
     model: warehouse,
+  },
+  {
+    id: 'evening-unrest',
+    title: 'Evening unrest: one loop, two pictures',
+    summary: 'Fast worry, tension, irritability and restlessness in a loop, pushed by slow strain that differs between persons; timescales given as ranges. Illustrative, no clinical advice.',
+    model: eveningUnrest,
   },
 ];
 

@@ -2,6 +2,7 @@
 import type { Model } from '../core/model/types';
 import { formatDuration } from '../core/model/units';
 import { studyText } from '../core/view/derive';
+import { designAxis, windowOf } from '../core/study/convert';
 
 export interface StudyAt {
   interval?: number;
@@ -20,5 +21,5 @@ export function studyCaption(model: Model, study: StudyAt): string | undefined {
 /** The study length in model time: the window, or samples × interval. */
 export function studyLength(model: Model, study: StudyAt): number | undefined {
   if (study.interval === undefined) return undefined;
-  return study.window ?? (study.samples ?? model.settings?.samples ?? 50) * study.interval;
+  return windowOf(designAxis(model, study), study.interval);
 }

@@ -15,6 +15,7 @@ import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { studyLength, type StudyAt } from './caption';
 import { nameOf, numText, unitOf, weightText } from './format';
+import { placeNetwork, WEIGHT_FONT } from '../layout/network';
 import { wrapText, type Attr, type El } from './scene';
 
 export interface FigureOptions {
@@ -175,66 +176,112 @@ export interface NetworkInput {
   pickable?: boolean;
 }
 
-const NW = 410, NH = 250, BW = 108, BH = 22;
+/** The least width of a network figure. */
+const NW = 410;
+
+/** A share of the strongest link below which links are left out (2 %), and the most links drawn per state. */
+export const NETWORK_SHARE = 0.02;
+export const LINKS_PER_STATE = 3;
 
 function shorten(s: string): string {
   return s.length > 17 ? `${s.slice(0, 16)}…` : s;
 }
 
 /**
+ * The links a network figure draws: those of at least 2 % of the strongest
+ * |weight|, and at most `LINKS_PER_STATE` per state (the strongest; ties by
+ * ids, so the file's order does not matter). `threshold`: the |weight| below
+ * which links are left out; `left`: how many were.
+ */
+export function drawnLinks(states: readonly VariableId[], matrix: readonly (readonly number[])[], directed: boolean): { links: { from: number; to: number; weight: number }[]; threshold: number; left: number } {
+  const all = strongEdges(matrix, 0, !directed).filter((e) => e.weight !== 0);
+  const max = Math.max(0, ...all.map((e) => Math.abs(e.weight)));
+  const cap = Math.max(6, LINKS_PER_STATE * states.length);
+  const key = (e: { from: number; to: number }) => `${states[e.from]}>${states[e.to]}`;
+  const sorted = [...all].sort((a, b) => Math.abs(b.weight) - Math.abs(a.weight) || (key(a) < key(b) ? -1 : 1));
+  let keep = sorted.filter((e) => Math.abs(e.weight) >= NETWORK_SHARE * max);
+  let threshold = NETWORK_SHARE * max;
+  if (keep.length > cap) {
+    // a cut between two sizes, so that links of equal size are all kept or all left out
+    let k = cap;
+    while (k > 0 && Math.abs(keep[k - 1].weight) === Math.abs(keep[k].weight)) k--;
+    threshold = Math.abs(keep[k].weight) * (1 + 1e-12);
+    keep = keep.slice(0, k);
+  }
+  return { links: keep.sort((a, b) => (key(a) < key(b) ? -1 : 1)), threshold, left: all.length - keep.length };
+}
+
+/** "0.034" for a threshold: two significant digits, rounded up (every link left out is below it). */
+function thresholdText(t: number): string {
+  if (t <= 0) return '0';
+  const p = Math.pow(10, Math.floor(Math.log10(t)) - 1);
+  return weightText(Math.ceil(t / p - 1e-9) * p);
+}
+
+/**
  * A node-link drawing of a network: line width ∝ |weight|, solid for
- * positive and dashed for negative weights, each labelled with its value.
- * Directed networks get arrowheads and show the self-effect beside the node.
+ * positive and dashed for negative weights, each labelled with its value;
+ * a legend of both codes and the size below which links are left out.
+ * Directed networks get arrowheads and show the self-effect in the node.
+ * The placement (`placeNetwork`) keeps nodes apart, every link visible and
+ * every weight readable.
  */
 export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): El {
   const { model, states, matrix, directed, label } = input;
-  const pos = circleLayout(states.length, NW, NH, 36);
-  const edges = strongEdges(matrix, 0.02, !directed);
-  const max = Math.max(1e-300, ...edges.map((e) => Math.abs(e.weight)));
+  const chosen = drawnLinks(states, matrix, directed);
+  const max = Math.max(1e-300, ...chosen.links.map((e) => Math.abs(e.weight)));
+  const place = placeNetwork(states, chosen.links.map((e) => ({ ...e, label: weightText(e.weight) })), directed);
   const marker = `lf-arrow-${directed ? 'd' : 'u'}-${label.replace(/\W+/g, '')}`;
+  const widthOf = (w: number) => r1(0.8 + 4 * (Math.abs(w) / max));
   const body: El[] = [];
-  for (const e of edges) {
-    const a = pos[e.from], b = pos[e.to];
-    // Two opposite links between the same pair bend apart.
-    const both = directed && edges.some((f) => f.from === e.to && f.to === e.from);
-    const dx = b.x - a.x, dy = b.y - a.y, len = Math.hypot(dx, dy) || 1;
-    const ux = dx / len, uy = dy / len;
-    // Start and end where the line leaves the node's box (plus a small gap).
-    const cut = Math.min(Math.abs(ux) > 1e-9 ? BW / 2 / Math.abs(ux) : Infinity, Math.abs(uy) > 1e-9 ? BH / 2 / Math.abs(uy) : Infinity) + 3;
-    const sx = a.x + ux * cut, sy = a.y + uy * cut, ex = b.x - ux * cut, ey = b.y - uy * cut;
-    const bend = both ? 14 : 0;
-    const mx = (sx + ex) / 2 - uy * bend, my = (sy + ey) / 2 + ux * bend;
-    // The weight sits 40% of the way from the source, so labels of crossing lines do not meet in the middle.
-    const lx = 0.36 * sx + 0.48 * mx + 0.16 * ex, ly = 0.36 * sy + 0.48 * my + 0.16 * ey;
-    const d = `M${r1(sx)},${r1(sy)} Q${r1(mx)},${r1(my)} ${r1(ex)},${r1(ey)}`;
+  for (const { link: e, start, control, end, label: at } of place.links) {
+    const straight = Math.abs((start.x + end.x) / 2 - control.x) < 1e-6 && Math.abs((start.y + end.y) / 2 - control.y) < 1e-6;
+    const d = straight ? `M${r1(start.x)},${r1(start.y)} L${r1(end.x)},${r1(end.y)}` : `M${r1(start.x)},${r1(start.y)} Q${r1(control.x)},${r1(control.y)} ${r1(end.x)},${r1(end.y)}`;
     const from = states[e.from], to = states[e.to];
     const kids: El[] = [el('title', {}, [`${nameOf(model, from)} ${directed ? '→' : '—'} ${nameOf(model, to)}: ${weightText(e.weight)}`])];
     if (input.pickable) kids.push(el('path', { d, class: 'lf-net-hit', fill: 'none', stroke: C.paper, 'stroke-opacity': 0, 'stroke-width': 12 }));
     kids.push(
-      el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': r1(0.8 + 4 * (Math.abs(e.weight) / max)), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
-      text({ class: 'lf-net-weight', x: r1(lx), y: r1(ly + 3), 'text-anchor': 'middle', 'font-size': 9.5, fill: C.text, stroke: C.paper, 'stroke-width': 3, 'paint-order': 'stroke' }, weightText(e.weight)),
+      el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': widthOf(e.weight), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
+      text({ class: 'lf-net-weight', x: r1(at.x), y: r1(at.y + 3.4), 'text-anchor': 'middle', 'font-size': WEIGHT_FONT, fill: C.text, stroke: C.paper, 'stroke-width': 3, 'paint-order': 'stroke' }, weightText(e.weight)),
     );
     body.push(el('g', { 'data-edge': `${from}>${to}`, 'data-sign': e.weight < 0 ? 'negative' : 'positive' }, kids));
   }
+  const bw = place.nodeWidth, bh = place.nodeHeight;
   states.forEach((s, i) => {
-    const p = pos[i];
+    const p = place.centers[i];
     const name = nameOf(model, s);
     const kids: El[] = [
       el('title', {}, [name]),
-      el('rect', { x: -BW / 2, y: -BH / 2, width: BW, height: BH, rx: 4, fill: C.paper, stroke: C.line }),
-      text({ y: 4, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.text }, shorten(name)),
+      el('rect', { x: -bw / 2, y: -bh / 2, width: bw, height: bh, rx: 4, fill: C.paper, stroke: C.line }),
+      text({ y: directed ? -2 : 4, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.text }, shorten(name)),
     ];
-    // The self-effect beside the node, on the side away from the middle (where the links run).
-    if (directed) {
-      const right = p.x >= NW / 2 - 1;
-      kids.push(text({ x: right ? BW / 2 + 4 : -BW / 2 - 4, y: 4, 'text-anchor': right ? 'start' : 'end', 'font-size': 9.5, fill: C.label }, `self ${weightText(matrix[i][i])}`));
-    }
+    // the self-effect inside the node, under the name
+    if (directed) kids.push(text({ y: 11, 'text-anchor': 'middle', 'font-size': 9, fill: C.label }, `self ${weightText(matrix[i][i])}`));
     body.push(el('g', { 'data-variable': s, transform: `translate(${r1(p.x)},${r1(p.y)})` }, kids));
   });
+  // the legend: line style for the sign, width for the size, and what is left out
+  const width = Math.max(NW, place.width);
+  const y0 = place.height + 6;
+  const what = directed ? 'lagged effect' : 'partial correlation';
+  const sample = (x: number, w: number, dash: string | undefined) => hline(x, x + 26, y0 + 6, { stroke: C.line, 'stroke-width': widthOf(w), 'stroke-dasharray': dash });
+  const minW = Math.min(...chosen.links.map((e) => Math.abs(e.weight)), max);
+  const legend: El[] = [
+    sample(PAD, max, undefined), tick(PAD + 30, y0 + 9.5, 'positive', 'start'),
+    sample(PAD + 90, max, C.negativeDash), tick(PAD + 120, y0 + 9.5, 'negative', 'start'),
+    sample(PAD + 182, minW, undefined), tick(PAD + 212, y0 + 9.5, weightText(minW).replace('−', ''), 'start'),
+    sample(PAD + 252, max, undefined), tick(PAD + 282, y0 + 9.5, `${weightText(max).replace('−', '')} (size)`, 'start'),
+  ];
+  const note = chosen.left > 0
+    ? `Not drawn: ${chosen.left} ${chosen.left === 1 ? 'link' : 'links'} with |${what}| below ${thresholdText(chosen.threshold)}.`
+    : `Every ${what} between two states is drawn.`;
+  const noteLines = wrapText(note, width - 2 * PAD, 5.4);
+  noteLines.forEach((t, k) => legend.push(tick(PAD, y0 + 26 + k * 13, t, 'start')));
+  body.push(el('g', { 'data-part': 'legend', 'data-threshold': chosen.threshold }, legend));
+  const height = y0 + 26 + noteLines.length * 13;
   const defs = directed
     ? el('defs', {}, [el('marker', { id: marker, viewBox: '0 0 10 10', refX: 9, refY: 5, markerWidth: 9, markerHeight: 9, markerUnits: 'userSpaceOnUse', orient: 'auto-start-reverse' }, [el('path', { d: 'M0,0 L10,5 L0,10 z', fill: C.line })])])
     : undefined;
-  return figure(directed ? 'lagged-network' : 'same-interval-network', label, NW, NH, body, opts, defs);
+  return figure(directed ? 'lagged-network' : 'same-interval-network', label, width, height, body, opts, defs);
 }
 
 /** The networks of the sampled model at an interval, as the numeric questions return them. */

@@ -32,6 +32,7 @@ export interface ReportOptions {
 
 import { htmlEscape } from './html-escape';
 import { trajectoryChart } from './chart';
+import { designAxis } from '../core/study/convert';
 
 export { htmlEscape };
 
@@ -168,7 +169,7 @@ function effectSection(model: Model, hold: Record<string, number>): string {
  */
 export async function buildReport(model: Model, options: ReportOptions = {}): Promise<string> {
   const e = htmlEscape;
-  const axis = options.window !== undefined ? { window: options.window } : { samples: options.samples ?? model.settings?.samples };
+  const axis = designAxis(model, options);
   const bps = breakpoints(model, axis);
   const bds = bands(model, axis);
   const parts: string[] = [];

@@ -25,11 +25,11 @@ export type Change =
 
 /** Fields a variable keeps only for some kinds. */
 const KIND_FIELDS: Record<VariableKind, (keyof Variable)[]> = {
-  input: ['value'],
-  state: ['initial', 'timescale', 'selfRegulating', 'rate'],
+  input: ['value', 'personSD'],
+  state: ['initial', 'timescale', 'selfRegulating', 'rate', 'noise'],
   derived: ['formula'],
 };
-const KIND_ONLY = new Set<keyof Variable>(['value', 'initial', 'timescale', 'selfRegulating', 'rate', 'formula']);
+const KIND_ONLY = new Set<keyof Variable>(['value', 'personSD', 'initial', 'timescale', 'selfRegulating', 'rate', 'noise', 'formula']);
 
 /** Copy `base` with the patch applied; a patch value of `undefined` removes the field. */
 function patched<T extends object, P extends object>(base: T, patch: P): T {
@@ -134,6 +134,10 @@ export function applyChange(model: Model, change: Change): Model {
       const out: Model = { ...model, variables, links, settings };
       if (relations) out.relations = relations;
       if (!settings) delete out.settings;
+      if (model.study?.holds && id in model.study.holds) {
+        const { [id]: h, ...others } = model.study.holds;
+        out.study = { ...model.study, holds: { ...others, [newId]: h } };
+      }
       return out;
     }
     case 'addLink': {
@@ -177,6 +181,12 @@ export function applyChange(model: Model, change: Change): Model {
       if (model.settings?.noise && [...vars].some((v) => v in model.settings!.noise!)) {
         const noise = Object.fromEntries(Object.entries(model.settings.noise).filter(([k]) => !vars.has(k)));
         out.settings = { ...model.settings, noise };
+      }
+      // a hold of a variable that is gone is released
+      if (model.study?.holds && [...vars].some((v) => v in model.study!.holds!)) {
+        const holds = Object.fromEntries(Object.entries(model.study.holds).filter(([k]) => !vars.has(k)));
+        out.study = { ...model.study, holds };
+        if (Object.keys(holds).length === 0) delete out.study.holds;
       }
       return out;
     }
@@ -293,5 +303,5 @@ export function idFromLabel(label: string, taken: ReadonlySet<string>, reserved:
 
 /** An empty model to start from. */
 export function emptyModel(name = 'Untitled model'): Model {
-  return { format: 'loopfold-model', version: 1, name, timeUnit: 'h', variables: [], links: [] };
+  return { format: 'loopfold-model', version: 2, name, timeUnit: 'h', variables: [], links: [] };
 }

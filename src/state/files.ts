@@ -4,6 +4,7 @@
  */
 import { compressToEncodedURIComponent, decompressFromEncodedURIComponent } from 'lz-string';
 import { parseModel, parseModelText, type ModelIssue, type ParseResult } from '../core/model/schema';
+import { migrateModel } from '../core/model/migrate';
 import type { Model } from '../core/model/types';
 import { withLinkIds } from './changes';
 
@@ -19,9 +20,16 @@ function accept(r: ParseResult): OpenResult {
   return { ok: true, model: withLinkIds(r.model), warnings: r.warnings };
 }
 
-/** The text written to a model file. */
+/** The model as written to files and links: the current file version, its fields in a reader's order. */
+export function fileModel(model: Model): Model {
+  const m = migrateModel(model);
+  const { format, version, name, ...rest } = m;
+  return { format, version, name, ...rest };
+}
+
+/** The text written to a model file (always the current file version). */
 export function serializeModel(model: Model): string {
-  return `${JSON.stringify(model, null, 2)}\n`;
+  return `${JSON.stringify(fileModel(model), null, 2)}\n`;
 }
 
 /** A file name for the model: its name made safe, with the Loopfold suffix. */
@@ -44,7 +52,7 @@ export function readModelText(text: string): OpenResult {
 
 /** The URL fragment `#m=…` that carries a model. */
 export function shareFragment(model: Model): string {
-  return `#m=${compressToEncodedURIComponent(JSON.stringify(model))}`;
+  return `#m=${compressToEncodedURIComponent(JSON.stringify(fileModel(model)))}`;
 }
 
 /**

@@ -8,6 +8,7 @@ import { lazy, Suspense } from 'react';
 
 // The Numbers pane and its worker load only when the tab is first opened.
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
+const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
 const StepsPane = lazy(() => import('./undersample/StepsPane'));
 
 const TABS: { id: Pane; name: string }[] = [
@@ -16,6 +17,7 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'timescales', name: 'Timescales' },
   { id: 'intervene', name: 'Intervene' },
   { id: 'numbers', name: 'Numbers' },
+  { id: 'pictures', name: 'Pictures' },
   { id: 'steps', name: 'Steps' },
 ];
 
@@ -65,6 +67,11 @@ export function RightPane() {
         {pane === 'numbers' && (
           <Suspense fallback={<p className="lf-num-wait">Loading the numbers…</p>}>
             <NumbersPane />
+          </Suspense>
+        )}
+        {pane === 'pictures' && (
+          <Suspense fallback={<p className="lf-pic-note">Loading the pictures…</p>}>
+            <PicturesPane />
           </Suspense>
         )}
         {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}

@@ -15,9 +15,10 @@ import type { Model, VariableId } from '../core/model/types';
 import type { Breakpoint, Ordering, StudyDesign } from '../core/ordering/types';
 import { bandOfCuts, cutsOf, type Cut } from '../core/view/interval';
 import { bandDesign, type BandApi, type BandStudy } from './bands';
+import { createLane, lru, type Transport, type Where } from './lane';
 
-export type BandTransport = BandApi & { dispose?: () => void };
-export type Where = 'worker' | 'main thread';
+export type BandTransport = Transport<BandApi>;
+export type { Where };
 
 /** A band's ordering as the main thread holds it. */
 export interface BandOrdering {
@@ -90,61 +91,30 @@ interface SetState {
   key: string;
   /** The transport this set is open on (null: not open anywhere now). */
   openedOn: BandApi | null;
-  answers: Map<number, BandOrdering>;
+  answers: ReturnType<typeof lru<number, BandOrdering>>;
 }
-
-type Job = { state: SetState; stamp: number; interval: number; droppable: boolean; resolve: (r: BandResult | null) => void };
 
 export function createBandClient(primary: (() => BandTransport) | null, fallback: () => BandApi, options: BandClientOptions = {}): BandClient {
   const setsKept = options.setsKept ?? 4;
   const bandsKept = options.bandsKept ?? 8;
-  let api: BandTransport | null = null;
-  try {
-    api = primary ? primary() : null;
-  } catch {
-    api = null;
-  }
-  let onMain = !api;
-  let fb: BandApi | null = null;
-  const mainApi = () => (fb ??= fallback());
-  const current = (): BandApi => (onMain || !api ? mainApi() : api);
-  const whereOf = (a: BandApi): Where => (a === api ? 'worker' : 'main thread');
+  const lane = createLane({ worker: primary, fallback });
 
-  /** Run on the worker; when it fails (could not load, crashed) run here from now on. */
-  const run = async <T>(f: (a: BandApi) => Promise<T>): Promise<{ value: T; on: BandApi }> => {
-    const a = current();
-    if (a !== fb) {
-      try {
-        return { value: await f(a), on: a };
-      } catch {
-        onMain = true;
-        api?.dispose?.();
-      }
-    }
-    const m = mainApi();
-    return { value: await f(m), on: m };
-  };
-
-  // open sets, least recently used first
-  const open: SetState[] = [];
-  const opening = new WeakMap<Model, Map<string, Promise<OpenResult>>>();
+  // open sets, least recently used first; a set dropped is closed where it is open
   const byModel = new WeakMap<Model, Map<string, SetState>>();
+  const open = lru<SetState, true>(setsKept, (old) => {
+    byModel.get(old.set.model)?.delete(old.key);
+    const on = old.openedOn;
+    old.openedOn = null;
+    old.answers.clear();
+    if (on) void on.closeBands(old.set.id).catch(() => undefined);
+  });
+  const opening = new WeakMap<Model, Map<string, Promise<OpenResult>>>();
   let ids = 0;
   const remember = (s: SetState) => {
     let m = byModel.get(s.set.model);
     if (!m) byModel.set(s.set.model, (m = new Map()));
     m.set(s.key, s);
-    const i = open.indexOf(s);
-    if (i >= 0) open.splice(i, 1);
-    open.push(s);
-    while (open.length > setsKept) {
-      const old = open.shift()!;
-      byModel.get(old.set.model)?.delete(old.key);
-      const on = old.openedOn;
-      old.openedOn = null;
-      old.answers.clear();
-      if (on) void on.closeBands(old.set.id).catch(() => undefined);
-    }
+    open.set(s, true);
   };
   const lookup = (model: Model, key: string) => byModel.get(model)?.get(key);
 
@@ -153,68 +123,36 @@ export function createBandClient(primary: (() => BandTransport) | null, fallback
     const r = await a.openBands(s.set.id, s.set.model, s.set.study, s.set.hold);
     if (!r.ok) return r.message;
     s.openedOn = a;
-    if (!open.includes(s)) remember(s);
+    if (!open.has(s)) remember(s);
     return null;
   };
 
-  let stamp = 0;
-  let latestStamp = 0;
   let requests = 0;
-  let waiting: Job | null = null;
-  const musts: Job[] = [];
-  let busy = false;
-
-  const ask = async (job: Job): Promise<BandResult> => {
-    const s = job.state;
-    const { value, on } = await run(async (a) => {
+  let seq = 0;
+  const ask = async (s: SetState, interval: number): Promise<BandResult> => {
+    const mine = ++seq;
+    const { value, where } = await lane.run(async (a) => {
       if (s.openedOn !== a) {
         const problem = await openOn(a, s);
-        if (problem) return { ok: false as const, seq: job.stamp, band: s.set.band(job.interval), message: problem };
+        if (problem) return { ok: false as const, seq: mine, band: s.set.band(interval), message: problem };
       }
       requests++;
-      return a.bandOrdering(s.set.id, job.stamp, job.interval);
+      return a.bandOrdering(s.set.id, mine, interval);
     });
     if (!value.ok) return { ok: false, band: value.band, message: value.message };
-    const answer: BandOrdering = { ok: true, set: s.set, band: value.band, interval: job.interval, ordering: value.ordering, computeMs: value.computeMs, where: whereOf(on) };
-    if (s.openedOn) {
-      // a closed set keeps no answers
-      s.answers.delete(answer.band);
-      s.answers.set(answer.band, answer);
-      if (s.answers.size > bandsKept) s.answers.delete(s.answers.keys().next().value!);
-    }
+    const answer: BandOrdering = { ok: true, set: s.set, band: value.band, interval, ordering: value.ordering, computeMs: value.computeMs, where };
+    if (s.openedOn) s.answers.set(answer.band, answer); // a closed set keeps no answers
     return answer;
   };
-
-  const pump = () => {
-    if (busy) return;
-    const job = musts.shift() ?? waiting;
-    if (!job) return;
-    if (job === waiting) waiting = null;
-    busy = true;
-    ask(job)
-      .then(
-        (r) => job.resolve(job.droppable && job.stamp !== latestStamp ? null : r),
-        (e: unknown) => job.resolve(job.droppable && job.stamp !== latestStamp ? null : { ok: false, band: job.state.set.band(job.interval), message: `the ordering could not be computed: ${(e as Error).message}` }),
-      )
-      .finally(() => {
-        busy = false;
-        pump();
-      });
-  };
+  const queue = lane.latest(ask, {
+    failed: (e, s, interval): BandResult => ({ ok: false, band: s.set.band(interval), message: `the ordering could not be computed: ${(e as Error).message}` }),
+  });
 
   const makeSet = (id: number, model: Model, study: BandStudy, hold: Record<VariableId, number> | undefined, breakpoints: Breakpoint[], key: string): SetState => {
     const cuts = cutsOf(breakpoints);
     const heldCopy = hold && Object.keys(hold).length ? { ...hold } : undefined;
-    const state: SetState = { key, openedOn: null, answers: new Map(), set: null as unknown as BandSet };
-    const hit = (interval: number) => {
-      const k = bandOfCuts(cuts, interval);
-      const a = state.answers.get(k);
-      if (a) {
-        state.answers.delete(k);
-        state.answers.set(k, a); // most recently used last
-      }
-      return a;
-    };
+    const state: SetState = { key, openedOn: null, answers: lru(bandsKept), set: null as unknown as BandSet };
+    const hit = (interval: number) => state.answers.get(bandOfCuts(cuts, interval));
     state.set = {
       id,
       model,
@@ -226,24 +164,14 @@ export function createBandClient(primary: (() => BandTransport) | null, fallback
       design: (interval) => bandDesign(study, interval, heldCopy),
       cached: hit,
       latest(interval) {
-        const s = ++stamp;
-        latestStamp = s;
-        waiting?.resolve(null);
-        waiting = null;
         const a = hit(interval);
-        if (a) return Promise.resolve(a);
-        return new Promise((resolve) => {
-          waiting = { state, stamp: s, interval, droppable: true, resolve };
-          pump();
-        });
+        if (!a) return queue.latest(state, interval);
+        queue.supersede(); // a band held here answers at once, and still overtakes older requests
+        return Promise.resolve(a);
       },
       ordering(interval) {
         const a = hit(interval);
-        if (a) return Promise.resolve(a);
-        return new Promise((resolve) => {
-          musts.push({ state, stamp: ++stamp, interval, droppable: false, resolve: (r) => resolve(r!) });
-          pump();
-        });
+        return a ? Promise.resolve(a) : queue.must(state, interval);
       },
     };
     return state;
@@ -267,10 +195,10 @@ export function createBandClient(primary: (() => BandTransport) | null, fallback
       const id = ++ids;
       const p = (async (): Promise<OpenResult> => {
         try {
-          const { value, on } = await run((a) => a.openBands(id, model, study, hold));
+          const { value, api } = await lane.run((a) => a.openBands(id, model, study, hold));
           if (!value.ok) return { ok: false, message: value.message };
           const s = makeSet(id, model, study, hold, value.breakpoints, key);
-          s.openedOn = on;
+          s.openedOn = api;
           remember(s);
           return { ok: true, set: s.set };
         } catch (e) {
@@ -282,13 +210,11 @@ export function createBandClient(primary: (() => BandTransport) | null, fallback
       inFlight.set(key, p);
       return p;
     },
-    where: () => (onMain || !api ? 'main thread' : 'worker'),
+    where: lane.where,
     sent: () => requests,
     dispose() {
-      waiting?.resolve(null);
-      waiting = null;
-      latestStamp = ++stamp;
-      api?.dispose?.();
+      queue.supersede();
+      lane.dispose();
     },
   };
 }

@@ -9,7 +9,7 @@
  */
 import { proxy } from 'comlink';
 import type { Model, VariableId } from '../core/model/types';
-import { latestWins } from './client';
+import { createLane, noWorkerRequested, type LatestQueue } from './lane';
 import type { NumericApi, SimulationAnswer, Failed } from './numericApi';
 import { startWorker } from './guard';
 
@@ -40,86 +40,28 @@ const cancelledAnswer = (): SimulationAnswer => ({
 });
 
 export function createNumericClient(primary: (() => NumericTransport) | null, fallback: () => NumericApi): NumericClient {
-  let onMain = primary === null;
-  let fb: NumericApi | null = null;
-  const main = () => (fb ??= fallback());
-  const start = (): NumericTransport | null => {
-    if (onMain || !primary) return null;
-    try {
-      return primary();
-    } catch {
-      onMain = true;
-      return null;
+  const lane = createLane({ worker: primary, fallback, lazy: true });
+  const queues = new Map<Quick, LatestQueue<unknown[], unknown>>();
+  const queue = (kind: Quick) => {
+    let q = queues.get(kind);
+    if (!q) {
+      q = lane.latest((...args: unknown[]) => lane.run((api) => (api[kind] as (...a: unknown[]) => Promise<unknown>)(...args)).then((r) => r.value), { mode: 'parallel' });
+      queues.set(kind, q);
     }
+    return q;
   };
-  let quick: NumericTransport | null = null;
-  let quickStarted = false;
-  const quickApi = (): NumericApi => {
-    if (!quickStarted) { quickStarted = true; quick = start(); }
-    return onMain || !quick ? main() : quick;
-  };
-  const callQuick = async (kind: Quick, args: unknown[]): Promise<unknown> => {
-    const api = quickApi();
-    try {
-      return await (api[kind] as (...a: unknown[]) => Promise<unknown>)(...args);
-    } catch (e) {
-      if (api === main()) throw e;
-      // The worker failed (could not load, crashed): answer here from now on.
-      onMain = true;
-      quick?.dispose?.();
-      return (main()[kind] as (...a: unknown[]) => Promise<unknown>)(...args);
-    }
-  };
-  const lanes = new Map<Quick, ReturnType<typeof latestWins<unknown[], unknown>>>();
-  const lane = (kind: Quick) => {
-    let l = lanes.get(kind);
-    if (!l) { l = latestWins((...args: unknown[]) => callQuick(kind, args)); lanes.set(kind, l); }
-    return l;
-  };
-  let simSeq = 0;
-  let current: { transport: NumericTransport | null; cancel: () => void } | null = null;
   return {
-    async ask(kind, ...args) {
-      const d = await lane(kind).call(...(args as unknown[]));
-      return d.stale ? null : (d.value as never);
-    },
-    simulate(model, options, onProgress) {
-      // A newer run replaces the older one: the older is stopped and delivers null.
-      const seq = ++simSeq;
-      current?.cancel();
-      const transport = start();
-      let settle: (a: SimulationAnswer | Failed | null) => void = () => {};
-      let done = false;
-      const result = new Promise<SimulationAnswer | Failed | null>((resolve) => {
-        settle = (a) => { if (!done) { done = true; resolve(seq === simSeq || a === null ? a : null); } };
-      });
-      const run = { transport, cancel: () => {
-        if (done) return;
-        // A worker busy with an integration reads no messages: ending it is the only way to stop it.
-        transport?.dispose?.();
-        settle(cancelledAnswer());
-      } };
-      current = run;
-      const progress = onProgress ? (f: number) => { if (!done) onProgress(f); } : undefined;
-      const onMainThread = () => main().simulate(model, options, progress).then(settle, (e: unknown) => settle({ ok: false, reason: (e as Error).message }));
-      if (!transport) void onMainThread();
-      else
-        transport.simulate(model, options, progress).then(
-          (a) => { settle(a); transport.dispose?.(); },
-          () => {
-            if (done) return;
-            onMain = true;
-            transport.dispose?.();
-            void onMainThread();
-          },
-        );
-      return { result, cancel: run.cancel };
-    },
-    where: () => (onMain ? 'main thread' : 'worker'),
+    ask: (kind, ...args) => queue(kind).latest(...(args as unknown[])) as never,
+    simulate: (model, options, onProgress) =>
+      lane.cancellable('simulate', (api, progress) => api.simulate(model, options, progress), {
+        onProgress,
+        cancelled: cancelledAnswer,
+        failed: (e): Failed => ({ ok: false, reason: (e as Error).message }),
+      }),
+    where: lane.where,
     dispose() {
-      current?.cancel();
-      for (const l of lanes.values()) l.invalidate();
-      quick?.dispose?.();
+      for (const q of queues.values()) q.supersede();
+      lane.dispose();
     },
   };
 }
@@ -148,8 +90,7 @@ let appClient: Promise<NumericClient> | null = null;
  */
 export function appNumericClient(): Promise<NumericClient> {
   appClient ??= import('./numericApi').then(({ localNumeric }) => {
-    const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
-    return createNumericClient(noWorker ? null : workerNumeric, () => localNumeric);
+    return createNumericClient(noWorkerRequested() ? null : workerNumeric, () => localNumeric);
   });
   return appClient;
 }

@@ -7,6 +7,7 @@ import type { CoreApi } from './protocol';
 import { createCoreClient, type CoreClient } from './client';
 import { localCore } from './analyze';
 import { startWorker } from './guard';
+import { noWorkerRequested } from './lane';
 import { createBandHost, type BandApi } from './bands';
 import { createBandClient, type BandClient, type BandTransport } from './bandClient';
 
@@ -17,8 +18,7 @@ export function workerCore(): CoreApi & { dispose: () => void } {
 
 /** The app's core client: in a worker when possible, else on the main thread. */
 export function createAppCoreClient(): CoreClient {
-  const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
-  return createCoreClient(noWorker ? null : workerCore, () => localCore);
+  return createCoreClient(noWorkerRequested() ? null : workerCore, () => localCore);
 }
 
 /**
@@ -40,7 +40,6 @@ export function workerBands(): BandTransport {
 let bandClient: BandClient | null = null;
 /** The app's band client, created on first use: in a worker when possible, else on the main thread (`?noworker`). */
 export function appBandClient(): BandClient {
-  const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
-  bandClient ??= createBandClient(noWorker ? null : workerBands, () => createBandHost());
+  bandClient ??= createBandClient(noWorkerRequested() ? null : workerBands, () => createBandHost());
   return bandClient;
 }

@@ -7,7 +7,7 @@ import { circleLayout, laggedNetwork, linkCurveChart, networkDiagram, sameInterv
 import { weightText } from '../../src/export/format';
 import type { El } from '../../src/export/scene';
 import { svgDocument } from '../../src/export/svg';
-import { curveOf, sampledOf, simulationOf, type CurveAnswer, type SampledAnswer, type SimulationAnswer } from '../../src/worker/numericApi';
+import { curveOf, sampledOf, simulationOf, type CurveAnswer, type SampledAnswer, type SimulationAnswer } from '../../src/core/numeric/answers';
 import { runPython } from '../helpers/python';
 
 interface XNode { tag: string; ns: string; attrs: Record<string, string>; text: string; children: XNode[] }

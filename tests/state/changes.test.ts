@@ -19,7 +19,7 @@ function base(): Model {
     ...emptyModel('test'),
     variables: [
       { id: 'a', kind: 'input', value: 1, position: { x: 0, y: 0 } },
-      { id: 'b', kind: 'state', timescale: '2 h', rate: 'a - b', position: { x: 100, y: 0 } },
+      { id: 'b', kind: 'state', timescale: '2 h', rate: 'a - b', noise: 0.5, position: { x: 100, y: 0 } },
       { id: 'c', kind: 'derived', formula: 'b*2 + a1', position: { x: 200, y: 0 } },
       { id: 'a1', kind: 'input', value: 3 },
     ],
@@ -28,7 +28,7 @@ function base(): Model {
       { from: 'b', to: 'c', kind: 'instantaneous' },
     ],
     relations: [{ id: 'r', equation: 'a*c = b' }],
-    settings: { noise: { b: 0.5 } },
+    study: { interval: '1h', length: 50, schedule: { kind: 'fixed' }, holds: { a: 2 } },
   });
 }
 
@@ -73,7 +73,7 @@ describe('document edits reducer', () => {
     const m = applyChange(base(), { type: 'setKind', id: 'b', kind: 'input' });
     const b = m.variables.find((v) => v.id === 'b')!;
     expect(b).toEqual({ id: 'b', kind: 'input', position: { x: 100, y: 0 } });
-    expect(m.settings?.noise).toEqual({}); // noise applies to states only
+    expect(b.noise).toBeUndefined(); // noise applies to states only
   });
 
   it('renaming rewrites links, formulas, relations and noise; mathjs reads the new names', () => {
@@ -85,7 +85,8 @@ describe('document edits reducer', () => {
     expect(mathjsSymbols(m.variables.find((v) => v.id === 'b')!.rate!)).toEqual(['b', 'load']);
     expect(m.relations![0].equation).toBe('load*c = b');
     const n = applyChange(base(), { type: 'renameVariable', id: 'b', newId: 'stock' });
-    expect(n.settings?.noise).toEqual({ stock: 0.5 });
+    expect(n.variables.find((v) => v.id === 'stock')?.noise).toBe(0.5);
+    expect(m.study?.holds).toEqual({ load: 2 }); // a hold follows its variable
   });
 
   it('renameInFormula leaves numbers with exponents alone', () => {

@@ -2,7 +2,7 @@
 import { formatDuration } from '../../core/model/units';
 import { breakpoints } from '../../core/ordering/index';
 import { linkCurveChart } from '../../export/charts';
-import { adviceOf, curveOf } from '../../worker/numericApi';
+import { adviceOf, curveOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, writeSvg } from '../figure';
 import { loadModel } from '../load';
 import { designFromArgs } from './ordering';

@@ -12,4 +12,8 @@ import { numericCommands } from './numeric';
 COMMANDS.push(...numericCommands);
 import { curveCommands } from './curves';
 COMMANDS.push(...curveCommands);
+import { dataCommands } from './data';
+COMMANDS.push(...dataCommands);
+import { pictureCommands } from './pictures';
+COMMANDS.push(...pictureCommands);
 import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);

@@ -13,6 +13,7 @@ import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
 import { layoutInNode } from '../../layout/node';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { designAxis } from '../../core/study/convert';
 
 /** `x=3,y=0.5` → { x: 3, y: 0.5 }, checking each variable and value. */
 export function parseHoldOption(text: string | true | undefined, model: Model): Record<string, number> {
@@ -178,7 +179,7 @@ export const interventionCommands: CliCommand[] = [
         io.out(`wrote ${path} (${text.length} characters)`);
       };
       write(out, html);
-      const axis = study.window !== undefined ? { window: study.window } : { samples: study.samples ?? model.settings?.samples };
+      const axis = designAxis(model, study);
       for (const [opt, table] of [['bands-csv', bandsCsv], ['breakpoints-csv', breakpointsCsv]] as const) {
         const path = args.options[opt];
         if (path === undefined) continue;

@@ -3,7 +3,7 @@ import { formatDuration } from '../../core/model/units';
 import { sampledAt, simulate, solveEquilibrium, timescalesAt, toRows, type Mat } from '../../core/numeric/index';
 import type { Diagnostic } from '../../core/ordering/types';
 import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../export/charts';
-import { sampledOf } from '../../worker/numericApi';
+import { sampledOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
 import { designFromArgs } from './ordering';

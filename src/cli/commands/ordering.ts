@@ -4,6 +4,8 @@ import { breakpoints, orderingAt } from '../../core/ordering/index';
 import type { Diagnostic, Ordering, StudyDesign } from '../../core/ordering/types';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { designAxis, windowOf } from '../../core/study/convert';
+import { uncertainOrdering, uncertainText } from './pictures';
 
 /** Study design from --interval, --window, --samples and --hold. */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -42,7 +44,7 @@ export function parseHold(text: string | true, model: Model): Record<string, num
 function describeDesign(model: Model, design: StudyDesign): string {
   if (design.interval === undefined) return 'the mechanism (every state dynamic)';
   const u = model.timeUnit;
-  const window = design.window ?? design.interval * (design.samples ?? model.settings?.samples ?? 50);
+  const window = windowOf(designAxis(model, design), design.interval);
   return `sampling every ${formatDuration(design.interval, u)}, over a study of ${formatDuration(window, u)}`;
 }
 
@@ -91,13 +93,16 @@ export const orderingCommands: CliCommand[] = [
   {
     name: 'order',
     summary: 'the causal ordering seen at a sampling interval',
-    usage: 'MODEL.json [--interval D] [--window W | --samples N] [--hold x=v,...] [--json]',
-    options: designOptions,
+    usage: 'MODEL.json [--interval D] [--window W | --samples N] [--hold x=v,...] [--uncertain [--draws K] [--seed S]] [--json]',
+    options: { ...designOptions, uncertain: false, draws: true, seed: true },
     run(args, io) {
       const model = loadModel(args, io);
       const design = designFromArgs(args, model);
       const o = orderingAt(model, design);
-      io.out(args.options.json ? JSON.stringify(o, null, 2) : orderingText(model, design, o));
+      // Timescale ranges: the probability of each ordering (src/cli/commands/pictures.ts).
+      const u = args.options.uncertain ? uncertainOrdering(args, model, design) : null;
+      if (args.options.json) io.out(JSON.stringify(u ? { ...o, probabilities: u.probabilities.map(({ roles, blocks, share }) => ({ roles, blocks, share })), uncertainty: { draws: u.draws, seed: u.seed, states: u.states, readings: u.readings } } : o, null, 2));
+      else io.out([orderingText(model, design, o), ...(u ? uncertainText(u) : [])].join('\n'));
       return 0;
     },
   },

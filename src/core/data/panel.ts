@@ -10,6 +10,8 @@ export interface Panel {
   /** Unit of every `time` value. */
   timeUnit: TimeUnit;
   persons: PersonSeries[];
+  /** ISO date-time of time 0, when times were read from dates (times are then measured from it). */
+  origin?: string;
 }
 
 export interface PersonSeries {

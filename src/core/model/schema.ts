@@ -1,5 +1,9 @@
 import { z } from 'zod';
-import { TIME_UNITS, type Model } from './types';
+import { lengthAxis, parseInterval } from '../study/convert';
+import { nominalSpacing } from '../study/schedule';
+import { migrateV1 } from './migrate';
+import { MODEL_VERSION, TIME_UNITS, type Model, type Study } from './types';
+import { convertDuration, formatDuration } from './units';
 import { readTimescale } from './timescale';
 
 /** One problem found in a model file, located by its JSON path. */
@@ -9,7 +13,8 @@ export interface ModelIssue {
   message: string;
 }
 
-export type ParseResult = { ok: true; model: Model; warnings: ModelIssue[] } | { ok: false; issues: ModelIssue[] };
+/** `migratedFrom`: the file's version when it was older than this program writes (the model is migrated). */
+export type ParseResult = { ok: true; model: Model; warnings: ModelIssue[]; migratedFrom?: number } | { ok: false; issues: ModelIssue[] };
 
 const ID = /^[A-Za-z_][A-Za-z0-9_]*$/;
 const idField = z
@@ -20,24 +25,35 @@ const finite = (what: string) => z.number({ error: `${what} must be a number` })
 const text = (max: number) => z.string({ error: 'must be text' }).max(max, { error: `must be at most ${max} characters long` });
 const position = z.strictObject({ x: finite('x'), y: finite('y') }, { error: 'must be an object { x, y }' });
 
-const variableSchema = z.strictObject(
+/**
+ * A state's characteristic time: a number in the model's time unit or a duration in text.
+ * Kept in one place so that it can take further forms (such as a range) without touching the rest.
+ */
+const timescaleSchema = z.union([z.number(), z.string(), z.strictObject({ low: z.union([z.number(), z.string()]), high: z.union([z.number(), z.string()]) })], {
+  error: 'must be a number in the model time unit, a duration such as "90 min", or a range { "low": "30 min", "high": "3 h" }',
+});
+
+const variableFieldsV1 = {
+  id: idField,
+  label: text(200).optional(),
+  kind: z.enum(['input', 'state', 'derived'], { error: 'must be "input", "state" or "derived"' }),
+  value: finite('value').optional(),
+  initial: finite('initial').optional(),
+  timescale: timescaleSchema.optional(),
+  selfRegulating: z.boolean({ error: 'must be true or false' }).optional(),
+  rate: text(4000).optional(),
+  formula: text(4000).optional(),
+  unit: text(40).optional(),
+  note: text(4000).optional(),
+  position: position.optional(),
+};
+const variableSchemaV1 = z.strictObject(variableFieldsV1, { error: 'must be an object describing a variable' });
+const variableSchemaV2 = z.strictObject(
   {
-    id: idField,
-    label: text(200).optional(),
-    kind: z.enum(['input', 'state', 'derived'], { error: 'must be "input", "state" or "derived"' }),
-    value: finite('value').optional(),
-    initial: finite('initial').optional(),
-    timescale: z
-      .union([z.number(), z.string(), z.strictObject({ low: z.union([z.number(), z.string()]), high: z.union([z.number(), z.string()]) })], {
-        error: 'must be a number in the model time unit, a duration such as "90 min", or a range { "low": "30 min", "high": "3 h" }',
-      })
-      .optional(),
-    selfRegulating: z.boolean({ error: 'must be true or false' }).optional(),
-    rate: text(4000).optional(),
-    formula: text(4000).optional(),
-    unit: text(40).optional(),
-    note: text(4000).optional(),
-    position: position.optional(),
+    ...variableFieldsV1,
+    noise: finite('noise').refine((n) => n >= 0, { error: 'must not be negative (the variance the process adds per unit time)' }).optional(),
+    reliability: finite('reliability').refine((r) => r > 0 && r <= 1, { error: 'must be above 0 and at most 1 (the share of true-score variance in a measurement)' }).optional(),
+    personSD: finite('personSD').refine((n) => n >= 0, { error: 'must not be negative (a standard deviation across persons)' }).optional(),
   },
   { error: 'must be an object describing a variable' },
 );
@@ -47,40 +63,110 @@ const relationSchema = z.strictObject(
   { error: 'must be an object { id, equation }' },
 );
 
-const linkSchema = z.strictObject(
-  {
-    id: text(140).optional(),
-    from: idField,
-    to: idField,
-    kind: z.enum(['instantaneous', 'integrating'], { error: 'must be "instantaneous" or "integrating"' }),
-    sign: z.enum(['+', '-'], { error: 'must be "+" or "-"' }).optional(),
-    weight: finite('weight').optional(),
-  },
+const linkFieldsV1 = {
+  id: text(140).optional(),
+  from: idField,
+  to: idField,
+  kind: z.enum(['instantaneous', 'integrating'], { error: 'must be "instantaneous" or "integrating"' }),
+  sign: z.enum(['+', '-'], { error: 'must be "+" or "-"' }).optional(),
+  weight: finite('weight').optional(),
+};
+const linkSchemaV1 = z.strictObject(linkFieldsV1, { error: 'must be an object { from, to, kind }' });
+const linkSchemaV2 = z.strictObject(
+  { ...linkFieldsV1, personSD: finite('personSD').refine((n) => n >= 0, { error: 'must not be negative (a standard deviation across persons)' }).optional() },
   { error: 'must be an object { from, to, kind }' },
 );
 
-const modelSchema = z.strictObject(
+const durationSchema = z.union([z.number(), z.string().max(100, { error: 'must be at most 100 characters long' })], { error: 'must be a duration: a number in the model time unit or text such as "3h" or "14 days"' });
+const clock = z.string({ error: 'must be a time of day such as "09:00"' }).regex(/^([01][0-9]|2[0-3]):[0-5][0-9]$|^24:00$/, { error: 'must be a time of day "HH:MM" between "00:00" and "24:00", such as "09:00"' });
+
+const scheduleSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.strictObject({ kind: z.literal('fixed') }, { error: 'must be an object { kind }' }),
+    z.strictObject(
+      {
+        kind: z.literal('daily-window'),
+        promptsPerDay: z.number({ error: 'must be a number' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be at least 1' }).max(288, { error: 'must be at most 288 (one every 5 minutes)' }),
+        from: clock,
+        to: clock,
+        timing: z.enum(['fixed', 'stratified-random'], { error: 'must be "fixed" (evenly spaced) or "stratified-random" (one at a random time in each equal part of the window)' }),
+      },
+      { error: 'must be an object { kind, promptsPerDay, from, to, timing }' },
+    ),
+    z.strictObject({ kind: z.literal('daily') }, { error: 'must be an object { kind }' }),
+    z.strictObject({ kind: z.literal('weekly') }, { error: 'must be an object { kind }' }),
+  ],
+  { error: 'must be an object whose kind is "fixed", "daily-window", "daily" or "weekly"' },
+);
+
+const studySchema = z.strictObject(
   {
-    $schema: z.string().optional(),
-    format: z.literal('loopfold-model', { error: 'must be "loopfold-model": this does not look like a Loopfold model file' }),
-    version: z.literal(1, { error: 'must be 1: this file was written by a version of Loopfold this one does not know' }),
-    name: text(200),
-    description: text(8000).optional(),
-    caution: text(2000).optional(),
-    timeUnit: z.enum(TIME_UNITS, { error: `must be one of ${TIME_UNITS.join(', ')}` }),
-    variables: z.array(variableSchema, { error: 'must be a list of variables' }).max(20000, { error: 'holds more than 20,000 variables' }),
-    relations: z.array(relationSchema, { error: 'must be a list of relations' }).max(20000).optional(),
-    links: z.array(linkSchema, { error: 'must be a list of links' }).max(100000, { error: 'holds more than 100,000 links' }),
+    interval: durationSchema,
+    length: z.union([z.number(), z.string().max(100)], { error: 'must be a duration such as "14 days" or a number of samples' }),
+    schedule: scheduleSchema,
+    persons: z.number({ error: 'must be a number' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be at least 1' }).max(100000, { error: 'must be at most 100,000' }).optional(),
+    missedPrompts: finite('missedPrompts').refine((p) => p >= 0 && p < 1, { error: 'must be a share from 0 up to (not including) 1, such as 0.2 for 20 % missed' }).optional(),
+    holds: z.record(z.string(), finite('hold')).optional(),
+    seed: z.number({ error: 'must be a number' }).int({ error: 'must be a whole number' }).min(0, { error: 'must not be negative' }).max(4294967295, { error: 'must be below 2^32' }).optional(),
+  },
+  { error: 'must be an object { interval, length, schedule }' },
+);
+
+const modelHead = {
+  $schema: z.string().optional(),
+  format: z.literal('loopfold-model', { error: 'must be "loopfold-model": this does not look like a Loopfold model file' }),
+};
+const modelFields = {
+  name: text(200),
+  description: text(8000).optional(),
+  caution: text(2000).optional(),
+  timeUnit: z.enum(TIME_UNITS, { error: `must be one of ${TIME_UNITS.join(', ')}` }),
+};
+const relationsField = z.array(relationSchema, { error: 'must be a list of relations' }).max(20000).optional();
+const separation = finite('separation').refine((k) => k >= 1, { error: 'must be at least 1' });
+
+const modelSchemaV1 = z.strictObject(
+  {
+    ...modelHead,
+    version: z.literal(1, { error: 'must be 1' }),
+    ...modelFields,
+    variables: z.array(variableSchemaV1, { error: 'must be a list of variables' }).max(20000, { error: 'holds more than 20,000 variables' }),
+    relations: relationsField,
+    links: z.array(linkSchemaV1, { error: 'must be a list of links' }).max(100000, { error: 'holds more than 100,000 links' }),
     settings: z
       .strictObject(
         {
-          separation: finite('separation').refine((k) => k >= 1, { error: 'must be at least 1' }).optional(),
+          separation: separation.optional(),
           samples: z.number({ error: 'must be a number' }).int({ error: 'must be a whole number' }).min(2, { error: 'must be at least 2' }).max(1e6).optional(),
           noise: z.record(z.string(), finite('noise')).optional(),
         },
         { error: 'must be an object' },
       )
       .optional(),
+  },
+  { error: 'must be a JSON object' },
+);
+
+const modelSchemaV2 = z.strictObject(
+  {
+    ...modelHead,
+    version: z.literal(2, { error: 'must be 2' }),
+    ...modelFields,
+    variables: z.array(variableSchemaV2, { error: 'must be a list of variables' }).max(20000, { error: 'holds more than 20,000 variables' }),
+    relations: relationsField,
+    links: z.array(linkSchemaV2, { error: 'must be a list of links' }).max(100000, { error: 'holds more than 100,000 links' }),
+    settings: z
+      .strictObject(
+        {
+          separation: separation.optional(),
+          samples: z.never({ error: 'belongs to version 1: in version 2 the study length is "study.length"' }).optional(),
+          noise: z.never({ error: 'belongs to version 1: in version 2 each state has its own "noise"' }).optional(),
+        },
+        { error: 'must be an object' },
+      )
+      .optional(),
+    study: studySchema.optional(),
   },
   { error: 'must be a JSON object' },
 );
@@ -105,16 +191,45 @@ function zodIssues(error: z.ZodError): ModelIssue[] {
   });
 }
 
+/** The versions of the model file this program reads (older ones are migrated on open). */
+export const READABLE_VERSIONS = [1, 2] as const;
+
 /**
- * Validate untrusted JSON (already parsed) as a Loopfold model.
- * Nothing in it is executed; formulas stay text here.
+ * Validate untrusted JSON (already parsed) as a Loopfold model, of any
+ * version this program reads; a version-1 file comes back migrated to
+ * version 2 (`migratedFrom: 1`). Nothing in it is executed; formulas stay text here.
  */
 export function parseModel(json: unknown): ParseResult {
-  const r = modelSchema.safeParse(json);
-  if (!r.success) return { ok: false, issues: zodIssues(r.error) };
-  const { $schema: _ignored, ...rest } = r.data;
+  const version = json !== null && typeof json === 'object' && !Array.isArray(json) ? (json as { version?: unknown }).version : undefined;
+  if (typeof version === 'number' && Number.isInteger(version) && version > MODEL_VERSION) {
+    const issues: ModelIssue[] = [{ path: 'version', message: `is ${version}: this file was written by a newer Loopfold (model file version ${version}); this one reads versions ${READABLE_VERSIONS.join(' and ')}` }];
+    if ((json as { format?: unknown }).format !== 'loopfold-model') issues.unshift({ path: 'format', message: 'must be "loopfold-model": this does not look like a Loopfold model file' });
+    return { ok: false, issues };
+  }
+  if (version === 1) {
+    const r = modelSchemaV1.safeParse(json, { reportInput: true });
+    if (!r.success) return { ok: false, issues: zodIssues(r.error) };
+    const checked = checkModel(withoutSchemaField(r.data) as Model);
+    if (!checked.ok) return checked;
+    return { ok: true, model: migrateV1(checked.model), warnings: checked.warnings, migratedFrom: 1 };
+  }
+  const r = modelSchemaV2.safeParse(json, { reportInput: true });
+  if (!r.success) {
+    const issues = zodIssues(r.error);
+    if (version !== 2 && !issues.some((i) => i.path === 'version')) issues.push({ path: 'version', message: 'must be 1 or 2' });
+    return { ok: false, issues: issues.map((i) => (i.path === 'version' && version !== undefined ? { path: 'version', message: `must be 1 or 2 (the model file versions this Loopfold reads), not ${JSON.stringify(version)}` } : i)) };
+  }
+  return checkModel(withoutSchemaField(r.data) as Model);
+}
+
+function withoutSchemaField<T extends { $schema?: string }>(data: T): Omit<T, '$schema'> {
+  const { $schema: _ignored, ...rest } = data;
   void _ignored;
-  const model = rest as Model;
+  return rest;
+}
+
+/** The checks a schema cannot express: ids, kinds, references, durations, the study. */
+function checkModel(model: Model): ParseResult {
   const issues: ModelIssue[] = [];
   const warnings: ModelIssue[] = [];
   const ids = new Map<string, string>();
@@ -123,9 +238,10 @@ export function parseModel(json: unknown): ParseResult {
     if (ids.has(v.id)) issues.push({ path: `${p}.id`, message: `"${v.id}" is used twice (also at ${ids.get(v.id)}): every variable needs its own id` });
     else ids.set(v.id, p);
     if (v.kind !== 'state') {
-      for (const f of ['initial', 'timescale', 'selfRegulating', 'rate'] as const)
+      for (const f of ['initial', 'timescale', 'selfRegulating', 'rate', 'noise'] as const)
         if (v[f] !== undefined) issues.push({ path: `${p}.${f}`, message: `only a state has "${f}"; "${v.id}" is ${v.kind === 'input' ? 'an input' : 'a derived variable'}` });
     }
+    if (v.kind !== 'input' && v.personSD !== undefined) issues.push({ path: `${p}.personSD`, message: `only an input has "personSD" (its spread across persons); "${v.id}" is a ${v.kind} (for person differences in a strength, give the link a "personSD")` });
     if (v.kind !== 'input' && v.value !== undefined) issues.push({ path: `${p}.value`, message: `only an input has "value"; "${v.id}" is a ${v.kind} (use "initial" for a state)` });
     if (v.kind !== 'derived' && v.formula !== undefined) issues.push({ path: `${p}.formula`, message: `only a derived variable has "formula"; "${v.id}" is ${v.kind === 'input' ? 'an input' : 'a state (use "rate")'}` });
     if (v.timescale !== undefined) {
@@ -141,11 +257,9 @@ export function parseModel(json: unknown): ParseResult {
   const seenLinks = new Map<string, number>();
   model.links.forEach((l, i) => {
     const p = `links[${i}]`;
-    const fromVar = model.variables.find((v) => v.id === l.from);
     if (!model.variables.some((v) => v.id === l.from)) issues.push({ path: `${p}.from`, message: `no variable "${l.from}" exists` });
     if (!model.variables.some((v) => v.id === l.to)) issues.push({ path: `${p}.to`, message: `no variable "${l.to}" exists` });
     if (l.from === l.to) issues.push({ path: p, message: `a link from "${l.from}" to itself is not allowed: mark the state self-regulating instead` });
-    void fromVar;
     const key = `${l.from}->${l.to}`;
     if (seenLinks.has(key)) warnings.push({ path: p, message: `duplicates links[${seenLinks.get(key)}] from "${l.from}" to "${l.to}"` });
     else seenLinks.set(key, i);
@@ -158,8 +272,44 @@ export function parseModel(json: unknown): ParseResult {
       if (n < 0) issues.push({ path: `settings.noise.${id}`, message: 'must not be negative' });
     }
   }
+  if (model.study) checkStudy(model, model.study, issues, warnings);
   if (issues.length > 0) return { ok: false, issues };
   return { ok: true, model, warnings };
+}
+
+function minutesOf(clockText: string): number {
+  const [h, m] = clockText.split(':').map(Number);
+  return h * 60 + m;
+}
+
+function checkStudy(model: Model, study: Study, issues: ModelIssue[], warnings: ModelIssue[]): void {
+  const unit = model.timeUnit;
+  const interval = parseInterval(study.interval, unit);
+  if (!interval.ok) issues.push({ path: 'study.interval', message: interval.message });
+  const length = lengthAxis(study.length, unit);
+  if (!length.ok) issues.push({ path: 'study.length', message: length.message });
+  for (const [id, value] of Object.entries(study.holds ?? {})) {
+    if (!model.variables.some((v) => v.id === id)) issues.push({ path: `study.holds.${id}`, message: `no variable "${id}" exists: a hold names a variable of the model` });
+    else if (!Number.isFinite(value)) issues.push({ path: `study.holds.${id}`, message: 'must be a finite number' });
+  }
+  const sch = study.schedule;
+  const day = convertDuration(1, 'day', unit);
+  if (sch.kind === 'daily-window') {
+    const from = minutesOf(sch.from);
+    const to = minutesOf(sch.to);
+    if (to <= from) issues.push({ path: 'study.schedule.to', message: `must be later in the day than "from" (${sch.from}): the prompts fall between them, the night outside` });
+    else if (interval.ok) {
+      const spacing = nominalSpacing(sch, unit);
+      if (Math.abs(interval.value - spacing) > 1e-6 * spacing)
+        warnings.push({ path: 'study.interval', message: `is ${formatDuration(interval.value, unit)}, but ${sch.promptsPerDay} prompts between ${sch.from} and ${sch.to} are ${formatDuration(spacing, unit)} apart: the ordering uses the interval, the prompt times the schedule` });
+    }
+  } else if (interval.ok && (sch.kind === 'daily' || sch.kind === 'weekly')) {
+    const expected = sch.kind === 'daily' ? day : 7 * day;
+    if (Math.abs(interval.value - expected) > 1e-9 * expected)
+      warnings.push({ path: 'study.interval', message: `is ${formatDuration(interval.value, unit)}, but a ${sch.kind} schedule prompts every ${sch.kind === 'daily' ? 'day' : 'week'}: the ordering uses the interval, the prompt times the schedule` });
+  }
+  if (interval.ok && length.ok && length.window !== undefined && interval.value > length.window)
+    issues.push({ path: 'study.length', message: `is ${formatDuration(length.window, unit)}, shorter than the interval (${formatDuration(interval.value, unit)}): no two prompts fit in it` });
 }
 
 /** Parse model text (JSON) with a located message when the JSON itself is broken. */
@@ -174,6 +324,6 @@ export function parseModelText(textIn: string): ParseResult {
 }
 
 /** The JSON Schema of the model file, generated from the same definition the app validates with. */
-export function modelJsonSchema(): unknown {
-  return z.toJSONSchema(modelSchema, { target: 'draft-2020-12', unrepresentable: 'any' });
+export function modelJsonSchema(version: 1 | 2 = MODEL_VERSION): unknown {
+  return z.toJSONSchema(version === 1 ? modelSchemaV1 : modelSchemaV2, { target: 'draft-2020-12', unrepresentable: 'any' });
 }

@@ -1,5 +1,7 @@
 /**
- * The Loopfold model document (file format "loopfold-model", version 1).
+ * The Loopfold model document (file format "loopfold-model", version 2).
+ * Files of version 1 are migrated on open (`src/core/model/migrate.ts`);
+ * a model read from a file is always version 2.
  *
  * Ids of variables and of equations are both strings; the branded aliases
  * below keep them apart in signatures. Durations are in the model's own
@@ -78,15 +80,19 @@ export interface Link {
 export interface ModelSettings {
   /** Timescale separation factor k (settle when k·τ ≤ Δ, freeze when τ ≥ k·W). Default 5. */
   separation?: number;
-  /** Default study length, in samples. Default 50. */
+  /** Version 1 only (migrated to `study.length`): default study length, in samples. Default 50. */
   samples?: number;
-  /** Noise intensity per state for the sampled model (default: 1 for every state). */
+  /** Version 1 only (migrated to each state's `noise`): noise intensity per state (default 1). */
   noise?: Record<VariableId, number>;
 }
 
+/** The version of the model file this program writes. */
+export const MODEL_VERSION = 2;
+
 export interface Model {
   format: 'loopfold-model';
-  version: 1;
+  /** 2 for every model read from a file (version-1 files are migrated); 1 only for models built in code the version-1 way. */
+  version: 1 | 2;
   name: string;
   description?: string;
   /** Shown with clinical and other sensitive examples. */
@@ -96,6 +102,8 @@ export interface Model {
   relations?: Relation[];
   links: Link[];
   settings?: ModelSettings;
+  /** Version 2: the study the modeller plans (absent: the app's default design). */
+  study?: Study;
 }
 
 export const DEFAULT_SEPARATION = 5;

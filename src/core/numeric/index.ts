@@ -9,6 +9,7 @@ import { linearize } from './linearize';
 import { sampledModel, type SampledModel } from './sampled';
 import { fastPartWarnings, timescalesOf, type TimescaleReport } from './timescales';
 import { orderingAt } from '../ordering/index';
+import { noiseOf } from '../study/convert';
 
 export { solveEquilibrium } from './equilibrium';
 export type { EquilibriumResult } from './equilibrium';
@@ -52,13 +53,13 @@ export function driftAtEquilibrium(model: Model): DriftResult {
   return { ok: true, states: lin.states, drift: lin.drift, equilibrium: eq, warnings };
 }
 
-/** The exact sampled model at `interval`, noise per state from settings.noise (default 1). */
+/** The exact sampled model at `interval`, noise per state from each state's `noise` (default 1). */
 export function sampledAt(model: Model, interval: number): ({ ok: true; sampled: SampledModel; warnings: string[] }) | { ok: false; reason: string } {
   const d = driftAtEquilibrium(model);
   if (!d.ok) return d;
-  const noise = d.states.map((s) => model.settings?.noise?.[s] ?? 1);
+  const noise = d.states.map((s) => noiseOf(model, s));
   const bad = d.states.find((s, i) => !(noise[i] >= 0) || !Number.isFinite(noise[i]));
-  if (bad) return { ok: false, reason: `settings.noise.${bad} must be a non-negative number` };
+  if (bad) return { ok: false, reason: `the noise of ${bad} must be a non-negative number` };
   const sampled = sampledModel(d.drift, d.states, interval, noise);
   return { ok: true, sampled, warnings: [...d.warnings, ...sampled.warnings] };
 }

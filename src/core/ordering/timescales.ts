@@ -11,6 +11,7 @@ import { DEFAULT_SAMPLES, DEFAULT_SEPARATION, type Model, type VariableId } from
 import { formatDuration } from '../model/units';
 import { readTimescale } from '../model/timescale';
 import type { Band, Breakpoint, Diagnostic, Role, StudyDesign } from './types';
+import { designAxis } from '../study/convert';
 import { compareIds } from './structure';
 
 export interface RolesResult {
@@ -43,8 +44,10 @@ function separationOf(model: Model): number {
   return typeof k === 'number' && Number.isFinite(k) && k >= 1 ? k : DEFAULT_SEPARATION;
 }
 
-function samplesOf(model: Model, design: { samples?: number }): number {
-  return design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES;
+/** The study length of a design; when it gives none, the model's study (`designAxis`). */
+function axisOf(model: Model, design: { window?: number; samples?: number }): { window: number | undefined; samples: number } {
+  const a = designAxis(model, design);
+  return { window: a.window, samples: a.samples ?? DEFAULT_SAMPLES };
 }
 
 /**
@@ -78,10 +81,11 @@ export function rolesAt(model: Model, design: StudyDesign): RolesResult {
   if (design.settleAll) {
     for (const s of scales) roles[s.id] = 'settled';
   } else if (interval !== undefined) {
-    const samples = samplesOf(model, design);
-    window = design.window ?? samples * interval;
+    const axis = axisOf(model, design);
+    const samples = axis.samples;
+    window = axis.window ?? samples * interval;
     if (!(Number.isFinite(window) && window > 0)) {
-      diagnostics.push({ level: 'error', code: 'bad-window', message: `the study length must be a positive number, not ${design.window ?? window}`, variables: [], equations: [] });
+      diagnostics.push({ level: 'error', code: 'bad-window', message: `the study length must be a positive number, not ${axis.window ?? window}`, variables: [], equations: [] });
     } else if (interval > window) {
       diagnostics.push({
         level: 'error',
@@ -94,7 +98,7 @@ export function rolesAt(model: Model, design: StudyDesign): RolesResult {
     const missing: VariableId[] = [];
     for (const s of scales) {
       if (s.tau === null) missing.push(s.id);
-      else roles[s.id] = stateRole(s.tau, k, interval, design.window, samples);
+      else roles[s.id] = stateRole(s.tau, k, interval, axis.window, samples);
     }
     if (missing.length > 0)
       diagnostics.push({
@@ -118,7 +122,7 @@ export function rolesAt(model: Model, design: StudyDesign): RolesResult {
 export interface AxisOptions {
   /** A fixed study length W (model time unit). */
   window?: number;
-  /** Or a study of N samples (W = N·Δ). Default: settings.samples, else 50. */
+  /** Or a study of N samples (W = N·Δ). Default: the model's study length, else 50 samples. */
   samples?: number;
 }
 
@@ -135,8 +139,9 @@ export interface AxisOptions {
 export function breakpoints(model: Model, options: AxisOptions = {}): Breakpoint[] {
   const k = separationOf(model);
   const scales = stateScales(model);
-  const fixed = options.window;
-  const samples = samplesOf(model, options);
+  const axis = axisOf(model, options);
+  const fixed = axis.window;
+  const samples = axis.samples;
   type Item = { interval: number; exclusive: boolean; change: Breakpoint['changes'][number] };
   const items: Item[] = [];
   for (const s of scales) {
@@ -172,8 +177,9 @@ export function breakpoints(model: Model, options: AxisOptions = {}): Breakpoint
  * included. Example: `bands(model, { samples: 50 })`.
  */
 export function bands(model: Model, options: AxisOptions = {}): Band[] {
+  const axis = axisOf(model, options);
   const bps = breakpoints(model, options);
-  const design = (interval: number): StudyDesign => (options.window !== undefined ? { interval, window: options.window } : { interval, samples: samplesOf(model, options) });
+  const design = (interval: number): StudyDesign => (axis.window !== undefined ? { interval, window: axis.window } : { interval, samples: axis.samples });
   const out: Band[] = [];
   let from = 0;
   let excludesFrom = false;
@@ -189,8 +195,8 @@ export function bands(model: Model, options: AxisOptions = {}): Band[] {
     from = b.interval;
     excludesFrom = Boolean(b.exclusive);
   }
-  if (options.window !== undefined) {
-    if (from < options.window || (from === options.window && !excludesFrom)) close(options.window, true);
+  if (axis.window !== undefined) {
+    if (from < axis.window || (from === axis.window && !excludesFrom)) close(axis.window, true);
   } else close(Infinity, false);
   return out;
 }

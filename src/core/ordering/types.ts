@@ -69,7 +69,7 @@ export interface StudyDesign {
   interval?: number;
   /** Study length W in the model's time unit. Omitted: `samples × interval`. */
   window?: number;
-  /** Study length in samples (used when window is omitted). Default: the model's settings.samples, else 50. */
+  /** Study length in samples (used when window is omitted). Default: the model's study length, else 50. */
   samples?: number;
   /** Interventions: variable → value. */
   hold?: Record<VariableId, number>;

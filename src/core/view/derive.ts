@@ -7,6 +7,7 @@ import type { Link, Model, VariableId } from '../model/types';
 import { formatDuration } from '../model/units';
 import type { EdgeKind, Ordering, OrderingBlock, Role } from './contract';
 import { SLICES, type Slice, type ViewEdge, type ViewGroup, type ViewMode, type ViewModel, type ViewNode, type ViewNodeId } from './types';
+import { designAxis } from '../study/convert';
 
 /** Approximate text width of the node font (13 px DejaVu Sans averages about 7.4 px a glyph: measured in Chromium). */
 export const CHAR_WIDTH = 7.4;
@@ -59,9 +60,9 @@ export function viewTitle(model: Model, opts: Pick<ViewOptions, 'mode' | 'interv
 /** "study 2 weeks (112 samples)" or "study 50 samples (6.25 days)". */
 export function studyText(model: Model, interval: number, window?: number, samples?: number): string {
   const u = model.timeUnit;
-  if (window !== undefined) return `study ${formatDuration(window, u)} (${Math.max(1, Math.round(window / interval))} samples)`;
-  const n = samples ?? model.settings?.samples ?? 50;
-  return `study ${n} samples (${formatDuration(n * interval, u)})`;
+  const axis = designAxis(model, { window, samples });
+  if (axis.window !== undefined) return `study ${formatDuration(axis.window, u)} (${Math.max(1, Math.round(axis.window / interval))} samples)`;
+  return `study ${axis.samples} samples (${formatDuration(axis.samples * interval, u)})`;
 }
 
 /**

@@ -2,11 +2,12 @@
  * The explanation panel's text: what the ordering at an interval changes
  * with respect to the mechanism as drawn, and why, in words a modeller reads.
  */
-import { DEFAULT_SAMPLES, DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
+import { DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
 import { formatDuration } from '../model/units';
 import { readTimescale } from '../model/timescale';
 import type { Breakpoint, Ordering, Role, StudyDesign } from './contract';
 import { simultaneousBlocks } from './derive';
+import { designAxis, windowOf } from '../study/convert';
 
 export type ExplanationTopic = 'summary' | 'settled' | 'frozen' | 'held' | 'block' | 'dynamic' | 'diagnostic' | 'nearby';
 
@@ -32,9 +33,8 @@ export function listWords(words: readonly string[]): string {
 
 /** The study length in the model unit for a design: the window, or samples × interval. */
 export function studyLength(model: Model, design: StudyDesign): number | undefined {
-  if (design.window !== undefined) return design.window;
-  if (design.interval === undefined) return undefined;
-  return (design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES) * design.interval;
+  if (design.interval === undefined) return design.window;
+  return windowOf(designAxis(model, design), design.interval);
 }
 
 const ROLE_WORD: Record<Role, string> = {
@@ -63,9 +63,10 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
   const blocks = simultaneousBlocks(ordering);
 
   if (design.interval !== undefined) {
-    const study = design.window !== undefined
-      ? `a study of ${formatDuration(design.window, u)} (${Math.max(1, Math.round(design.window / design.interval))} samples)`
-      : `a study of ${design.samples ?? model.settings?.samples ?? DEFAULT_SAMPLES} samples (${formatDuration(W!, u)})`;
+    const axis = designAxis(model, design);
+    const study = axis.window !== undefined
+      ? `a study of ${formatDuration(axis.window, u)} (${Math.max(1, Math.round(axis.window / design.interval))} samples)`
+      : `a study of ${axis.samples} samples (${formatDuration(W!, u)})`;
     const parts: string[] = [];
     if (settled.length) parts.push(`${settled.length} ${settled.length === 1 ? 'state settles' : 'states settle'}`);
     if (frozen.length) parts.push(`${frozen.length} ${frozen.length === 1 ? 'is' : 'are'} frozen`);

@@ -4,7 +4,7 @@
  * keys that stop at every breakpoint; beside it the study length, as a
  * duration or a number of samples.
  */
-import { memo, useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
+import { memo, useEffect, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
 import type { Model, TimeUnit } from '../../core/model/types';
 import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
 import { fromPosition, passed, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
@@ -12,6 +12,7 @@ import { analysisStore, setStudyDesign, useAnalysisState } from '../../state/ana
 import { useValidatedModel } from '../../state/document';
 import { designOf, studyStore, useStudy, type StudyLength } from '../../state/study';
 import { useBandCache, type BandCache } from '../views/bandCache';
+import { breakpointRanges, type BreakpointRange } from '../../core/pictures/uncertain';
 import { setIntervalDrag, useIntervalDrag } from './dragging';
 import './interval.css';
 
@@ -33,6 +34,8 @@ export function IntervalStripFor({ model }: { model: Model }) {
   const interval = useStudy((s) => s.interval);
   const hold = useAnalysisState((s) => s.design.hold);
   const bc = useBandCache(model, length, hold);
+  // Breakpoints of timescales given as ranges: where the change may happen, shaded on the track.
+  const ranges = useMemo(() => breakpointRanges(model, length.by === 'window' ? { window: length.window } : { samples: length.samples }), [model, length]);
   const track = useRef<HTMLDivElement>(null);
   const unit = model.timeUnit;
   const cache = bc.status === 'ready' ? bc.cache : null;
@@ -99,7 +102,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
         onPointerCancel={() => setIntervalDrag(undefined)}
         onLostPointerCapture={() => setIntervalDrag(undefined)}
       >
-        <TrackMarks cache={cache} model={model} />
+        <TrackMarks cache={cache} model={model} ranges={ranges} />
         <div className="lf-band-current" style={{ left: `${toPosition(range, Math.max(lower, range.min)) * 100}%`, width: `${(toPosition(range, Math.min(upper, range.max)) - toPosition(range, Math.max(lower, range.min))) * 100}%` }} />
         {/* the thumb rides a rail as wide as the track, moved by a transform of the rail's own width:
             the compositor moves it, nothing under it is painted again */}
@@ -126,7 +129,7 @@ const TRACK_H = 26;
  * and as positioned boxes they were 3,200 pieces the browser laid out,
  * painted and sorted into layers again at every move of the thumb.
  */
-const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache; model: Model }) {
+const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: BandCache; model: Model; ranges: BreakpointRange[] }) {
   const { range, cuts, breakpoints } = cache;
   const unit = model.timeUnit;
   const svg = useRef<SVGSVGElement>(null);
@@ -154,6 +157,17 @@ const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache
         </pattern>
       </defs>
       {width > 0 && odd && <path className="lf-bands-odd" d={odd} fill={`url(#${HATCH_ID})`} />}
+      {width > 0 &&
+        ranges
+          .filter((r) => r.high > range.min && r.low < range.max)
+          .map((r) => {
+            const x0 = X(Math.max(r.low, range.min)), x1 = X(Math.min(r.high, range.max));
+            return (
+              <rect key={`${r.variable}-${r.to}`} className="lf-bp-range" data-range={r.variable} x={x0} y={3} width={Math.max(1, x1 - x0)} height={TRACK_H - 6} fill="#8a5a12" fillOpacity={0.14} stroke="#8a5a12" strokeOpacity={0.5} strokeDasharray="3 2">
+                <title>{`${labels.get(r.variable) ?? r.variable} ${r.from === 'state' ? 'dynamic' : r.from} → ${r.to === 'state' ? 'dynamic' : r.to} somewhere from ${formatDuration(r.low, unit)} to ${formatDuration(r.high, unit)} (its timescale is a range; the tick is at the geometric mean)`}</title>
+              </rect>
+            );
+          })}
       {width > 0 &&
         breakpoints
           .filter((b) => b.interval > range.min && b.interval < range.max)

@@ -39,7 +39,7 @@ export function SampledNetworks({ model, answer, onPick, caption }: { model: Mod
       ) : (
         <p className="lf-num-note">Not defined here: some states receive no noise.</p>
       )}
-      <p className="lf-num-note">Solid lines: positive, dashed: negative; thicker lines are stronger. Links below 2% of the strongest are left out.{onPick ? ' Click a lagged link to see it against the interval below.' : ''}</p>
+      <p className="lf-num-note">Solid lines: positive, dashed: negative; thicker lines are stronger. Each figure states the size below which links are left out.{onPick ? ' Click a lagged link to see it against the interval below.' : ''}</p>
       {answer.aliasing.length > 0 && (
         <p className="lf-num-warn" role="alert" data-aliasing="true">
           Sampled effects of this oscillating mode alias and can change sign: it swings with period {formatDuration((2 * Math.PI) / answer.aliasing[0].im, u)}, and sampling slower than every {formatDuration(answer.aliasing[0].limit, u)} cannot follow it.

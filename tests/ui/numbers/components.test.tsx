@@ -6,7 +6,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { parseModel } from '../../../src/core/model/schema';
 import type { Model } from '../../../src/core/model/types';
 import { documentStore, selectModel } from '../../../src/state/document';
-import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer } from '../../../src/worker/numericApi';
+import { sampledOf, timescalesOfModel, type SampledAnswer, type TimescalesAnswer } from '../../../src/core/numeric/answers';
 import { SampledNetworks } from '../../../src/ui/numbers/SampledNetworks';
 import { TimescalesTable } from '../../../src/ui/numbers/TimescalesTable';
 import { TimeChart } from '../../../src/ui/numbers/TimeChart';
@@ -14,7 +14,7 @@ import { LinkCurveChart } from '../../../src/ui/numbers/LinkCurveChart';
 import { laggedNetwork, linkCurveChart, timeSeriesChart } from '../../../src/export/charts';
 import type { El } from '../../../src/export/scene';
 import { svgDocument } from '../../../src/export/svg';
-import { curveOf, type CurveAnswer } from '../../../src/worker/numericApi';
+import { curveOf, type CurveAnswer } from '../../../src/core/numeric/answers';
 import { vi } from 'vitest';
 
 

@@ -1,0 +1,165 @@
+/**
+ * Placement of a network figure (the lagged and same-interval networks of
+ * the sampled model): nodes on an ellipse in an order fixed by the states'
+ * ids (never by their order in the file), each link a straight or bent line
+ * that misses every other node, each weight in a free spot on its line. The
+ * ellipse grows until every rule holds:
+ * - no two nodes overlap or come closer than `NODE_GAP`;
+ * - every link has at least `MIN_VISIBLE` px of line outside both its nodes;
+ * - a link passes through no node but its own two;
+ * - no weight covers a node, another weight, or another link's line.
+ */
+import { Occupancy, placeMark, polylineLength, polylineMeetsRect, quadPoints, rectsMeet, type Rect } from './space';
+import type { Point } from './types';
+
+/** A node's box: the name on one line, the self-effect (directed networks) on a second. */
+export const NET_NODE = { width: 112, height: 22, heightWithSelf: 34 };
+/** The shortest stretch of a link's line drawn outside both its nodes. */
+export const MIN_VISIBLE = 24;
+/** The least space between two nodes. */
+export const NODE_GAP = 30;
+/** Gap between a node's border and the end of a line. */
+const CUT = 3;
+/** Weight labels: font size and the gap kept round them. */
+export const WEIGHT_FONT = 9.5;
+
+/**
+ * Advance widths of DejaVu Sans (the figures' first font), in em: digits
+ * 0.636, full stop and space 0.318, the minus sign and plus 0.838; other
+ * characters are taken as 0.65 (an upper estimate for lower-case letters).
+ */
+export function textWidth(s: string, size: number): number {
+  let em = 0;
+  for (const ch of s) em += /[0-9]/.test(ch) ? 0.636 : ch === '.' || ch === ' ' || ch === ',' ? 0.318 : ch === '−' || ch === '+' ? 0.838 : 0.65;
+  return em * size;
+}
+
+export interface NetLink { from: number; to: number; weight: number; label: string }
+
+export interface NetworkPlacement {
+  /** Node centres, by state index. */
+  centers: Point[];
+  nodeWidth: number;
+  nodeHeight: number;
+  /** Each link: its line (start, control point, end of a quadratic curve; control = midpoint when straight) and its label's centre. */
+  links: { link: NetLink; start: Point; control: Point; end: Point; label: Point }[];
+  width: number;
+  height: number;
+}
+
+/** Indices of the states in drawing order: sorted by id, so the file's order does not matter. */
+export function drawingOrder(ids: readonly string[]): number[] {
+  return ids.map((_, i) => i).sort((a, b) => (ids[a] < ids[b] ? -1 : ids[a] > ids[b] ? 1 : a - b));
+}
+
+/** Where the line from `c` (inside the box of w × h round `box`) towards `toward` leaves the box, plus the gap. */
+function cutAt(c: Point, toward: Point, w: number, h: number, box: Point = c): Point {
+  const dx = toward.x - c.x, dy = toward.y - c.y;
+  const len = Math.hypot(dx, dy) || 1;
+  const ux = dx / len, uy = dy / len;
+  const ox = c.x - box.x, oy = c.y - box.y;
+  const tx = Math.abs(ux) > 1e-9 ? ((ux > 0 ? w / 2 - ox : w / 2 + ox) / Math.abs(ux)) : Infinity;
+  const ty = Math.abs(uy) > 1e-9 ? ((uy > 0 ? h / 2 - oy : h / 2 + oy) / Math.abs(uy)) : Infinity;
+  const t = Math.min(tx, ty) + CUT;
+  return { x: c.x + ux * t, y: c.y + uy * t };
+}
+
+/** One try at a given ellipse; null when some rule fails (the caller grows the ellipse). */
+function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: boolean, rx: number, ry: number, w: number, h: number): NetworkPlacement | null {
+  const n = ids.length;
+  const order = drawingOrder(ids);
+  const centers: Point[] = new Array(n);
+  const cx = rx + w / 2 + 12, cy = ry + h / 2 + 12;
+  order.forEach((i, k) => {
+    // two nodes side by side; more round the ellipse from the top, clockwise
+    const a = (n === 2 ? Math.PI : -Math.PI / 2) + (2 * Math.PI * k) / Math.max(1, n);
+    centers[i] = n === 1 ? { x: cx, y: cy } : { x: cx + rx * Math.cos(a), y: cy + ry * Math.sin(a) };
+  });
+  const boxes: Rect[] = centers.map((c) => [c.x - w / 2, c.y - h / 2, c.x + w / 2, c.y + h / 2]);
+  const grown = (r: Rect, p: number): Rect => [r[0] - p, r[1] - p, r[2] + p, r[3] + p];
+  for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) if (rectsMeet(grown(boxes[i], NODE_GAP / 2), grown(boxes[j], NODE_GAP / 2))) return null;
+  const space = new Occupancy(48);
+  for (const b of boxes) space.addBox(grown(b, 2));
+  const center = { x: cx, y: cy };
+  const out: NetworkPlacement['links'] = [];
+  const lines: Point[][] = [];
+  for (const l of links) {
+    const both = directed && links.some((m) => m.from === l.to && m.to === l.from);
+    const dx = centers[l.to].x - centers[l.from].x, dy = centers[l.to].y - centers[l.from].y, len = Math.hypot(dx, dy) || 1;
+    const nx = -dy / len, ny = dx / len;
+    // two links between one pair run side by side, each shifted to its own left (the other's right)
+    const shift = both ? 7 : 0;
+    const a = { x: centers[l.from].x + nx * shift, y: centers[l.from].y + ny * shift };
+    const b = { x: centers[l.to].x + nx * shift, y: centers[l.to].y + ny * shift };
+    // bend towards the middle of the figure first (links round the ellipse stay inside it)
+    const mid = { x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 };
+    const inward = (center.x - mid.x) * nx + (center.y - mid.y) * ny >= 0 ? 1 : -1;
+    const bends = both ? [0, 20, 40, 70] : [0, 24 * inward, 48 * inward, 80 * inward, -24 * inward, -48 * inward];
+    let found: { start: Point; control: Point; end: Point; ps: Point[] } | null = null;
+    for (const bend of bends) {
+      const ctrl = { x: mid.x + nx * bend, y: mid.y + ny * bend };
+      const start = cutAt(a, ctrl, w, h, centers[l.from]), end = cutAt(b, ctrl, w, h, centers[l.to]);
+      // the control point of the curve through `ctrl` at its middle
+      const control = { x: 2 * ctrl.x - (start.x + end.x) / 2, y: 2 * ctrl.y - (start.y + end.y) / 2 };
+      const ps = bend === 0 ? [start, end] : quadPoints(start, control, end, 16);
+      if (polylineLength(ps) < MIN_VISIBLE) continue;
+      // the line must not enter its own nodes again, nor pass through any other
+      if (polylineMeetsRect(ps, boxes[l.from]) || polylineMeetsRect(ps, boxes[l.to])) continue;
+      if (boxes.some((r, k) => k !== l.from && k !== l.to && polylineMeetsRect(ps, grown(r, 4)))) continue;
+      found = { start, control: bend === 0 ? { x: (start.x + end.x) / 2, y: (start.y + end.y) / 2 } : control, end, ps };
+      break;
+    }
+    if (!found) return null;
+    out.push({ link: l, start: found.start, control: found.control, end: found.end, label: { x: 0, y: 0 } });
+    lines.push(found.ps);
+  }
+  lines.forEach((ps, k) => space.addLine(ps, String(k)));
+  // weights: on their own line (with a halo), off nodes, other weights and other lines; strongest first
+  const byStrength = out.map((_, k) => k).sort((p, q) => Math.abs(out[q].link.weight) - Math.abs(out[p].link.weight) || p - q);
+  for (const k of byStrength) {
+    const lw = textWidth(out[k].link.label, WEIGHT_FONT) + 4, lh = WEIGHT_FONT + 3;
+    const ps = lines[k];
+    const len = polylineLength(ps);
+    // from 60 % of the way (labels of crossing lines do not meet in the middle) towards the source
+    const spot = placeMark(space, ps, String(k), lw, lh, { from: Math.max(directed ? 16 : 6, len * 0.6), offset: 0, onLine: true, strict: true })
+      ?? placeMark(space, ps, String(k), lw, lh, { from: directed ? 16 : 6, offset: 0, onLine: true, strict: true });
+    if (!spot) return null;
+    out[k].label = spot;
+  }
+  let x1 = 0, y1 = 0;
+  for (const b of boxes) { x1 = Math.max(x1, b[2]); y1 = Math.max(y1, b[3]); }
+  for (const ps of lines) for (const p of ps) { x1 = Math.max(x1, p.x); y1 = Math.max(y1, p.y); }
+  return { centers, nodeWidth: w, nodeHeight: h, links: out, width: x1 + 12, height: y1 + 12 };
+}
+
+/**
+ * Place a network: `placeNetwork(ids, links, directed)`. Starts from a small
+ * ellipse and grows it by 12 % until every rule holds (at most 40 tries; the
+ * last is used as it is).
+ */
+export function placeNetwork(ids: readonly string[], links: readonly NetLink[], directed: boolean): NetworkPlacement {
+  const w = NET_NODE.width, h = directed ? NET_NODE.heightWithSelf : NET_NODE.height;
+  const n = ids.length;
+  // the smallest ellipse whose perimeter gives every node its width and a gap
+  let rx = Math.max(n <= 2 ? (w + NODE_GAP + 40) / 2 : 120, (n * (w + NODE_GAP)) / (2 * Math.PI) * 0.75);
+  let ry = n <= 2 ? 0 : Math.max(70, rx * 0.62);
+  for (let k = 0; k < 40; k++) {
+    const placed = tryPlace(ids, links, directed, rx, ry, w, h);
+    if (placed) return placed;
+    rx *= 1.12; ry = n <= 2 ? ry : ry * 1.12;
+  }
+  // cannot happen for the sizes drawn (a larger ellipse always separates); keep a drawing anyway
+  return tryPlaceLoose(ids, links, directed, rx, ry, w, h);
+}
+
+function tryPlaceLoose(ids: readonly string[], links: readonly NetLink[], directed: boolean, rx: number, ry: number, w: number, h: number): NetworkPlacement {
+  const order = drawingOrder(ids);
+  const centers: Point[] = new Array(ids.length);
+  order.forEach((i, k) => { const a = -Math.PI / 2 + (2 * Math.PI * k) / ids.length; centers[i] = { x: rx + w / 2 + 12 + rx * Math.cos(a), y: ry + h / 2 + 12 + ry * Math.sin(a) }; });
+  const out = links.map((link) => {
+    const start = cutAt(centers[link.from], centers[link.to], w, h), end = cutAt(centers[link.to], centers[link.from], w, h);
+    const control = { x: (start.x + end.x) / 2, y: (start.y + end.y) / 2 };
+    return { link, start, control, end, label: control };
+  });
+  return { centers, nodeWidth: w, nodeHeight: h, links: out, width: 2 * rx + w + 24, height: 2 * ry + h + 24 };
+}

@@ -1,0 +1,204 @@
+/**
+ * The Pictures pane: what studies of the mechanism would see — the network
+ * within persons at the study's interval, the factor picture across persons,
+ * the lagged matrix over a long interval — each with a one-line reading, and
+ * the probability of each ordering when timescales are ranges. Loaded on
+ * demand (React.lazy); the core runs in the pictures worker.
+ */
+import { useEffect, useMemo, useState } from 'react';
+import type { Model } from '../../core/model/types';
+import { formatDuration } from '../../core/model/units';
+import { readTimescale } from '../../core/model/timescale';
+import { defaultObserved, type Level } from '../../core/pictures/index';
+import { useValidatedModel } from '../../state/document';
+import { designOf, useStudy } from '../../state/study';
+import { factorFigure, laggedMatrixFigure, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
+import { svgDocument } from '../../export/svg';
+import type { El } from '../../export/scene';
+import { elToReact } from '../elReact';
+import { fileStem } from '../figureFiles';
+import { ExportButtons } from '../numbers/ExportButtons';
+import { appPicturesClient } from '../../worker/picturesClient';
+import type { PicturesAnswer, ProbabilitiesAnswer } from '../../worker/picturesApi';
+import './pictures.css';
+
+export default function PicturesPane() {
+  const model = useValidatedModel();
+  if (!model) return <p className="lf-pictures lf-pic-note">The pictures appear once the model has no problems left (see the Edit tab).</p>;
+  return <PicturesOf model={model} />;
+}
+
+const LEVEL_WORDS: Record<Level, string> = { within: 'within persons', between: 'across persons (person means)', cross: 'one-time survey' };
+
+function Figure({ el, what, name }: { el: El | null; what: string; name: string }) {
+  if (!el) return <p className="lf-pic-note">Not defined here.</p>;
+  return (
+    <>
+      <div className="lf-pic-figure">{elToReact(el)}</div>
+      <ExportButtons what={what} name={name} svg={() => svgDocument(el)} />
+    </>
+  );
+}
+
+function PicturesOf({ model }: { model: Model }) {
+  const interval = useStudy((s) => s.interval);
+  const length = useStudy((s) => s.length);
+  const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
+  const inputs = model.variables.filter((v) => v.kind === 'input');
+  const [persons, setPersons] = useState(100);
+  const [observed, setObserved] = useState<string[] | null>(null);
+  const [personSD, setPersonSD] = useState<Record<string, number>>({});
+  const [level, setLevel] = useState<Level>('between');
+  const [wide, setWide] = useState(false);
+  const [answer, setAnswer] = useState<PicturesAnswer | null>(null);
+  const obs = (observed ?? defaultObserved(model)).filter((id) => states.includes(id));
+  const samples = interval === null ? 50 : length.by === 'samples' ? length.samples : Math.max(2, Math.round(length.window / interval));
+  const sdOverrides = useMemo(() => Object.fromEntries(inputs.map((v) => [v.id, personSD[v.id] ?? v.personSD ?? 0])), [inputs, personSD]);
+
+  useEffect(() => {
+    if (interval === null) return;
+    let live = true;
+    void appPicturesClient().then((c) => c.ask('pictures', model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
+    return () => { live = false; };
+  }, [model, interval, samples, persons, obs.join(','), JSON.stringify(sdOverrides)]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  if (interval === null) return <p className="lf-pictures lf-pic-note">Choose a sampling interval on the track below the canvas.</p>;
+  const stem = fileStem(model.name);
+  const caption = `Model-based: what a study every ${formatDuration(interval, model.timeUnit)} with ${samples} prompts and ${persons} persons would see if the mechanism were true; not a finding.`;
+  const file = { heading: true, caption };
+  const P = answer?.ok ? answer.pictures : null;
+  const pictures = P
+    ? [
+        { key: 'within', title: 'Within persons', reading: P.within.reading + ' ' + P.byLevel.within.reading, el: withinNetworkFigure(model, P.within), file: () => withinNetworkFigure(model, P.within, file), name: `${stem}-within-network` },
+        { key: 'factor', title: `Factor picture ${LEVEL_WORDS[level]}`, reading: P.byLevel[level].reading, el: factorFigure(model, P.levels.observed, P.byLevel[level]), file: () => factorFigure(model, P.levels.observed, P.byLevel[level], file), name: `${stem}-factor-${level}` },
+        { key: 'long', title: `Lagged matrix every ${formatDuration(P.rankLong.interval, model.timeUnit)}`, reading: P.longReading, el: laggedMatrixFigure(model, P.rankLong), file: () => laggedMatrixFigure(model, P.rankLong, file), name: `${stem}-lagged-matrix` },
+      ]
+    : [];
+  const row = (
+    <div className={`lf-pic-row${wide ? ' is-wide' : ''}`} data-pictures={P ? 'ready' : 'waiting'}>
+      {pictures.map((p) => (
+        <section key={p.key} className="lf-pic-card" aria-label={p.title} data-picture={p.key}>
+          <h4>{p.title}</h4>
+          <p className="lf-pic-reading">{p.reading}</p>
+          {p.el ? <div className="lf-pic-figure">{elToReact(p.el)}</div> : <p className="lf-pic-note">Not defined here.</p>}
+          {p.el && <ExportButtons what={p.title.toLowerCase()} name={p.name} svg={() => svgDocument(p.file()!)} />}
+        </section>
+      ))}
+    </div>
+  );
+  return (
+    <div className="lf-pictures" aria-label="Pictures a study would see">
+      <p className="lf-pic-note">One mechanism, different pictures: what a study of this sketch would see within persons, across persons and over long intervals. Model-based hypotheses, not findings.{model.caution ? ` ${model.caution}` : ''}</p>
+      <div className="lf-pic-controls">
+        <label>Persons <input type="number" min={2} step={1} value={persons} onChange={(e) => { const n = Number(e.target.value); if (Number.isInteger(n) && n >= 2) setPersons(n); }} /></label>
+        <span>{samples} prompts each, every {formatDuration(interval, model.timeUnit)}</span>
+        <label>Factor picture <select value={level} onChange={(e) => setLevel(e.target.value as Level)}>
+          <option value="between">across persons (person means)</option>
+          <option value="cross">one-time survey</option>
+          <option value="within">within persons</option>
+        </select></label>
+        <button type="button" onClick={() => setWide(true)} disabled={!P}>Side by side, full width</button>
+      </div>
+      <fieldset className="lf-pic-observed">
+        <legend>Variables analysed (states)</legend>
+        {states.map((id) => (
+          <label key={id}><input type="checkbox" checked={obs.includes(id)} onChange={(e) => setObserved(e.target.checked ? [...obs, id] : obs.filter((x) => x !== id))} /> {model.variables.find((v) => v.id === id)?.label ?? id}</label>
+        ))}
+      </fieldset>
+      {inputs.length > 0 && (
+        <fieldset className="lf-pic-observed">
+          <legend>Person differences: SD of each input across persons</legend>
+          {inputs.map((v) => (
+            <label key={v.id}>{v.label ?? v.id} <input type="number" min={0} step={0.1} aria-label={`SD of ${v.label ?? v.id} across persons`} value={sdOverrides[v.id]} onChange={(e) => { const x = Number(e.target.value); if (x >= 0) setPersonSD({ ...personSD, [v.id]: x }); }} /></label>
+          ))}
+        </fieldset>
+      )}
+      {answer && !answer.ok && <p className="lf-pic-error" role="alert">{answer.reason}</p>}
+      {!answer && <p className="lf-pic-note">Working out the pictures…</p>}
+      {P && (
+        <>
+          <ul className="lf-pic-summary" aria-label="Readings">{P.summary.map((s) => <li key={s}>{s}</li>)}</ul>
+          {!wide && row}
+          {wide && (
+            <div className="lf-pic-overlay" role="dialog" aria-modal="true" aria-label="The three pictures side by side" onKeyDown={(e) => { if (e.key === 'Escape') setWide(false); }}>
+              <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong>{model.caution && <span className="lf-pic-note">{model.caution}</span>}<button type="button" autoFocus onClick={() => setWide(false)}>Close</button></div>
+              {row}
+            </div>
+          )}
+          <h4>How the lagged matrix approaches rank one as the interval grows</h4>
+          <Figure el={rankCurveFigure(model, P)} what="the singular value ratios" name={`${stem}-rank-curve`} />
+          <FitTable answer={P} />
+          {P.warnings.length > 0 && <ul className="lf-pic-warnings">{P.warnings.map((w) => <li key={w}>{w}</li>)}</ul>}
+        </>
+      )}
+      <UncertainOrderings model={model} interval={interval} samples={samples} length={length} />
+    </div>
+  );
+}
+
+function FitTable({ answer }: { answer: Extract<PicturesAnswer, { ok: true }>['pictures'] }) {
+  const f = (x: number | null | undefined, d = 3) => (x === null || x === undefined ? '—' : x.toFixed(d));
+  return (
+    <table className="lf-pic-table" aria-label="Factor fits by level">
+      <thead><tr><th>level</th><th>N</th><th>χ² (1 factor)</th><th>df</th><th>RMSEA</th><th>first eigenvalue</th><th>RMSEA, 2 factors</th></tr></thead>
+      <tbody>
+        {(['within', 'between', 'cross'] as const).map((l) => {
+          const p = answer.byLevel[l];
+          return (
+            <tr key={l} data-level={l}>
+              <td>{LEVEL_WORDS[l]}</td><td>{p.n}</td><td>{f(p.oneFactor?.chi2, 1)}</td><td>{p.oneFactor?.df ?? '—'}</td><td>{f(p.oneFactor?.rmsea)}</td><td>{f(p.oneFactor?.eigenvalues[0], 2)}</td><td>{f(p.kFactor?.rmsea)}</td>
+            </tr>
+          );
+        })}
+      </tbody>
+    </table>
+  );
+}
+
+function UncertainOrderings({ model, interval, samples, length }: { model: Model; interval: number; samples: number; length: { by: 'samples'; samples: number } | { by: 'window'; window: number } }) {
+  const ranged = model.variables.filter((v) => v.kind === 'state' && v.timescale !== undefined && (() => { const r = readTimescale(v.timescale!, model.timeUnit); return r.ok && r.uncertain; })());
+  const [draws, setDraws] = useState(2000);
+  const [seed, setSeed] = useState(1);
+  const [answer, setAnswer] = useState<ProbabilitiesAnswer | null>(null);
+  useEffect(() => {
+    if (ranged.length === 0) return;
+    let live = true;
+    const design = { ...designOf({ interval, length }), interval };
+    void appPicturesClient().then((c) => c.ask('probabilities', model, design, draws, seed)).then((a) => { if (live && a) setAnswer(a); });
+    return () => { live = false; };
+  }, [model, interval, samples, draws, seed, JSON.stringify(length)]); // eslint-disable-line react-hooks/exhaustive-deps
+  return (
+    <section className="lf-pic-uncertain" aria-label="Orderings under uncertain timescales">
+      <h4>Orderings under uncertain timescales</h4>
+      {ranged.length === 0 ? (
+        <p className="lf-pic-note">Every timescale is a single value. Type a range such as "30 min..3 h" as a state's timescale to see how sure the ordering is.</p>
+      ) : (
+        <>
+          <div className="lf-pic-controls">
+            <label>Draws <input type="number" min={100} step={100} value={draws} onChange={(e) => { const n = Number(e.target.value); if (Number.isInteger(n) && n >= 1 && n <= 200000) setDraws(n); }} /></label>
+            <label>Seed <input type="number" step={1} value={seed} onChange={(e) => { const n = Number(e.target.value); if (Number.isInteger(n)) setSeed(n); }} /></label>
+            <span className="lf-pic-note">Timescales log-uniform in their ranges; point analyses elsewhere use the geometric mean of each range.</span>
+          </div>
+          {answer && !answer.ok && <p className="lf-pic-error" role="alert">{answer.reason}</p>}
+          {answer?.ok && (
+            <>
+              <ul className="lf-pic-summary" data-probabilities={answer.result.probabilities.length}>{answer.result.readings.map((r) => <li key={r}>{r}</li>)}</ul>
+              <table className="lf-pic-table" aria-label="Probability of each ordering">
+                <thead><tr><th>share of draws</th><th>roles that decide it</th><th>simultaneous blocks</th></tr></thead>
+                <tbody>
+                  {answer.result.probabilities.map((p, i) => (
+                    <tr key={i}>
+                      <td>{(p.share * 100).toFixed(1)} %</td>
+                      <td>{Object.entries(p.deciding).map(([id, r]) => `${model.variables.find((v) => v.id === id)?.label ?? id} ${r === 'state' ? 'dynamic' : r}`).join(', ') || '—'}</td>
+                      <td>{p.blocks.filter((b) => b.variables.length > 1).map((b) => b.variables.join(' + ')).join('; ') || 'none'}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </>
+          )}
+        </>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,82 @@
+import { spawnSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../../src/cli/run';
+import { memoryIo } from '../../helpers/cli';
+import { simulateCt, seededRandom } from '../../../src/core/fit/simulate';
+import { expectClose } from '../../helpers/tolerance';
+
+const MODEL = 'src/examples/sleep-stress.json';
+
+async function run(argv: string[], files: Record<string, string> = {}): Promise<{ code: number; out: string; err: string }> {
+  const m = memoryIo(files);
+  const code = await runCli(argv, m.io);
+  return { code, out: m.out.join('\n'), err: m.err.join('\n') };
+}
+
+function diary(): string {
+  const r = seededRandom(4);
+  const times = Array.from({ length: 12 }, () => { let t = 0; return Array.from({ length: 30 }, () => (t += 1 + r() * 2)); });
+  const panel = simulateCt({ states: ['stress', 'mood'], drift: [[-1.2, -0.3], [-0.2, -0.4]], diffusion: [[1, 0], [0, 0.5]], levels: [3, 5], between: [[0.3, 0], [0, 0.3]] }, times, { seed: 9, missing: 0.05 });
+  const lines = ['pid,hours,stress,mood'];
+  panel.persons.forEach((p) => p.time.forEach((t, k) => lines.push([p.id, t.toFixed(4), p.values[k * 2].toFixed(4), Number.isFinite(p.values[k * 2 + 1]) ? p.values[k * 2 + 1].toFixed(4) : 'NA'].join(','))));
+  return lines.join('\n');
+}
+
+describe('data and fit commands', () => {
+  it('data --json lists refused rows by row and column', async () => {
+    const csv = 'pid,hours,stress\na,1,2\na,1,3\nb,x,1\nb,2,oops\nc,3\n';
+    const r = await run(['data', 'd.csv', '--person', 'pid', '--time', 'hours', '--json'], { 'd.csv': csv });
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { kept: number; refused: number; issues: { row: number; column?: string; action: string }[] };
+    expect(j.kept).toBe(2);
+    expect(j.refused).toBe(3);
+    expect(j.issues.map((i) => [i.row, i.column ?? null, i.action])).toEqual(expect.arrayContaining([[4, 'hours', 'row refused'], [5, 'stress', 'cell set missing'], [6, null, 'row refused'], [3, 'hours', 'row refused']]));
+  });
+
+  it('fit --method var --json has the documented shape, and its φ equals statsmodels OLS on the same person-mean-centred pairs', async () => {
+    const csv = diary();
+    const r = await run(['fit', MODEL, '--data', 'd.csv', '--person', 'pid', '--time', 'hours', '--map', 'stress=stress,mood=mood', '--json'], { 'd.csv': csv });
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { method: string; states: string[]; phi: number[][]; residualCov: number[][]; se: { phi: number[][] }; n: { persons: number; occasions: number }; comparison: { from: string; to: string; sketch: number; estimate: number; low: number; high: number; verdict: string }[] };
+    expect(j.method).toBe('var');
+    expect(j.states).toEqual(['stress', 'mood']);
+    expect(j.n).toMatchObject({ persons: 12, occasions: 360 });
+    expect(j.comparison).toHaveLength(4);
+    for (const c of j.comparison) expect(Object.keys(c).sort()).toEqual(['estimate', 'from', 'high', 'low', 'sketch', 'to', 'verdict']);
+    // Reference: statsmodels OLS with cluster-robust SEs (Debian's python).
+    const ref = spawnSync('/usr/bin/python3', ['-c', `
+import sys, json, io
+import numpy as np, pandas as pd, statsmodels.api as sm
+d = pd.read_csv(io.StringIO(sys.stdin.read()))
+X, Y, G = [], [], []
+for g, (pid, s) in enumerate(d.groupby('pid', sort=False)):
+    v = s.sort_values('hours')[['stress', 'mood']].to_numpy()
+    c = v - np.nanmean(v, axis=0)
+    ok = ~np.isnan(c[:-1]).any(axis=1) & ~np.isnan(c[1:]).any(axis=1)
+    X.append(c[:-1][ok]); Y.append(c[1:][ok]); G += [g] * int(ok.sum())
+X = np.vstack(X); Y = np.vstack(Y)
+out = [[list(sm.OLS(Y[:, i], X).fit().params), list(sm.OLS(Y[:, i], X).fit(cov_type='cluster', cov_kwds={'groups': np.array(G)}).bse)] for i in range(2)]
+print(json.dumps(out))
+`], { input: csv, encoding: 'utf8' });
+    expect(ref.status, ref.stderr).toBe(0);
+    const o = JSON.parse(ref.stdout) as [number[], number[]][];
+    expectClose(j.phi, o.map((x) => x[0]), { relTol: 1e-9, absTol: 1e-12 }, 'phi');
+    expectClose(j.se.phi, o.map((x) => x[1]), { relTol: 1e-9 }, 'cluster se');
+  });
+
+  it('fit --method ct --json gives drift, diffusion, intercepts, SEs, −2LL, AIC/BIC, a likelihood-ratio test and the comparison', async () => {
+    const r = await run(['fit', MODEL, '--data', 'd.csv', '--person', 'pid', '--time', 'hours', '--map', 'stress=stress,mood=mood', '--method', 'ct', '--initial', 'stationary', '--json'], { 'd.csv': diary() });
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as Record<string, unknown> & { drift: number[][]; se: { drift: number[][] }; minus2LL: number; aic: number; bic: number; lr: { df: number } };
+    for (const k of ['method', 'states', 'drift', 'diffusion', 'intercepts', 'se', 'minus2LL', 'aic', 'bic', 'n', 'comparison']) expect(j).toHaveProperty(k);
+    expect(j.aic).toBeGreaterThan(j.minus2LL);
+    // The sketch's stress–mood block is full (mood → stress through rumination, stress → mood directly): nothing to restrict.
+    expect(j.lr.df).toBe(0);
+  }, 600_000);
+
+  it('refuses a bad option with a one-line reason', async () => {
+    const r = await run(['fit', MODEL, '--data', 'd.csv', '--method', 'xyz'], { 'd.csv': 'pid,hours,stress\n' });
+    expect(r.code).not.toBe(0);
+    expect(r.err).toMatch(/--method must be var or ct/);
+  });
+});

@@ -1,0 +1,60 @@
+import { spawnSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../../src/cli/run';
+import { memoryIo } from '../../helpers/cli';
+import { expectClose } from '../../helpers/tolerance';
+import { runPython } from '../../helpers/python';
+import { chainMatrices, chainModel } from '../../core/pictures/fixtures';
+
+const FILE = 'chain.json';
+// The file carries no person differences (file version 1); --person-sd gives them.
+const files = () => ({ [FILE]: JSON.stringify(chainModel(0.3, 0)), 'ranged.json': JSON.stringify({ ...chainModel(0.3, 0), variables: chainModel(0.3, 0).variables.map((v) => (v.id === 's4' ? { ...v, timescale: { low: 1, high: 6 } } : v)) }) });
+
+async function run(argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  const m = memoryIo(files(), { disk: true });
+  const code = await runCli(argv, m.io);
+  return { code, out: m.out.join('\n'), err: m.err.join('\n') };
+}
+
+describe('factor, rank and order --uncertain', () => {
+  it('factor --json: the covariance printed, fitted again by statsmodels, gives the same loadings, χ² and RMSEA', async () => {
+    const r = await run(['factor', FILE, '--interval', '3h', '--samples', '70', '--persons', '150', '--level', 'cross', '--person-sd', 'load=0.5', '--json']);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { level: string; covariance: number[][]; loadings: number[][]; uniqueness: number[]; chi2: number; df: number; rmsea: number; eigenvalues: number[]; n: number };
+    expect(j.level).toBe('cross');
+    expect(j.n).toBe(150);
+    expect(j.df).toBe(2);
+    const ref = spawnSync('/usr/bin/python3', ['tests/reference/pictures_factor.py'], { input: JSON.stringify({ cases: [{ cov: j.covariance, k: 1, n: 150 }] }), encoding: 'utf8' });
+    expect(ref.status, ref.stderr).toBe(0);
+    const s = (JSON.parse(ref.stdout) as { loadings: number[][]; chi2: number; rmsea: number; eigenvalues: number[] }[])[0];
+    expectClose(j.loadings, s.loadings, { relTol: 0, absTol: 1e-4 }, 'loadings');
+    expectClose(j.chi2, s.chi2, { relTol: 1e-4, absTol: 1e-4 }, 'χ²');
+    expectClose(j.rmsea, s.rmsea, { relTol: 0, absTol: 1e-4 }, 'RMSEA');
+    expectClose(j.eigenvalues, s.eigenvalues, { relTol: 1e-10 }, 'eigenvalues');
+  });
+
+  it('rank --json: singular values of SciPy expm(A·Δ) over the states', async () => {
+    const r = await run(['rank', FILE, '--interval', '2h', '--json']);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { singularValues: number[]; ratio: number };
+    const { A, B, noise } = chainMatrices(0.3);
+    const ref = runPython<{ singular: number[][] }>('tests/reference/pictures_levels.py', { A, B, V: [0], noise, interval: 1, samples: 2, observed: [0, 1, 2, 3], grid: [2] });
+    expectClose(j.singularValues, ref.singular[0], { relTol: 1e-9, absTol: 1e-14 }, 'singular values');
+  });
+
+  it('order --uncertain --json adds the probability of each ordering', async () => {
+    const r = await run(['order', 'ranged.json', '--interval', '10h', '--uncertain', '--draws', '500', '--seed', '4', '--json']);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { probabilities: { roles: Record<string, string>; blocks: unknown[]; share: number }[] };
+    expect(j.probabilities.length).toBe(2);
+    expect(j.probabilities.reduce((a, p) => a + p.share, 0)).toBeCloseTo(1, 12);
+    expect(Object.keys(j.probabilities[0]).sort()).toEqual(['blocks', 'roles', 'share']);
+  });
+
+  it('bad options get a one-line reason naming the option', async () => {
+    expect((await run(['factor', FILE, '--level', 'middle'])).err).toMatch(/--level must be between, within or cross/);
+    expect((await run(['factor', FILE, '--person-sd', 's1=1'])).err).toMatch(/s1 is not an input/);
+    expect((await run(['rank', FILE])).err).toMatch(/rank needs --interval/);
+    expect((await run(['order', FILE, '--uncertain'])).err).toMatch(/--uncertain needs --interval/);
+  });
+});

@@ -1,0 +1,81 @@
+import { describe, expect, it } from 'vitest';
+import { fromRows } from '../../../src/core/numeric/dense';
+import { factorAnalysis, laggedRank, levelCovariances, picturesAt } from '../../../src/core/pictures/index';
+import { logGrid } from '../../../src/core/numeric/sampled';
+import { runPython } from '../../helpers/python';
+import { expectClose } from '../../helpers/tolerance';
+import { chainMatrices, chainModel, SYMPTOMS } from './fixtures';
+
+interface Ref { equilibria: number[][]; stationary: number[][]; meanError: number[][]; within: number[][]; between: number[][]; cross: number[][]; singular: number[][] }
+
+describe('covariances within, between and across persons', () => {
+  for (const slow of [false, true]) {
+    it(`match SciPy's Lyapunov solution and the mean of a stationary series term by term (${slow ? 'slow driver state' : 'driver input'})`, () => {
+      const chain = 0.8, sd = 1.3, interval = 3, samples = 70;
+      const lv = levelCovariances(chainModel(chain, sd, slow), { interval, samples, persons: 150, observed: SYMPTOMS });
+      expect(lv.ok).toBe(true);
+      if (!lv.ok) return;
+      const { A, B, noise } = chainMatrices(chain, slow);
+      const ref = runPython<Ref>('tests/reference/pictures_levels.py', { A, B, V: [sd * sd], noise, interval, samples, observed: [0, 1, 2, 3], grid: [] });
+      for (const key of ['equilibria', 'stationary', 'meanError', 'within', 'between', 'cross'] as const) expectClose(lv[key], ref[key], { relTol: 1e-8, absTol: 1e-11 }, key);
+      expect(lv.n).toEqual({ within: 150 * 69, between: 150, cross: 150 });
+    });
+  }
+});
+
+describe('fast chained symptoms and a slow common driver', () => {
+  it('without the chain one factor fits the cross-section exactly, whatever the driver\'s variance', () => {
+    for (const sd of [0.2, 1, 5]) {
+      const lv = levelCovariances(chainModel(0, sd), { interval: 3, samples: 70, persons: 150 });
+      if (!lv.ok) throw new Error(lv.reason);
+      const fit = factorAnalysis(fromRows(lv.cross), 1, { n: 150 });
+      // Cross-section = b bᵀ Var(u) + diagonal Σ: exactly one factor plus uniquenesses.
+      expect(fit.chi2!).toBeLessThan(1e-8);
+      expect(fit.rmsea).toBe(0);
+    }
+  });
+
+  it('with the chain the one-factor fit of the cross-section is off (the check can fail)', () => {
+    const lv = levelCovariances(chainModel(0.8, 1), { interval: 3, samples: 70, persons: 150 });
+    if (!lv.ok) throw new Error(lv.reason);
+    expect(factorAnalysis(fromRows(lv.cross), 1, { n: 150 }).rmsea!).toBeGreaterThan(0.05);
+  });
+
+  it('the smallest-to-largest singular value ratio of Φ(Δ) falls towards 0 past the fast timescales (SciPy expm + SVD)', () => {
+    const { A, B, noise } = chainMatrices(0.8, true);
+    const grid = logGrid(0.05, 40, 25);
+    const ref = runPython<Ref>('tests/reference/pictures_levels.py', { A, B, V: [1], noise, interval: 1, samples: 2, observed: [0, 1, 2, 3, 4], grid });
+    const lv = levelCovariances(chainModel(0.8, 1, true), { interval: 1, samples: 2, observed: [...SYMPTOMS, 'strain'] });
+    if (!lv.ok) throw new Error(lv.reason);
+    const ratios = grid.map((d, g) => {
+      const r = laggedRank(lv.drift, lv.states, [...SYMPTOMS, 'strain'], d);
+      expectClose(r.singularValues, ref.singular[g], { relTol: 1e-8, absTol: 1e-13 }, `singular values at Δ = ${d}`);
+      const want = ref.singular[g][4] / ref.singular[g][0];
+      expectClose(r.ratio, want, { relTol: 1e-6, absTol: 1e-14 }, `ratio at Δ = ${d}`);
+      return want;
+    });
+    for (let g = 1; g < grid.length; g++) expect(ratios[g]).toBeLessThanOrEqual(ratios[g - 1] * (1 + 1e-9));
+    expect(ratios[0]).toBeGreaterThan(0.5);
+    // Past 5× the slowest symptom's 2 h the fast modes are gone: Φ is nearly rank one (the slow strain mode).
+    expect(ratios[grid.length - 1]).toBeLessThan(1e-6);
+  });
+
+  it('reads the pictures in words', () => {
+    const r = picturesAt(chainModel(0, 3), { interval: 3, samples: 70, persons: 150, observed: SYMPTOMS });
+    if (!r.ok) throw new Error(r.reason);
+    expect(r.pictures.byLevel.cross.reading).toMatch(/one factor fits \(RMSEA \.00\)/);
+    expect(r.pictures.byLevel.within.reading).toMatch(/barely correlate/);
+    const c = picturesAt(chainModel(0.8, 1), { interval: 3, samples: 70, persons: 150, observed: SYMPTOMS });
+    if (!c.ok) throw new Error(c.reason);
+    expect(c.pictures.byLevel.within.reading).toMatch(/does not fit .* loops between the variables dominate/);
+  });
+
+  it('names a missing variable and a non-input person difference', () => {
+    const a = levelCovariances(chainModel(0, 1), { interval: 3, observed: ['s1', 'nope'] });
+    expect(a.ok).toBe(false);
+    if (!a.ok) expect(a.reason).toMatch(/"nope"/);
+    const b = levelCovariances(chainModel(0, 1), { interval: 3, personSD: { s1: 1 } });
+    expect(b.ok).toBe(false);
+    if (!b.ok) expect(b.reason).toMatch(/"s1" is not an input/);
+  });
+});
