@@ -139,7 +139,7 @@ describe('Numbers pane parts', () => {
       act(() => button!.click());
       expect(saved).toHaveLength(1);
       expect(await saved[0].text()).toBe(svgDocument(laggedNetwork(swing, a, false, { heading: true, caption: 'every day & night' })!));
-      expect(el.querySelector('button[aria-label="Export the same-interval network as PNG at 2×"]')).not.toBeNull();
+      expect(el.querySelector('button[aria-label="Export the same-interval network as PNG 2×"]')).not.toBeNull();
     } finally {
       create.mockRestore();
       revoke.mockRestore();
