@@ -154,7 +154,7 @@ test('the Numbers pane exports the simulation chart and the lagged network as th
   expect(appChart).toBe(cli(['simulate', model, '--until', '2 days', '--every', '10 min'], testInfo.outputPath('cli-simulation.svg')));
   const w = Number(/width="(\d+)"/.exec(appChart)![1]);
   const h = Number(/height="(\d+)"/.exec(appChart)![1]);
-  expect(pngSize(await exported(page, 'Export the simulation chart as PNG at 2×', testInfo.outputPath('app-simulation@2x.png')))).toEqual({ width: 2 * w, height: 2 * h });
+  expect(pngSize(await exported(page, 'Export the simulation chart as PNG 2×', testInfo.outputPath('app-simulation@2x.png')))).toEqual({ width: 2 * w, height: 2 * h });
 
   // The lagged network at the interval.
   const sampled = pane.locator('[data-section="sampled"]');
@@ -166,6 +166,6 @@ test('the Numbers pane exports the simulation chart and the lagged network as th
   expect(appNet).toBe(cli(['sampled', model], testInfo.outputPath('cli-lagged.svg')));
   const nw = Number(/width="(\d+)"/.exec(appNet)![1]);
   const nh = Number(/height="(\d+)"/.exec(appNet)![1]);
-  expect(pngSize(await exported(page, 'Export the lagged network as PNG at 2×', testInfo.outputPath('app-lagged@2x.png')))).toEqual({ width: 2 * nw, height: 2 * nh });
+  expect(pngSize(await exported(page, 'Export the lagged network as PNG 2×', testInfo.outputPath('app-lagged@2x.png')))).toEqual({ width: 2 * nw, height: 2 * nh });
   expect(errors).toEqual([]);
 });

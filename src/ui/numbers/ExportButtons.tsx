@@ -16,9 +16,9 @@ export function ExportButtons({ what, name, svg }: { what: string; name: string;
     <div className="lf-num-row lf-num-export" role="group" aria-label={`Export ${what}`}>
       <span className="lf-num-note">Export {what}:</span>
       <button type="button" className="lf-num-small" aria-label={`Export ${what} as SVG`} onClick={() => { setError(null); downloadSvg(svg(), name); }}>SVG</button>
-      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG at 1×`} onClick={() => png(1)}>PNG 1×</button>
-      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG at 2×`} onClick={() => png(2)}>2×</button>
-      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG at 4×`} onClick={() => png(4)}>4×</button>
+      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG 1×`} onClick={() => png(1)}>PNG 1×</button>
+      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG 2×`} onClick={() => png(2)}>2×</button>
+      <button type="button" className="lf-num-small" aria-label={`Export ${what} as PNG 4×`} onClick={() => png(4)}>4×</button>
       {error && <span className="lf-num-error" role="alert">{error}</span>}
     </div>
   );

@@ -4,6 +4,17 @@ import type { El } from '../../export/scene';
 import { nameOf } from '../../export/format';
 import { elToReact } from '../elReact';
 
+/** The text a part of the figure shows (the weight label of a link). */
+function visibleText(e: El): string {
+  const out: string[] = [];
+  const walk = (x: El | string) => {
+    if (typeof x === 'string') out.push(x);
+    else if (x.tag !== 'title') (x.children ?? []).forEach(walk);
+  };
+  (e.children ?? []).forEach(walk);
+  return out.join(' ').trim();
+}
+
 /**
  * A network drawn by the exporter's builder (`laggedNetwork`,
  * `sameIntervalNetwork`); with `onPick` each link is a button that shows it
@@ -11,7 +22,8 @@ import { elToReact } from '../elReact';
  */
 export function NetworkDiagram({ model, figure, onPick }: { model: Model; figure: El; onPick?: (from: VariableId, to: VariableId) => void }) {
   return elToReact(figure, (e) => {
-    if (e.tag === 'svg') return { className: 'lf-num-network' };
+    // With pickable links the figure is a group of buttons, not one image (an image holds no controls).
+    if (e.tag === 'svg') return onPick ? { className: 'lf-num-network', role: 'group' } : { className: 'lf-num-network' };
     const edge = e.attrs['data-edge'];
     if (!onPick || typeof edge !== 'string') return undefined;
     const [from, to] = edge.split('>');
@@ -19,7 +31,8 @@ export function NetworkDiagram({ model, figure, onPick }: { model: Model; figure
       role: 'button',
       tabIndex: 0,
       className: 'lf-net-pick',
-      'aria-label': `Show ${nameOf(model, from)} → ${nameOf(model, to)} against the interval`,
+      // The name starts with the weight written on the link, so what is seen is what a screen reader says.
+      'aria-label': `${visibleText(e)} ${nameOf(model, from)} → ${nameOf(model, to)}: show against the interval`.trim(),
       onClick: () => onPick(from, to),
       onKeyDown: (ev: KeyboardEvent) => {
         if (ev.key === 'Enter' || ev.key === ' ') { ev.preventDefault(); onPick(from, to); }
