@@ -82,6 +82,7 @@ test.describe('fields, selection and checks a modeller can trust', () => {
   test('a sketch with a growing mode is a finding in the Checks, the timescale view and the Numbers', async ({ page }, testInfo) => {
     test.setTimeout(240_000);
     await page.goto('/');
+    await page.waitForFunction(() => window.__loopfold !== undefined);
     await page.evaluate(() => window.__loopfold!.load({
       format: 'loopfold-model', version: 1, name: 'Household budget', timeUnit: 'week',
       variables: [

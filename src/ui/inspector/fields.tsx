@@ -57,7 +57,11 @@ export function finishKeys(finish: () => void, cancel: () => void, multiline = f
 export function TextField({ label, value, onChange, onBlur, multiline, placeholder }: { label: string; value: string; onChange(v: string): void; onBlur?(finished: string): void; multiline?: boolean; placeholder?: string }) {
   const id = useId();
   const d = useDraft(value, onChange);
-  const finish = () => onBlur?.(d.finish() ?? value);
+  const finish = () => {
+    // store first, whether or not the caller wants to hear of the blur (`onBlur?.(d.finish())` would skip storing without one)
+    const finished = d.finish() ?? value;
+    onBlur?.(finished);
+  };
   const common = {
     id,
     value: d.text,
