@@ -2,6 +2,7 @@
  * Scales and ticks of the charts: pure arithmetic shared by the drawing of
  * the Numbers pane's charts and their export.
  */
+import { formatNumber } from '../present/index';
 
 /**
  * Round tick values within [lo, hi]: the smallest step of 1, 2 or 5 × 10ᵏ
@@ -54,8 +55,5 @@ export function extent(values: Iterable<number>): [number, number] {
 
 /** Tick label: short, no floating-point noise. */
 export function tickText(x: number): string {
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  if (a >= 1e5 || a < 1e-3) return x.toExponential(0).replace('e+', 'e');
-  return String(Number(x.toPrecision(4)));
+  return formatNumber(x, { digits: 4, exponentDigits: 0, large: 1e5, exponentPlus: false });
 }

@@ -14,7 +14,7 @@ import { sampleTimes, valueAt } from '../core/numeric/samples';
 import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { studyLength, type StudyAt } from './caption';
-import { nameOf, numText, unitOf, weightText } from './format';
+import { labelOf, numText, unitOf, weightText } from '../present/index';
 import { wrapText, type Attr, type El } from './scene';
 
 export interface FigureOptions {
@@ -130,7 +130,7 @@ export function simulationChart(model: Model, run: { times: readonly number[]; s
 }
 
 export function simulationChartInput(model: Model, run: { times: readonly number[]; series: Record<VariableId, readonly number[]> }, plot: readonly VariableId[], study: StudyAt): TimeChartInput {
-  const series = plot.map((id) => ({ id, name: nameOf(model, id), unit: unitOf(model, id), values: run.series[id] ?? [] }));
+  const series = plot.map((id) => ({ id, name: labelOf(model, id), unit: unitOf(model, id), values: run.series[id] ?? [] }));
   const end = run.times[run.times.length - 1] ?? 0;
   const samples = study.interval === undefined ? [] : sampleTimes(study.interval, end, studyLength(model, study) ?? Infinity);
   return { times: run.times, series, samples, timeUnit: model.timeUnit };
@@ -208,7 +208,7 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
     const lx = 0.36 * sx + 0.48 * mx + 0.16 * ex, ly = 0.36 * sy + 0.48 * my + 0.16 * ey;
     const d = `M${r1(sx)},${r1(sy)} Q${r1(mx)},${r1(my)} ${r1(ex)},${r1(ey)}`;
     const from = states[e.from], to = states[e.to];
-    const kids: El[] = [el('title', {}, [`${nameOf(model, from)} ${directed ? '→' : '—'} ${nameOf(model, to)}: ${weightText(e.weight)}`])];
+    const kids: El[] = [el('title', {}, [`${labelOf(model, from)} ${directed ? '→' : '—'} ${labelOf(model, to)}: ${weightText(e.weight)}`])];
     if (input.pickable) kids.push(el('path', { d, class: 'lf-net-hit', fill: 'none', stroke: C.paper, 'stroke-opacity': 0, 'stroke-width': 12 }));
     kids.push(
       el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': r1(0.8 + 4 * (Math.abs(e.weight) / max)), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
@@ -218,7 +218,7 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
   }
   states.forEach((s, i) => {
     const p = pos[i];
-    const name = nameOf(model, s);
+    const name = labelOf(model, s);
     const kids: El[] = [
       el('title', {}, [name]),
       el('rect', { x: -BW / 2, y: -BH / 2, width: BW, height: BH, rx: 4, fill: C.paper, stroke: C.line }),
@@ -274,7 +274,7 @@ export interface LinkCurveInput {
 const CW = 360, CH = 230, CL = 52, CR = 10, CT = 14, CB = 40;
 
 export function linkCurveLabel(model: Model, curve: { from: VariableId; to: VariableId }): string {
-  return `Lagged effect of ${nameOf(model, curve.from)} on ${nameOf(model, curve.to)} against the sampling interval`;
+  return `Lagged effect of ${labelOf(model, curve.from)} on ${labelOf(model, curve.to)} against the sampling interval`;
 }
 
 /**

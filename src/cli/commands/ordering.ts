@@ -4,6 +4,7 @@ import { breakpoints, orderingAt } from '../../core/ordering/index';
 import type { Diagnostic, Ordering, StudyDesign } from '../../core/ordering/types';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { labeller } from '../../present/index';
 
 /** Study design from --interval, --window, --samples and --hold. */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -52,7 +53,7 @@ function diagnosticLines(ds: Diagnostic[]): string[] {
 
 /** Readable text for `order` without --json. */
 export function orderingText(model: Model, design: StudyDesign, o: Ordering): string {
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const lines = [`${model.name}: causal ordering at ${describeDesign(model, design)}`, '', 'blocks, in causal order:'];
   for (const b of o.blocks) {
     const vars = b.variables.map((v) => `${label(v)} [${o.roles[v]}]`).join(', ');

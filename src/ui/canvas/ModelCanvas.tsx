@@ -27,6 +27,7 @@ import { CanvasDrawing } from './CanvasDrawing';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
+import { GRID_DOT, UNKNOWN_STROKE } from '../../theme/tokens';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
 // Props of the flow that never change live outside the component: a new array,
@@ -37,7 +38,7 @@ const ARIA_LABELS = { 'node.a11yDescription.default': 'Press Enter or Space to s
 const MINIMAP_STYLE = { width: 150, height: 96 };
 function minimapColor(n: FlowNode): string {
   const d = n.data as { variable?: { kind: 'input' | 'state' | 'derived' } };
-  return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
+  return d.variable ? ROLE_STYLE[d.variable.kind].stroke : UNKNOWN_STROKE;
 }
 function applyPicks(current: readonly string[], picks: readonly { id: string; selected: boolean }[]): string[] {
   const set = new Set(current);
@@ -204,7 +205,7 @@ export function ModelCanvas() {
         attributionPosition="top-right"
         ariaLabelConfig={ARIA_LABELS}
       >
-        <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
+        <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color={GRID_DOT} />
         <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" />
         <MiniMap
           position="bottom-right"

@@ -4,11 +4,12 @@ import { LINK_STYLE } from '../../theme/visual';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
 import { CheckedField, numberCheck, toNumber } from './fields';
+import { labeller } from '../../present/index';
 
 export function LinkInspector({ link, model }: { link: Link; model: Model }) {
   const kindName = useId();
   const signName = useId();
-  const name = (id: string) => model.variables.find((w) => w.id === id)?.label ?? id;
+  const name = labeller(model);
   const stop = () => documentStore.getState().stopGesture();
   const set = (patch: Partial<Link>) => {
     stop();

@@ -8,6 +8,7 @@ import { idFromLabel, isGeneratedId, usedIds } from '../../state/changes';
 import { addLink } from '../actions';
 import { ExpressionField } from './ExpressionField';
 import { CheckedField, TextField, numberCheck, toNumber } from './fields';
+import { labeller, quantityText } from '../../present/index';
 
 const KINDS: { kind: VariableKind; name: string; text: string }[] = [
   { kind: 'input', name: 'Input', text: 'set from outside' },
@@ -25,7 +26,7 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
   const others = model.variables.filter((w) => w.id !== v.id);
   const incoming = model.links.filter((l) => l.to === v.id);
   const outgoing = model.links.filter((l) => l.from === v.id);
-  const name = (id: string) => model.variables.find((w) => w.id === id)?.label ?? id;
+  const name = labeller(model);
   const checkId = (t: string) => {
     if (t === v.id) return null;
     if (!ID_RE.test(t)) return 'a name in formulas starts with a letter or "_" and has only letters, digits and "_"';
@@ -167,6 +168,6 @@ function timescaleHint(v: Variable, model: Model): string {
   const d = parseDuration(v.timescale, model.timeUnit);
   if (!d.ok) return '';
   const words = formatDuration(d.value, model.timeUnit);
-  const inUnit = `${+d.value.toPrecision(4)} ${model.timeUnit}`;
+  const inUnit = quantityText(d.value, model.timeUnit, { digits: 4 });
   return words === inUnit ? `= ${words}` : `= ${words} (${inUnit})`;
 }

@@ -14,6 +14,7 @@ import { designOf, studyStore, useStudy, type StudyLength } from '../../state/st
 import { useBandCache, type BandCache } from '../views/bandCache';
 import { setIntervalDrag, useIntervalDrag } from './dragging';
 import './interval.css';
+import { BREAKPOINT, TRACK_NOTCH } from '../../theme/tokens';
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
 
@@ -150,7 +151,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache
     <svg ref={svg} className="lf-track-marks" width="100%" height={TRACK_H} aria-hidden="true">
       <defs>
         <pattern id={HATCH_ID} width={7} height={7} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-          <rect width={2} height={7} fill="#ece9e1" />
+          <rect width={2} height={7} fill={TRACK_NOTCH} />
         </pattern>
       </defs>
       {width > 0 && odd && <path className="lf-bands-odd" d={odd} fill={`url(#${HATCH_ID})`} />}
@@ -160,7 +161,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model }: { cache: BandCache
           .map((b, i) => {
             const x = X(b.interval);
             return (
-              <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke="#8a5a12" strokeWidth={2} fill="#8a5a12">
+              <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke={BREAKPOINT} strokeWidth={2} fill={BREAKPOINT}>
                 <title>{`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`}</title>
               </path>
             );

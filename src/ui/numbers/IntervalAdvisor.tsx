@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import type { AdviceAnswer } from '../../worker/numericApi';
-import { nameOf } from '../../export/format';
+import { labelOf } from '../../present/index';
 import { isFailed, useNumeric } from './useNumeric';
 
 type Pair = { from: VariableId; to: VariableId };
@@ -25,7 +25,7 @@ export function IntervalAdvisor({ model, states }: { model: Model; states: Varia
         <legend>Links the study must see</legend>
         {pairs.map((p) => (
           <label key={key(p)}>
-            <input type="checkbox" data-link={key(p)} checked={picked.some((x) => key(x) === key(p))} onChange={(e) => toggle(p, e.target.checked)} /> {nameOf(model, p.from)} → {nameOf(model, p.to)}
+            <input type="checkbox" data-link={key(p)} checked={picked.some((x) => key(x) === key(p))} onChange={(e) => toggle(p, e.target.checked)} /> {labelOf(model, p.from)} → {labelOf(model, p.to)}
           </label>
         ))}
       </fieldset>
@@ -44,7 +44,7 @@ export function IntervalAdvisor({ model, states }: { model: Model; states: Varia
             <tbody>
               {a.advice.links.map((l) => (
                 <tr key={key(l)}>
-                  <th scope="row">{nameOf(model, l.from)} → {nameOf(model, l.to)}</th>
+                  <th scope="row">{labelOf(model, l.from)} → {labelOf(model, l.to)}</th>
                   <td>{l.peak ? formatDuration(l.peak.interval, u) : 'no peak'}</td>
                   <td>{l.range ? `${formatDuration(l.range[0], u)} – ${formatDuration(l.range[1], u)}` : '—'}</td>
                 </tr>

@@ -1,7 +1,7 @@
 import type { KeyboardEvent } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import type { El } from '../../export/scene';
-import { nameOf } from '../../export/format';
+import { labelOf } from '../../present/index';
 import { elToReact } from '../elReact';
 
 /**
@@ -19,7 +19,7 @@ export function NetworkDiagram({ model, figure, onPick }: { model: Model; figure
       role: 'button',
       tabIndex: 0,
       className: 'lf-net-pick',
-      'aria-label': `Show ${nameOf(model, from)} → ${nameOf(model, to)} against the interval`,
+      'aria-label': `Show ${labelOf(model, from)} → ${labelOf(model, to)} against the interval`,
       onClick: () => onPick(from, to),
       onKeyDown: (ev: KeyboardEvent) => {
         if (ev.key === 'Enter' || ev.key === ' ') { ev.preventDefault(); onPick(from, to); }
