@@ -3,7 +3,7 @@ import { fileURLToPath } from 'node:url';
 import { runCli } from '../../../src/cli/run';
 import { runPython } from '../../helpers/python';
 import type { Model } from '../../../src/core/model/types';
-import { greenhouseIntegral, warehouseIntegral } from './scenarios';
+import { greenhouseIntegral, warehouseIntegral } from '../../core/interventions/scenarios';
 import { memoryIo } from '../../helpers/cli';
 import { decimals, expectClose } from '../../helpers/tolerance';
 
