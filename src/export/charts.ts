@@ -14,8 +14,8 @@ import { sampleTimes, valueAt } from '../core/numeric/samples';
 import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { studyLength, type StudyAt } from './caption';
-import { nameOf, numText, unitOf, weightText } from './format';
 import { placeNetwork, WEIGHT_FONT } from '../layout/network';
+import { labelOf, numText, unitOf, weightText } from '../present/index';
 import { wrapText, type Attr, type El } from './scene';
 
 export interface FigureOptions {
@@ -131,7 +131,7 @@ export function simulationChart(model: Model, run: { times: readonly number[]; s
 }
 
 export function simulationChartInput(model: Model, run: { times: readonly number[]; series: Record<VariableId, readonly number[]> }, plot: readonly VariableId[], study: StudyAt): TimeChartInput {
-  const series = plot.map((id) => ({ id, name: nameOf(model, id), unit: unitOf(model, id), values: run.series[id] ?? [] }));
+  const series = plot.map((id) => ({ id, name: labelOf(model, id), unit: unitOf(model, id), values: run.series[id] ?? [] }));
   const end = run.times[run.times.length - 1] ?? 0;
   const samples = study.interval === undefined ? [] : sampleTimes(study.interval, end, studyLength(model, study) ?? Infinity);
   return { times: run.times, series, samples, timeUnit: model.timeUnit };
@@ -238,7 +238,7 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
     const straight = Math.abs((start.x + end.x) / 2 - control.x) < 1e-6 && Math.abs((start.y + end.y) / 2 - control.y) < 1e-6;
     const d = straight ? `M${r1(start.x)},${r1(start.y)} L${r1(end.x)},${r1(end.y)}` : `M${r1(start.x)},${r1(start.y)} Q${r1(control.x)},${r1(control.y)} ${r1(end.x)},${r1(end.y)}`;
     const from = states[e.from], to = states[e.to];
-    const kids: El[] = [el('title', {}, [`${nameOf(model, from)} ${directed ? '→' : '—'} ${nameOf(model, to)}: ${weightText(e.weight)}`])];
+    const kids: El[] = [el('title', {}, [`${labelOf(model, from)} ${directed ? '→' : '—'} ${labelOf(model, to)}: ${weightText(e.weight)}`])];
     if (input.pickable) kids.push(el('path', { d, class: 'lf-net-hit', fill: 'none', stroke: C.paper, 'stroke-opacity': 0, 'stroke-width': 12 }));
     kids.push(
       el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': widthOf(e.weight), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
@@ -249,7 +249,7 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
   const bw = place.nodeWidth, bh = place.nodeHeight;
   states.forEach((s, i) => {
     const p = place.centers[i];
-    const name = nameOf(model, s);
+    const name = labelOf(model, s);
     const kids: El[] = [
       el('title', {}, [name]),
       el('rect', { x: -bw / 2, y: -bh / 2, width: bw, height: bh, rx: 4, fill: C.paper, stroke: C.line }),
@@ -321,7 +321,7 @@ export interface LinkCurveInput {
 const CW = 360, CH = 230, CL = 52, CR = 10, CT = 14, CB = 40;
 
 export function linkCurveLabel(model: Model, curve: { from: VariableId; to: VariableId }): string {
-  return `Lagged effect of ${nameOf(model, curve.from)} on ${nameOf(model, curve.to)} against the sampling interval`;
+  return `Lagged effect of ${labelOf(model, curve.from)} on ${labelOf(model, curve.to)} against the sampling interval`;
 }
 
 /**

@@ -8,6 +8,7 @@ import type { ViewEdge, ViewModel, ViewNode } from '../core/view/types';
 import { Occupancy, placeMark, pointAlong, polylineLength, quadPoints, rectOf, type Rect } from '../layout/space';
 import type { Box, Layout, Point } from '../layout/types';
 import { ACCUMULATOR_FLOOR, BLOCK_STYLE, FONT_STACK, INK, KIND_SHAPE, LINK_STYLE, MUTED, PAPER, ROLE_STYLE, shapePath } from '../theme/visual';
+import { WHITE } from '../theme/tokens';
 
 export type Attr = string | number | undefined;
 export interface El {
@@ -172,7 +173,7 @@ function nodeEl(n: ViewNode, b: Box): El {
       el('title', {}, [`${n.label} — a simultaneous block, folded; click to show its members`]),
       card(8), card(4), card(0),
       el('circle', { cx: X(20), cy: Y((b.height - 8) / 2), r: 12, fill: s.stroke }),
-      el('text', { x: X(20), y: Y((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: '#ffffff' }, [String(n.count)]),
+      el('text', { x: X(20), y: Y((b.height - 8) / 2 + 4.5), 'text-anchor': 'middle', 'font-size': 13, 'font-weight': 700, fill: WHITE }, [String(n.count)]),
       el('text', { x: X(38), y: Y((b.height - 8) / 2 + 4.5), 'font-size': 13, fill: INK }, [n.label.replace(/^\d+ together: /, '')]),
     ]);
   }
@@ -409,7 +410,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
     body.push({ box: outline(box, 2), make: () => el('g', { 'data-slice-frame': s }, [
-      el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: '#ffffff', 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
+      el('rect', { x: r1(box.x), y: r1(box.y), width: r1(box.width), height: r1(box.height), rx: 6, fill: WHITE, 'fill-opacity': 0.55, stroke: MUTED, 'stroke-width': 1, 'stroke-dasharray': '2 3' }),
       el('text', { x: r1(box.x + box.width / 2), y: r1(box.y + box.height - 12), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: MUTED }, [`instant ${SLICE_NAMES[s]}`]),
     ]) });
   }
@@ -424,7 +425,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
     // the block's name and fold button are drawn over the links (a link entering the block must not hide them)
     labels.push({ box: [b.x, b.y, b.x + Math.max(b.width, 200), b.y + 30], make: () => el('g', { class: 'lf-toggle', 'data-block': g.key, 'data-block-label': g.id }, [
       el('title', {}, [`${g.variables.length} variables determined together; click to fold into one node`]),
-      el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: '#ffffff', stroke: s.stroke, 'stroke-width': 1 }),
+      el('rect', { x: r1(b.x + 8), y: r1(b.y + 7), width: 18, height: 18, rx: 4, fill: WHITE, stroke: s.stroke, 'stroke-width': 1 }),
       el('text', { x: r1(b.x + 17), y: r1(b.y + 21), 'text-anchor': 'middle', 'font-size': 15, 'font-weight': 700, fill: s.stroke }, ['−']),
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
     ]) });

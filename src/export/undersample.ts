@@ -8,6 +8,7 @@
  * presentation attribute inline, like the Numbers pane's charts: `svgDocument`
  * writes it as a file and the app shows the same tree.
  */
+import { BIDIRECTED } from '../theme/tokens';
 import { bitsOf, has, type EdgeReason, type StepGraph } from '../core/undersample/graph';
 import { measuredGraph } from '../core/undersample/graph';
 import { CHART_STYLE as C, FONT_STACK, INK, MUTED } from '../theme/visual';
@@ -37,7 +38,7 @@ const BW = 140, BH = 24;
 const r1 = (x: number) => Math.round(x * 10) / 10;
 const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
 const BIDIRECTED_DASH = '2 3';
-const BI = '#6b3f8f';
+const BI = BIDIRECTED;
 
 /** 2 → "2nd", 3 → "3rd", 11 → "11th", 21 → "21st". */
 export function ordinal(u: number): string {

@@ -38,6 +38,8 @@ export interface ReportOptions {
 import { htmlEscape } from './html-escape';
 import { trajectoryChart } from './chart';
 import { designAxis } from '../core/study/convert';
+import { formatNumber, labelOf } from '../present/index';
+import { REPORT_HELD, REPORT_INK, REPORT_LINE, REPORT_MUTED } from '../theme/tokens';
 
 export { htmlEscape };
 
@@ -59,15 +61,15 @@ export function prefixSvgIds(svg: string, prefix: string): string {
 }
 
 const CSS = `
-body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",sans-serif;color:#1d1d1f;margin:2rem auto;max-width:60rem;padding:0 1rem}
-h1{font-size:1.6rem;margin-bottom:.2rem}h2{font-size:1.25rem;margin-top:2.2rem;border-bottom:2px solid #1d1d1f}h3{font-size:1.05rem}
-.sub{color:#555}.caution{border:2px solid #1d1d1f;padding:.5rem .8rem;font-weight:600}
-table{border-collapse:collapse;margin:.5rem 0}td,th{border:1px solid #999;padding:.2rem .5rem;text-align:left;vertical-align:top}
+body{font:15px/1.45 system-ui,-apple-system,"Segoe UI",sans-serif;color:${REPORT_INK};margin:2rem auto;max-width:60rem;padding:0 1rem}
+h1{font-size:1.6rem;margin-bottom:.2rem}h2{font-size:1.25rem;margin-top:2.2rem;border-bottom:2px solid ${REPORT_INK}}h3{font-size:1.05rem}
+.sub{color:${REPORT_MUTED}}.caution{border:2px solid ${REPORT_INK};padding:.5rem .8rem;font-weight:600}
+table{border-collapse:collapse;margin:.5rem 0}td,th{border:1px solid ${REPORT_LINE};padding:.2rem .5rem;text-align:left;vertical-align:top}
 .figure svg{max-width:100%;height:auto}.error::before{content:"✖ "}.warning::before{content:"▲ "}
 @media screen{.charts{display:flex;flex-wrap:wrap;gap:.5rem}}.agree::before{content:"= "}.differ::before{content:"≠ "}
 code{font-family:ui-monospace,Menlo,Consolas,monospace;font-size:.9em}
-details.band-details{border-top:1px solid #999;margin:.4rem 0}details.band-details>summary{cursor:pointer;font-weight:600;padding:.3rem 0}
-.held{border:2px solid #8f2d2d;padding:.4rem .8rem;font-weight:600}.num{text-align:right;font-variant-numeric:tabular-nums}
+details.band-details{border-top:1px solid ${REPORT_LINE};margin:.4rem 0}details.band-details>summary{cursor:pointer;font-weight:600;padding:.3rem 0}
+.held{border:2px solid ${REPORT_HELD};padding:.4rem .8rem;font-weight:600}.num{text-align:right;font-variant-numeric:tabular-nums}
 .summary-page{break-after:page}
 @media print{body{margin:0;max-width:none}h2{break-after:avoid}.figure{break-inside:avoid}}
 `;
@@ -132,12 +134,8 @@ function changesAt(model: Model, bp: Breakpoint | undefined): string {
   return `<p>At ${htmlEscape(formatDuration(bp.interval, model.timeUnit))}${bp.exclusive ? ' (just above it)' : ''}:</p><ul>${items.join('')}</ul>`;
 }
 
-/** Round for reading: 4 significant digits. */
-function num(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
-  if (x === 0) return '0';
-  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
-}
+/** Round for reading: 4 significant digits, exponent form outside [0.001, 10⁶). */
+const num = (x: number) => formatNumber(x, { digits: 4, exponentDigits: 3 });
 
 /**
  * The equilibrium and the timescales, computed by the same calls as the `equilibrium` and `timescales`
@@ -206,10 +204,10 @@ function specification(model: Model, axis: { window?: number; samples?: number }
 function effectSection(model: Model, hold: Record<string, number>): string {
   const e = htmlEscape;
   const fx = interventionEffect(model, hold);
-  const out: string[] = [`<p>Holding ${e(Object.entries(hold).map(([k, v]) => `${label(model, k)} = ${v}`).join(', '))} in the running system, from the equilibrium without the hold.</p>`];
+  const out: string[] = [`<p>Holding ${e(Object.entries(hold).map(([k, v]) => `${labelOf(model, k)} = ${v}`).join(', '))} in the running system, from the equilibrium without the hold.</p>`];
   if (fx.equilibrium) {
     out.push('<table><thead><tr><th>variable</th><th>equilibrium without</th><th>with the hold</th><th>change</th></tr></thead><tbody>');
-    for (const r of fx.equilibrium) out.push(`<tr><td>${e(label(model, r.variable))}</td><td>${e(num(r.before))}</td><td>${e(num(r.after))}</td><td>${e(num(r.change))}</td></tr>`);
+    for (const r of fx.equilibrium) out.push(`<tr><td>${e(labelOf(model, r.variable))}</td><td>${e(num(r.before))}</td><td>${e(num(r.after))}</td><td>${e(num(r.change))}</td></tr>`);
     out.push('</tbody></table>');
   }
   if (fx.trajectories) {
@@ -220,11 +218,11 @@ function effectSection(model: Model, hold: Record<string, number>): string {
       .slice(0, 8);
     if (moved.length) {
       out.push('<p class="sub">Runs from the equilibrium without the hold: dashed without, solid with the hold held from the start.</p><div class="charts">');
-      for (const id of moved) out.push(trajectoryChart(t, id, label(model, id), { timeUnit: model.timeUnit, crop: true }));
+      for (const id of moved) out.push(trajectoryChart(t, id, labelOf(model, id), { timeUnit: model.timeUnit, crop: true }));
       out.push('</div>');
     }
   }
-  if (fx.drifting.length) out.push(`<ul>${fx.drifting.map((d) => `<li class="warning">${e(label(model, d.variable))} keeps moving at ${e(num(d.slope))} per ${e(model.timeUnit)} at the end of the held run: held, the system has no equilibrium</li>`).join('')}</ul>`);
+  if (fx.drifting.length) out.push(`<ul>${fx.drifting.map((d) => `<li class="warning">${e(labelOf(model, d.variable))} keeps moving at ${e(num(d.slope))} per ${e(model.timeUnit)} at the end of the held run: held, the system has no equilibrium</li>`).join('')}</ul>`);
   if (fx.messages.length) out.push(`<ul>${fx.messages.map((m) => `<li class="error">${e(m)}</li>`).join('')}</ul>`);
   return out.join('\n');
 }
@@ -252,7 +250,7 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
   parts.push('<p class="sub">Settled: fast states at balance at that interval. Frozen: slow states, constant over the study. Dynamic: states that move from one sample to the next.</p>');
   parts.push('<table><thead><tr><th>band</th><th>intervals</th><th>settled</th><th>frozen</th><th>dynamic</th></tr></thead><tbody>');
   bds.forEach((b, i) => {
-    const ids = (r: string) => Object.keys(b.roles).filter((v) => b.roles[v] === r).map((v) => e(label(model, v))).join(', ') || '—';
+    const ids = (r: string) => Object.keys(b.roles).filter((v) => b.roles[v] === r).map((v) => e(labelOf(model, v))).join(', ') || '—';
     parts.push(`<tr><td><a href="#band-${i + 1}">${i + 1}</a></td><td>${e(rangeText(model, b))}</td><td>${ids('settled')}</td><td>${ids('frozen')}</td><td>${ids('state')}</td></tr>`);
   });
   parts.push('</tbody></table>');
@@ -285,7 +283,7 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
     parts.push('<h3>Diagnostics</h3>', diagnosticsList(model, o));
     if (options.hold && Object.keys(options.hold).length > 0) {
       const c = commutationAt(model, { ...design, hold: options.hold });
-      parts.push('<h3>Holding ' + e(Object.entries(options.hold).map(([k, v]) => `${label(model, k)} = ${v}`).join(', ')) + '</h3>');
+      parts.push('<h3>Holding ' + e(Object.entries(options.hold).map(([k, v]) => `${labelOf(model, k)} = ${v}`).join(', ')) + '</h3>');
       parts.push(`<p class="${c.agree ? 'agree' : 'differ'}">${c.agree ? 'Hold then settle and settle then hold agree.' : 'Hold then settle and settle then hold differ.'}</p>`);
       parts.push(`<ul>${c.explanation.map((l) => `<li>${e(withEquationWords(model, l))}</li>`).join('')}</ul>`);
     }
@@ -299,9 +297,9 @@ export async function buildReport(model: Model, options: ReportOptions = {}): Pr
   if (pa.adapted.length === 0) parts.push('<p>No variable returns to the same equilibrium after a persistent change of an input.</p>');
   else {
     parts.push('<p>These variables answer a persistent change of the input for a while, then return to the same equilibrium value: the input reaches them in the running mechanism, but not in the equilibrium model.</p>');
-    parts.push(`<table><thead><tr><th>variable</th><th>adapts to</th></tr></thead><tbody>${pa.adapted.map((a) => `<tr><td>${e(label(model, a.variable))}</td><td>${e(label(model, a.input))}</td></tr>`).join('')}</tbody></table>`);
+    parts.push(`<table><thead><tr><th>variable</th><th>adapts to</th></tr></thead><tbody>${pa.adapted.map((a) => `<tr><td>${e(labelOf(model, a.variable))}</td><td>${e(labelOf(model, a.input))}</td></tr>`).join('')}</tbody></table>`);
   }
-  if (pa.unjudged.length) parts.push(`<p class="sub">Not judged (no well-determined equilibrium): ${e(pa.unjudged.map((v) => label(model, v)).join(', '))}.</p>`);
+  if (pa.unjudged.length) parts.push(`<p class="sub">Not judged (no well-determined equilibrium): ${e(pa.unjudged.map((v) => labelOf(model, v)).join(', '))}.</p>`);
   parts.push('</section>');
 
   return `<!DOCTYPE html>\n<html lang="en">\n<head>\n<meta charset="utf-8">\n<meta name="viewport" content="width=device-width, initial-scale=1">\n<title>${e(model.name)} — Loopfold report</title>\n<style>${CSS}</style>\n</head>\n<body>\n${parts.join('\n')}\n</body>\n</html>\n`;

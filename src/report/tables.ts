@@ -6,7 +6,7 @@
  */
 import type { Model } from '../core/model/types';
 import { bands, breakpoints, type AxisOptions } from '../core/ordering/index';
-import { toCsv, type CsvValue } from './csv';
+import { toCsv, type CsvValue } from '../present/csv';
 import type { Trajectories } from '../core/interventions/effects';
 
 /** `band,from,to,from_included,to_included,variable,label,role` — intervals in the model's time unit, "Infinity" for the open end. */

@@ -14,6 +14,7 @@ import { downloadBlob } from './download';
 import { defaultPosition } from './canvas/flow';
 import { freeSpot, type Box } from './canvas/geometry';
 import { NODE_H, variableWidth } from './canvas/VariableNode';
+import { labelOf } from '../present/index';
 
 const model = () => selectModel(documentStore.getState());
 
@@ -81,7 +82,7 @@ export function addLink(from: string, to: string): string | null {
   const existing = m.links.find((l) => l.from === from && l.to === to);
   if (existing) {
     selectionStore.getState().select({ links: [existing.id!] });
-    uiStore.getState().set({ toast: `There is already a link from ${m.variables.find((v) => v.id === from)?.label ?? from} to ${target.label ?? to}: it is selected` });
+    uiStore.getState().set({ toast: `There is already a link from ${labelOf(m, from)} to ${target.label ?? to}: it is selected` });
     return null;
   }
   const taken = new Set(m.links.map((l) => l.id).filter((x): x is string => !!x));

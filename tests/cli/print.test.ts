@@ -6,6 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../src/cli/run';
+import { decimals, expectClose } from '../helpers/tolerance';
 import { memoryIo } from '../helpers/cli';
 
 const SLEEP = 'src/examples/sleep-stress.json';
@@ -132,7 +133,7 @@ describe('the report agrees with the command line', () => {
       for (const [, id, text] of cells) {
         const v = eq.values[id];
         // 4 significant digits in the report
-        expect(Number(text.replace('−', '-')), `${ex} ${id}`).toBeCloseTo(v, Math.max(0, 3 - Math.floor(Math.log10(Math.abs(v) || 1))));
+        expectClose(Number(text.replace('−', '-')), v, decimals(Math.max(0, 3 - Math.floor(Math.log10(Math.abs(v) || 1)))), `${ex} ${id}`);
       }
       const ts = JSON.parse((await run(['timescales', path, '--json'])).out[0]) as { timescales: { state: string; derived: number | null }[] };
       for (const t of ts.timescales) {

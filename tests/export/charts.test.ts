@@ -4,11 +4,12 @@ import { parseModel } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
 import { driftAtEquilibrium, toRows } from '../../src/core/numeric/index';
 import { circleLayout, laggedNetwork, linkCurveChart, networkDiagram, sameIntervalNetwork, simulationChart, strongEdges, timeSeriesChart, type FigureOptions } from '../../src/export/charts';
-import { weightText } from '../../src/export/format';
+import { weightText } from '../../src/present/index';
 import type { El } from '../../src/export/scene';
 import { svgDocument } from '../../src/export/svg';
 import { curveOf, sampledOf, simulationOf, type CurveAnswer, type SampledAnswer, type SimulationAnswer } from '../../src/core/numeric/answers';
 import { runPython } from '../helpers/python';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 interface XNode { tag: string; ns: string; attrs: Record<string, string>; text: string; children: XNode[] }
 type Parsed = { ok: true; root: XNode } | { ok: false; error: string };
@@ -199,8 +200,8 @@ describe('the charts and networks as SVG', () => {
     const sym = [[1, -0.4], [-0.4, 1]];
     expect(strongEdges(sym, 0.02, true)).toEqual([{ from: 1, to: 0, weight: -0.4 }]);
     const p = circleLayout(4, 200, 200, 20);
-    expect(p[0].x).toBeCloseTo(100, 9);
-    expect(p[0].y).toBeCloseTo(20, 9);
-    expect(p[1].x).toBeCloseTo(180, 9);
+    expectClose(p[0].x, 100, decimals(9));
+    expectClose(p[0].y, 20, decimals(9));
+    expectClose(p[1].x, 180, decimals(9));
   });
 });

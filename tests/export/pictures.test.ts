@@ -3,6 +3,7 @@ import { picturesAt } from '../../src/core/pictures/index';
 import { factorFigure, laggedMatrixFigure, rankCurveFigure, withinNetworkFigure } from '../../src/export/pictures';
 import { svgDocument } from '../../src/export/svg';
 import type { El } from '../../src/export/scene';
+import { decimals, expectClose } from '../helpers/tolerance';
 import { chainModel, SYMPTOMS } from '../core/pictures/fixtures';
 
 function all(el: El, pred: (e: El) => boolean, out: El[] = []): El[] {
@@ -21,7 +22,7 @@ describe('figures of the pictures', () => {
     const f = factorFigure(model, P.levels.observed, P.byLevel.between, { heading: true, caption: 'model-based' });
     const bars = all(f, (e) => e.attrs['data-loading'] !== undefined);
     expect(bars.map((b) => b.attrs['data-variable'])).toEqual(SYMPTOMS);
-    bars.forEach((b, i) => expect(Number(b.attrs['data-loading'])).toBeCloseTo(P.byLevel.between.oneFactor!.loadings[i][0], 4));
+    bars.forEach((b, i) => expectClose(Number(b.attrs['data-loading']), P.byLevel.between.oneFactor!.loadings[i][0], decimals(4)));
     const svg = svgDocument(f);
     expect(svg).toContain('RMSEA');
     expect(svg).toContain('model-based');

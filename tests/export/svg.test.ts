@@ -69,8 +69,15 @@ describe('the SVG renderer', () => {
     expect(frozen).toMatch(/stroke-dasharray="5 3"/);
     expect(dynamic).not.toMatch(/stroke-dasharray|≈|‖/);
     const edge = (kind: string) => new RegExp(`<g data-edge="[^"]*" data-kind="${kind}"[^>]*>[\\s\\S]*?</g>`).exec(svg)?.[0] ?? '';
-    if (edge('integrating')) expect(edge('integrating')).toMatch(/stroke-dasharray="7 4"[^>]*marker-end="url\(#lf-head-integrating\)"/);
     expect(edge('instantaneous')).not.toMatch(/stroke-dasharray/);
+  });
+
+  it('draws an integrating link dashed with the hollow head', async () => {
+    // a → b accumulates (b's timescale 10 min); sampled every minute, b moves within the study, so the link is drawn.
+    const svg = await renderFigure({ model: nasty, view: 'ordering', design: { interval: 1 / 60, samples: 50 }, caption: false });
+    const edge = new RegExp('<g data-edge="[^"]*" data-kind="integrating"[^>]*>[\\s\\S]*?</g>').exec(svg)?.[0];
+    expect(edge, 'the figure has the integrating link a → b').toBeDefined();
+    expect(edge).toMatch(/stroke-dasharray="7 4"[^>]*marker-end="url\(#lf-head-integrating\)"/);
   });
 
   it.each(EXAMPLES.map((e) => e.id))('%s: `loopfold render` draws the nodes, blocks and edges of orderingAt at the interval', async (id) => {

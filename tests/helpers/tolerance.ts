@@ -19,3 +19,11 @@ export function expectClose(actual: number | number[] | number[][], expected: nu
     if (!close(a[i], e[i], tol)) throw new Error(`${label}[${i}]: ${a[i]} ≠ expected ${e[i]} (relTol ${tol.relTol ?? DEFAULT_TOL.relTol}, absTol ${tol.absTol ?? DEFAULT_TOL.absTol})`);
   }
 }
+
+/**
+ * Agreement to `d` decimal places: |actual − expected| < 10⁻ᵈ/2, the check
+ * for values printed or stated to d decimals. Example: `expectClose(x, 9.296, decimals(3))`.
+ */
+export function decimals(d: number): { relTol: number; absTol: number } {
+  return { relTol: 0, absTol: 10 ** -d / 2 };
+}

@@ -12,6 +12,7 @@ import { instantLayout } from '../../src/layout/instant';
 import { layoutInNode, nodeElk } from '../../src/layout/node';
 import type { Box, Layout } from '../../src/layout/types';
 import { EXAMPLES } from '../../src/examples/index';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 function example(id: string): Model {
   const r = parseModel(EXAMPLES.find((e) => e.id === id)!.model);
@@ -51,7 +52,7 @@ describe('layout', () => {
     expect(s['0'].x + s['0'].width).toBeLessThan(s['1'].x);
     for (const n of vm.nodes) expect(inside(l.nodes[n.id], s[String(n.slice)])).toBe(true);
     const a = l.nodes['mood@-1'], b = l.nodes['mood@0'];
-    expect(b.y).toBeCloseTo(a.y, 6);
+    expectClose(b.y, a.y, decimals(6));
   });
 
   it('instant placement keeps every node that was already there in place, and gathers a new block round its centre', () => {
@@ -67,11 +68,11 @@ describe('layout', () => {
     const shift = (k: string) => ({ x: center(next.nodes[k]).x - center(prev.nodes[k]).x, y: center(next.nodes[k]).y - center(prev.nodes[k]).y });
     const others = after.nodes.filter((n) => !members.has(n.id)).map((n) => shift(n.id));
     // positions are normalised to the figure's corner: every node outside the block moves by one common offset
-    for (const d of others) { expect(d.x).toBeCloseTo(others[0].x, 6); expect(d.y).toBeCloseTo(others[0].y, 6); }
+    for (const d of others) { expectClose(d.x, others[0].x, decimals(6)); expectClose(d.y, others[0].y, decimals(6)); }
     const c0 = avg(g.members.map((k) => center(prev.nodes[k])));
     const c1 = avg(g.members.map((k) => center(next.nodes[k])));
-    expect(c1.x - c0.x).toBeCloseTo(others[0].x, 6);
-    expect(c1.y - c0.y).toBeCloseTo(others[0].y, 6);
+    expectClose(c1.x - c0.x, others[0].x, decimals(6));
+    expectClose(c1.y - c0.y, others[0].y, decimals(6));
   });
 
   it('seeded with the previous positions, the layout keeps more orders of nodes within layers across band changes than a fresh layout', async () => {

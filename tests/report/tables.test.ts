@@ -6,7 +6,7 @@ import { parseModel } from '../../src/core/model/schema';
 import { EXAMPLES } from '../../src/examples/index';
 import { runPython } from '../helpers/python';
 
-const SCRIPT = fileURLToPath(new URL('./csv_reference.py', import.meta.url));
+const SCRIPT = fileURLToPath(new URL('../present/csv_reference.py', import.meta.url));
 const parse = (texts: string[]) => runPython<{ parsed: string[][] }[]>(SCRIPT, texts.map((text) => ({ rows: [], text }))).map((a) => a.parsed);
 
 describe('report tables as CSV, read back by Python csv', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { INK, PAPER, ROLE_STYLE } from '../../src/theme/visual';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 /** Relative luminance and contrast ratio as defined in WCAG 2.1 (W3C Recommendation, "relative luminance" and "contrast ratio"). */
 function luminance(hex: string): number {
@@ -22,8 +23,8 @@ const cssVar = (name: string) => {
 describe('text contrast (WCAG 2.1 AA: at least 4.5:1 for normal text)', () => {
   it('the formula gives the published anchor values', () => {
     // black on white is 21:1 by definition; #767676 on white is about 4.54:1 (WebAIM contrast checker, from memory)
-    expect(contrast('#000000', '#ffffff')).toBeCloseTo(21, 5);
-    expect(contrast('#767676', '#ffffff')).toBeCloseTo(4.54, 2);
+    expectClose(contrast('#000000', '#ffffff'), 21, decimals(5));
+    expectClose(contrast('#767676', '#ffffff'), 4.54, decimals(2));
   });
 
   const chrome = '#fffdf8';

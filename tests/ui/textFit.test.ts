@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { fitText, fontMeasure } from '../../src/ui/canvas/textFit';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 // A fixed-pitch stand-in for a font: 7 px per character (the ellipsis too).
 const mono = (s: string) => [...s].length * 7;
@@ -40,7 +41,7 @@ describe('labels fitted to their variable', () => {
 
   it('measures by an estimate per character where the page has no canvas (tests, the command line)', () => {
     const m = fontMeasure('600 13.5px sans-serif', 13.5);
-    expect(m('abcd')).toBeCloseTo(4 * 13.5 * 0.62, 6);
+    expectClose(m('abcd'), 4 * 13.5 * 0.62, decimals(6));
     expect(m('')).toBe(0);
   });
 });

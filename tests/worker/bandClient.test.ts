@@ -8,6 +8,7 @@ import { parseModelText } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
 import type { Breakpoint, Ordering } from '../../src/core/ordering/types';
 import { emptyModel } from '../../src/state/changes';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 const example = (name: string): Model => {
   const r = parseModelText(readFileSync(`src/examples/${name}.json`, 'utf8'));
@@ -94,6 +95,7 @@ describe('band client: latest wins', () => {
     expect(t.bands().map((b) => b.args[2])).toEqual([0.5, 3]); // the two overtaken ones never reached the core
     const seqs = t.bands().map((b) => b.args[1] as number);
     expect(seqs[1]).toBeGreaterThan(seqs[0]);
+    // Rule: one request with the core, one waiting; of four asks, the first (sent at once) and the last (the waiting one) are sent.
     expect(c.sent()).toBe(2);
   });
 
@@ -111,6 +113,7 @@ describe('band client: latest wins', () => {
     const hit = await set.latest(0.9); // band 0 again: from the cache
     expect(hit && hit.ok ? hit.ordering : null).toEqual(orderingFor(0.5));
     expect(t.bands()).toHaveLength(2);
+    // Rule: a band held on this side costs no request, so the count stays at the two sent before (bands 0 and 2).
     expect(c.sent()).toBe(2);
     t.answer(1);
     expect(await slow).toBeNull();
@@ -173,6 +176,7 @@ describe('band client: band sets', () => {
     const windowed = await openSet(c, m, { window: 80 });
     const held = await openSet(c, m, { samples: 50 }, { x: 1 });
     const ids = [base, edited, longer, windowed, held].map((s) => s.id);
+    // Rule: model, study length (samples or window) and holds form the key; five keys, five sets.
     expect(new Set(ids).size).toBe(5);
     expect(t.calls.filter((x) => x.kind === 'open')).toHaveLength(5);
     // three kept: the two oldest were closed in the core
@@ -191,6 +195,7 @@ describe('band client: band sets', () => {
     await openSet(c, emptyModel());
     const p = old.latest(5);
     await until(() => t.bands().length === 1);
+    // Rule: set ids count up from the first; with one set kept, opening the second closes the first, and asking the first again reopens it under its own id.
     expect(t.calls.filter((x) => x.kind === 'open').map((x) => x.args[0])).toEqual([old.id, old.id + 1, old.id]);
     t.answer(0);
     const r = await p;
@@ -321,7 +326,7 @@ describe('an interval inside each band', () => {
     // band 1 is [1, 1]: the interval 1 alone
     const got = [0, 1, 2, 3].map((k) => intervalInBand(odd, k)!);
     expect(got[1]).toBe(1);
-    [0.5, 1, 2, 8].forEach((want, k) => expect(got[k]).toBeCloseTo(want, 6));
+    [0.5, 1, 2, 8].forEach((want, k) => expectClose(got[k], want, decimals(6)));
     got.forEach((x, k) => expect(bandOfCuts(odd, x)).toBe(k));
     expect(intervalInBand(odd, 4)).toBeNull();
     expect(intervalInBand(odd, -1)).toBeNull();

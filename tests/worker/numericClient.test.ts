@@ -4,6 +4,7 @@ import { createNumericClient, type NumericTransport } from '../../src/worker/num
 import { localNumeric, type NumericApi } from '../../src/worker/numericApi';
 import { parseModelText } from '../../src/core/model/schema';
 import { emptyModel } from '../../src/state/changes';
+import { decimals, expectClose } from '../helpers/tolerance';
 
 /** A fake transport whose answers the test releases in any order. */
 function deferredTransport() {
@@ -50,8 +51,8 @@ describe('numeric client', () => {
     expect(c1.where()).toBe('main thread');
     // 0.3 L/min irrigation balances transpiration 0.0003·w·(1 + 0.05·T), T from the heater balance (hand calculation, common practice).
     const T = (8 / 12 + 0.04 * 2 * 21 + 0.3 * 0.6 * (1 - 0.4)) / (1 / 12 + 0.08);
-    expect(r1 && 'values' in r1 ? r1.values.airTemp : NaN).toBeCloseTo(T, 9);
-    expect(r1 && 'values' in r1 ? r1.values.soilWater : NaN).toBeCloseTo(0.3 / (0.0003 * (1 + 0.05 * T)), 6);
+    expectClose(r1 && 'values' in r1 ? r1.values.airTemp : NaN, T, decimals(9));
+    expectClose(r1 && 'values' in r1 ? r1.values.soilWater : NaN, 0.3 / (0.0003 * (1 + 0.05 * T)), decimals(6));
     const t = deferredTransport();
     const c2 = createNumericClient(() => t.api, () => localNumeric);
     const r2 = c2.ask('timescales', greenhouse);

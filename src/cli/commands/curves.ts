@@ -8,12 +8,10 @@ import { variableByIdOrLabel } from '../load';
 import { loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { formatNumber } from '../../present/index';
 
-function num(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
-  if (x === 0) return '0';
-  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(6))) : x.toExponential(4);
-}
+/** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
+const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
 
 function stringOption(args: CliArgs, name: string, example: string): string {
   const v = args.options[name];

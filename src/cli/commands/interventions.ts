@@ -13,6 +13,7 @@ import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis } from '../../core/study/convert';
+import { formatNumber, labeller } from '../../present/index';
 
 /** `x=3,y=0.5` → { x: 3, y: 0.5 }, checking each variable and value. */
 export function parseHoldOption(text: string | true | undefined, model: Model): Record<string, number> {
@@ -41,7 +42,7 @@ function studyOptions(args: CliArgs, model: Model): { window?: number; samples?:
 }
 
 function orderingLines(model: Model, o: Ordering): string[] {
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const lines: string[] = [];
   for (const b of o.blocks) {
     if (b.equations.length === 0) continue;
@@ -53,8 +54,8 @@ function orderingLines(model: Model, o: Ordering): string[] {
 }
 
 function effectLines(model: Model, effect: InterventionEffect): string[] {
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
-  const r = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(4))) : String(x));
+  const label = labeller(model);
+  const r = (x: number) => formatNumber(x, { digits: 4, ascii: true });
   const lines = ['', '  with the formulas (the running system, held):'];
   if (effect.equilibrium) {
     const moved = effect.equilibrium.filter((e) => Math.abs(e.change) > 1e-9 * (1 + Math.abs(e.before)));
@@ -144,7 +145,7 @@ export const interventionCommands: CliCommand[] = [
         io.out(JSON.stringify({ adapted, unjudged: r.unjudged }, null, 2));
         return 0;
       }
-      const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+      const label = labeller(model);
       const note = (i: number) => {
         if (!checks) return '';
         const c = checks[i];

@@ -8,12 +8,10 @@ import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from
 import { durationOption, loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { formatNumber, labelOf, simulationCsv } from '../../present/index';
 
-function num(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
-  if (x === 0) return '0';
-  return Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6 ? String(Number(x.toPrecision(6))) : x.toExponential(4);
-}
+/** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
+const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
 
 function diagnosticLines(ds: Diagnostic[]): string[] {
   return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
@@ -26,14 +24,7 @@ function matrixText(m: Mat, names: string[]): string[] {
   return [head, ...rows.map((r, i) => `  ${names[i].padEnd(w)}  ${r.map((x) => num(x).padStart(12)).join(' ')}`)];
 }
 
-/** RFC 4180: quote a field that holds a comma, a quote or a line break. */
-function csvField(s: string): string {
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
 
-function label(model: Model, id: string): string {
-  return model.variables.find((v) => v.id === id)?.label ?? id;
-}
 
 /** `--plot stress,mood`: the variables of the chart (default: the first three states, as the app shows). */
 function plotOption(args: CliArgs, model: Model): string[] {
@@ -74,7 +65,7 @@ export const numericCommands: CliCommand[] = [
       if (args.options.json) io.out(JSON.stringify({ values: r.values, diagnostics: r.diagnostics }, null, 2));
       else {
         const lines = [`${model.name}: equilibrium${r.ok ? '' : ' (not found for every block)'}`, ''];
-        for (const v of model.variables) lines.push(`  ${label(model, v.id).padEnd(24)} ${num(r.values[v.id]).padStart(14)}   ${v.kind}`);
+        for (const v of model.variables) lines.push(`  ${labelOf(model, v.id).padEnd(24)} ${num(r.values[v.id]).padStart(14)}   ${v.kind}`);
         if (r.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(r.diagnostics));
         io.out(lines.join('\n'));
       }
@@ -107,9 +98,8 @@ export const numericCommands: CliCommand[] = [
       }
       const ids = model.variables.map((v) => v.id);
       if (args.options.csv) {
-        const lines = [['time', ...ids].map(csvField).join(',')];
-        r.times.forEach((t, k) => lines.push([t, ...ids.map((id) => r.series[id][k])].map((x) => String(x)).join(',')));
-        io.out(lines.join('\r\n'));
+        // the table the app saves: `time (unit)`, then one column per variable named by its label
+        io.out(simulationCsv(r.times, r.series, model.variables.map((v) => ({ id: v.id, name: labelOf(model, v.id) })), model.timeUnit).replace(/\r\n$/, ''));
       } else if (args.options.json) io.out(JSON.stringify({ times: r.times, series: r.series }));
       else {
         const lines = [`${model.name}: simulation to ${formatDuration(until, model.timeUnit)} (times in ${model.timeUnit})`, ''];
@@ -218,7 +208,7 @@ export const numericCommands: CliCommand[] = [
         for (const m of t.modes) lines.push(`  ${num(m.re)}${m.im !== 0 ? ` ${m.im > 0 ? '+' : '-'} ${num(Math.abs(m.im))}i` : ''}   time ${dur(m.time)}${m.period !== undefined ? `, period ${dur(m.period)}` : ''}${m.stable ? '' : '   UNSTABLE'}`);
         lines.push('', 'per state (derived = the mode it takes most part in, by participation factors):');
         for (const p of t.perState)
-          lines.push(`  ${label(model, p.state).padEnd(24)} given ${p.given !== undefined ? dur(p.given) : '—'}   derived ${dur(p.derived)} (share ${Math.round(p.share * 100)}%)`);
+          lines.push(`  ${labelOf(model, p.state).padEnd(24)} given ${p.given !== undefined ? dur(p.given) : '—'}   derived ${dur(p.derived)} (share ${Math.round(p.share * 100)}%)`);
         if (r.warnings.length > 0) lines.push('', 'warnings:', ...r.warnings.map((w) => `  ${w}`));
         io.out(lines.join('\n'));
       }

@@ -7,6 +7,7 @@ import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis, windowOf } from '../../core/study/convert';
 import { uncertainOrdering, uncertainText } from './pictures';
+import { labeller } from '../../present/index';
 
 /** Study design from --interval, --window, --samples and --hold; each one absent comes from the file's study (the length through the core). */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -56,7 +57,7 @@ function diagnosticLines(ds: Diagnostic[]): string[] {
 
 /** Readable text for `order` without --json. */
 export function orderingText(model: Model, design: StudyDesign, o: Ordering): string {
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const lines = [`${model.name}: causal ordering at ${describeDesign(model, design)}`, '', 'blocks, in causal order:'];
   for (const b of o.blocks) {
     const vars = b.variables.map((v) => `${label(v)} [${o.roles[v]}]`).join(', ');

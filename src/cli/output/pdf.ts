@@ -5,6 +5,7 @@
  * DejaVu Sans embedded as font subsets. One page the size of the figure.
  * Node only.
  */
+import { SVG_DEFAULT_FILL } from '../../theme/tokens';
 import PDFDocument from 'pdfkit';
 import type { El } from '../../export/scene';
 import { viewSize } from '../../export/print/transform';
@@ -53,7 +54,7 @@ function applyTransform(doc: Doc, t: string | number | undefined): void {
 interface Ctx { doc: Doc; markers: Map<string, El>; width: number; height: number }
 
 /** Fill and/or stroke the current path with the element's paint (SVG defaults: fill black, no stroke). */
-function paint(ctx: Ctx, a: Attrs, defaultFill = '#000000'): void {
+function paint(ctx: Ctx, a: Attrs, defaultFill = SVG_DEFAULT_FILL): void {
   const { doc } = ctx;
   const fill = a.fill === undefined ? defaultFill : String(a.fill);
   const stroke = a.stroke === undefined ? 'none' : String(a.stroke);
@@ -110,7 +111,7 @@ function drawText(ctx: Ctx, e: El, a: Attrs): void {
       lines.push({ text: (c.children ?? []).filter((s): s is string => typeof s === 'string').join(''), x, y, anchor: String(c.attrs['text-anchor'] ?? a['text-anchor'] ?? 'start') });
     }
   }
-  const fill = a.fill === undefined ? '#000000' : String(a.fill);
+  const fill = a.fill === undefined ? SVG_DEFAULT_FILL : String(a.fill);
   const halo = a.stroke !== undefined && a.stroke !== 'none' && a['paint-order'] === 'stroke';
   for (const l of lines) {
     const w = doc.widthOfString(l.text);

@@ -163,10 +163,9 @@ export function pairedEquation(s: EquationStructure, v: VariableId): { equation:
   return { equation: eq, candidates: pool };
 }
 
-/** The equation a maximum matching pairs with v (the matching is a map or a plain record, depending on the ordering core's version). */
-function matchedEquation(matching: unknown, v: VariableId): EquationId | null {
-  const pairs: [string, unknown][] = matching instanceof Map ? [...(matching as Map<string, unknown>).entries()] : Object.entries(matching as Record<string, unknown>);
-  for (const [e, x] of pairs) if (x === v) return e;
+/** The equation a maximum matching (equation → variable) pairs with v. */
+function matchedEquation(matching: Readonly<Record<EquationId, VariableId>>, v: VariableId): EquationId | null {
+  for (const e in matching) if (matching[e] === v) return e;
   return null;
 }
 

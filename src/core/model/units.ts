@@ -1,4 +1,5 @@
 import { TIME_UNITS, type TimeUnit } from './types';
+import { timeUnitWord } from '../../present/numbers';
 
 /** Length of each time unit in seconds (month = 1/12 of a Julian year of 365.25 days: common practice). */
 export const SECONDS_PER_UNIT: Record<TimeUnit, number> = {
@@ -68,9 +69,5 @@ export function formatDuration(value: number, unit: TimeUnit): string {
   }
   const amount = seconds / SECONDS_PER_UNIT[chosen];
   const rounded = amount >= 100 ? Math.round(amount) : amount >= 10 ? Math.round(amount * 10) / 10 : Math.round(amount * 100) / 100;
-  const names: Record<TimeUnit, [string, string]> = {
-    s: ['s', 's'], min: ['min', 'min'], h: ['h', 'h'], day: ['day', 'days'], week: ['week', 'weeks'], month: ['month', 'months'], year: ['year', 'years'],
-  };
-  const [one, many] = names[chosen];
-  return `${rounded} ${rounded === 1 ? one : many}`;
+  return `${rounded} ${timeUnitWord(chosen, rounded)}`;
 }

@@ -155,6 +155,17 @@ export function luFactor(a: Mat): LU {
   if (a.cols !== n) throw new Error(`LU needs a square matrix, not ${a.rows}×${a.cols}`);
   const lu = a.data.slice();
   const perm = new Int32Array(n);
+  const { singular, pivotRatio } = luFactorInPlace(lu, n, perm);
+  return { n, lu, perm, singular, pivotRatio };
+}
+
+/**
+ * The kernel of luFactor, in place and without allocating: `lu` (n×n, row
+ * major) becomes L and U packed, `perm` the row permutation. For inner
+ * loops that refactor a matrix of their own at every step (the Radau
+ * integrator's iteration matrix).
+ */
+export function luFactorInPlace(lu: Float64Array, n: number, perm: Int32Array): { singular: boolean; pivotRatio: number } {
   for (let i = 0; i < n; i++) perm[i] = i;
   let singular = false;
   let pmin = Infinity, pmax = 0;
@@ -183,13 +194,18 @@ export function luFactor(a: Mat): LU {
       for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
     }
   }
-  return { n, lu, perm, singular, pivotRatio: n === 0 ? 1 : pmax === 0 ? 0 : pmin / pmax };
+  return { singular, pivotRatio: n === 0 ? 1 : pmax === 0 ? 0 : pmin / pmax };
 }
 
 /** Solve A x = b with a factorisation from luFactor. */
 export function luSolve(f: LU, b: ArrayLike<number>): Float64Array {
-  const { n, lu, perm } = f;
-  const x = new Float64Array(n);
+  const x = new Float64Array(f.n);
+  luSolveInto(f.lu, f.perm, f.n, b, x);
+  return x;
+}
+
+/** The kernel of luSolve: forward and back substitution into `x` (length n), without allocating. */
+export function luSolveInto(lu: Float64Array, perm: Int32Array, n: number, b: ArrayLike<number>, x: Float64Array): void {
   for (let i = 0; i < n; i++) x[i] = b[perm[i]];
   for (let i = 0; i < n; i++) {
     let s = x[i];
@@ -201,7 +217,6 @@ export function luSolve(f: LU, b: ArrayLike<number>): Float64Array {
     for (let j = i + 1; j < n; j++) s -= lu[i * n + j] * x[j];
     x[i] = s / lu[i * n + i];
   }
-  return x;
 }
 
 /** Solve A X = B for a matrix right-hand side. */

@@ -11,7 +11,7 @@
  * the method's (c, the eigen-decomposition T Λ T⁻¹ of the inverse Butcher
  * matrix, the error weights and the collocation interpolation) as tabulated there.
  */
-import { zeros, type Mat } from './dense';
+import { luFactorInPlace, luSolveInto, zeros, type Mat } from './dense';
 
 const S6 = Math.sqrt(6);
 const C = [(4 - S6) / 10, (4 + S6) / 10, 1];
@@ -83,35 +83,21 @@ function rmsNorm(x: Float64Array, scale: Float64Array): number {
 interface RealLU { lu: Float64Array; perm: Int32Array; ok: boolean }
 interface ComplexLU { re: Float64Array; im: Float64Array; perm: Int32Array; ok: boolean }
 
+/** The real iteration matrix, factored in place by the dense kernel (dense.ts). */
 function luReal(a: Float64Array, n: number): RealLU {
-  const lu = a;
   const perm = new Int32Array(n);
-  let ok = true;
-  for (let i = 0; i < n; i++) perm[i] = i;
-  for (let k = 0; k < n; k++) {
-    let p = k, best = Math.abs(lu[k * n + k]);
-    for (let i = k + 1; i < n; i++) { const v = Math.abs(lu[i * n + k]); if (v > best) { best = v; p = i; } }
-    if (p !== k) {
-      for (let j = 0; j < n; j++) { const t = lu[k * n + j]; lu[k * n + j] = lu[p * n + j]; lu[p * n + j] = t; }
-      const t = perm[k]; perm[k] = perm[p]; perm[p] = t;
-    }
-    const d = lu[k * n + k];
-    if (d === 0 || !Number.isFinite(d)) { ok = false; continue; }
-    for (let i = k + 1; i < n; i++) {
-      const f = (lu[i * n + k] /= d);
-      if (f !== 0) for (let j = k + 1; j < n; j++) lu[i * n + j] -= f * lu[k * n + j];
-    }
-  }
-  return { lu, perm, ok };
+  return { lu: a, perm, ok: !luFactorInPlace(a, n, perm).singular };
 }
 
 function solveReal(f: RealLU, b: Float64Array, n: number, x: Float64Array): void {
-  const { lu, perm } = f;
-  for (let i = 0; i < n; i++) x[i] = b[perm[i]];
-  for (let i = 0; i < n; i++) { let s = x[i]; for (let j = 0; j < i; j++) s -= lu[i * n + j] * x[j]; x[i] = s; }
-  for (let i = n - 1; i >= 0; i--) { let s = x[i]; for (let j = i + 1; j < n; j++) s -= lu[i * n + j] * x[j]; x[i] = s / lu[i * n + i]; }
+  luSolveInto(f.lu, f.perm, n, b, x);
 }
 
+/**
+ * The complex iteration matrix: the same partial pivoting in complex
+ * arithmetic on split real and imaginary parts (dense.ts has no complex
+ * kernel, and a complex type would allocate in the inner loop).
+ */
 function luComplex(re: Float64Array, im: Float64Array, n: number): ComplexLU {
   const perm = new Int32Array(n);
   let ok = true;

@@ -11,6 +11,7 @@ import { diagonalNoise, expm, vanLoan } from './expm';
 import { inverse, scale, type Mat } from './dense';
 import { lyapunov } from './lyapunov';
 import { eigenvalues } from './dense';
+import { formatNumber } from '../../present/numbers';
 
 export interface SampledModel {
   states: VariableId[];
@@ -209,6 +210,4 @@ export function adviseInterval(drift: Mat, states: VariableId[], links: { from: 
   return { links: out, best, score, explanation };
 }
 
-function fmt(x: number): string {
-  return Number(x.toPrecision(3)).toString();
-}
+const fmt = (x: number) => formatNumber(x, { digits: 3 });

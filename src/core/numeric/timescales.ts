@@ -9,6 +9,7 @@
 import type { VariableId } from '../model/types';
 import { eigen, inverse, type Mat } from './dense';
 import type { StateTimescale } from './system';
+import { formatNumber } from '../../present/numbers';
 
 export interface Mode {
   re: number;
@@ -105,9 +106,7 @@ export function timescalesOf(a: Mat, states: VariableId[], given: Record<Variabl
   return { states, modes, perState, warnings };
 }
 
-function fmt(x: number): string {
-  return Number(x.toPrecision(4)).toString();
-}
+const fmt = (x: number) => formatNumber(x, { digits: 4 });
 
 /**
  * Whether the settled (fast) states come to rest when the others are held:

@@ -272,53 +272,37 @@ export function orderIndexed(sys: IndexedSystem, options: CausalOrderOptions & {
   // Edges (matching-independent): for row e in block B, u in e outside B → every v in e ∩ B;
   // u, v both in e ∩ B → one simultaneous edge per pair (u < v). Generated in row order, then
   // stably sorted by from and by to, so the first of each (to, from) run has the smallest row.
-  let n = 0;
-  for (let r = 0; r < ne; r++) {
-    const b = blockOfRow[r];
-    const k0 = rowPtr[r];
-    const k1 = rowPtr[r + 1];
-    for (let i = k0; i < k1; i++) {
-      const v = colIdx[i];
-      if (blockOfCol[v] !== b) continue;
-      for (let j = k0; j < k1; j++) {
-        const u = colIdx[j];
-        if (u !== v && !(blockOfCol[u] === b && u > v)) n++;
+  // One walk over the edges, run twice: to count them per `to`, then to place them.
+  const walkEdges = (emit: (u: number, v: number, r: number) => void) => {
+    for (let r = 0; r < ne; r++) {
+      const b = blockOfRow[r];
+      const k0 = rowPtr[r];
+      const k1 = rowPtr[r + 1];
+      for (let i = k0; i < k1; i++) {
+        const v = colIdx[i];
+        if (blockOfCol[v] !== b) continue;
+        for (let j = k0; j < k1; j++) {
+          const u = colIdx[j];
+          if (u !== v && !(blockOfCol[u] === b && u > v)) emit(u, v, r);
+        }
       }
     }
-  }
+  };
   // Bucket by `to` (counting sort); rows are visited in increasing order, so each bucket is
   // already sorted by row; a short insertion sort by `from` (stable) finishes it.
   const toPtr = new Int32Array(nv + 1);
-  for (let r = 0; r < ne; r++) {
-    const b = blockOfRow[r];
-    for (let i = rowPtr[r]; i < rowPtr[r + 1]; i++) {
-      const v = colIdx[i];
-      if (blockOfCol[v] !== b) continue;
-      for (let j = rowPtr[r]; j < rowPtr[r + 1]; j++) {
-        const u = colIdx[j];
-        if (u !== v && !(blockOfCol[u] === b && u > v)) toPtr[v + 1]++;
-      }
-    }
-  }
+  walkEdges((_u, v) => { toPtr[v + 1]++; });
   for (let c = 0; c < nv; c++) toPtr[c + 1] += toPtr[c];
+  const n = toPtr[nv];
   const eFrom = new Int32Array(n);
   const eRow = new Int32Array(n);
   {
     const fill = toPtr.slice(0, nv);
-    for (let r = 0; r < ne; r++) {
-      const b = blockOfRow[r];
-      for (let i = rowPtr[r]; i < rowPtr[r + 1]; i++) {
-        const v = colIdx[i];
-        if (blockOfCol[v] !== b) continue;
-        for (let j = rowPtr[r]; j < rowPtr[r + 1]; j++) {
-          const u = colIdx[j];
-          if (u === v || (blockOfCol[u] === b && u > v)) continue;
-          const at = fill[v]++;
-          eFrom[at] = u;
-          eRow[at] = r;
-        }
-      }
-    }
+    walkEdges((u, v, r) => {
+      const at = fill[v]++;
+      eFrom[at] = u;
+      eRow[at] = r;
+    });
   }
   let w = 0;
   const oFrom = new Int32Array(n);

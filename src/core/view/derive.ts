@@ -5,6 +5,7 @@
  */
 import type { Link, Model, VariableId } from '../model/types';
 import { formatDuration } from '../model/units';
+import { labelOf } from '../../present/labels';
 import type { EdgeKind, Ordering, OrderingBlock, Role } from './contract';
 import { SLICES, type Slice, type ViewEdge, type ViewGroup, type ViewMode, type ViewModel, type ViewNode, type ViewNodeId } from './types';
 import { designAxis } from '../study/convert';
@@ -44,9 +45,6 @@ function linkIndex(model: Model): Map<string, Link> {
   return m;
 }
 
-function labelOf(model: Model, id: VariableId): string {
-  return model.variables.find((v) => v.id === id)?.label ?? id;
-}
 
 /** A title naming the view and the timescale: "Ordering every 3 h · study 50 samples (6.25 days)". */
 export function viewTitle(model: Model, opts: Pick<ViewOptions, 'mode' | 'interval' | 'window' | 'samples'>): string {

@@ -5,6 +5,7 @@
 import { DEFAULT_SEPARATION, type Model, type VariableId } from '../model/types';
 import { formatDuration } from '../model/units';
 import { readTimescale } from '../model/timescale';
+import { labeller } from '../../present/labels';
 import type { Breakpoint, Ordering, Role, StudyDesign } from './contract';
 import { simultaneousBlocks } from './derive';
 import { designAxis, windowOf } from '../study/convert';
@@ -60,7 +61,7 @@ export function explainOrdering(model: Model, ordering: Ordering, design: StudyD
   const u = model.timeUnit;
   const k = model.settings?.separation ?? DEFAULT_SEPARATION;
   const byId = new Map(model.variables.map((v) => [v.id, v]));
-  const name = (id: VariableId) => byId.get(id)?.label ?? id;
+  const name = labeller(model);
   const names = (ids: readonly VariableId[]) => listWords(ids.map(name));
   const role = (id: VariableId): Role => ordering.roles[id] ?? byId.get(id)?.kind ?? 'derived';
   const W = studyLength(model, design);

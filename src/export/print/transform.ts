@@ -4,6 +4,7 @@
  * units, and measured (the smallest text on the page in points). Pure: no
  * DOM, no fonts; the app and the command line both call it.
  */
+import { WHITE } from '../../theme/tokens';
 import { recolourMap, type PaletteName } from '../../theme/palettes';
 import { PAPER } from '../../theme/visual';
 import type { El } from '../scene';
@@ -48,7 +49,7 @@ export function withBackground(root: El, background: Background): El {
   const ground = kids[i] as El;
   const next = [...kids];
   if (background === 'transparent') next.splice(i, 1);
-  else next[i] = { ...ground, attrs: { ...ground.attrs, fill: background === 'white' ? '#ffffff' : PAPER } };
+  else next[i] = { ...ground, attrs: { ...ground.attrs, fill: background === 'white' ? WHITE : PAPER } };
   return { ...root, children: next };
 }
 

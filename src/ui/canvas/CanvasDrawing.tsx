@@ -30,6 +30,7 @@ import { scaledDash } from './zoomDetail';
 import { canvasLines } from './flow';
 import { fitText, fontMeasure } from './textFit';
 import { NODE_H, variableWidth } from './VariableNode';
+import { HIT_STROKE, SELECTION, WHITE } from '../../theme/tokens';
 
 /** Line width from the link strength |weight| (default 1). */
 export function strokeForWeight(weight: number | undefined): number {
@@ -102,18 +103,18 @@ const LinkShape = memo(function LinkShape({ link, label, d, head, gx, gy, select
   return (
     <g className={`lf-link nopan${selected ? ' is-selected' : ''}`} data-link={link.id} data-kind={link.kind} tabIndex={0} role="button" aria-pressed={selected} aria-label={label}>
       {/* the wide stroke that takes the pointer: unpainted, shown as a soft band when the link has keyboard focus */}
-      <path d={d} className="lf-link-hit" fill="none" stroke="#000" strokeWidth={18} />
-      {selected && <path d={d} className="lf-link-halo" fill="none" stroke="#c77d0a" strokeOpacity={0.45} strokeWidth={width + 7} />}
+      <path d={d} className="lf-link-hit" fill="none" stroke={HIT_STROKE} strokeWidth={18} />
+      {selected && <path d={d} className="lf-link-halo" fill="none" stroke={SELECTION} strokeOpacity={0.45} strokeWidth={width + 7} />}
       <path d={d} className="lf-link-line" fill="none" stroke={style.stroke} strokeWidth={width} style={LINK_DASH[link.kind] ? { strokeDasharray: LINK_DASH[link.kind] } : undefined} />
       {link.kind === 'integrating' ? (
-        <path d={head} className="lf-link-head" fill="#ffffff" stroke={style.stroke} strokeWidth={1.6} strokeLinejoin="round" />
+        <path d={head} className="lf-link-head" fill={WHITE} stroke={style.stroke} strokeWidth={1.6} strokeLinejoin="round" />
       ) : (
         <path d={head} className="lf-link-head" fill={style.stroke} stroke={style.stroke} strokeWidth={1} strokeLinejoin="round" />
       )}
       {link.sign && !far && (
         <g className={`lf-sign${minus ? ' is-minus' : ''}`} aria-hidden="true">
-          <circle cx={gx} cy={gy} r={8.5} fill={minus ? INK : '#ffffff'} stroke={INK} strokeWidth={1} />
-          <path d={signPath(link.sign, gx, gy)} stroke={minus ? '#ffffff' : INK} strokeWidth={1.8} strokeLinecap="round" />
+          <circle cx={gx} cy={gy} r={8.5} fill={minus ? INK : WHITE} stroke={INK} strokeWidth={1} />
+          <path d={signPath(link.sign, gx, gy)} stroke={minus ? WHITE : INK} strokeWidth={1.8} strokeLinecap="round" />
         </g>
       )}
     </g>
@@ -161,12 +162,12 @@ const VariableShape = memo(function VariableShape({ v, x, y, selected, far }: { 
   const top = y + (body - (LABEL_PX + CAPTION_PX) * 1.15) / 2;
   return (
     <g className="lf-var-drawn" data-variable={v.id} data-kind={v.kind}>
-      {selected && <path d={d} fill="none" stroke="#c77d0a" strokeWidth={6} strokeOpacity={0.45} />}
+      {selected && <path d={d} fill="none" stroke={SELECTION} strokeWidth={6} strokeOpacity={0.45} />}
       <path d={d} fill={style.fill} stroke={style.stroke} strokeWidth={style.strokeWidth} strokeDasharray={style.dash} />
       {shape === 'accumulator' && <rect x={x} y={y + h - ACCUMULATOR_FLOOR} width={w} height={ACCUMULATOR_FLOOR} fill={style.stroke} />}
       {!far && <text x={x + left} y={top + LABEL_PX * 0.95} fontSize={LABEL_PX} fontWeight={600} fill={INK}>{fitText(label, room, labelMeasure)}</text>}
       {!far && <text x={x + left} y={top + LABEL_PX * 1.15 + CAPTION_PX * 0.95} fontSize={CAPTION_PX} fill={MUTED}>{fitText(variableCaption(v), room, captionMeasure)}</text>}
-      {!far && <circle className="lf-connector" cx={x + w + 8} cy={y + h / 2} r={5} fill="#ffffff" fillOpacity={0.35} stroke={INK} strokeOpacity={0.35} strokeWidth={2} />}
+      {!far && <circle className="lf-connector" cx={x + w + 8} cy={y + h / 2} r={5} fill={WHITE} fillOpacity={0.35} stroke={INK} strokeOpacity={0.35} strokeWidth={2} />}
     </g>
   );
 });

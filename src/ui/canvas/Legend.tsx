@@ -1,6 +1,7 @@
 import { Panel } from '@xyflow/react';
 import { ACCUMULATOR_FLOOR, LINK_STYLE, ROLE_STYLE, shapePath, INK, MUTED } from '../../theme/visual';
 import { useUi, uiStore } from '../../state/ui';
+import { WHITE } from '../../theme/tokens';
 
 function Shape({ kind }: { kind: 'input' | 'state' | 'derived' }) {
   const shape = kind === 'input' ? 'tag' : kind === 'state' ? 'accumulator' : 'pill';
@@ -18,7 +19,7 @@ function Line({ kind }: { kind: 'instantaneous' | 'integrating' }) {
   return (
     <svg width="40" height="14" aria-hidden="true">
       <line x1="2" y1="7" x2="32" y2="7" stroke={s.stroke} strokeWidth="2" strokeDasharray={s.dash} />
-      {s.head === 'filled' ? <path d="M31,2 L42,7 L31,12 Z" fill={s.stroke} /> : <path d="M31,2 L42,7 L31,12 Z" fill="#fff" stroke={s.stroke} strokeWidth="1.5" />}
+      {s.head === 'filled' ? <path d="M31,2 L42,7 L31,12 Z" fill={s.stroke} /> : <path d="M31,2 L42,7 L31,12 Z" fill={WHITE} stroke={s.stroke} strokeWidth="1.5" />}
     </svg>
   );
 }
@@ -40,7 +41,7 @@ export function Legend() {
           <li><Line kind="integrating" /> integrating <span>{LINK_STYLE.integrating.label}</span></li>
           <li><span className="lf-legend-glyph" style={{ color: INK }}>+ −</span> sign <span>line width = strength</span></li>
           <li>
-            <svg width="40" height="22" aria-hidden="true"><circle cx="11" cy="11" r="9" fill="#fff" stroke={INK} strokeWidth="1.4" /><text x="11" y="15" textAnchor="middle" fontSize="11" fontWeight="700" fill={INK}>=</text><line x1="21" y1="11" x2="39" y2="11" stroke={MUTED} strokeWidth="1.4" strokeDasharray="1.5 3" strokeLinecap="round" /></svg>
+            <svg width="40" height="22" aria-hidden="true"><circle cx="11" cy="11" r="9" fill={WHITE} stroke={INK} strokeWidth="1.4" /><text x="11" y="15" textAnchor="middle" fontSize="11" fontWeight="700" fill={INK}>=</text><line x1="21" y1="11" x2="39" y2="11" stroke={MUTED} strokeWidth="1.4" strokeDasharray="1.5 3" strokeLinecap="round" /></svg>
             relation <span>an equation joining variables</span>
           </li>
         </ul>

@@ -27,6 +27,7 @@ import { CanvasDrawing } from './CanvasDrawing';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
+import { GRID_DOT, OVERVIEW_GROUND, OVERVIEW_VIEW, UNKNOWN_STROKE } from '../../theme/tokens';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
 // Props of the flow that never change live outside the component: a new array,
@@ -39,7 +40,7 @@ const MINIMAP_STYLE = { width: 150, height: 96 };
 const PRO_OPTIONS = { hideAttribution: true };
 function minimapColor(n: FlowNode): string {
   const d = n.data as { variable?: { kind: 'input' | 'state' | 'derived' } };
-  return d.variable ? ROLE_STYLE[d.variable.kind].stroke : '#888';
+  return d.variable ? ROLE_STYLE[d.variable.kind].stroke : UNKNOWN_STROKE;
 }
 function applyPicks(current: readonly string[], picks: readonly { id: string; selected: boolean }[]): string[] {
   const set = new Set(current);
@@ -206,7 +207,7 @@ export function ModelCanvas() {
         proOptions={PRO_OPTIONS}
         ariaLabelConfig={ARIA_LABELS}
       >
-        <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color="#c9c4b8" />
+        <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color={GRID_DOT} />
         <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" />
         <MiniMap
           position="bottom-right"
@@ -215,9 +216,9 @@ export function ModelCanvas() {
           ariaLabel="Overview of the canvas"
           nodeColor={minimapColor}
           nodeStrokeWidth={2}
-          bgColor="#fffdf8"
+          bgColor={OVERVIEW_GROUND}
           maskColor="rgba(29, 43, 54, 0.10)"
-          maskStrokeColor="#1f6f80"
+          maskStrokeColor={OVERVIEW_VIEW}
           maskStrokeWidth={2}
           style={MINIMAP_STYLE}
         />

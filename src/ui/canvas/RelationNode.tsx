@@ -2,6 +2,7 @@ import { memo } from 'react';
 import { Handle, Position, type NodeProps } from '@xyflow/react';
 import { INK } from '../../theme/visual';
 import type { RelationFlowNode } from './flow';
+import { SELECTION, WHITE } from '../../theme/tokens';
 
 export const RELATION_R = 15;
 
@@ -12,8 +13,8 @@ export const RelationNode = memo(function RelationNode({ data, selected }: NodeP
   return (
     <div className={`lf-rel${selected ? ' is-selected' : ''}`} title={data.relation.equation}>
       <svg width={d + 6} height={d + 6} aria-hidden="true">
-        {selected && <circle cx={c} cy={c} r={RELATION_R + 2} fill="none" stroke="#c77d0a" strokeWidth={5} strokeOpacity={0.45} />}
-        <circle cx={c} cy={c} r={RELATION_R} fill="#ffffff" stroke={INK} strokeWidth={1.5} />
+        {selected && <circle cx={c} cy={c} r={RELATION_R + 2} fill="none" stroke={SELECTION} strokeWidth={5} strokeOpacity={0.45} />}
+        <circle cx={c} cy={c} r={RELATION_R} fill={WHITE} stroke={INK} strokeWidth={1.5} />
         <circle cx={c} cy={c} r={RELATION_R - 3.5} fill="none" stroke={INK} strokeWidth={0.8} />
         <text x={c} y={c + 5} textAnchor="middle" fontSize="15" fontWeight="700" fill={INK}>=</text>
       </svg>

@@ -3,6 +3,7 @@ import type { Model } from '../../core/model/types';
 import type { Diagnostic } from '../../core/ordering/types';
 import type { Validation } from '../../state/validate';
 import type { Badges } from '../canvas/flow';
+import { labeller } from '../../present/index';
 
 export interface Problem {
   key: string;
@@ -21,7 +22,7 @@ export function nodeOfEquation(eq: string): string {
 
 export function collectProblems(model: Model, validation: Validation, diagnostics: readonly Diagnostic[] | undefined): Problem[] {
   const out: Problem[] = [];
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   validation.problems.forEach((p, i) =>
     out.push({
       key: `f${i}`,

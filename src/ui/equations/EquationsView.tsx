@@ -3,6 +3,7 @@ import { useAnalysisState } from '../../state/analysis';
 import { selectionStore } from '../../state/selection';
 import { nodeOfEquation } from '../diagnostics/collect';
 import { MatchingGrid } from './MatchingGrid';
+import { labeller } from '../../present/index';
 
 /** Why a block needs no equation at this instant, in the modeller's words. */
 function givenWords(roles: readonly (string | undefined)[]): string {
@@ -17,7 +18,7 @@ export function EquationsView() {
   const matching = useAnalysisState((s) => s.analysis?.matching);
   const status = useAnalysisState((s) => s.status);
   const message = useAnalysisState((s) => s.message);
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   if (!ordering) return <section className="lf-equations" aria-label="Equations"><p className="lf-hint">{status === 'running' ? 'Working…' : message ?? 'No analysis yet.'}</p></section>;
   const blocks = [...ordering.blocks].sort((a, b) => a.level - b.level);
   return (

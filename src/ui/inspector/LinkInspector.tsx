@@ -5,6 +5,7 @@ import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
 import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths } from '../../core/model/strength';
 import { CheckedField, numberCheck, toNumber } from './fields';
+import { labeller } from '../../present/index';
 
 /** What the strength is in the equations, its unit and the default when empty. */
 function strengthHint(link: Link, model: Model, name: (id: string) => string) {
@@ -30,7 +31,7 @@ function strengthHint(link: Link, model: Model, name: (id: string) => string) {
 export function LinkInspector({ link, model }: { link: Link; model: Model }) {
   const kindName = useId();
   const signName = useId();
-  const name = (id: string) => model.variables.find((w) => w.id === id)?.label ?? id;
+  const name = labeller(model);
   const stop = () => documentStore.getState().stopGesture();
   const set = (patch: Partial<Link>) => {
     stop();

@@ -10,6 +10,7 @@ import { idFromLabel, isGeneratedId, usedIds } from '../../state/changes';
 import { addLink } from '../actions';
 import { ExpressionField } from './ExpressionField';
 import { CheckedField, TextField, numberCheck, toNumber } from './fields';
+import { labeller } from '../../present/index';
 
 const KINDS: { kind: VariableKind; name: string; text: string }[] = [
   { kind: 'input', name: 'Input', text: 'set from outside' },
@@ -27,7 +28,7 @@ export function VariableInspector({ v, model }: { v: Variable; model: Model }) {
   const others = model.variables.filter((w) => w.id !== v.id);
   const incoming = model.links.filter((l) => l.to === v.id);
   const outgoing = model.links.filter((l) => l.from === v.id);
-  const name = (id: string) => model.variables.find((w) => w.id === id)?.label ?? id;
+  const name = labeller(model);
   const checkId = (t: string) => {
     if (t === v.id) return null;
     if (!ID_RE.test(t)) return 'a name in formulas starts with a letter or "_" and has only letters, digits and "_"';

@@ -15,6 +15,7 @@ import { useBandCache, type BandCache } from '../views/bandCache';
 import { breakpointRanges, type BreakpointRange } from '../../core/pictures/uncertain';
 import { setIntervalDrag } from './dragging';
 import './interval.css';
+import { BREAKPOINT, TRACK_NOTCH } from '../../theme/tokens';
 
 const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 
@@ -143,7 +144,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
     <svg ref={svg} className="lf-track-marks" width="100%" height={TRACK_H} aria-hidden="true">
       <defs>
         <pattern id={HATCH_ID} width={7} height={7} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-          <rect width={2} height={7} fill="#ece9e1" />
+          <rect width={2} height={7} fill={TRACK_NOTCH} />
         </pattern>
       </defs>
       {width > 0 && odd && <path className="lf-bands-odd" d={odd} fill={`url(#${HATCH_ID})`} />}
@@ -153,7 +154,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
           .map((r) => {
             const x0 = X(Math.max(r.low, range.min)), x1 = X(Math.min(r.high, range.max));
             return (
-              <rect key={`${r.variable}-${r.to}`} className="lf-bp-range" data-range={r.variable} x={x0} y={3} width={Math.max(1, x1 - x0)} height={TRACK_H - 6} fill="#8a5a12" fillOpacity={0.14} stroke="#8a5a12" strokeOpacity={0.5} strokeDasharray="3 2">
+              <rect key={`${r.variable}-${r.to}`} className="lf-bp-range" data-range={r.variable} x={x0} y={3} width={Math.max(1, x1 - x0)} height={TRACK_H - 6} fill={BREAKPOINT} fillOpacity={0.14} stroke={BREAKPOINT} strokeOpacity={0.5} strokeDasharray="3 2">
                 <title>{`${labels.get(r.variable) ?? r.variable} ${r.from === 'state' ? 'dynamic' : r.from} → ${r.to === 'state' ? 'dynamic' : r.to} somewhere from ${formatDuration(r.low, unit)} to ${formatDuration(r.high, unit)} (its timescale is a range; the tick is at the geometric mean)`}</title>
               </rect>
             );
@@ -164,7 +165,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
           .map((b, i) => {
             const x = X(b.interval);
             return (
-              <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke="#8a5a12" strokeWidth={2} fill="#8a5a12">
+              <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke={BREAKPOINT} strokeWidth={2} fill={BREAKPOINT}>
                 <title>{`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`}</title>
               </path>
             );

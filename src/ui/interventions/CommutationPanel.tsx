@@ -13,6 +13,7 @@ import { solveEquilibrium } from '../../core/numeric/equilibrium';
 import { useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import './interventions.css';
+import { formatNumber, labeller } from '../../present/index';
 
 /** An equation id in the modeller's words: rate(x) → "the rate equation of X", a relation → its text. */
 export function equationWords(model: Model, id: string): string {
@@ -60,7 +61,7 @@ function equilibriumShifts(model: Model, hold: Record<string, number>): { shifts
   return { shifts: model.variables.map((v) => ({ variable: v.id, before: before.values[v.id], after: after.values[v.id] })).filter((r) => Math.abs(r.after - r.before) > 1e-9 * (1 + Math.abs(r.before))) };
 }
 
-const r4 = (x: number) => String(Number(x.toPrecision(4)));
+const r4 = (x: number) => formatNumber(x, { digits: 4 });
 
 export function CommutationPanelFor({ model, design }: { model: Model; design: StudyDesign }) {
   const holds = design.hold ?? {};
@@ -73,7 +74,7 @@ export function CommutationPanelFor({ model, design }: { model: Model; design: S
       return { ok: false, message: (e as Error).message };
     }
   }, [model, design]); // eslint-disable-line react-hooks/exhaustive-deps
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   if (held.length === 0) return <section className="lf-commute" aria-label="Hold and settle"><p>Hold a variable to compare holding it before and after the fast states settle.</p></section>;
   if (design.interval === undefined || !outcome) return <section className="lf-commute" aria-label="Hold and settle"><p>Choose a sampling interval to compare the two orders.</p></section>;
   if (!outcome.ok) return <section className="lf-commute" aria-label="Hold and settle"><p role="alert">{outcome.message}</p></section>;

@@ -8,6 +8,7 @@ import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
 import { releaseAllHolds, releaseHold, setHold, useHolds } from './holds';
 import './interventions.css';
+import { labeller } from '../../present/index';
 
 function startValue(model: Model, id: string): string {
   const v = model.variables.find((x) => x.id === id);
@@ -34,7 +35,7 @@ export function HoldControlFor({ model }: { model: Model }) {
       setText(startValue(model, preferred));
     }
   }, [preferred]); // eslint-disable-line react-hooks/exhaustive-deps
-  const label = (id: string) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const value = Number(text);
   const valid = text.trim() !== '' && Number.isFinite(value);
   const known = ids.includes(variable);

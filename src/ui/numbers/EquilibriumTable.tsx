@@ -1,7 +1,7 @@
 import type { Model, VariableId } from '../../core/model/types';
 import { isFailed, useNumeric } from './useNumeric';
 import type { EquilibriumAnswer } from '../../worker/numericApi';
-import { nameOf, numText } from '../../export/format';
+import { labelOf, numText } from '../../present/index';
 
 const KIND_WORDS = { input: 'input', state: 'state', derived: 'derived' } as const;
 
@@ -32,7 +32,7 @@ export function EquilibriumTable({ model, hold }: { model: Model; hold: Record<V
             return (
               <tr key={v.id} data-variable={v.id} className={isHeld ? 'lf-num-held' : undefined}>
                 <th scope="row">
-                  {nameOf(model, v.id)} <span className="lf-num-kind">{KIND_WORDS[v.kind]}</span>
+                  {labelOf(model, v.id)} <span className="lf-num-kind">{KIND_WORDS[v.kind]}</span>
                 </th>
                 <td>
                   {Number.isFinite(x) ? numText(x) : '—'}

@@ -2,7 +2,8 @@ import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import type { AdviceAnswer } from '../../worker/numericApi';
-import { nameOf, numText } from '../../export/format';
+import { numText } from '../../present/index';
+import { labelOf } from '../../present/index';
 import { isFailed, useNumeric } from './useNumeric';
 
 type Pair = { from: VariableId; to: VariableId };
@@ -29,7 +30,7 @@ export function IntervalAdvisor({ model, states, reach }: { model: Model; states
         <legend>Links the study must see</legend>
         {pairs.map((p) => (
           <label key={key(p)}>
-            <input type="checkbox" data-link={key(p)} checked={picked.some((x) => key(x) === key(p))} onChange={(e) => toggle(p, e.target.checked)} /> {nameOf(model, p.from)} → {nameOf(model, p.to)}
+            <input type="checkbox" data-link={key(p)} checked={picked.some((x) => key(x) === key(p))} onChange={(e) => toggle(p, e.target.checked)} /> {labelOf(model, p.from)} → {labelOf(model, p.to)}
           </label>
         ))}
       </fieldset>
@@ -49,9 +50,9 @@ export function IntervalAdvisor({ model, states, reach }: { model: Model; states
             <tbody>
               {a.advice.links.map((l) => (
                 <tr key={key(l)}>
-                  <th scope="row">{nameOf(model, l.from)} → {nameOf(model, l.to)}</th>
+                  <th scope="row">{labelOf(model, l.from)} → {labelOf(model, l.to)}</th>
                   <td>{l.noPath ? 'no path: left out' : l.peak ? formatDuration(l.peak.interval, u) : 'no peak'}</td>
-                  <td title={`change in ${nameOf(model, l.to)} one interval later per unit of ${nameOf(model, l.from)}`}>{l.peak ? numText(l.peak.effect) : '—'}</td>
+                  <td title={`change in ${labelOf(model, l.to)} one interval later per unit of ${labelOf(model, l.from)}`}>{l.peak ? numText(l.peak.effect) : '—'}</td>
                   <td>{l.range ? `${formatDuration(l.range[0], u)} – ${formatDuration(l.range[1], u)}` : '—'}</td>
                   {a.advice.best !== null && <td>{l.atBest !== undefined ? numText(l.atBest) : '—'}</td>}
                 </tr>

@@ -1,7 +1,7 @@
 import type { KeyboardEvent } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import type { El } from '../../export/scene';
-import { nameOf } from '../../export/format';
+import { labelOf } from '../../present/index';
 import { elToReact } from '../elReact';
 
 /** The text a part of the figure shows (the weight label of a link). */
@@ -32,7 +32,7 @@ export function NetworkDiagram({ model, figure, onPick }: { model: Model; figure
       tabIndex: 0,
       className: 'lf-net-pick',
       // The name starts with the weight written on the link, so what is seen is what a screen reader says.
-      'aria-label': `${visibleText(e)} ${nameOf(model, from)} → ${nameOf(model, to)}: show against the interval`.trim(),
+      'aria-label': `${visibleText(e)} ${labelOf(model, from)} → ${labelOf(model, to)}: show against the interval`.trim(),
       onClick: () => onPick(from, to),
       onKeyDown: (ev: KeyboardEvent) => {
         if (ev.key === 'Enter' || ev.key === ' ') { ev.preventDefault(); onPick(from, to); }

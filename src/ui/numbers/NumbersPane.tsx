@@ -17,7 +17,7 @@ import { SampledNetworks } from './SampledNetworks';
 import { SimulationPanel } from './SimulationPanel';
 import { TimescalesTable } from './TimescalesTable';
 import { studyCaption, type StudyAt } from '../../export/caption';
-import { nameOf } from '../../export/format';
+import { labelOf } from '../../present/index';
 import { fileStem } from '../figureFiles';
 import { linkCurveChart } from '../../export/charts';
 import { svgDocument } from '../../export/svg';
@@ -123,13 +123,13 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
         <label>
           From{' '}
           <select aria-label="Link from" value={f} onChange={(e) => setPair({ from: e.target.value, to })}>
-            {states.map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
+            {states.map((s) => <option key={s} value={s}>{labelOf(model, s)}</option>)}
           </select>
         </label>
         <label>
           to{' '}
           <select aria-label="Link to" value={t} onChange={(e) => setPair({ from: f ?? null, to: e.target.value })}>
-            {states.filter((s) => s !== f).map((s) => <option key={s} value={s}>{nameOf(model, s)}</option>)}
+            {states.filter((s) => s !== f).map((s) => <option key={s} value={s}>{labelOf(model, s)}</option>)}
           </select>
         </label>
       </div>
@@ -146,7 +146,7 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
             svg={() => svgDocument(linkCurveChart({ model, curve: (curve.answer as CurveAnswer).curve, breakpoints, current }, { heading: true, caption: studyCaption(model, study) }))}
           />
           <p className="lf-num-note">
-            How strongly {nameOf(model, f!)} now moves {nameOf(model, t!)} one sampling interval later, for every interval. Too short an interval leaves no time for the effect; too long lets it fade.
+            How strongly {labelOf(model, f!)} now moves {labelOf(model, t!)} one sampling interval later, for every interval. Too short an interval leaves no time for the effect; too long lets it fade.
           </p>
         </>
       )}

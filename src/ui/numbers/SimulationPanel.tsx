@@ -5,9 +5,9 @@ import { appNumericClient, type SimulationRun } from '../../worker/numericClient
 import type { Failed, SimulationAnswer } from '../../worker/numericApi';
 import { studyCaption, type StudyAt } from '../../export/caption';
 import { simulationChart, simulationChartInput } from '../../export/charts';
-import { nameOf } from '../../export/format';
+import { labelOf } from '../../present/index';
 import { svgDocument } from '../../export/svg';
-import { simulationCsv } from '../../report/simulationCsv';
+import { simulationCsv } from '../../present/csv';
 import { ExportButtons } from './ExportButtons';
 import { TimeChart } from './TimeChart';
 import { isFailed } from './useNumeric';
@@ -92,7 +92,7 @@ export function SimulationPanel({ model, hold, study, slowest }: Props) {
               checked={shown.includes(v.id)}
               onChange={(e) => setChosen(e.target.checked ? [...shown, v.id] : shown.filter((x) => x !== v.id))}
             />{' '}
-            {nameOf(model, v.id)}
+            {labelOf(model, v.id)}
           </label>
         ))}
       </fieldset>
@@ -119,7 +119,7 @@ export function SimulationPanel({ model, hold, study, slowest }: Props) {
           </p>
           <button
             type="button"
-            onClick={() => downloadBlob(new Blob([simulationCsv(done.times, done.series, model.variables.map((v) => ({ id: v.id, name: nameOf(model, v.id) })), unit)], { type: 'text/csv' }), `${model.name.replace(/[^\w-]+/g, '-')}-simulation.csv`)}
+            onClick={() => downloadBlob(new Blob([simulationCsv(done.times, done.series, model.variables.map((v) => ({ id: v.id, name: labelOf(model, v.id) })), unit)], { type: 'text/csv' }), `${model.name.replace(/[^\w-]+/g, '-')}-simulation.csv`)}
           >
             Save the run as CSV
           </button>

@@ -2,7 +2,7 @@ import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { editDocument } from '../../state/document';
 import type { TimescalesAnswer } from '../../worker/numericApi';
-import { nameOf, numText } from '../../export/format';
+import { labelOf, numText, quantityText } from '../../present/index';
 
 /** Eigenvalues of the linearized mechanism and each state's timescale, given and derived. */
 export function TimescalesTable({ model, answer }: { model: Model; answer: TimescalesAnswer }) {
@@ -18,7 +18,7 @@ export function TimescalesTable({ model, answer }: { model: Model; answer: Times
         <tbody>
           {report.perState.map((p) => (
             <tr key={p.state} data-state={p.state}>
-              <th scope="row">{nameOf(model, p.state)}</th>
+              <th scope="row">{labelOf(model, p.state)}</th>
               <td>{p.given !== undefined ? dur(p.given) : '—'}</td>
               <td title={`${Math.round(p.share * 100)}% of this state's movement is in that mode`}>{dur(p.derived)} <span className="lf-num-tag">derived</span></td>
               <td>
@@ -60,7 +60,5 @@ export function TimescalesTable({ model, answer }: { model: Model; answer: Times
 
 /** The derived timescale in the model's own unit, three significant digits: "20 days", "6.12 min". */
 export function timescaleText(x: number, unit: Model['timeUnit']): string {
-  const n = Number(x.toPrecision(3));
-  const plural = n !== 1 && (unit === 'day' || unit === 'week' || unit === 'month' || unit === 'year');
-  return `${n} ${unit}${plural ? 's' : ''}`;
+  return quantityText(x, unit, { digits: 3 });
 }

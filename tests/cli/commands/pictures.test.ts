@@ -2,7 +2,7 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/run';
 import { memoryIo } from '../../helpers/cli';
-import { expectClose } from '../../helpers/tolerance';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { runPython } from '../../helpers/python';
 import { chainMatrices, chainModel } from '../../core/pictures/fixtures';
 
@@ -47,7 +47,7 @@ describe('factor, rank and order --uncertain', () => {
     expect(r.code, r.err).toBe(0);
     const j = JSON.parse(r.out) as { probabilities: { roles: Record<string, string>; blocks: unknown[]; share: number }[] };
     expect(j.probabilities.length).toBe(2);
-    expect(j.probabilities.reduce((a, p) => a + p.share, 0)).toBeCloseTo(1, 12);
+    expectClose(j.probabilities.reduce((a, p) => a + p.share, 0), 1, decimals(12));
     expect(Object.keys(j.probabilities[0]).sort()).toEqual(['blocks', 'roles', 'share']);
   });
 

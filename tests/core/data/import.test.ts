@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { importText, parseIsoTime, readHeader, type ColumnMapping } from '../../../src/core/data/import';
 import { suggestMapping } from '../../../src/core/data/importMapping';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { runPython } from '../../helpers/python';
 
 const LONG: ColumnMapping = {
@@ -20,7 +21,7 @@ describe('parseIsoTime', () => {
       if (ref[i] === null) expect(r.ok, c).toBe(false);
       else {
         expect(r.ok, c).toBe(true);
-        if (r.ok) { expect(r.seconds, c).toBeCloseTo(ref[i]![0], 6); expect(r.localDay, c).toBe(ref[i]![1]); }
+        if (r.ok) { expectClose(r.seconds, ref[i]![0], decimals(6), c); expect(r.localDay, c).toBe(ref[i]![1]); }
       }
     });
   });

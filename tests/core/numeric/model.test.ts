@@ -8,7 +8,7 @@ import { simulate } from '../../../src/core/numeric/simulate';
 import { residual } from '../../../src/core/numeric/system';
 import { fastPartWarnings, timescalesOf } from '../../../src/core/numeric/timescales';
 import { runPython } from '../../helpers/python';
-import { close, expectClose } from '../../helpers/tolerance';
+import { close, decimals, expectClose } from '../../helpers/tolerance';
 import { randomStable } from './random';
 
 function model(partial: Partial<Model> & Pick<Model, 'variables'>): Model {
@@ -59,8 +59,8 @@ describe('equilibrium, block by block', () => {
     // 30(q + 4) = 50 q + q(q + 4)/2 → q² + 44 q − 240 = 0 → q = −22 + √(22² + 240)
     const q = -22 + Math.sqrt(22 * 22 + 240);
     const eq = solveEquilibrium(coffeeBar);
-    expect(eq.values.queue).toBeCloseTo(q, 10);
-    expect(eq.values.mood).toBeCloseTo(2 - 0.1 * q, 10);
+    expectClose(eq.values.queue, q, decimals(10));
+    expectClose(eq.values.mood, 2 - 0.1 * q, decimals(10));
   });
 
   it('names dependent equations of a conservation law and suggests the fix', () => {
@@ -114,8 +114,8 @@ describe('equilibrium, block by block', () => {
     // Without the accumulating state, warmth = 3·sun = 6 and comfort = −0.5·6 = −3.
     const settled = solveEquilibrium({ ...sketch, variables: sketch.variables.filter((v) => v.id !== 'savings'), links: sketch.links.slice(0, 2) });
     expect(settled.ok).toBe(true);
-    expect(settled.values.warmth).toBeCloseTo(6, 12);
-    expect(settled.values.comfort).toBeCloseTo(-3, 12);
+    expectClose(settled.values.warmth, 6, decimals(12));
+    expectClose(settled.values.comfort, -3, decimals(12));
     const lin = linearize(eq.system, eq.point);
     if (!lin.ok) throw new Error(lin.reason);
     // d warmth/dt = (3 sun − warmth)/0.5; d savings/dt = 0.8·comfort/10 = −0.04·warmth, 0.8 being the
@@ -131,7 +131,7 @@ describe('linearization and timescales', () => {
     if (!lin.ok) throw new Error(lin.reason);
     // b(1+b) = c → db/dc = 1/(1+2b); d charge/dt = 2(1−c) − 0.3 − 0.5 b → A = −2 − 0.5/(1+2b).
     const b = eq.values.brightness;
-    expect(lin.drift.data[0]).toBeCloseTo(-2 - 0.5 / (1 + 2 * b), 12);
+    expectClose(lin.drift.data[0], -2 - 0.5 / (1 + 2 * b), decimals(12));
   });
 
   it('participation factors match NumPy (random 6-state drift) and are 1 on the diagonal of a triangular drift', () => {
@@ -191,15 +191,15 @@ describe('exact sampled model', () => {
     expectClose(toRows(s.stationary!), ref.sigma, { relTol: 1e-10 }, 'Σ');
     expectClose(toRows(s.innovationPartial!), ref.partial, { relTol: 1e-9 }, 'partial correlations');
     const sd = [Math.sqrt(ref.sigma[0][0]), Math.sqrt(ref.sigma[1][1])];
-    expect(s.phiStandardized!.data[1]).toBeCloseTo((0.18 * sd[1]) / sd[0], 10);
+    expectClose(s.phiStandardized!.data[1], (0.18 * sd[1]) / sd[0], decimals(10));
     expect(s.aliasing).toEqual([]);
   });
 
   it('finds the interval where the cross-lagged effect peaks (against scipy.optimize.minimize_scalar)', () => {
     const c = linkCurve(A, states, 'anomia', 'authoritarianism', logGrid(0.01, 30, 200));
     expect(c.peaks.length).toBe(1);
-    expect(c.peaks[0].interval).toBeCloseTo(ref.peak[0], 6);
-    expect(c.peaks[0].effect).toBeCloseTo(ref.peak[1], 10);
+    expectClose(c.peaks[0].interval, ref.peak[0], decimals(6));
+    expectClose(c.peaks[0].effect, ref.peak[1], decimals(10));
     const adv = adviseInterval(A, states, [{ from: 'anomia', to: 'authoritarianism' }], logGrid(0.01, 30, 200), 0.5, 'years');
     expect(adv.best!).toBeGreaterThan(ref.peak[0] * 0.9);
     expect(adv.best!).toBeLessThan(ref.peak[0] * 1.1);
@@ -211,7 +211,7 @@ describe('exact sampled model', () => {
   it('flags intervals longer than π/|Im λ| for an oscillating drift', () => {
     const s = sampledModel(fromRows([[-0.1, 1], [-1, -0.1]]), ['hunger', 'snacking'], 4, [1, 1]);
     expect(s.aliasing.length).toBe(1);
-    expect(s.aliasing[0].limit).toBeCloseTo(Math.PI, 12);
+    expectClose(s.aliasing[0].limit, Math.PI, decimals(12));
     expect(s.warnings.join(' ')).toMatch(/aliasing/);
   });
 
@@ -228,7 +228,7 @@ describe('equilibrium under an intervention', () => {
     const eq = solveEquilibrium(coffeeBar, { hold: { served: 20 } });
     expect(eq.ok, JSON.stringify(eq.diagnostics)).toBe(true);
     expect(eq.values.served).toBe(20);
-    expect(eq.values.queue).toBeCloseTo(20, 10);
-    expect(eq.values.mood).toBeCloseTo(0, 10);
+    expectClose(eq.values.queue, 20, decimals(10));
+    expectClose(eq.values.mood, 0, decimals(10));
   });
 });

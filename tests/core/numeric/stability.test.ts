@@ -5,6 +5,7 @@ import { fromRows, toRows } from '../../../src/core/numeric/dense';
 import { driftAtEquilibrium } from '../../../src/core/numeric/index';
 import { dynamicsDiagnostics, growingModes } from '../../../src/core/numeric/stability';
 import { runPython } from '../../helpers/python';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { seeded } from './random';
 
 const SCRIPT = 'tests/reference/sketch_stability.py';
@@ -59,10 +60,10 @@ describe('growing modes', () => {
       const want = ref.re.map((re, k) => ({ re, im: ref.im[k], p: ref.participation[k] })).filter((e) => e.re > 1e-9 && e.im >= 0).sort((a, b) => b.re - a.re);
       expect(got.map((g) => g.rate), `case ${c}`).toHaveLength(want.length);
       got.forEach((g, k) => {
-        expect(g.rate).toBeCloseTo(want[k].re, 10);
-        expect(g.im).toBeCloseTo(Math.abs(want[k].im), 10);
-        expect(g.doubling).toBeCloseTo(Math.LN2 / want[k].re, 8);
-        for (const carrier of g.carriers) expect(carrier.share).toBeCloseTo(want[k].p[states.indexOf(carrier.state)], 8);
+        expectClose(g.rate, want[k].re, decimals(10));
+        expectClose(g.im, Math.abs(want[k].im), decimals(10));
+        expectClose(g.doubling, Math.LN2 / want[k].re, decimals(8));
+        for (const carrier of g.carriers) expectClose(carrier.share, want[k].p[states.indexOf(carrier.state)], decimals(8));
         // every state with at least 5 % of the mode is named
         expect(g.carriers.map((x) => x.state).sort()).toEqual(states.filter((_, i) => want[k].p[i] >= 0.05).sort());
       });
@@ -78,7 +79,7 @@ describe('growing modes', () => {
     const d = driftAtEquilibrium(m);
     expect(d.ok).toBe(true);
     if (!d.ok) return;
-    toRows(d.drift).forEach((row, i) => row.forEach((x, j) => expect(x).toBeCloseTo(ref.drift[i][j], 12)));
+    toRows(d.drift).forEach((row, i) => row.forEach((x, j) => expectClose(x, ref.drift[i][j], decimals(12))));
     const growth = maxRe(ref);
     expect(growth).toBeGreaterThan(0);
     const w = dynamicsDiagnostics(m).filter((x) => x.code === 'growing-mode');
@@ -116,7 +117,7 @@ describe('default strengths', () => {
     const s = linkStrengths(diarySketch());
     // stress has two integrating links in: 0.4 each; sleep one: 0.8
     expect(s[0]).toEqual({ value: DEFAULT_TOTAL_GAIN / 2, given: false, sharedBy: 2 });
-    expect(s[2].value).toBeCloseTo(0.8, 15);
+    expectClose(s[2].value, 0.8, decimals(15));
   });
 
   it('keep the six-variable diary sketch without strengths at rest (NumPy: every eigenvalue has a negative real part); no growing-mode warning', () => {
@@ -124,7 +125,7 @@ describe('default strengths', () => {
     const [ref] = runPython<Ref[]>(SCRIPT, { cases: [m] });
     const d = driftAtEquilibrium(m);
     if (!d.ok) throw new Error(d.reason);
-    toRows(d.drift).forEach((row, i) => row.forEach((x, j) => expect(x).toBeCloseTo(ref.drift[i][j], 12)));
+    toRows(d.drift).forEach((row, i) => row.forEach((x, j) => expectClose(x, ref.drift[i][j], decimals(12))));
     expect(maxRe(ref)).toBeLessThan(0);
     expect(dynamicsDiagnostics(m).filter((x) => x.code === 'growing-mode')).toEqual([]);
   });

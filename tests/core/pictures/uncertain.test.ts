@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Model } from '../../../src/core/model/types';
 import { orderingAt } from '../../../src/core/ordering/index';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { breakpointRanges, orderingProbabilities } from '../../../src/core/pictures/index';
 
 /** An invented worry–sleep loop: worry (fast) and tiredness, driven by a workload input. */
@@ -41,7 +42,7 @@ describe('orderings under uncertain timescales', () => {
     const draws = 20000;
     const r = orderingProbabilities(loop({ low: 1, high: 6 }), { interval: 10, samples: 50 }, { draws, seed: 11 });
     const worry = r.states.find((s) => s.id === 'worry')!;
-    expect(worry.exact.settled).toBeCloseTo(want, 14);
+    expectClose(worry.exact.settled, want, decimals(14));
     expect(worry.decides).toBe(true);
     expect(r.probabilities).toHaveLength(2);
     const settled = r.probabilities.find((p) => p.roles.worry === 'settled')!;
@@ -49,7 +50,7 @@ describe('orderings under uncertain timescales', () => {
     // Monte Carlo: within 4 standard errors √(p(1−p)/K) of the exact share (common practice).
     const se = Math.sqrt((want * (1 - want)) / draws);
     expect(Math.abs(settled.share - want)).toBeLessThan(4 * se);
-    expect(settled.share + dynamic.share).toBeCloseTo(1, 12);
+    expectClose(settled.share + dynamic.share, 1, decimals(12));
     expect(settled.deciding).toEqual({ worry: 'settled' });
     expect(r.readings[0]).toMatch(/^Whether worry settles at 10 h depends on its timescale .* settled in \d+ % of draws \(39 % exactly\)/);
     // The same seed gives the same draws.

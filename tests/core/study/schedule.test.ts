@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Study } from '../../../src/core/model/types';
 import { createRng } from '../../../src/core/study/rng';
 import { answeredOccasions, nominalSpacing, plannedSlots, promptPlan } from '../../../src/core/study/schedule';
-import { expectClose } from '../../helpers/tolerance';
+import { decimals, expectClose } from '../../helpers/tolerance';
 
 const esm = (timing: 'fixed' | 'stratified-random', extra: Partial<Study> = {}): Study => ({
   interval: '3h', length: '14 days', schedule: { kind: 'daily-window', promptsPerDay: 5, from: '09:00', to: '21:00', timing }, ...extra,
@@ -24,7 +24,7 @@ describe('planned prompts', () => {
         expect(p.time[k]).toBeGreaterThanOrEqual(start);
         expect(p.time[k]).toBeLessThan(start + 2.4 + 1e-12);
       }
-    expect(nominalSpacing(esm('stratified-random').schedule, 'h')).toBeCloseTo(2.4, 12);
+    expectClose(nominalSpacing(esm('stratified-random').schedule, 'h'), 2.4, decimals(12));
   });
   it('a fixed schedule of 50 samples every 90 min; a window holds the prompts before its end', () => {
     expect(plannedSlots({ interval: '90 min', length: 50, schedule: { kind: 'fixed' } }, 'h').base.length).toBe(50);

@@ -4,6 +4,7 @@ import type { Model } from '../../../src/core/model/types';
 import { orderingAt, breakpoints } from '../../../src/core/ordering/index';
 import { explainOrdering, listWords } from '../../../src/core/view/explain';
 import { EXAMPLES } from '../../../src/examples/index';
+import { decimals, expectClose } from '../../helpers/tolerance';
 
 function example(id: string): Model {
   const r = parseModel(EXAMPLES.find((e) => e.id === id)!.model);
@@ -48,7 +49,7 @@ describe('explanation text', () => {
     const bps = breakpoints(m, { samples: 50 });
     const thaw = bps.find((b) => b.exclusive && b.changes.some((c) => c.variable === 'stress'))!;
     // τ/(k·N) = (40 min)/(5 × 50) = 9.6 s (the rule of settings.separation in the model file)
-    expect(thaw.interval * 3600).toBeCloseTo(9.6, 9);
+    expectClose(thaw.interval * 3600, 9.6, decimals(9));
     const design = { interval: thaw.interval, samples: 50 };
     const o = orderingAt(m, design);
     expect(o.roles.stress).toBe('frozen');

@@ -26,6 +26,7 @@ import { bandInterval } from '../../../src/report/html';
 import type { Layout } from '../../../src/layout/types';
 import { layoutInNode } from '../../../src/layout/node';
 import { luminance, PALETTE_TOKENS } from '../../../src/theme/palettes';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { runPython } from '../../helpers/python';
 
 const MEASURE = fileURLToPath(new URL('./print_measure.py', import.meta.url));
@@ -69,7 +70,7 @@ describe('figures at print size', () => {
     cases.forEach((c, i) => {
       const m = measured[i];
       // the printed width is the preset's (8.5, 11.4, 17.8 cm)
-      expect(m.widthPt, c.name).toBeCloseTo((WIDTH_PRESETS[c.preset as keyof typeof WIDTH_PRESETS] * 72) / 25.4, 1);
+      expectClose(m.widthPt, (WIDTH_PRESETS[c.preset as keyof typeof WIDTH_PRESETS] * 72) / 25.4, decimals(1), c.name);
       const says = c.notes.some((n) => /does not fit .* legibly/.test(n));
       // a figure under 7 pt must say so; one that says so must be under 7 pt
       expect(says, `${c.name}: ${m.smallestPt.toFixed(2)} pt, notes ${c.notes.join('; ')}`).toBe(m.smallestPt < MIN_TEXT_PT - 1e-6);
@@ -104,7 +105,7 @@ describe('palettes', () => {
     // greys only: r = g = b
     for (const v of Object.values(g)) expect(v, v).toMatch(/^#([0-9a-f]{2})\1\1$/i);
     // WCAG 2.1 relative luminance of white and black (definition: 1 and 0)
-    expect(luminance('#ffffff')).toBeCloseTo(1, 12);
+    expectClose(luminance('#ffffff'), 1, decimals(12));
     expect(luminance('#000000')).toBe(0);
   });
 
@@ -135,8 +136,8 @@ describe('files', () => {
     expect(r.chunks.filter((c) => c === 'pHYs')).toHaveLength(1);
     expect(r.unit).toBe(1);
     // 600 dpi = 23622 px/m (rounded), read back as 599.99 dpi
-    expect(r.dpiX).toBeCloseTo(600, 1);
-    expect(r.dpiY).toBeCloseTo(600, 1);
+    expectClose(r.dpiX, 600, decimals(1));
+    expectClose(r.dpiY, 600, decimals(1));
     // 8.5 cm at 600 dpi: 85 / 25.4 × 600 = 2007.9 → 2008 pixels
     expect(r.width).toBe(2008);
   }, 120_000);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/run';
 import { runPython } from '../../helpers/python';
-import { expectClose } from '../../helpers/tolerance';
+import { decimals, expectClose } from '../../helpers/tolerance';
 import { memoryIo } from '../../helpers/cli';
 
 // A kettle on a stove (invented for this test): the water warms towards the plate, the room cools it.
@@ -23,16 +23,17 @@ describe('numeric commands', () => {
     const m = memoryIo({ 'k.json': kettle });
     expect(await runCli(['equilibrium', 'k.json', '--json'], m.io)).toBe(0);
     const r = JSON.parse(m.out[0]) as { values: Record<string, number>; diagnostics: unknown[] };
-    expect(r.values.water).toBeCloseTo(12.4 / 0.12, 10);
-    expect(r.values.loss).toBeCloseTo(0.02 * (12.4 / 0.12 - 20), 10);
+    expectClose(r.values.water, 12.4 / 0.12, decimals(10));
+    expectClose(r.values.loss, 0.02 * (12.4 / 0.12 - 20), decimals(10));
     expect(r.diagnostics).toEqual([]);
   });
 
-  it('simulate --csv writes RFC 4180 CSV that Python\'s csv module reads back, header time,<ids…>', async () => {
+  it('simulate --csv writes RFC 4180 CSV that Python\'s csv module reads back, with the header the app saves (time (unit), then the labels)', async () => {
     const m = memoryIo({ 'k.json': kettle });
     expect(await runCli(['simulate', 'k.json', '--until', '1h', '--every', '15min', '--csv'], m.io)).toBe(0);
     const { rows } = runPython<{ rows: string[][] }>(REF, { csv: m.out[0] });
-    expect(rows[0]).toEqual(['time', 'plate', 'room', 'water', 'loss']);
+    // the kettle's variables have no labels: they are named by their ids
+    expect(rows[0]).toEqual(['time (min)', 'plate', 'room', 'water', 'loss']);
     expect(rows.slice(1).map((r) => Number(r[0]))).toEqual([0, 15, 30, 45, 60]);
     // Closed form: w(t) = w* + (20 − w*) e^{−0.12 t} (linear first-order response, common practice).
     const ws = 12.4 / 0.12;
@@ -52,7 +53,7 @@ describe('numeric commands', () => {
     expect(await runCli(['timescales', SLEEP, '--json'], t.io)).toBe(0);
     const ts = JSON.parse(t.out[0]) as { eigenvalues: { re: number }[]; timescales: { state: string; given: number | null; derived: number }[] };
     expectClose(ts.eigenvalues.map((e) => e.re).sort((a, b) => a - b), ref.eig_re, { relTol: 1e-9 }, 'eigenvalues');
-    expect(ts.timescales.find((x) => x.state === 'stress')!.given).toBeCloseTo(40 / 60, 12);
+    expectClose(ts.timescales.find((x) => x.state === 'stress')!.given!, 40 / 60, decimals(12));
   });
 
   it('human-readable output without --json', async () => {

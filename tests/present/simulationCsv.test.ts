@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { simulationCsv } from '../../src/report/simulationCsv';
+import { simulationCsv } from '../../src/present/csv';
 import { runPython } from '../helpers/python';
 
 describe('the CSV of a simulated run', () => {

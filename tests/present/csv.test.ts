@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { fileURLToPath } from 'node:url';
-import { csvField, recordsToCsv, toCsv } from '../../src/report/csv';
+import { csvField, defuseFormula, recordsToCsv, toCsv } from '../../src/present/csv';
 import { runPython } from '../helpers/python';
 
 const SCRIPT = fileURLToPath(new URL('./csv_reference.py', import.meta.url));
@@ -34,10 +34,12 @@ describe('agreement with Python csv (excel dialect)', () => {
 
   it('writes byte for byte what Python writes, and Python reads back the same fields (seeded)', () => {
     const cases = fc.sample(rows, { seed: 4180, numRuns: 300 });
-    const answers = reference(cases.map((r) => ({ rows: r, text: toCsv(r) })));
+    // Python writes the cells as they are; ours first defuses cells a spreadsheet would run (tested below).
+    const defused = cases.map((r) => r.map((row) => row.map(defuseFormula)));
+    const answers = reference(cases.map((r, i) => ({ rows: defused[i], text: toCsv(r) })));
     cases.forEach((r, i) => {
       expect(toCsv(r), `seed 4180, rows ${JSON.stringify(r)}`).toBe(answers[i].written);
-      expect(answers[i].parsed).toEqual(r);
+      expect(answers[i].parsed).toEqual(defused[i]);
     });
   });
 
@@ -46,5 +48,31 @@ describe('agreement with Python csv (excel dialect)', () => {
     const text = toCsv([nums.map(String), nums]);
     const [ref] = reference([{ rows: [], text }]);
     expect(ref.parsed[1].map(Number)).toEqual(nums);
+  });
+});
+
+// OWASP, "CSV Injection" (owasp.org, from memory): a cell that starts with =, +, -, @, tab or
+// carriage return is run as a formula by spreadsheets; prefix it with an apostrophe so it is shown as text.
+describe('cells a spreadsheet would run as formulas', () => {
+  it('get a leading apostrophe', () => {
+    expect(csvField('=SUM(A1:A3)')).toBe("'=SUM(A1:A3)");
+    expect(csvField('+cmd|x')).toBe("'+cmd|x");
+    expect(csvField('-2+3')).toBe("'-2+3");
+    expect(csvField('@import')).toBe("'@import");
+    expect(csvField('\tx')).toBe("'\tx");
+    expect(csvField('=HYPERLINK("a,b")')).toBe(`"'=HYPERLINK(""a,b"")"`);
+  });
+  it('leaves numbers alone, and text that is a plain number', () => {
+    expect(csvField(-1.5)).toBe('-1.5');
+    expect(csvField(-1.5e-7)).toBe('-1.5e-7');
+    expect(csvField('-1.5')).toBe('-1.5');
+    expect(csvField('+2e-3')).toBe('+2e-3');
+    expect(csvField('a=b')).toBe('a=b');
+    expect(toCsv([['x', -3], ['=1+1', '-0.25']])).toBe("x,-3\r\n'=1+1,-0.25\r\n");
+  });
+  it('reads back with Python as text starting with the apostrophe, numbers as numbers', () => {
+    const [ref] = reference([{ rows: [], text: toCsv([['=1+1', -1.5, '@x']]) }]);
+    expect(ref.parsed[0]).toEqual(["'=1+1", '-1.5', "'@x"]);
+    expect(Number(ref.parsed[0][1])).toBe(-1.5);
   });
 });

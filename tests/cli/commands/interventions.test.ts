@@ -3,8 +3,9 @@ import { fileURLToPath } from 'node:url';
 import { runCli } from '../../../src/cli/run';
 import { runPython } from '../../helpers/python';
 import type { Model } from '../../../src/core/model/types';
-import { greenhouseIntegral, warehouseIntegral } from './scenarios';
+import { greenhouseIntegral, warehouseIntegral } from '../../core/interventions/scenarios';
 import { memoryIo } from '../../helpers/cli';
+import { decimals, expectClose } from '../../helpers/tolerance';
 
 /** The chain-regulated stock of Dash 2005 (§2, rebuilt from memory) as a sketch with neutral names: x′ = u − q, p = f(x), q = g(p, k). */
 const chain: Model = {
@@ -89,7 +90,7 @@ describe('loopfold commute with formulas', () => {
     expect(r.agree).toBe(false);
     expect(r.drift.states).toEqual(['heat']);
     expect(r.effect.drifting.map((d: { variable: string }) => d.variable)).toEqual(['heat']);
-    expect(r.effect.drifting[0].slope).toBeCloseTo(0.04, 6);
+    expectClose(r.effect.drifting[0].slope, 0.04, decimals(6));
     const t = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h'], t.io)).toBe(0);
     // Hand-derived: held heat 50 ⇒ 0 = (5 − T)/10 + 2.5 ⇒ T = 30; unheld, the integral balance puts T at the setpoint 20.
@@ -101,15 +102,15 @@ describe('loopfold commute --trajectory', () => {
   it('writes both runs as RFC 4180 CSV that Python reads back, ending where the closed form says', async () => {
     const m = memoryIo(files(), { disk: false });
     expect(await runCli(['commute', 'greenhouse.json', '--hold', 'heat=50', '--interval', '10h', '--until', '200 min', '--trajectory', 'runs.csv'], m.io)).toBe(0);
-    const script = fileURLToPath(new URL('../../report/csv_reference.py', import.meta.url));
+    const script = fileURLToPath(new URL('../../present/csv_reference.py', import.meta.url));
     const [{ parsed }] = runPython<{ parsed: string[][] }[]>(script, [{ rows: [], text: m.files['runs.csv'] }]);
     expect(parsed[0]).toEqual(['time', 'variable', 'without', 'with']);
     expect((parsed.length - 1) % greenhouseIntegral.variables.length).toBe(0);
     const last = parsed.filter((r) => r[1] === 'airTemp').pop()!;
     expect(Number(last[0])).toBe(200);
     // T′ = (5 − T)/10 + 0.05·50 from the unheld rest T = 20: T(200) = 30 − 10·e^(−20) (hand-derived).
-    expect(Number(last[3])).toBeCloseTo(30 - 10 * Math.exp(-20), 5);
-    expect(Number(last[2])).toBeCloseTo(20, 5);
+    expectClose(Number(last[3]), 30 - 10 * Math.exp(-20), decimals(5));
+    expectClose(Number(last[2]), 20, decimals(5));
   });
 
   it('refuses --trajectory for a sketch without formulas', async () => {
@@ -128,8 +129,8 @@ describe('loopfold adaptation', () => {
     expect(adapted.map((a: { variable: string; input: string }) => [a.variable, a.input])).toEqual([['orders', 'target'], ['stock', 'demand']]);
     // With formulas each pair is confirmed by a simulated step: orders return to demand (100), the stock to the target (500).
     expect(adapted.every((a: { confirmed: boolean }) => a.confirmed)).toBe(true);
-    expect(adapted[0].before).toBeCloseTo(100, 6);
-    expect(adapted[1].before).toBeCloseTo(500, 6);
+    expectClose(adapted[0].before, 100, decimals(6));
+    expectClose(adapted[1].before, 500, decimals(6));
   });
 
   it('says so in words without --json', async () => {

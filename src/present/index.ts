@@ -1,0 +1,9 @@
+/**
+ * Presentation: how Loopfold writes what it shows — variable names, numbers
+ * with units, CSV. Pure TypeScript with no DOM, importing only the core's
+ * model types, so the core's explanations, the figures, the reports, the
+ * command line and the app share it. Colours are tokens of src/theme/.
+ */
+export { labelOf, labeller, unitOf } from './labels';
+export { formatNumber, MINUS, numText, quantityText, timeUnitWord, weightText, type NumberStyle } from './numbers';
+export { csvField, defuseFormula, recordsToCsv, simulationCsv, toCsv, type CsvValue } from './csv';
