@@ -107,6 +107,58 @@ test.describe('fields, selection and checks a modeller can trust', () => {
   });
 });
 
+/** The ordering figure in the Timescales pane once its tuned layout is on screen: where it is, its box and the pane. */
+async function fittedFigure(page: Page) {
+  const host = page.locator('.lf-view-ordering .lf-view-canvas');
+  await expect(host).toHaveAttribute('data-pending', 'false', { timeout: 60_000 });
+  await page.waitForTimeout(500); // the move to the tuned layout (320 ms)
+  return host.evaluate((h) => {
+    const view = h.closest('.lf-view') as HTMLElement;
+    const svg = h.querySelector('svg')!.getBoundingClientRect();
+    const box = view.getBoundingClientRect();
+    const pane = h.closest('.lf-panel')!.getBoundingClientRect();
+    return {
+      scale: Number(h.getAttribute('data-scale')), fit: h.getAttribute('data-fit'),
+      svgBottom: svg.bottom, svgWidth: svg.width, boxBottom: box.bottom, boxInner: view.clientWidth,
+      scrollsDown: view.scrollHeight > view.clientHeight + 1, paneBottom: pane.bottom,
+      pageWider: document.documentElement.scrollWidth > window.innerWidth,
+    };
+  });
+}
+
+for (const size of [{ width: 1440, height: 900 }, { width: 1024, height: 768 }]) {
+  test.describe(`Fit at ${size.width}×${size.height}`, () => {
+    test.use({ viewport: size });
+    test('the ordering figure fits its pane in width and height, and the three instants open fitted', async ({ page }, testInfo) => {
+      test.setTimeout(300_000);
+      for (const id of ['sleep-stress', 'lake', 'greenhouse', 'warehouse']) {
+        await page.goto(`/?example=${id}`);
+        await expect(page.locator('.react-flow__node-variable').first()).toBeVisible();
+        await page.getByRole('tab', { name: 'Timescales' }).click();
+        const f = await fittedFigure(page);
+        expect(f.fit, id).toBe('true');
+        expect(f.pageWider, `${id}: the side pane stays inside the window`).toBe(false);
+        // the last row is inside the box, the box inside the pane: nothing to scroll down to
+        expect(f.scrollsDown, `${id}: figure cut at the bottom`).toBe(false);
+        expect(f.svgBottom, id).toBeLessThanOrEqual(f.boxBottom + 1);
+        expect(f.boxBottom, `${id}: box below the pane`).toBeLessThanOrEqual(f.paneBottom + 1);
+        // as wide as the box unless held at the legible floor (0.6, then the box scrolls sideways)
+        if (f.scale > 0.6005) expect(f.svgWidth, `${id}: wider than its box at scale ${f.scale}`).toBeLessThanOrEqual(f.boxInner + 1);
+        await shot(page, testInfo.outputPath(`fit-${size.width}-${id}.png`));
+      }
+      // zoomed in on the ordering, the three instants still open fitted
+      await page.locator('.lf-view-ordering').getByRole('button', { name: 'Zoom in' }).click();
+      await expect(page.locator('.lf-view-ordering .lf-view-canvas')).toHaveAttribute('data-fit', 'false');
+      await page.getByRole('button', { name: 'Three instants' }).click();
+      await expect(page.locator('.lf-view-ordering .lf-view-canvas')).toHaveAttribute('data-fit', 'true');
+      const u = await fittedFigure(page);
+      expect(u.scrollsDown, 'three instants cut at the bottom').toBe(false);
+      if (u.scale > 0.3005) expect(u.svgWidth).toBeLessThanOrEqual(u.boxInner + 1);
+      await shot(page, testInfo.outputPath(`fit-${size.width}-three-instants.png`));
+    });
+  });
+}
+
 test.describe('a projector at 1024×768', () => {
   test.use({ viewport: { width: 1024, height: 768 } });
   test('the toolbar keeps one row and the model name is whole for every example', async ({ page }, testInfo) => {

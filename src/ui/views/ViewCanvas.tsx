@@ -12,14 +12,18 @@ import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { patchSvg, type SvgHost } from './svgPatch';
 import { contains, grown, visibleRect, type Area } from './inView';
+import { fitScaleFor, roomIn, type Size } from './fit';
 
 const ANIMATION_MS = 320;
 /** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
 const LAYOUT_AFTER_MS = 120;
-/** The figure shrinks to fit its pane down to this scale, then scrolls (labels stay legible). */
-const MIN_SCALE = 0.8;
-/** The three instants are wide: fitting them shows the whole sequence first. */
-const FIT_SCALE_UNROLLED = 0.45;
+/**
+ * Fit shrinks the figure to its pane (width and height) down to this scale, then the pane scrolls
+ * (names, drawn at 13 px, stay at least about 8 px; the zoom buttons and presentation mode show them large).
+ */
+const MIN_SCALE = 0.6;
+/** The three instants are wide: they open fitted to the pane, the whole sequence first, down to this scale. */
+const FIT_SCALE_UNROLLED = 0.3;
 /** Above this many nodes, positions jump instead of moving (keeps the page responsive). */
 const ANIMATE_UP_TO = 250;
 /** Above this many nodes, only the parts near what is in view are built and put on the page (`buildScene`'s `area`). */
@@ -113,6 +117,12 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   useEffect(() => () => { cancelAnimationFrame(frame.current); void queue.dispose(); }, [queue]);
 
   const [zoom, setZoom] = useState<'fit' | number>('fit');
+  // another kind of view (the ordering, the three instants) opens fitted to the pane
+  const [zoomMode, setZoomMode] = useState(vm.mode);
+  if (zoomMode !== vm.mode) { setZoomMode(vm.mode); setZoom('fit'); }
+  // the room the figure has in its pane (measured on mount and when the pane resizes)
+  const [room, setRoom] = useState<Size | null>(null);
+  const naturalHeight = useRef(0);
   // a big figure: only the parts near what is in view are built and go on the page; scrolling or
   // resizing the pane builds the parts it brings near (none while what is in view stays inside the area)
   const cull = vm.nodes.length > CULL_FROM;
@@ -126,15 +136,19 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
     let area: number[] | undefined;
     if (cull) {
       // the svg's width on the page: the host's (not less than the smallest fit), or the zoom's
-      const px = seen ? (zoom === 'fit' ? Math.max(seen.width, width * fitScale) : width * zoom) : 0;
+      const px = seen ? width * (zoom === 'fit' ? fitScaleFor({ width, height: naturalHeight.current || width }, room ?? { width: seen.width, height: 0 }, fitScale) : zoom) : 0;
       const k = px > 0 ? width / px : 0;
       // until the pane is measured (in the same frame, before it is painted), nothing of it is built
       area = seen && k ? [seen.rect.x0 * k, seen.rect.y0 * k, seen.rect.x1 * k, seen.rect.y1 * k] : [0, 0, -1, -1];
     }
     return buildScene(vm, shown, { legend: true, title: false, ...(area ? { area } : {}) });
-  }, [vm, shown, cull, seen, zoom, fitScale]);
+  }, [vm, shown, cull, seen, zoom, fitScale, room]);
   const natural = Number(scene.attrs.width);
-  const sizeStyle = zoom === 'fit' ? `width:100%;min-width:${Math.round(natural * fitScale)}px` : `width:${Math.round(natural * zoom)}px`;
+  const naturalH = Number(scene.attrs.height);
+  naturalHeight.current = naturalH;
+  // Fit: whole in the pane, width and height, not below the legible scale (the pane scrolls then)
+  const scale = zoom === 'fit' ? fitScaleFor({ width: natural, height: naturalH }, room ?? { width: 0, height: 0 }, fitScale) : zoom;
+  const sizeStyle = zoom === 'fit' && !room ? `width:100%;min-width:${Math.round(natural * fitScale)}px` : `width:${Math.round(natural * scale)}px;height:${Math.round(naturalH * scale)}px`;
   // the exporter's own scene, put on screen as the file's markup and then changed in place: only
   // the nodes, links and blocks that differ are parsed again (React does not reconcile thousands of elements)
   const host = useRef<HTMLDivElement>(null);
@@ -154,6 +168,28 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
   useLayoutEffect(() => {
     if (host.current) patchSvg(host.current, shownSvg.current, { ...scene, attrs: { ...scene.attrs, width: undefined, height: undefined, preserveAspectRatio: 'xMidYMin meet', style: sizeStyle } });
   }, [scene, sizeStyle]);
+  // the room for Fit: the bordered box the figure scrolls in, below its zoom buttons
+  const measureRoom = useCallback(() => {
+    const h = host.current;
+    const view = h?.parentElement?.parentElement;
+    if (!h || !view) return;
+    const reserved = h.getBoundingClientRect().top - view.getBoundingClientRect().top + view.scrollTop - view.clientTop;
+    const r = roomIn(view, reserved);
+    setRoom((was) => (was && Math.abs(was.width - r.width) < 1 && Math.abs(was.height - r.height) < 1 ? was : r));
+  }, []);
+  useLayoutEffect(() => {
+    measureRoom();
+    const view = host.current?.parentElement?.parentElement;
+    if (!view || typeof ResizeObserver === 'undefined') return;
+    let raf = 0;
+    const soon = () => { if (!raf) raf = requestAnimationFrame(() => { raf = 0; measureRoom(); }); };
+    // the box's width, and the pane's height (the window, the panes around it)
+    const ro = new ResizeObserver(soon);
+    ro.observe(view);
+    const win = view.ownerDocument.defaultView;
+    win?.addEventListener('resize', soon);
+    return () => { cancelAnimationFrame(raf); ro.disconnect(); win?.removeEventListener('resize', soon); };
+  }, [measureRoom]);
   // the first measure of a big figure's pane, before it is painted
   useLayoutEffect(() => { if (cull && !seenNow.current && host.current) remeasure(host.current); }, [cull, remeasure]);
   useEffect(() => {
@@ -166,7 +202,8 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
     ro?.observe(h);
     return () => { cancelAnimationFrame(raf); h.ownerDocument.removeEventListener('scroll', soon, { capture: true }); ro?.disconnect(); };
   }, [cull, remeasure]);
-  const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? 1 : z) * f)));
+  // zooming from Fit starts at the fitted scale
+  const zoomBy = (f: number) => setZoom((z) => Math.min(3, Math.max(0.25, (z === 'fit' ? scale : z) * f)));
   const onClick = (ev: MouseEvent) => {
     const t = (ev.target as Element).closest('.lf-toggle');
     const key = t?.getAttribute('data-block');
@@ -179,7 +216,7 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
         <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
       </div>
-      <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} onClick={onClick} />
+      <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} data-scale={scale.toFixed(3)} data-fit={zoom === 'fit' ? 'true' : 'false'} onClick={onClick} />
     </div>
   );
 });
