@@ -22,6 +22,7 @@ import { fileStem } from '../figureFiles';
 import { linkCurveChart } from '../../export/charts';
 import { svgDocument } from '../../export/svg';
 import { ExportButtons } from './ExportButtons';
+import { studyArgs } from '../export/printFile';
 import { isFailed, useNumeric } from './useNumeric';
 import { GrowthNotice, useGrowingStates } from '../diagnostics/GrowthNotice';
 import './numbers.css';
@@ -91,6 +92,7 @@ function NumbersOf({ model }: { model: Model }) {
             model={model}
             answer={sampled.answer}
             caption={studyCaption(model, study)}
+            study={study}
             onPick={(from, to) => {
               setPair({ from, to });
               document.getElementById('lf-num-curve')?.scrollIntoView({ block: 'start' });
@@ -144,6 +146,7 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
             what="the link chart"
             name={`${fileStem(model.name)}-${f}-to-${t}`}
             svg={() => svgDocument(linkCurveChart({ model, curve: (curve.answer as CurveAnswer).curve, breakpoints, current }, { heading: true, caption: studyCaption(model, study) }))}
+            print={{ modelFile: `${fileStem(model.name)}.json`, source: () => ({ kind: 'chart', build: (o) => linkCurveChart({ model, curve: (curve.answer as CurveAnswer).curve, breakpoints, current }, o), caption: studyCaption(model, study), cli: ['curves', '--from', f!, '--to', t!, ...studyArgs(study)] }) }}
           />
           <p className="lf-num-note">
             How strongly {labelOf(model, f!)} now moves {labelOf(model, t!)} one sampling interval later, for every interval. Too short an interval leaves no time for the effect; too long lets it fade.

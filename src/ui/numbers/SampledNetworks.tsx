@@ -6,10 +6,12 @@ import { svgDocument } from '../../export/svg';
 import type { SampledAnswer } from '../../worker/numericApi';
 import { fileStem } from '../figureFiles';
 import { ExportButtons } from './ExportButtons';
+import { studyArgs, type FigureSource } from '../export/printFile';
+import type { StudyAt } from '../../export/caption';
 import { NetworkDiagram } from './NetworkDiagram';
 
 /** The lagged and same-interval networks a study sampling every Δ would estimate (in expectation). */
-export function SampledNetworks({ model, answer, onPick, caption }: { model: Model; answer: SampledAnswer; onPick?: (from: string, to: string) => void; caption?: string }) {
+export function SampledNetworks({ model, answer, onPick, caption, study }: { model: Model; answer: SampledAnswer; onPick?: (from: string, to: string) => void; caption?: string; study?: StudyAt }) {
   const [standardized, setStandardized] = useState(false);
   const u = model.timeUnit;
   const std = standardized && answer.phiStandardized !== null;
@@ -17,6 +19,9 @@ export function SampledNetworks({ model, answer, onPick, caption }: { model: Mod
   const same = sameIntervalNetwork(model, answer);
   const file = { heading: true, caption };
   const stem = fileStem(model.name);
+  // the export dialog: the same chart through `loopfold sampled … --out` (the study as the caption states it)
+  const cli = ['sampled', ...studyArgs(study ?? { interval: answer.interval })];
+  const print = (build: FigureSource & { kind: 'chart' }) => ({ modelFile: `${stem}.json`, source: () => build });
   return (
     <>
       <div className="lf-num-row" role="radiogroup" aria-label="Scale of the lagged effects">
@@ -27,14 +32,14 @@ export function SampledNetworks({ model, answer, onPick, caption }: { model: Mod
       {lagged && (
         <>
           <NetworkDiagram model={model} figure={lagged} onPick={onPick} />
-          <ExportButtons what="the lagged network" name={`${stem}-lagged-network${std ? '-standardized' : ''}`} svg={() => svgDocument(laggedNetwork(model, answer, std, file)!)} />
+          <ExportButtons what="the lagged network" name={`${stem}-lagged-network${std ? '-standardized' : ''}`} svg={() => svgDocument(laggedNetwork(model, answer, std, file)!)} print={print({ kind: 'chart', build: (o) => laggedNetwork(model, answer, std, o), caption, cli: std ? [...cli, '--standardized'] : cli })} />
         </>
       )}
       <h4>Same-interval links: partial correlations of what changes within one interval</h4>
       {same ? (
         <>
           <NetworkDiagram model={model} figure={same} />
-          <ExportButtons what="the same-interval network" name={`${stem}-same-interval-network`} svg={() => svgDocument(sameIntervalNetwork(model, answer, file)!)} />
+          <ExportButtons what="the same-interval network" name={`${stem}-same-interval-network`} svg={() => svgDocument(sameIntervalNetwork(model, answer, file)!)} print={print({ kind: 'chart', build: (o) => sameIntervalNetwork(model, answer, o), caption, cli: [...cli, '--network', 'same'] })} />
         </>
       ) : (
         <p className="lf-num-note">Not defined here: some states receive no noise.</p>

@@ -107,6 +107,7 @@ export function SimulationPanel({ model, hold, study, slowest }: Props) {
             what="the simulation chart"
             name={`${fileStem(model.name)}-simulation`}
             svg={() => svgDocument(simulationChart(model, done, shown, study, { heading: true, caption: studyCaption(model, study) }))}
+            print={{ modelFile: `${fileStem(model.name)}.json`, source: () => ({ kind: 'chart', build: (o) => simulationChart(model, done, shown, study, o), caption: studyCaption(model, study) }) }}
           />
           <p className="lf-num-note">
             {interval === undefined

@@ -18,6 +18,8 @@ import { viewCaption } from '../../export/caption';
 const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
+import { ExportDialog } from '../export/ExportDialog';
+import { fileStem } from '../figureFiles';
 import { ViewCanvas } from './ViewCanvas';
 import { ExplainList } from './ExplainList';
 import { GrowthNotice } from '../diagnostics/GrowthNotice';
@@ -79,6 +81,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const shownCache = shown?.cache ?? null;
   const lines = useMemo(() => (ordering && shownInterval !== null && shownCache ? explainOrdering(shownCache.model, ordering, shownCache.design(shownInterval), shownCache.breakpoints) : []), [ordering, shownInterval, shownCache]);
   const [exportProblem, setExportProblem] = useState<string | null>(null);
+  const [printing, setPrinting] = useState(false);
 
   if (bc.status === 'failed') return <section className="lf-timescale"><p role="alert">The ordering could not be computed: {bc.message}</p></section>;
   if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval">{problem ? <p role="alert">The ordering could not be computed: {problem}</p> : <p>Finding the model's timescales…</p>}</section>;
@@ -144,7 +147,22 @@ export function TimescalePaneFor({ model }: { model: Model }) {
         <button type="button" onClick={() => doExport(1)}>PNG 1×</button>
         <button type="button" onClick={() => doExport(2)}>2×</button>
         <button type="button" onClick={() => doExport(4)}>4×</button>
+        <button type="button" onClick={() => setPrinting(true)}>Print options…</button>
       </div>
+      {printing && (
+        <ExportDialog
+          what={exportOf === 'mechanism' ? 'the mechanism' : view === 'unrolled' ? 'the three instants' : 'the ordering'}
+          name={`${fileStem(model.name)}-${exportOf === 'mechanism' ? 'mechanism' : view}`}
+          modelFile={`${fileStem(model.name)}.json`}
+          source={() => ({
+            kind: 'view',
+            request: exportOf === 'mechanism'
+              ? { model, view: 'mechanism', design: {}, caption: false }
+              : { model, view, design: { interval, ...study, ...(hold ? { hold } : {}) }, folded: foldedList.filter((k) => blocks.includes(k)), caption: true },
+          })}
+          onClose={() => setPrinting(false)}
+        />
+      )}
       {(problem || exportProblem) && <p className="lf-problem" role="alert">{problem ? `The ordering at this interval could not be computed: ${problem}` : exportProblem}</p>}
       <div className={`lf-timescale-views ${sideBySide ? 'lf-two' : ''}`}>
         {sideBySide && (
