@@ -2,6 +2,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { readFileSync } from 'node:fs';
 import { parseModel } from '../src/core/model/schema';
 import { breakpoints, orderingAt } from '../src/core/ordering/index';
+import { modelAxis } from '../src/core/study/convert';
 import { intervalRange } from '../src/core/view/interval';
 
 const model = (() => {
@@ -73,7 +74,7 @@ test('a hold and a new study length open a new band set: the figure and the tick
   await slider(page).focus();
   await page.keyboard.press('End');
   const interval = Number(await slider(page).getAttribute('data-interval'));
-  expect(await rolesShown(page)).toEqual(orderingAt(model, { interval, samples: 50 }).roles);
+  expect(await rolesShown(page)).toEqual(orderingAt(model, { interval, ...modelAxis(model) }).roles);
 
   await page.getByRole('tab', { name: 'Intervene' }).click();
   const hold = page.locator('.lf-hold');
@@ -81,16 +82,17 @@ test('a hold and a new study length open a new band set: the figure and the tick
   await hold.getByRole('textbox').fill('2');
   await hold.getByRole('button', { name: 'Hold', exact: true }).click();
   await page.getByRole('tab', { name: 'Timescales' }).click();
-  const held = orderingAt(model, { interval, samples: 50, hold: { stress: 2 } }).roles;
+  const held = orderingAt(model, { interval, ...modelAxis(model), hold: { stress: 2 } }).roles;
   expect(held.stress).toBe('held');
   await expect.poll(() => rolesShown(page)).toEqual(held);
 
   // 20 samples: the breakpoints move, and the control shows the new ones
+  await page.getByLabel('Study length given as').selectOption('samples');
   await page.getByLabel('Number of samples').fill('20');
   const bps20 = breakpoints(model, { samples: 20 });
   const range = intervalRange(model, bps20);
   const inside = bps20.filter((b) => b.interval > range.min && b.interval < range.max).map((b) => b.interval).sort((a, b) => a - b);
-  expect(inside).not.toEqual(breakpoints(model, { samples: 50 }).map((b) => b.interval).sort((a, b) => a - b));
+  expect(inside).not.toEqual(breakpoints(model, modelAxis(model)).map((b) => b.interval).sort((a, b) => a - b));
   await expect.poll(() => page.locator('.lf-tick').evaluateAll((els) => els.map((e) => Number(e.getAttribute('data-breakpoint'))).sort((a, b) => a - b))).toEqual(inside);
   const now = Number(await slider(page).getAttribute('data-interval'));
   await expect.poll(() => rolesShown(page)).toEqual(orderingAt(model, { interval: now, samples: 20, hold: { stress: 2 } }).roles);
@@ -103,7 +105,7 @@ test('without a worker (?noworker) the same orderings are computed on the main t
   await page.keyboard.press('Home');
   for (let i = 0; i < 4; i++) await page.keyboard.press('PageUp');
   const interval = Number(await slider(page).getAttribute('data-interval'));
-  expect(await rolesShown(page)).toEqual(orderingAt(model, { interval, samples: 50 }).roles);
+  expect(await rolesShown(page)).toEqual(orderingAt(model, { interval, ...modelAxis(model) }).roles);
   await expect(pane(page)).toHaveAttribute('data-computed-in', 'main thread');
   expect(errors).toEqual([]);
 });

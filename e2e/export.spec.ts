@@ -34,7 +34,7 @@ for (const view of ['ordering', 'unrolled'] as const) {
     const appFile = testInfo.outputPath(`app-${view}.svg`);
     await download.saveAs(appFile);
     const cliFile = testInfo.outputPath(`cli-${view}.svg`);
-    const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', 'render', MODEL_PATH, '--interval', interval, '--samples', '50', '--view', view, '--caption', '--out', cliFile], { encoding: 'utf8' });
+    const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', 'render', MODEL_PATH, '--interval', interval, '--view', view, '--caption', '--out', cliFile], { encoding: 'utf8' });
     expect(r.status, r.stderr).toBe(0);
     const app = readFileSync(appFile, 'utf8');
     expect(app).toContain('data-variable="stress"');

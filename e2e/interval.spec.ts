@@ -4,24 +4,26 @@ import { fileURLToPath } from 'node:url';
 import { parseModel } from '../src/core/model/schema';
 import type { Model } from '../src/core/model/types';
 import { breakpoints, orderingAt } from '../src/core/ordering/index';
+import { modelAxis } from '../src/core/study/convert';
 import type { Ordering } from '../src/core/ordering/types';
 import { readFileSync } from 'node:fs';
 
 const MODEL_PATH = fileURLToPath(new URL('../src/examples/sleep-stress.json', import.meta.url));
-const TICKS = (m: Model) => breakpoints(m, { samples: 50 }).length;
+/** The app reads the example's own study (its length), as the command line does without --samples. */
+const TICKS = (m: Model) => breakpoints(m, modelAxis(m)).length;
 const model = (() => { const r = parseModel(JSON.parse(readFileSync(MODEL_PATH, 'utf8'))); if (!r.ok) throw new Error('bad example'); return r.model; })();
 
 /**
  * The ordering the command line prints for an interval (`loopfold order --json`);
  * while that command is not part of the build, the same core function in Node.
  */
-function expectedOrdering(m: Model, interval: number, samples: number): Ordering {
-  const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', 'order', MODEL_PATH, '--interval', String(interval), '--samples', String(samples), '--json'], { encoding: 'utf8' });
+function expectedOrdering(m: Model, interval: number): Ordering {
+  const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', 'order', MODEL_PATH, '--interval', String(interval), '--json'], { encoding: 'utf8' });
   if (r.status === 0) {
     const parsed = JSON.parse(r.stdout) as Ordering | { ordering: Ordering };
     return 'ordering' in parsed ? parsed.ordering : parsed;
   }
-  return orderingAt(m, { interval, samples });
+  return orderingAt(m, { interval, ...modelAxis(m) });
 }
 
 async function openTimescales(page: Page) {
@@ -94,7 +96,7 @@ test('keyboard: every band from Home to End matches the ordering the core prints
     seen.push(band);
     await expect(page.locator('.lf-timescale')).toHaveAttribute('data-band', String(band));
     const got = await drawn(page);
-    const want = expected(model, expectedOrdering(model, interval, 50));
+    const want = expected(model, expectedOrdering(model, interval));
     expect(got.roles, `band ${band} at ${interval} h`).toEqual(want.roles);
     expect(got.groups, `band ${band}`).toEqual(want.groups);
     expect(got.edges, `band ${band}`).toEqual(want.edges);
@@ -147,7 +149,7 @@ test('mouse drag across the whole control visits every band, each drawn as the c
     const { band, interval } = await state(page);
     expect(band).toBe(i);
     const got = await drawn(page);
-    const want = expected(model, expectedOrdering(model, interval, 50));
+    const want = expected(model, expectedOrdering(model, interval));
     expect(got.groups, `band ${band}`).toEqual(want.groups);
     expect(got.edges, `band ${band}`).toEqual(want.edges);
     expect(got.roles, `band ${band}`).toEqual(want.roles);

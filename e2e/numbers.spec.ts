@@ -137,7 +137,7 @@ test('the Numbers pane exports the simulation chart and the lagged network as th
   await page.getByRole('tab', { name: 'Numbers' }).click();
   const pane = page.locator('.lf-numbers');
   const cli = (argv: string[], out: string) => {
-    const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', ...argv, '--interval', interval, '--samples', '50', '--caption', '--svg', out], { encoding: 'utf8' });
+    const r = spawnSync('npm', ['run', '-s', 'loopfold', '--', ...argv, '--interval', interval, '--caption', '--svg', out], { encoding: 'utf8' });
     expect(r.status, r.stderr).toBe(0);
     return readFileSync(out, 'utf8');
   };

@@ -8,13 +8,13 @@ const SLEEP = 'src/examples/sleep-stress.json';
 describe('loopfold order', () => {
   it('prints exactly one JSON object with roles, blocks, edges and diagnostics', async () => {
     const m = memoryIo();
-    expect(await runCli(['order', SLEEP, '--interval', '1 day', '--json'], m.io)).toBe(0);
+    expect(await runCli(['order', SLEEP, '--interval', '1 day', '--samples', '50', '--json'], m.io)).toBe(0);
     expect(m.out).toHaveLength(1);
     const o = JSON.parse(m.out[0]);
     expect(Object.keys(o)).toEqual(expect.arrayContaining(['roles', 'blocks', 'edges', 'diagnostics']));
     // Settling rule (k·τ ≤ Δ with k = 5): stress τ = 40 min and cortisol τ = 90 min settle when
-    // sampled daily; sleep debt (τ = 1 day) stays dynamic; over 50 daily samples, coping
-    // (τ = 4 months ≈ 2922 h < 5 × 1200 h) is not frozen.
+    // sampled daily; sleep debt (τ = 1 day) stays dynamic; over 50 daily samples (the flag
+    // overrides the file's two-week study), coping (τ = 4 months ≈ 2922 h < 5 × 1200 h) is not frozen.
     expect(o.roles).toMatchObject({ workload: 'input', stress: 'settled', cortisol: 'settled', sleepDebt: 'state', mood: 'state', coping: 'state', rumination: 'derived' });
   });
   it('freezes the slow state over a two-week study', async () => {

@@ -41,7 +41,7 @@ const greenhouse = example('greenhouse');
 const KINDS: Record<string, () => Promise<El>> = {
   ordering: async () => (await printView({ model, view: 'ordering', design: { interval: 24 }, caption: true }, { width: { mm: 178 } }, (vm) => layoutInNode(vm))).root,
   unrolled: async () => (await printView({ model, view: 'unrolled', design: { interval: 24 } }, { width: { mm: 178 } }, (vm) => layoutInNode(vm))).root,
-  multiples: async () => (await printMultiples({ model, intervals: [3, 28 * 24], design: {} }, { width: { mm: 178 } }, (vm) => layoutInNode(vm))).root,
+  multiples: async () => (await printMultiples({ model, intervals: [3, 28 * 24], design: { samples: 50 } }, { width: { mm: 178 } }, (vm) => layoutInNode(vm))).root,
   'time-series': async () => timeSeriesChart({ times: [0, 1, 2, 3, 4], series: [{ id: 'a', name: 'Stress', values: [0, -0.5, -1, -0.5, 0] }], samples: [0, 2, 4], timeUnit: 'h' }, { heading: true }),
   network: async () => networkDiagram({ model: greenhouse, states: ['airTemp', 'humidity', 'soilWater'], matrix: [[0.5, -0.2, 0], [0.1, 0.6, 0.3], [0, -0.4, 0.9]], directed: true, label: 'Lagged network' }, { heading: true }),
   'link-curve': async () => linkCurveChart({ model: greenhouse, curve: { from: 'soilWater', to: 'humidity', intervals: [1, 10, 100, 1000], effect: [0.01, -0.2, 0.3, 0.05], peaks: [{ interval: 100, effect: 0.3 }] } as never, breakpoints: [30], current: 10 }, { heading: true }),
