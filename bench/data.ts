@@ -6,7 +6,8 @@
 import { spawnSync } from 'node:child_process';
 import { importText } from '../src/core/data/import';
 import { ctMinus2LL, ctSpec, ctStart, fitCt } from '../src/core/fit/ct';
-import { seededRandom, simulateCt } from '../src/core/fit/simulate';
+import { simulateCt } from '../src/core/fit/simulate';
+import { seededRandom } from '../src/core/stats/random';
 import { PYTHON } from '../tests/helpers/python';
 
 function ms(t0: number): number {
@@ -15,7 +16,8 @@ function ms(t0: number): number {
 
 export async function benchData(): Promise<void> {
   // Import: 10^6 rows, person + time + 6 data columns (8 columns), 2,000 persons.
-  const r = seededRandom(1);
+  const g1 = seededRandom(1);
+  const r = (): number => g1.uniform();
   const rows = ['pid,hours,a,b,c,d,e,f'];
   for (let k = 0; k < 1_000_000; k++) rows.push(`p${k % 2000},${(Math.floor(k / 2000) * 2.5).toFixed(2)},${Array.from({ length: 6 }, () => (r() * 10).toFixed(3)).join(',')}`);
   const text = rows.join('\n');
@@ -26,7 +28,8 @@ export async function benchData(): Promise<void> {
   console.log(`import 10^6 rows × 8 columns (${(text.length / 1e6).toFixed(0)} MB, Node, one thread): ${(importMs / 1000).toFixed(2)} s; kept ${res.summary.kept} (goal ≤ 5 s)`);
 
   // Continuous-time fit: 100 persons × 70 prompts, 4 states, irregular intervals, 5 % missing cells.
-  const rr = seededRandom(2);
+  const g2 = seededRandom(2);
+  const rr = (): number => g2.uniform();
   const times = Array.from({ length: 100 }, () => { let t = 0; return Array.from({ length: 70 }, () => (t += 0.5 + rr() * 3)); });
   const truth = { states: ['w', 'x', 'y', 'z'], drift: [[-0.9, 0.2, 0, 0], [0, -0.6, 0.3, 0], [0, 0, -0.5, -0.2], [0.25, 0, 0, -0.7]], diffusion: [[1, 0, 0, 0], [0, 0.8, 0, 0], [0, 0, 0.6, 0], [0, 0, 0, 0.5]], levels: [0, 1, 2, 3], between: [[0.3, 0, 0, 0], [0, 0.3, 0, 0], [0, 0, 0.3, 0], [0, 0, 0, 0.3]] };
   const panel = simulateCt(truth, times, { seed: 3, missing: 0.05 });

@@ -9,13 +9,15 @@
 import { readFileSync } from 'node:fs';
 import { parseModelText } from '../src/core/model/schema';
 import { sketchDrift } from '../src/core/fit/compare';
-import { seededRandom, simulateCt } from '../src/core/fit/simulate';
+import { simulateCt } from '../src/core/fit/simulate';
+import { seededRandom } from '../src/core/stats/random';
 
 const r = parseModelText(readFileSync('src/examples/sleep-stress.json', 'utf8'));
 if (!r.ok) throw new Error('the example does not load');
 const states = ['stress', 'cortisol', 'sleepDebt', 'mood'];
 const drift = sketchDrift(r.model, states);
-const rand = seededRandom(20261204);
+const gen = seededRandom(20261204);
+const rand = (): number => gen.uniform();
 const persons = 30, days = 14, prompts = 5;
 const promptTimes: number[][] = [], promptNo: number[][] = [];
 for (let p = 0; p < persons; p++) {

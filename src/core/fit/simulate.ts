@@ -2,37 +2,14 @@
  * Data from a known continuous-time model, for checking fits and for demo
  * data: exact discrete steps over each interval (Φ = e^{AΔ}, Q by Van Loan),
  * person levels drawn from N(μ, Ψ), measurement error, missing cells.
- * Deterministic for a seed (mulberry32 and Box–Muller: common practice).
+ * Deterministic for a seed (the app's one generator, src/core/stats/random.ts).
  */
 import type { VariableId } from '../model/types';
 import type { Panel, PersonSeries } from '../data/panel';
 import { expm, vanLoan } from '../numeric/expm';
 import { lyapunov } from '../numeric/lyapunov';
 import { fromRows, type Mat } from '../numeric/dense';
-
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-export function normalSource(rand: () => number): () => number {
-  let spare: number | null = null;
-  return () => {
-    if (spare !== null) { const s = spare; spare = null; return s; }
-    let u = 0;
-    while (u === 0) u = rand();
-    const v = rand();
-    const r = Math.sqrt(-2 * Math.log(u));
-    spare = r * Math.sin(2 * Math.PI * v);
-    return r * Math.cos(2 * Math.PI * v);
-  };
-}
+import { seededRandom } from '../stats/random';
 
 function cholLower(c: number[][]): number[][] {
   const n = c.length;
@@ -75,8 +52,9 @@ export function simulateCt(truth: CtTruth, times: number[][], opt: { seed: numbe
   const measured = truth.measured ?? truth.states;
   const reads = measured.map((v) => truth.states.indexOf(v));
   const m = measured.length;
-  const rand = seededRandom(opt.seed);
-  const z = normalSource(rand);
+  const rng = seededRandom(opt.seed);
+  const rand = (): number => rng.uniform();
+  const z = (): number => rng.normal();
   const A: Mat = fromRows(truth.drift), GG: Mat = fromRows(truth.diffusion);
   const ly = lyapunov(A, GG);
   if (!ly.ok) throw new Error(ly.reason);

@@ -55,7 +55,7 @@ export function mergeTallies(a: Tally, b: Tally): Tally {
 
 /** The random stream of replication r. */
 export function replicationStream(seed: number, r: number): Random {
-  return seededRandom(Math.floor(seed) * 1_000_003 + r);
+  return seededRandom(seed).fork(r);
 }
 
 /**
@@ -74,10 +74,10 @@ export function runReplications(setup: RehearsalSetup, from: number, to: number,
   for (let r = from; r < to; r++) {
     if (hooks.shouldStop?.()) break;
     const rng = replicationStream(setup.seed, r);
-    const prompts = setup.prompts(rng.fork());
-    const people = rng.fork();
+    const prompts = setup.prompts(rng.fork(0));
+    const people = rng.fork(1);
     const persons = prompts.map(() => drawPerson(setup.process, people));
-    const panel = simulatePanel((p) => persons[p], prompts, { states, errorVariance: setup.errorVariance, timeUnit: setup.timeUnit }, rng.fork());
+    const panel = simulatePanel((p) => persons[p], prompts, { states, errorVariance: setup.errorVariance, timeUnit: setup.timeUnit }, rng.fork(2));
     tally.replications++;
     let fit;
     try {

@@ -136,11 +136,11 @@ export function simulatePerson(process: PersonProcess, prompts: PersonPrompts, o
   };
 }
 
-/** Simulate every person (each on its own random stream forked in order, so adding persons keeps the first ones). */
+/** Simulate every person (person i on stream `rng.fork(i)`, so adding persons keeps the first ones). */
 export function simulatePanel(processes: (person: number) => PersonProcess, prompts: readonly PersonPrompts[], opt: StudySimulationOptions, rng: Random): Panel {
   return {
     variables: opt.states.slice(),
     timeUnit: opt.timeUnit,
-    persons: prompts.map((p, i) => simulatePerson(processes(i), p, opt, rng.fork())),
+    persons: prompts.map((p, i) => simulatePerson(processes(i), p, opt, rng.fork(i))),
   };
 }

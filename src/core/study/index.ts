@@ -1,7 +1,7 @@
 /**
  * The study a modeller plans, in one place: conversions (`convert.ts`), the
  * study a model carries or starts with (`design.ts`), prompt times and missed
- * prompts (`schedule.ts`, seeded by `rng.ts`), the gaps between prompts and
+ * prompts (`schedule.ts`, seeded by `../stats/random.ts`), the gaps between prompts and
  * what a VAR over them estimates (`gaps.ts`), and the design report (`report.ts`).
  */
 export {
@@ -10,8 +10,8 @@ export {
 } from './convert';
 export type { StudyAxis } from './convert';
 export { defaultInterval, studyOfModel, studyRange } from './design';
-export { createRng } from './rng';
-export type { Rng } from './rng';
+export { seededRandom } from '../stats/random';
+export type { Random } from '../stats/random';
 export { DEFAULT_SEED, MAX_PROMPTS, answeredOccasions, clockMinutes, nominalSpacing, plannedSlots, promptPlan } from './schedule';
 export type { PersonPrompts, PlannedSlots, PromptPlan } from './schedule';
 export { attenuated, phiOverGap, scheduleGaps, varLimits } from './gaps';

@@ -17,7 +17,7 @@
 import type { Schedule, Study, TimeUnit } from '../model/types';
 import { convertDuration } from '../model/units';
 import { DEFAULT_PERSONS, lengthAxis, parseInterval } from './convert';
-import { createRng, type Rng } from './rng';
+import { seededRandom, type Random } from '../stats/random';
 
 /** Default seed of a study that names none. */
 export const DEFAULT_SEED = 1;
@@ -151,20 +151,20 @@ export interface PromptPlan {
 export function promptPlan(study: Study, unit: TimeUnit, options: { seed?: number; persons?: number } = {}): PromptPlan {
   const slots = plannedSlots(study, unit);
   const n = options.persons ?? study.persons ?? DEFAULT_PERSONS;
-  const rng = createRng(options.seed ?? study.seed ?? DEFAULT_SEED);
+  const rng = seededRandom(options.seed ?? study.seed ?? DEFAULT_SEED);
   const p = study.missedPrompts ?? 0;
   const persons: PersonPrompts[] = [];
   for (let i = 0; i < n; i++) persons.push(personPrompts(slots, p, rng.fork(i), `p${i + 1}`));
   return { timeUnit: unit, persons };
 }
 
-function personPrompts(slots: PlannedSlots, missed: number, rng: Rng, id: string): PersonPrompts {
+function personPrompts(slots: PlannedSlots, missed: number, rng: Random, id: string): PersonPrompts {
   const m = slots.base.length;
   const time = new Float64Array(m);
   const answered = new Uint8Array(m);
   for (let k = 0; k < m; k++) {
-    time[k] = slots.base[k] + (slots.width > 0 ? rng.next() * slots.width : 0);
-    answered[k] = missed > 0 && rng.next() < missed ? 0 : 1;
+    time[k] = slots.base[k] + (slots.width > 0 ? rng.uniform() * slots.width : 0);
+    answered[k] = missed > 0 && rng.uniform() < missed ? 0 : 1;
   }
   return { id, time, answered, day: slots.day.slice(), prompt: slots.prompt.slice() };
 }

@@ -2,7 +2,8 @@ import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { runCli } from '../../../src/cli/run';
 import { memoryIo } from '../../helpers/cli';
-import { simulateCt, seededRandom } from '../../../src/core/fit/simulate';
+import { simulateCt } from '../../../src/core/fit/simulate';
+import { seededRandom } from '../../../src/core/stats/random';
 import { expectClose } from '../../helpers/tolerance';
 
 const MODEL = 'src/examples/sleep-stress.json';
@@ -14,7 +15,8 @@ async function run(argv: string[], files: Record<string, string> = {}): Promise<
 }
 
 function diary(): string {
-  const r = seededRandom(4);
+  const g = seededRandom(4);
+  const r = (): number => g.uniform();
   const times = Array.from({ length: 12 }, () => { let t = 0; return Array.from({ length: 30 }, () => (t += 1 + r() * 2)); });
   const panel = simulateCt({ states: ['stress', 'mood'], drift: [[-1.2, -0.3], [-0.2, -0.4]], diffusion: [[1, 0], [0, 0.5]], levels: [3, 5], between: [[0.3, 0], [0, 0.3]] }, times, { seed: 9, missing: 0.05 });
   const lines = ['pid,hours,stress,mood'];

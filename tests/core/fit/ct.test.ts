@@ -1,11 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { ctMinus2LL, ctStart, fitCt, type CtFit } from '../../../src/core/fit/ct';
-import { seededRandom, simulateCt, type CtTruth } from '../../../src/core/fit/simulate';
+import { simulateCt, type CtTruth } from '../../../src/core/fit/simulate';
+import { seededRandom } from '../../../src/core/stats/random';
 import type { Panel } from '../../../src/core/data/panel';
 import { runPython } from '../../helpers/python';
 
 function irregularTimes(persons: number, occasions: number, seed: number): number[][] {
-  const r = seededRandom(seed);
+  const g = seededRandom(seed);
+  const r = (): number => g.uniform();
   return Array.from({ length: persons }, () => { let t = 0; return Array.from({ length: occasions }, () => (t += 0.3 + r() * 1.7)); });
 }
 

@@ -60,7 +60,7 @@ describe('analytic power of a VAR(1) analysis', () => {
       const est: number[] = [];
       let rej = 0;
       for (let r = 0; r < K; r++) {
-        const person = simulatePerson(proc.base, regular(1, T + 1)()[0], { states: proc.states, errorVariance: [0, 0], timeUnit: 'day' }, rng.fork());
+        const person = simulatePerson(proc.base, regular(1, T + 1)()[0], { states: proc.states, errorVariance: [0, 0], timeUnit: 'day' }, rng.fork(r));
         const v = person.values;
         for (let k = 0; k < v.length / 2; k++) { const z0 = v[2 * k], z1 = v[2 * k + 1]; v[2 * k] = L[0][0] * z0; v[2 * k + 1] = L[1][0] * z0 + L[1][1] * z1; }
         const tally = analyse(setup, person);

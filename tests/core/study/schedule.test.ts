@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Study } from '../../../src/core/model/types';
-import { createRng } from '../../../src/core/study/rng';
+import { seededRandom } from '../../../src/core/stats/random';
 import { answeredOccasions, nominalSpacing, plannedSlots, promptPlan } from '../../../src/core/study/schedule';
 import { decimals, expectClose } from '../../helpers/tolerance';
 
@@ -65,10 +65,10 @@ describe('missed prompts and persons, seeded', () => {
 
 describe('the seeded generator', () => {
   it('gives uniforms with mean 1/2 and variance 1/12, normals with mean 0 and variance 1 (within 5 standard errors)', () => {
-    const r = createRng(123);
+    const r = seededRandom(123);
     const n = 200_000;
     let s = 0, s2 = 0, z = 0, z2 = 0;
-    for (let i = 0; i < n; i++) { const u = r.next(); s += u; s2 += u * u; const g = r.normal(); z += g; z2 += g * g; }
+    for (let i = 0; i < n; i++) { const u = r.uniform(); s += u; s2 += u * u; const g = r.normal(); z += g; z2 += g * g; }
     // uniform: mean 1/2, variance 1/12; standard normal: mean 0, variance 1 (textbook moments)
     expect(Math.abs(s / n - 0.5)).toBeLessThan(5 * Math.sqrt(1 / 12 / n));
     expectClose(s2 / n - (s / n) ** 2, 1 / 12, { relTol: 0.01 });
@@ -76,10 +76,10 @@ describe('the seeded generator', () => {
     expect(Math.abs(z2 / n - 1)).toBeLessThan(5 * Math.sqrt(2 / n));
   });
   it('is reproducible and forks independent streams', () => {
-    expect(Array.from({ length: 5 }, createRng(1).next)).toEqual(Array.from({ length: 5 }, createRng(1).next));
-    const f = createRng(1);
-    const a = f.fork(0).next();
-    expect(f.fork(0).next()).toBe(a);
-    expect(f.fork(1).next()).not.toBe(a);
+    expect(Array.from({ length: 5 }, seededRandom(1).uniform)).toEqual(Array.from({ length: 5 }, seededRandom(1).uniform));
+    const f = seededRandom(1);
+    const a = f.fork(0).uniform();
+    expect(f.fork(0).uniform()).toBe(a);
+    expect(f.fork(1).uniform()).not.toBe(a);
   });
 });
