@@ -28,6 +28,7 @@ import { ols } from '../stats/ols';
 import { normalCdf } from '../stats/normal';
 import { symmetricEigen } from '../pictures/symmetric';
 import { fromRows, type Mat } from '../numeric/dense';
+import { chiSquareSurvival } from './compare';
 import { johansenCritical, tauCritical, tauPValueArgument, type Deterministic } from './cointTables';
 
 export type AdfRegression = Deterministic | 'n';
@@ -410,22 +411,131 @@ export function errorCorrection(series: readonly ArrayLike<number>[], eg: EngleG
  */
 export function trackingSentence(ec: ErrorCorrection, eg: EngleGrangerResult, names: string[]): string {
   const list = (xs: string[]): string => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`);
-  const balance = balanceText(eg, names);
+  const balance = balanceText(eg, names, ec.trackers.length === 1 ? names.indexOf(ec.trackers[0]) : 0);
   if (ec.trackers.length === 0) return `No series is pulled back toward the balance ${balance} distinguishably from zero; the data do not say which tracks which.`;
   if (ec.leaders.length === 0) return `Each of ${list(ec.trackers)} is pulled back toward the balance ${balance}; at a long interval they settle together and no one of them determines the others.`;
   const verb = ec.trackers.length === 1 ? 'tracks' : 'track';
   return `${list(ec.trackers)} ${verb} ${list(ec.leaders)}: at an interval long enough for the correction to finish, ${list(ec.trackers)}'s settled balance is determined by ${list(ec.leaders)} (${balance}), while ${list(ec.leaders)} ${ec.leaders.length === 1 ? 'is' : 'are'} not pulled back by ${list(ec.trackers)}. A model-based hypothesis, not a finding.`;
 }
 
-/** The cointegrating regression as a balance, e.g. "a ≈ 2.01·b + 0.98" (minus sign U+2212). */
-export function balanceText(eg: EngleGrangerResult, names: string[]): string {
+/**
+ * The cointegrating regression as a balance solved for one series, e.g. "a ≈ 2.01·b + 0.98"
+ * (minus sign U+2212). The regression is y₀ = Σ bⱼ yⱼ + c (+ d·t); solved for series i ≠ 0:
+ * yᵢ = (y₀ − Σ_{j≠i} bⱼ yⱼ − c − d·t) / bᵢ.
+ */
+export function balanceText(eg: EngleGrangerResult, names: string[], solveFor = 0): string {
   const k = names.length - 1;
-  const terms = eg.coefficients.slice(0, k).map((b, i) => ({ v: b, text: `${fmt(Math.abs(b))}·${names[i + 1]}` }));
-  terms.push({ v: eg.coefficients[k], text: fmt(Math.abs(eg.coefficients[k])) });
-  if (eg.coefficients.length > k + 1) terms.push({ v: eg.coefficients[k + 1], text: `${fmt(Math.abs(eg.coefficients[k + 1]))}·t` });
-  return `${names[0]} ≈ ${terms.map((t, i) => (i === 0 ? (t.v < 0 ? '−' : '') : t.v < 0 ? ' − ' : ' + ') + t.text).join('')}`;
+  // Weights of the equilibrium error e = Σ wⱼ yⱼ + w_c (+ w_t t).
+  const w = [1, ...eg.coefficients.slice(0, k).map((b) => -b)];
+  const wc = -eg.coefficients[k];
+  const wt = eg.coefficients.length > k + 1 ? -eg.coefficients[k + 1] : null;
+  const f = -1 / w[solveFor];
+  const terms: { v: number; text: string }[] = [];
+  names.forEach((n, j) => { if (j !== solveFor) terms.push({ v: f * w[j], text: `${fmt(Math.abs(f * w[j]))}·${n}` }); });
+  terms.push({ v: f * wc, text: fmt(Math.abs(f * wc)) });
+  if (wt !== null) terms.push({ v: f * wt, text: `${fmt(Math.abs(f * wt))}·t` });
+  return `${names[solveFor]} ≈ ${terms.map((t, i) => (i === 0 ? (t.v < 0 ? '−' : '') : t.v < 0 ? ' − ' : ' + ') + t.text).join('')}`;
 }
 
 function fmt(x: number): string {
   return String(Number(x.toPrecision(4)));
+}
+
+export interface CointegrationOptions {
+  /** Deterministic terms: 'c' (constant, default) or 'ct' (constant and trend); Johansen uses det_order 0 or 1 to match. */
+  trend?: Deterministic;
+  /** Lagged differences in the Johansen and error-correction regressions (default 1). */
+  lags?: number;
+}
+
+export interface CointegrationReport {
+  names: string[];
+  nobs: number;
+  adf: (AdfResult & { series: string; unitRoot: boolean })[];
+  engleGranger: EngleGrangerResult & { cointegrated: boolean };
+  johansen: JohansenResult;
+  errorCorrection: ErrorCorrection | null;
+  /** The ordering a long interval gives, in words. */
+  sentence: string;
+  notes: string[];
+}
+
+/**
+ * Every test on one set of equally spaced series: ADF per series, Engle–Granger
+ * (the first series on the others), Johansen, and, when Engle–Granger rejects
+ * no cointegration at 5 %, the error-correction loadings and who tracks whom.
+ */
+export function cointegrationReport(series: readonly ArrayLike<number>[], names: string[], options: CointegrationOptions = {}): CointegrationReport {
+  const trend = options.trend ?? 'c';
+  const lags = options.lags ?? 1;
+  if (series.length < 2) throw new Error('name at least two series to test for cointegration');
+  const adfs = series.map((s, i) => {
+    const r = adf(s, { regression: trend }, names[i]);
+    return { ...r, series: names[i], unitRoot: !(r.statistic < r.critical!['5%']) };
+  });
+  const eg0 = engleGranger(series[0], series.slice(1), { trend }, names);
+  const eg = { ...eg0, cointegrated: eg0.statistic < eg0.critical['5%'] };
+  const jo = johansen(series, trend === 'c' ? 0 : 1, lags, names);
+  const notes: string[] = [...eg.warnings];
+  const stationary = adfs.filter((a) => !a.unitRoot).map((a) => a.series);
+  if (stationary.length) notes.push(`the unit-root test rejects a unit root at 5 % for ${stationary.join(', ')}: the cointegration tests presume every series drifts (has a unit root)`);
+  let ec: ErrorCorrection | null = null;
+  let sentence: string;
+  if (eg.cointegrated) {
+    ec = errorCorrection(series, eg0, names, Math.max(1, lags));
+    sentence = trackingSentence(ec, eg0, names);
+  } else {
+    sentence = `No cointegration at 5 % (Engle–Granger τ = ${fmt(eg.statistic)}, critical ${fmt(eg.critical['5%'])}): ${names.join(' and ')} may drift apart, so no series' settled balance is determined by another at a long interval.`;
+  }
+  if (eg.cointegrated !== jo.rank.trace > 0) notes.push(`Engle–Granger and Johansen's trace test disagree at 5 % (${eg.cointegrated ? 'cointegrated' : 'not cointegrated'} vs rank ${jo.rank.trace})`);
+  return { names, nobs: series[0].length, adf: adfs, engleGranger: eg, johansen: jo, errorCorrection: ec, sentence, notes };
+}
+
+export interface PooledCointegration {
+  persons: number;
+  tested: number;
+  /** Persons left out, with the reason (e.g. too few occasions). */
+  skipped: { id: string; reason: string }[];
+  /** Per series: persons whose ADF rejects a unit root at 5 %, and the combined p-value. */
+  adf: { series: string; rejected: number; fisherP: number }[];
+  engleGranger: { rejected: number; fisherP: number };
+  /** Persons by Johansen trace rank at 5 %. */
+  johansenRank: number[];
+  /** Per series: persons in whom it tracks the others. */
+  trackers: { series: string; persons: number }[];
+  perPerson: { id: string; report: CointegrationReport }[];
+}
+
+/**
+ * The tests per person, summarised: counts of rejections and Fisher's
+ * combination of the per-person p-values, −2 Σ ln pᵢ ~ χ²(2N) under the null
+ * in every person (Maddala & Wu 1999, from memory; it presumes independent persons).
+ */
+export function pooledCointegration(groups: readonly { id: string; series: readonly ArrayLike<number>[] }[], names: string[], options: CointegrationOptions = {}): PooledCointegration {
+  const perPerson: { id: string; report: CointegrationReport }[] = [];
+  const skipped: { id: string; reason: string }[] = [];
+  for (const g of groups) {
+    try {
+      perPerson.push({ id: g.id, report: cointegrationReport(g.series, names, options) });
+    } catch (e) {
+      skipped.push({ id: g.id, reason: (e as Error).message });
+    }
+  }
+  const fisher = (ps: number[]): number => {
+    if (ps.length === 0) return NaN;
+    const x = -2 * ps.reduce((s, p) => s + Math.log(Math.max(p, 1e-300)), 0);
+    return chiSquareSurvival(x, 2 * ps.length);
+  };
+  const rank = new Array<number>(names.length + 1).fill(0);
+  for (const p of perPerson) rank[p.report.johansen.rank.trace]++;
+  return {
+    persons: groups.length,
+    tested: perPerson.length,
+    skipped,
+    adf: names.map((n, i) => ({ series: n, rejected: perPerson.filter((p) => !p.report.adf[i].unitRoot).length, fisherP: fisher(perPerson.map((p) => p.report.adf[i].pValue)) })),
+    engleGranger: { rejected: perPerson.filter((p) => p.report.engleGranger.cointegrated).length, fisherP: fisher(perPerson.map((p) => p.report.engleGranger.pValue)) },
+    johansenRank: rank,
+    trackers: names.map((n) => ({ series: n, persons: perPerson.filter((p) => p.report.errorCorrection?.trackers.includes(n)).length })),
+    perPerson,
+  };
 }

@@ -1,6 +1,6 @@
 import { spawnSync } from 'node:child_process';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { adf, engleGranger, errorCorrection, johansen, tauPValue, trackingSentence } from '../../../src/core/fit/coint';
+import { adf, balanceText, engleGranger, errorCorrection, johansen, tauPValue, trackingSentence } from '../../../src/core/fit/coint';
 import { TAU_C_2010, tauCritical } from '../../../src/core/fit/cointTables';
 import { seededRandom } from '../../../src/core/stats/random';
 import { expectClose } from '../../helpers/tolerance';
@@ -174,6 +174,11 @@ describe('error correction: which series tracks which', () => {
     expect(sentence).toMatch(/^a tracks b: .*a's settled balance is determined by b \(a ≈ 1\.9\d*·b [+−] \d/);
     // Swap roles: the loading sign follows the weight, so the tracker is still a.
     const eg2 = engleGranger(b, [a], {}, ['b', 'a']);
-    expect(errorCorrection([b, a], eg2, ['b', 'a']).trackers).toEqual(['a']);
+    const ec2 = errorCorrection([b, a], eg2, ['b', 'a']);
+    expect(ec2.trackers).toEqual(['a']);
+    // The balance is solved for the tracker: b ≈ β·a + c turned into a ≈ a/β − c/β.
+    const c = eg2.coefficients;
+    expect(balanceText(eg2, ['b', 'a'], 1)).toBe(`a ≈ ${Number((1 / c[0]).toPrecision(4))}·b ${-c[1] / c[0] < 0 ? '−' : '+'} ${Number(Math.abs(c[1] / c[0]).toPrecision(4))}`);
+    expect(trackingSentence(ec2, eg2, ['b', 'a'])).toContain("a's settled balance is determined by b (a ≈ ");
   });
 });
