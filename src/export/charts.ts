@@ -35,7 +35,7 @@ const hline = (x1: number, x2: number, y: number, attrs: Record<string, Attr>): 
 const vline = (x: number, y1: number, y2: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x), x2: r1(x), y1: r1(y1), y2: r1(y2), ...attrs });
 
 /** The root: white ground, optional heading and caption around the drawing of `width` × `height`. */
-function figure(kind: string, label: string, width: number, height: number, body: El[], opts: FigureOptions, defs?: El): El {
+export function figure(kind: string, label: string, width: number, height: number, body: El[], opts: FigureOptions, defs?: El): El {
   const head = opts.heading ? wrapText(label, width - 2 * PAD, 6.8) : [];
   const top = head.length ? 10 + head.length * 16 : 0;
   const cap = opts.caption ? wrapText(opts.caption, width - 2 * PAD, 5.9) : [];

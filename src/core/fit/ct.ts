@@ -51,6 +51,8 @@ export interface CtOptions {
   maxIterations?: number;
   /** Skip standard errors (faster, e.g. for starting values). */
   noStandardErrors?: boolean;
+  /** Hears each optimiser iteration (its number and −2LL), e.g. for a progress bar. */
+  onIteration?: (iteration: number, minus2LL: number) => void;
 }
 
 export interface CtSpec {
@@ -484,7 +486,7 @@ export function fitCt(panel: Panel, opt: CtOptions = {}): CtFit {
   const theta0 = opt.start ?? ctStart(panel, spec);
   if (theta0.length !== names.length) throw new Error(`the start vector has ${theta0.length} values; this model has ${names.length} parameters (${names.join(', ')})`);
   const f = (th: number[]) => ctMinus2LL(panel, spec, th);
-  const res = minimize(f, theta0, { maxIterations: opt.maxIterations ?? 400 });
+  const res = minimize(f, theta0, { maxIterations: opt.maxIterations ?? 400, onIteration: opt.onIteration });
   const warnings: string[] = [];
   if (!Number.isFinite(res.f)) throw new Error(`the likelihood is not defined at the starting values (${res.message}); try initial 'free' or other starting values`);
   if (!res.converged) warnings.push(`the optimiser stopped before converging (${res.message}, ${res.iterations} iterations)`);

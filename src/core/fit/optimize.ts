@@ -29,7 +29,7 @@ function gradient(f: (x: number[]) => number, x: number[], fx: number, count: { 
 }
 
 /** Example: `minimize((x) => (x[0] - 1) ** 2, [0]).x` ≈ [1]. `f` may return Infinity where it is not defined. */
-export function minimize(f: (x: number[]) => number, x0: number[], opts: { maxIterations?: number; gradTol?: number; relTol?: number } = {}): MinimizeResult {
+export function minimize(f: (x: number[]) => number, x0: number[], opts: { maxIterations?: number; gradTol?: number; relTol?: number; onIteration?: (iteration: number, f: number) => void } = {}): MinimizeResult {
   const n = x0.length;
   const maxIt = opts.maxIterations ?? 500;
   const gradTol = opts.gradTol ?? 1e-6;
@@ -77,6 +77,7 @@ export function minimize(f: (x: number[]) => number, x0: number[], opts: { maxIt
     x = xn; g = gn;
     const prev = fx;
     fx = fn;
+    opts.onIteration?.(it + 1, fx);
     if (df <= relTol * Math.max(1, Math.abs(prev))) { if (++stall >= 3) { converged = true; message = 'no further decrease'; it++; break; } } else stall = 0;
   }
   return { x, f: fx, iterations: it, evaluations: count.n, converged, message };

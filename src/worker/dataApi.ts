@@ -1,0 +1,113 @@
+/**
+ * The Data pane's questions as plain functions over plain data: read a
+ * table's header (and a first guess of the column mapping), import it, and
+ * fit the VAR and continuous-time models, each held against the sketch. The
+ * same object runs in the data worker and on the main thread (lane.ts).
+ * Failures come back as a reason, never as an exception.
+ */
+import type { Model, TimeUnit } from '../core/model/types';
+import { importText, readHeader, type ColumnMapping, type ImportResult } from '../core/data/import';
+import { suggestMapping } from '../core/data/importMapping';
+import type { Panel } from '../core/data/panel';
+import { fitVar, type VarFit, type VarOptions } from '../core/fit/var';
+import { fitCt, type CtFit } from '../core/fit/ct';
+import { compareDrift, compareLagged, likelihoodRatio, sketchFreePattern, sketchStates, type LinkComparison } from '../core/fit/compare';
+import { dataInterval } from '../core/fit/lagCurve';
+import Papa from 'papaparse';
+
+export type Failed = { ok: false; reason: string };
+
+export interface HeaderAnswer {
+  ok: true;
+  fields: string[];
+  delimiter: string;
+  /** A first guess of the mapping from the header and the model's variables. */
+  suggestion: ColumnMapping;
+  /** The first data rows as read (for the mapper to show what a column holds). */
+  preview: string[][];
+}
+
+export type ImportAnswer = ({ ok: true } & ImportResult) | Failed;
+
+export interface VarRequest {
+  sameDay?: boolean;
+  skipRule?: VarOptions['skipRule'];
+}
+export type VarAnswer = { ok: true; fit: VarFit; interval: number; comparison: LinkComparison[] } | Failed;
+
+export interface CtRequest {
+  initial?: 'free' | 'stationary';
+  intercepts?: 'random' | 'common';
+  maxIterations?: number;
+}
+export type CtAnswer =
+  | { ok: true; confirmatory: CtFit; open: CtFit; lr: { chi2: number; df: number; p: number }; comparison: LinkComparison[] }
+  | Failed;
+
+export interface DataApi {
+  header(text: string, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
+  importData(text: string, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
+  fitVar(model: Model, panel: Panel, request: VarRequest, onProgress?: (fraction: number) => void): Promise<VarAnswer>;
+  fitCt(model: Model, panel: Panel, request: CtRequest, onProgress?: (fraction: number) => void): Promise<CtAnswer>;
+}
+
+const reason = (e: unknown): Failed => ({ ok: false, reason: (e as Error)?.message ?? String(e) });
+
+/** The mapped variables must be states of the sketch (the fits compare drift entries). */
+function checkStates(model: Model, panel: Panel): void {
+  const states = sketchStates(model);
+  const not = panel.variables.filter((v) => !states.includes(v));
+  if (not.length) throw new Error(`${not.join(', ')} ${not.length > 1 ? 'are' : 'is'} mapped to data but not ${not.length > 1 ? 'states' : 'a state'} of the sketch; map data columns to states (${states.join(', ')})`);
+  if (panel.variables.length === 0) throw new Error('no data column is mapped to a variable of the sketch');
+}
+
+export const localData: DataApi = {
+  async header(text, variables, unit, delimiter) {
+    try {
+      const h = readHeader(text, delimiter ? { delimiter } : {});
+      if (h.fields.length === 0 || h.fields.every((f) => f === '')) return { ok: false, reason: 'the file has no header row (the first line should name the columns)' };
+      const dup = h.fields.find((f, i) => f !== '' && h.fields.indexOf(f) !== i);
+      if (dup !== undefined) return { ok: false, reason: `the header names column "${dup}" twice; rename one of them` };
+      const rows = Papa.parse<string[]>(text.slice(0, 65536).replace(/^\uFEFF/, ''), { delimiter: h.delimiter, preview: 6 }).data.slice(1);
+      return { ok: true, fields: h.fields, delimiter: h.delimiter, suggestion: suggestMapping(h.fields, variables, unit), preview: rows };
+    } catch (e) {
+      return reason(e);
+    }
+  },
+  async importData(text, mapping, delimiter) {
+    try {
+      return { ok: true, ...importText(text, mapping, delimiter ? { delimiter } : {}) };
+    } catch (e) {
+      return reason(e);
+    }
+  },
+  async fitVar(model, panel, request, onProgress) {
+    try {
+      checkStates(model, panel);
+      onProgress?.(0);
+      const fit = fitVar(panel, { sameDay: request.sameDay, skipRule: request.skipRule, perPerson: true });
+      const interval = dataInterval(panel, !!request.sameDay);
+      const comparison = compareLagged(model, fit, interval);
+      onProgress?.(1);
+      return { ok: true, fit, interval, comparison };
+    } catch (e) {
+      return reason(e);
+    }
+  },
+  async fitCt(model, panel, request, onProgress) {
+    try {
+      checkStates(model, panel);
+      const states = panel.variables;
+      const maxIterations = request.maxIterations ?? 400;
+      const base = { states, initial: request.initial ?? 'free', intercepts: request.intercepts ?? 'random', maxIterations } as const;
+      // Two fits, each about half the work: progress is the share of iterations used so far (a fit that converges early jumps ahead).
+      const open = fitCt(panel, { ...base, onIteration: (k) => onProgress?.(Math.min(0.49, (0.5 * k) / Math.min(maxIterations, 60))) });
+      onProgress?.(0.5);
+      const confirmatory = fitCt(panel, { ...base, free: sketchFreePattern(model, states), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
+      onProgress?.(1);
+      return { ok: true, open, confirmatory, lr: likelihoodRatio(confirmatory, open), comparison: compareDrift(model, open) };
+    } catch (e) {
+      return reason(e);
+    }
+  },
+};
