@@ -1,6 +1,6 @@
 import { execFileSync } from 'node:child_process';
-import { writeFileSync } from 'node:fs';
-import { expect, test } from '@playwright/test';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { expect, test, type Page } from '@playwright/test';
 
 function cli(args: string[]): { directed: [string, string][]; bidirected: [string, string][]; count?: number } {
   return JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', ...args, '--json'], { encoding: 'utf8' }));
@@ -77,5 +77,80 @@ test('Steps tab: the lake measured every u-th step, as the command line gives it
   await pane.getByRole('button', { name: 'Use the sketch' }).click();
   await expect(figure).toHaveAttribute('data-rate', '2');
   await page.screenshot({ path: testInfo.outputPath('steps-lake-1024.png') });
+  expect(errors).toEqual([]);
+});
+
+const AXE = readFileSync('node_modules/axe-core/axe.min.js', 'utf8');
+/** WCAG 2.1 A and AA rules of axe-core over the page as it is now (as in trust.spec.ts). */
+async function axeViolations(page: Page): Promise<string[]> {
+  if (!(await page.evaluate(() => 'axe' in window))) await page.addScriptTag({ content: AXE });
+  const r = (await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run(ctx: unknown, opts: unknown): Promise<unknown> } }).axe;
+    return axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] }, resultTypes: ['violations'] });
+  })) as { violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] };
+  return r.violations.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+}
+
+test('Steps tab: a measured graph edited by hand, searched back as the command line does, with no accessibility violations', async ({ page }, testInfo) => {
+  test.setTimeout(240_000);
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=lake');
+  await page.getByRole('tab', { name: 'Steps' }).click();
+  const pane = page.getByTestId('steps-pane');
+  const figure = page.getByTestId('steps-figure');
+  await expect(figure).toHaveAttribute('data-rate', '2');
+  await page.waitForTimeout(400);
+  expect(await axeViolations(page)).toEqual([]);
+
+  // A three-variable measured graph from a file, then edited: a → b, b → c, a ↔ c with self-loops on a.
+  await pane.locator('input[type=file]').setInputFiles(graphFile({ format: 'loopfold-graph', version: 1, name: 'Pond survey', variables: ['algae', 'snails', 'fish'], directed: [['algae', 'snails']], rate: 2 }));
+  await expect(pane).toContainText('a measured graph from a file');
+  const editor = page.getByTestId('steps-editor');
+  const edges = page.getByTestId('steps-edges');
+  await expect(edges).toContainText('algae → snails');
+  await editor.getByLabel('From').selectOption({ label: 'snails' });
+  await editor.getByLabel('To').selectOption({ label: 'fish' });
+  await editor.getByRole('button', { name: 'Add edge' }).click();
+  await editor.getByLabel('From').selectOption({ label: 'algae' });
+  await editor.getByLabel('Edge').selectOption('bidirected');
+  await editor.getByRole('button', { name: 'Add edge' }).click();
+  await expect(edges).toContainText('algae ↔ fish');
+  await expect(figure).toHaveAttribute('data-directed', '2');
+  await expect(figure).toHaveAttribute('data-bidirected', '1');
+  // A refusal names the edge, and the graph keeps every edge.
+  await editor.getByLabel('To').selectOption({ label: 'algae' });
+  await editor.getByRole('button', { name: 'Add edge' }).click();
+  await expect(editor.getByRole('alert')).toHaveText('algae ↔ algae: a bidirected edge joins two different variables');
+  await expect(figure).toHaveAttribute('data-directed', '2');
+  // Remove one edge again.
+  await editor.getByRole('button', { name: 'Remove algae ↔ fish' }).click();
+  await expect(figure).toHaveAttribute('data-bidirected', '0');
+  await editor.getByLabel('Edge').selectOption('directed');
+  await editor.getByLabel('To').selectOption({ label: 'algae' });
+  await editor.getByRole('button', { name: 'Add edge' }).click();
+  await expect(edges).toContainText('algae → algae');
+
+  // The saved file is the edited graph; the command line on it counts as many causal graphs as the app.
+  const download = page.waitForEvent('download');
+  await editor.getByRole('button', { name: 'Save graph file' }).click();
+  const saved = testInfo.outputPath('pond.json');
+  await (await download).saveAs(saved);
+  const text = JSON.parse(readFileSync(saved, 'utf8'));
+  expect(text.directed).toEqual([['algae', 'algae'], ['algae', 'snails'], ['snails', 'fish']]);
+  await pane.getByLabel(/at u = 2/).check();
+  await pane.getByRole('button', { name: 'Find causal graphs' }).click();
+  const result = page.getByTestId('steps-result');
+  await expect(result).toBeVisible({ timeout: 60_000 });
+  await expect(result).toHaveAttribute('data-count', String(cli(['unsample', saved, '--rate', '2']).count));
+  await page.waitForTimeout(300);
+  await page.screenshot({ path: testInfo.outputPath('steps-edit-1440.png'), fullPage: true });
+  expect(await axeViolations(page)).toEqual([]);
+
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await page.waitForTimeout(300);
+  await editor.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('steps-edit-1024.png') });
+  expect(await axeViolations(page)).toEqual([]);
   expect(errors).toEqual([]);
 });

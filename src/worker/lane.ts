@@ -71,13 +71,14 @@ export interface Lane<Api> {
    * which then resolves null. A worker that fails moves the job (and the
    * lane) to the main thread.
    */
-  cancellable<T>(kind: string, f: (api: Api, onProgress?: (fraction: number) => void) => Promise<T>, opts: CancellableOptions<T>): CancellableRun<T>;
+  cancellable<T, P = number>(kind: string, f: (api: Api, onProgress?: (progress: P) => void) => Promise<T>, opts: CancellableOptions<T, P>): CancellableRun<T>;
   /** Stop the worker and every job of its own. */
   dispose(): void;
 }
 
-export interface CancellableOptions<T> {
-  onProgress?: (fraction: number) => void;
+/** `P`: what a job reports as progress (a fraction by default; a job may report a richer record). */
+export interface CancellableOptions<T, P = number> {
+  onProgress?: (progress: P) => void;
   /** The answer of a cancelled job. */
   cancelled: () => T;
   /** The answer when the job fails on the main thread. */
@@ -151,7 +152,7 @@ export function createLane<Api>(options: LaneOptions<Api>): Lane<Api> {
     latest(call, policy = {}) {
       return latestQueue(call, policy.mode === 'preempt' ? { ...policy, preempt: policy.preempt ?? restart } : policy);
     },
-    cancellable(kind, f, opts) {
+    cancellable<T, P = number>(kind: string, f: (api: Api, onProgress?: (progress: P) => void) => Promise<T>, opts: CancellableOptions<T, P>) {
       const older = jobs.get(kind);
       const seq = (older?.seq ?? 0) + 1;
       jobs.set(kind, { seq, cancel: () => {} });
@@ -173,7 +174,7 @@ export function createLane<Api>(options: LaneOptions<Api>): Lane<Api> {
         settle(opts.cancelled());
       };
       jobs.get(kind)!.cancel = cancel;
-      const progress = opts.onProgress ? (x: number) => { if (!done) opts.onProgress!(x); } : undefined;
+      const progress = opts.onProgress ? (x: P) => { if (!done) opts.onProgress!(x); } : undefined;
       const onMainThread = () => f(main(), progress).then(settle, (e: unknown) => settle(opts.failed(e)));
       if (!transport) void onMainThread();
       else

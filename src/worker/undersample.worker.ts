@@ -1,7 +1,5 @@
-/** The integer-step mode's inverse search off the main thread: one job per worker; Cancel ends the worker. */
-import { inverseJob, type InverseRequest } from './undersampleApi';
+/** The integer-step mode's inverse search off the main thread: a thin comlink surface; one job per worker (Cancel ends it). */
+import { expose } from 'comlink';
+import { localUndersample } from './undersampleApi';
 
-self.onmessage = (ev: MessageEvent<InverseRequest>) => {
-  const answer = inverseJob(ev.data, (p) => self.postMessage({ type: 'progress', progress: p }));
-  self.postMessage({ type: 'done', answer });
-};
+expose(localUndersample);

@@ -25,3 +25,16 @@ export function inverseJob(req: InverseRequest, onProgress?: (p: InverseProgress
     return { ok: false, reason: (e as Error).message };
   }
 }
+
+/** The inverse search as a lane API (lane.ts): the worker exposes it, the main thread uses it when no worker runs. */
+export interface UndersampleApi {
+  inverse(req: InverseRequest, onProgress?: (p: InverseProgress) => void): Promise<InverseJobAnswer>;
+}
+
+export const localUndersample: UndersampleApi = {
+  async inverse(req, onProgress) {
+    // Let the page draw the progress bar before a main-thread search holds the thread.
+    await new Promise((r) => setTimeout(r, 0));
+    return inverseJob(req, onProgress);
+  },
+};

@@ -1,64 +1,64 @@
 /**
- * Main-thread client of the inverse search: each run starts a worker of its
- * own (a busy worker reads no messages, so Cancel terminates it) and reports
- * progress; when a worker cannot start, the same job runs on the main thread
- * (no progress, and Cancel only drops the answer).
+ * Main-thread client of the inverse search, on a lane (lane.ts): each run is
+ * a cancellable job on a worker of its own (a busy worker reads no messages,
+ * so Cancel ends that worker) with progress; a newer run replaces an older
+ * one. When a worker cannot start or fails, the same job runs on the main
+ * thread (`?noworker` too; there Cancel only drops the answer).
  */
+import { proxy } from 'comlink';
 import type { InverseProgress } from '../core/undersample/index';
-import { inverseJob, type InverseJobAnswer, type InverseRequest } from './undersampleApi';
+import { startWorker } from './guard';
+import { createLane, noWorkerRequested, type Transport, type Where } from './lane';
+import type { InverseJobAnswer, InverseRequest, UndersampleApi } from './undersampleApi';
 
 export type InverseOutcome =
-  | { status: 'done'; answer: InverseJobAnswer; where: 'worker' | 'main thread' }
+  | { status: 'done'; answer: InverseJobAnswer; where: Where }
   | { status: 'cancelled' };
 
 export interface InverseRun {
-  result: Promise<InverseOutcome>;
+  /** The outcome; null when a newer run replaced this one. */
+  result: Promise<InverseOutcome | null>;
   cancel(): void;
 }
 
-type WorkerMessage = { type: 'progress'; progress: InverseProgress } | { type: 'done'; answer: InverseJobAnswer };
-
-function onMainThread(req: InverseRequest): InverseRun {
-  let cancelled = false;
-  let finish: (o: InverseOutcome) => void = () => {};
-  const result = new Promise<InverseOutcome>((resolve) => { finish = resolve; });
-  setTimeout(() => {
-    if (cancelled) return;
-    const answer = inverseJob(req, undefined, () => cancelled);
-    finish(cancelled ? { status: 'cancelled' } : { status: 'done', answer, where: 'main thread' });
-  }, 0);
-  return { result, cancel: () => { cancelled = true; finish({ status: 'cancelled' }); } };
+export interface UndersampleClient {
+  runInverse(req: InverseRequest, onProgress?: (p: InverseProgress) => void): InverseRun;
+  where(): Where;
+  dispose(): void;
 }
 
-/** Start one inverse search. `noWorker` (the app's `?noworker`) runs it on the main thread. */
-export function runInverse(req: InverseRequest, onProgress: (p: InverseProgress) => void, noWorker = false): InverseRun {
-  let worker: Worker;
-  try {
-    if (noWorker || typeof Worker === 'undefined') return onMainThread(req);
-    worker = new Worker(new URL('./undersample.worker.ts', import.meta.url), { type: 'module' });
-  } catch {
-    return onMainThread(req);
-  }
-  let settled = false;
-  let finish: (o: InverseOutcome) => void = () => {};
-  const result = new Promise<InverseOutcome>((resolve) => { finish = resolve; });
-  const end = (o: InverseOutcome) => {
-    if (settled) return;
-    settled = true;
-    worker.terminate();
-    finish(o);
+type Answer = InverseJobAnswer | 'cancelled';
+
+export function createUndersampleClient(worker: (() => Transport<UndersampleApi>) | null, fallback: () => UndersampleApi): UndersampleClient {
+  const lane = createLane<UndersampleApi>({ worker, fallback, lazy: true });
+  return {
+    runInverse(req, onProgress) {
+      const run = lane.cancellable<Answer, InverseProgress>('inverse', (api, progress) => api.inverse(req, progress), {
+        onProgress,
+        cancelled: () => 'cancelled',
+        failed: (e): Answer => ({ ok: false, reason: (e as Error)?.message ?? String(e) }),
+      });
+      return {
+        result: run.result.then((a): InverseOutcome | null => (a === null ? null : a === 'cancelled' ? { status: 'cancelled' } : { status: 'done', answer: a, where: lane.where() })),
+        cancel: run.cancel,
+      };
+    },
+    where: () => lane.where(),
+    dispose: () => lane.dispose(),
   };
-  worker.onmessage = (ev: MessageEvent<WorkerMessage>) => {
-    if (ev.data.type === 'progress') onProgress(ev.data.progress);
-    else end({ status: 'done', answer: ev.data.answer, where: 'worker' });
+}
+
+function workerUndersample(): Transport<UndersampleApi> {
+  const w = startWorker<UndersampleApi>(() => new Worker(new URL('./undersample.worker.ts', import.meta.url), { type: 'module' }), 'undersample worker');
+  return {
+    inverse: (req, p) => w.call(() => w.remote.inverse(req, p ? proxy(p) : undefined)),
+    dispose: w.dispose,
   };
-  worker.onerror = () => {
-    // the worker did not load: run the same job here
-    if (settled) return;
-    settled = true;
-    worker.terminate();
-    onMainThread(req).result.then(finish);
-  };
-  worker.postMessage(req);
-  return { result, cancel: () => end({ status: 'cancelled' }) };
+}
+
+let appClient: Promise<UndersampleClient> | null = null;
+/** The app's inverse-search client, created on first use (the search code loads when the Steps tab runs it). */
+export function appUndersampleClient(): Promise<UndersampleClient> {
+  appClient ??= import('./undersampleApi').then(({ localUndersample }) => createUndersampleClient(noWorkerRequested() ? null : workerUndersample, () => localUndersample));
+  return appClient;
 }

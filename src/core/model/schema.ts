@@ -73,7 +73,19 @@ const linkFieldsV1 = {
 };
 const linkSchemaV1 = z.strictObject(linkFieldsV1, { error: 'must be an object { from, to, kind }' });
 const linkSchemaV2 = z.strictObject(
-  { ...linkFieldsV1, personSD: finite('personSD').refine((n) => n >= 0, { error: 'must not be negative (a standard deviation across persons)' }).optional() },
+  {
+    ...linkFieldsV1,
+    personSD: finite('personSD').refine((n) => n >= 0, { error: 'must not be negative (a standard deviation across persons)' }).optional(),
+    strengthRange: z
+      .strictObject(
+        {
+          low: finite('low').refine((n) => n >= 0, { error: 'must not be negative (a strength is a size; the sign is the link\'s sign)' }),
+          high: finite('high').refine((n) => n >= 0, { error: 'must not be negative (a strength is a size; the sign is the link\'s sign)' }),
+        },
+        { error: 'must be an object { low, high } (the range the strength may lie in)' },
+      )
+      .optional(),
+  },
   { error: 'must be an object { from, to, kind }' },
 );
 
@@ -260,6 +272,7 @@ function checkModel(model: Model): ParseResult {
     if (!model.variables.some((v) => v.id === l.from)) issues.push({ path: `${p}.from`, message: `no variable "${l.from}" exists` });
     if (!model.variables.some((v) => v.id === l.to)) issues.push({ path: `${p}.to`, message: `no variable "${l.to}" exists` });
     if (l.from === l.to) issues.push({ path: p, message: `a link from "${l.from}" to itself is not allowed: mark the state self-regulating instead` });
+    if (l.strengthRange && l.strengthRange.low > l.strengthRange.high) issues.push({ path: `${p}.strengthRange.high`, message: `must be at least low (${l.strengthRange.low})` });
     const key = `${l.from}->${l.to}`;
     if (seenLinks.has(key)) warnings.push({ path: p, message: `duplicates links[${seenLinks.get(key)}] from "${l.from}" to "${l.to}"` });
     else seenLinks.set(key, i);

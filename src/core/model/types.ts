@@ -75,6 +75,8 @@ export interface Link {
   weight?: number;
   /** File version 2: standard deviation of the strength across persons (default 0). */
   personSD?: number;
+  /** File version 2: the range the strength may lie in when it is only roughly known (sizes, low ≤ high; the design advisor draws from it). */
+  strengthRange?: { low: number; high: number };
 }
 
 export interface ModelSettings {

@@ -18,6 +18,12 @@
  *   the covariance of the person means S V Sᵀ + C_T, and a one-time survey
  *   sees S V Sᵀ + Σ. A state slow against the study moves little within a
  *   person: its fluctuations show up as differences between persons.
+ * Person differences in a link's strength (the link's `personSD` σ_l) move
+ * the equilibrium too; by the delta method (first-order Taylor expansion of
+ * x̄(w) around the strengths w, strengths independent across persons and of
+ * the inputs) they add Σ_l σ_l² g_l g_lᵀ, g_l = ∂x̄/∂w_l (central differences
+ * of the solved equilibrium). Only the equilibrium is taken to differ: each
+ * person's fluctuations keep the model's drift.
  * Measurement error (a variable's `reliability` r, the share of true-score
  * within-person variance) adds e = Σ_ii(1 − r)/r per occasion: e(1 − 1/T)
  * within, e/T to the means, e to the cross-section.
@@ -25,6 +31,8 @@
 import { DEFAULT_SAMPLES, type Model, type VariableId } from '../model/types';
 import { modelAxis, noiseOf } from '../study/convert';
 import { driftAtEquilibrium } from '../numeric/index';
+import { solveEquilibrium } from '../numeric/equilibrium';
+import { linkCounts, linkStrengths } from '../model/strength';
 import { identity, luFactor, luSolveMat, mul, transpose, zeros, type Mat } from '../numeric/dense';
 import { expm } from '../numeric/expm';
 import { lyapunov } from '../numeric/lyapunov';
@@ -55,6 +63,8 @@ export interface LevelCovariances {
   persons: number;
   /** Inputs that differ across persons, with their SD. */
   personInputs: { id: VariableId; sd: number }[];
+  /** Links whose strength differs across persons (their `personSD`), with the equilibrium's sensitivity ∂x̄/∂w over the states. */
+  personLinks: { from: VariableId; to: VariableId; sd: number; gradient: number[] }[];
   /** Covariances over `observed`, rows. */
   within: number[][];
   between: number[][];
@@ -127,6 +137,35 @@ function inputGain(system: NumericSystem, point: Float64Array, inputs: VariableI
   return B;
 }
 
+/**
+ * ∂x̄/∂w_l for every link with a person SD: the equilibrium solved with the
+ * strength moved by ±h (central difference, h = 1e-4·max(1, |w|)).
+ */
+function linkDifferences(model: Model, states: VariableId[], warnings: string[]): LevelCovariances['personLinks'] | string {
+  const strengths = linkStrengths(model);
+  const out: LevelCovariances['personLinks'] = [];
+  for (const [li, l] of model.links.entries()) {
+    const sd = l.personSD ?? 0;
+    if (!(sd > 0)) continue;
+    const target = model.variables.find((v) => v.id === l.to);
+    if (!linkCounts(model, l) || target?.rate !== undefined || target?.formula !== undefined) {
+      warnings.push(`the strength of ${l.from} → ${l.to} does not enter the equations (${l.to} has its own ${target?.rate !== undefined ? 'rate' : 'formula'} or the link does not count), so its person SD is not used`);
+      continue;
+    }
+    const w = strengths[li].value;
+    const h = 1e-4 * Math.max(1, Math.abs(w));
+    const at = (x: number) => {
+      const links = model.links.map((k, i) => (i === li ? { ...k, weight: x } : k));
+      const r = solveEquilibrium({ ...model, links });
+      return r.ok ? states.map((s) => r.values[s]) : null;
+    };
+    const up = at(w + h), down = at(w - h);
+    if (!up || !down) return `the equilibrium could not be solved with the strength of ${l.from} → ${l.to} moved slightly, so its person SD cannot be used`;
+    out.push({ from: l.from, to: l.to, sd, gradient: up.map((x, i) => (x - down[i]) / (2 * h)) });
+  }
+  return out;
+}
+
 function sub(m: Mat, idx: number[]): number[][] {
   return idx.map((i) => idx.map((j) => m.data[i * m.cols + j]));
 }
@@ -184,7 +223,12 @@ export function levelCovariances(model: Model, options: LevelOptions): LevelResu
         for (let k = 0; k < q; k++) s += S.data[i * q + k] * personInputs[k].sd ** 2 * S.data[j * q + k];
         equilibria.data[i * n + j] = s;
       }
-  } else warnings.push('no input differs across persons (no personSD): the persons share one equilibrium, so differences between them come only from slow within-person fluctuations');
+  }
+  const personLinks = linkDifferences(model, states, warnings);
+  if (typeof personLinks === 'string') return { ok: false, reason: personLinks };
+  for (const l of personLinks)
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) equilibria.data[i * n + j] += l.sd ** 2 * l.gradient[i] * l.gradient[j];
+  if (personInputs.length === 0 && personLinks.length === 0) warnings.push('no input differs across persons (no personSD): the persons share one equilibrium, so differences between them come only from slow within-person fluctuations');
 
   // C_T: covariance of a person's mean over T prompts.
   const phi = expm(scale(d.drift, options.interval));
@@ -234,6 +278,7 @@ export function levelCovariances(model: Model, options: LevelOptions): LevelResu
     samples,
     persons,
     personInputs,
+    personLinks,
     within: sym(sub(within, idx)),
     between: sym(sub(between, idx)),
     cross: sym(sub(cross, idx)),

@@ -2,3 +2,4 @@
 export * from './graph';
 export * from './inverse';
 export * from './file';
+export * from './edit';

@@ -7,8 +7,8 @@
  */
 import { useEffect, useMemo, useRef, useState, type ChangeEvent } from 'react';
 import {
-  edgeList, explainMeasured, has, inverseLimit, measuredGraph, parseGraphText, SEARCH_MAX_VARIABLES, stepGraphOfModel,
-  type InverseProgress, type MeasuredGraph, type StepGraph,
+  edgeList, editMeasuredGraph, explainMeasured, graphFileText, has, inverseLimit, measuredGraph, parseGraphText, SEARCH_MAX_VARIABLES, stepGraphOfModel,
+  type EdgeKind, type InverseProgress, type MeasuredGraph, type StepGraph,
 } from '../../core/undersample/index';
 import { useValidatedModel } from '../../state/document';
 import { stepsStore, useSteps } from '../../state/steps';
@@ -17,11 +17,11 @@ import { svgDocument } from '../../export/svg';
 import { elToReact } from '../elReact';
 import { fileStem } from '../figureFiles';
 import { ExportButtons } from '../numbers/ExportButtons';
-import { runInverse, type InverseOutcome, type InverseRun } from '../../worker/undersampleClient';
+import { appUndersampleClient, type InverseOutcome, type InverseRun } from '../../worker/undersampleClient';
+import { downloadBlob } from '../download';
 import './steps.css';
 
 const CAPTION = 'A model-based reading: the edges an analysis of data taken at this rate would show, if the causal-step graph is right.';
-const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
 
 interface Source {
   name: string;
@@ -151,8 +151,72 @@ function StepsView({ source, rate, maxRate }: { source: Source; rate: number; ma
           <ReasonList lines={reasons.map((r) => r.text)} />
         </section>
       )}
+      <GraphEditor source={source} shown={shown} rate={u} />
       <InverseSection graph={shown} rate={u} maxRate={maxRate} fromFile={!!source.measured} />
     </>
+  );
+}
+
+/**
+ * Edit a measured graph by hand: add or remove directed and bidirected edges
+ * between its variables. A causal-step source is first copied as the measured
+ * graph shown (at the rate shown); the edited graph can be saved as a graph file.
+ */
+function GraphEditor({ source, shown, rate }: { source: Source; shown: MeasuredGraph; rate: number }) {
+  const [from, setFrom] = useState(0);
+  const [to, setTo] = useState(Math.min(1, shown.names.length - 1));
+  const [kind, setKind] = useState<EdgeKind>('directed');
+  const [message, setMessage] = useState<string | null>(null);
+  const names = shown.names;
+  const file = useSteps((s) => s.file);
+  if (!source.measured || !file) {
+    const copy = () => {
+      setMessage(null);
+      stepsStore.getState().set({ file: { graph: { name: `${source.name}, measured every ${rate === 1 ? 'step' : `${rate}. step`}`, graph: shown, rate, source: 'graph', notes: [] }, as: 'measured', fileName: 'edited graph' } });
+    };
+    return (
+      <section className="lf-steps-section" aria-labelledby="lf-steps-edit">
+        <h3 id="lf-steps-edit">Edit a measured graph</h3>
+        <p className="lf-steps-note">Enter the graph an analysis found: start from the measured graph shown and add or remove edges, or open a graph file.</p>
+        <button type="button" onClick={copy}>Edit this measured graph</button>
+      </section>
+    );
+  }
+  const apply = (op: 'add' | 'remove', k: EdgeKind, i: number, j: number) => {
+    const r = editMeasuredGraph(shown, { op, kind: k, from: i, to: j });
+    if (!r.ok) { setMessage(r.message); return; }
+    setMessage(null);
+    stepsStore.getState().set({ file: { ...file, graph: { ...file.graph, graph: r.graph } } });
+  };
+  const edges: { kind: EdgeKind; i: number; j: number }[] = [];
+  for (let i = 0; i < names.length; i++)
+    for (let j = 0; j < names.length; j++) {
+      if (has(shown.directed[i], j)) edges.push({ kind: 'directed', i, j });
+      if (j > i && has(shown.bidirected[i], j)) edges.push({ kind: 'bidirected', i, j });
+    }
+  const save = () => downloadBlob(new Blob([graphFileText(shown, { name: file.graph.name, rate: file.graph.rate })], { type: 'application/json' }), `${fileStem(file.graph.name ?? 'measured-graph')}.json`);
+  return (
+    <section className="lf-steps-section" aria-labelledby="lf-steps-edit" data-testid="steps-editor">
+      <h3 id="lf-steps-edit">Edit the measured graph</h3>
+      <div className="lf-steps-row">
+        <label>From <select value={from} onChange={(e) => setFrom(Number(e.target.value))}>{names.map((n, i) => <option key={i} value={i}>{n}</option>)}</select></label>
+        <label>Edge <select value={kind} onChange={(e) => setKind(e.target.value as EdgeKind)}>
+          <option value="directed">→ directed</option>
+          <option value="bidirected">↔ bidirected</option>
+        </select></label>
+        <label>To <select value={to} onChange={(e) => setTo(Number(e.target.value))}>{names.map((n, i) => <option key={i} value={i}>{n}</option>)}</select></label>
+        <button type="button" onClick={() => apply('add', kind, from, to)}>Add edge</button>
+        <button type="button" onClick={save}>Save graph file</button>
+      </div>
+      {message && <p className="lf-steps-error" role="alert">{message}</p>}
+      <ul className="lf-steps-edit-list" data-testid="steps-edges">
+        {edges.map(({ kind: k, i, j }) => {
+          const t = `${names[i]} ${k === 'directed' ? '→' : '↔'} ${names[j]}`;
+          return <li key={`${k}${i}-${j}`}><span>{t}</span> <button type="button" className="lf-steps-remove" aria-label={`Remove ${t}`} onClick={() => apply('remove', k, i, j)}>×</button></li>;
+        })}
+        {edges.length === 0 && <li className="lf-steps-note">No edges yet.</li>}
+      </ul>
+    </section>
   );
 }
 
@@ -185,13 +249,20 @@ function InverseSection({ graph, rate, maxRate, fromFile }: { graph: MeasuredGra
     run.current?.cancel();
     setOutcome(null);
     setProgress({ rate: rates[0], rateIndex: 0, rates: rates.length, nodes: 0, fraction: 0, count: 0 });
-    const r = runInverse({ graph, rates, maxSolutions: 200 }, setProgress, noWorker);
-    run.current = r;
-    r.result.then((o) => {
-      if (run.current !== r) return;
-      run.current = null;
-      setProgress(null);
-      setOutcome({ ...o, key });
+    // Cancel before the client has loaded still stops the run.
+    let stopped = false;
+    const pending: InverseRun = { result: Promise.resolve(null), cancel: () => { stopped = true; setProgress(null); setOutcome({ status: 'cancelled', key }); } };
+    run.current = pending;
+    void appUndersampleClient().then((client) => {
+      if (stopped || run.current !== pending) return;
+      const r = client.runInverse({ graph, rates, maxSolutions: 200 }, setProgress);
+      run.current = r;
+      void r.result.then((o) => {
+        if (run.current !== r || o === null) return;
+        run.current = null;
+        setProgress(null);
+        setOutcome({ ...o, key });
+      });
     });
   };
   const busy = progress !== null;

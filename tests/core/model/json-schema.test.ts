@@ -48,3 +48,21 @@ describe('published JSON Schema, version 2: the study', () => {
     expect(validate({ ...base, study: { interval: '3h', length: 50, schedule: { kind: 'daily-window', promptsPerDay: 5, from: '9am', to: '21:00', timing: 'fixed' } } })).toBe(false);
   });
 });
+
+describe('a link\'s strength range (version 2, additive)', () => {
+  const validate = new Ajv2020({ strict: false, allErrors: true }).compile(published);
+  const file = (range: unknown) => ({ format: 'loopfold-model', version: 2, name: 'x', timeUnit: 'h', variables: [{ id: 'a', kind: 'state' }, { id: 'b', kind: 'state' }], links: [{ from: 'a', to: 'b', kind: 'integrating', weight: 0.5, strengthRange: range }] });
+  it('is accepted by the published schema and the validator, and refused with its path when malformed', async () => {
+    const { parseModel } = await import('../../../src/core/model/schema');
+    expect(validate(file({ low: 0.2, high: 0.9 }))).toBe(true);
+    const ok = parseModel(file({ low: 0.2, high: 0.9 }));
+    expect(ok.ok && ok.model.links[0].strengthRange).toEqual({ low: 0.2, high: 0.9 });
+    expect(validate(file({ low: 0.2 }))).toBe(false);
+    const missing = parseModel(file({ low: 0.2 }));
+    expect(!missing.ok && missing.issues.map((i) => i.path)).toEqual(['links[0].strengthRange.high']);
+    const reversed = parseModel(file({ low: 0.9, high: 0.2 }));
+    expect(!reversed.ok && reversed.issues).toEqual([{ path: 'links[0].strengthRange.high', message: 'must be at least low (0.9)' }]);
+    const negative = parseModel(file({ low: -1, high: 0.2 }));
+    expect(!negative.ok && negative.issues[0].path).toBe('links[0].strengthRange.low');
+  });
+});
