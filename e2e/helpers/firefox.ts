@@ -82,7 +82,13 @@ export class Firefox {
     await ff.send('session.new', { capabilities: { alwaysMatch: { acceptInsecureCerts: true, unhandledPromptBehavior: { beforeUnload: 'accept' } } } });
     await ff.send('session.subscribe', { events: ['log.entryAdded'] });
     const tree = await ff.send('browsingContext.getTree', {});
-    ff.context = String((tree.contexts as Json[])[0].context);
+    // headless Firefox's start tab never has the focus (document.hasFocus() is false, focus() and blur()
+    // do nothing there), so a field is never left as in a window a person uses; a tab opened over the
+    // protocol has it: work in a new tab, close the start tab and bring the new one to the front
+    const start = String((tree.contexts as Json[])[0].context);
+    ff.context = String((await ff.send('browsingContext.create', { type: 'tab' })).context);
+    await ff.send('browsingContext.close', { context: start });
+    await ff.send('browsingContext.activate', { context: ff.context });
     await ff.send('browsingContext.setViewport', { context: ff.context, viewport: { width, height } });
     return ff;
   }

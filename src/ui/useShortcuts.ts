@@ -2,6 +2,8 @@ import { useEffect } from 'react';
 import { useReactFlow } from '@xyflow/react';
 import { documentStore } from '../state/document';
 import { selectionStore } from '../state/selection';
+import { uiStore } from '../state/ui';
+import { canvasFitOptions } from './canvas/fit';
 import { addVariable, copySelection, deleteSelection, pasteClipboard, save, selectAll } from './actions';
 
 function typing(target: EventTarget | null): boolean {
@@ -49,7 +51,7 @@ export function useShortcuts(): void {
         deleteSelection();
       } else if (!mod && !e.altKey && k === 'f') {
         e.preventDefault();
-        void flow.fitView({ padding: { top: '84px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2, duration: 200 });
+        void flow.fitView(canvasFitOptions(uiStore.getState().legendOpen, 200));
       }
     };
     window.addEventListener('keydown', onKey);

@@ -29,6 +29,7 @@ import { headPath, linkPath, type Box } from './geometry';
 import { scaledDash } from './zoomDetail';
 import { canvasLines } from './flow';
 import { fitText, fontMeasure } from './textFit';
+import { CANVAS_CAPTION_PX } from './fit';
 import { NODE_H, variableWidth } from './VariableNode';
 import { HIT_STROKE, SELECTION, WHITE } from '../../theme/tokens';
 
@@ -133,7 +134,7 @@ export const FAR_ZOOM = 0.3;
 
 const KIND_CAPTION = { input: 'input', state: 'state', derived: 'derived' } as const;
 const LABEL_PX = 13.5;
-const CAPTION_PX = 11;
+const CAPTION_PX = CANVAS_CAPTION_PX;
 const labelMeasure = fontMeasure(`600 ${LABEL_PX}px ${FONT_STACK}`, LABEL_PX);
 const captionMeasure = fontMeasure(`${CAPTION_PX}px ${FONT_STACK}`, CAPTION_PX, 0.58);
 

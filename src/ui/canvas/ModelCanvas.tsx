@@ -27,6 +27,7 @@ import { CanvasDrawing } from './CanvasDrawing';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
+import { canvasFitOptions } from './fit';
 import { GRID_DOT, OVERVIEW_GROUND, OVERVIEW_VIEW, UNKNOWN_STROKE } from '../../theme/tokens';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
@@ -86,7 +87,8 @@ export function ModelCanvas() {
   const dashScale = useStore((s) => dashScaleAt(s.transform[2]));
   const canvasStyle = useMemo(() => ({ [DASH_SCALE_VAR]: dashScale }) as CSSProperties, [dashScale]);
   // keep the fitted drawing clear of the legend strip (top) and the overview map (bottom right)
-  const fitOptions = useMemo<FitViewOptions>(() => ({ padding: { top: legendOpen ? '84px' : '44px', bottom: '112px', left: '36px', right: '36px' }, maxZoom: 1.2 }), [legendOpen]);
+  // and never below the zoom that keeps its smallest text legible (fit.ts): a big drawing is panned instead
+  const fitOptions = useMemo<FitViewOptions>(() => canvasFitOptions(legendOpen), [legendOpen]);
   const [fitOnMount] = useState(() => model.variables.length > 0);
   const fitted = useRef(generation);
   // until the modeller pans or zooms, the view keeps the drawing fitted (new document, resized pane)
@@ -208,7 +210,7 @@ export function ModelCanvas() {
         ariaLabelConfig={ARIA_LABELS}
       >
         <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color={GRID_DOT} />
-        <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" />
+        <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" fitViewOptions={fitOptions} />
         <MiniMap
           position="bottom-right"
           pannable

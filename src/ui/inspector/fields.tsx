@@ -5,7 +5,7 @@
  * that does not check out stays in the field with its message until it is
  * corrected or Escape brings back the stored value.
  */
-import { useId, useState, type KeyboardEvent, type ReactNode } from 'react';
+import { useId, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 
 export function Field({ label, children, id }: { label: string; children: ReactNode; id: string }) {
   return (
@@ -23,19 +23,24 @@ export function Field({ label, children, id }: { label: string; children: ReactN
  */
 export function useDraft(value: string, store: (text: string) => void, check: (text: string) => string | null = () => null) {
   const [draft, setDraft] = useState<string | null>(null);
+  // the draft as of the last keystroke: finishing twice before React renders again (Enter, then the
+  // field left) stores once
+  const live = useRef<string | null>(null);
   const text = draft ?? value;
   return {
     text,
     error: check(text),
-    edit: (t: string) => setDraft(t),
+    edit: (t: string) => { live.current = t; setDraft(t); },
     finish: (): string | null => {
-      if (draft === null) return null;
-      if (check(draft)) return null; // stays in the field with its message
+      const t = live.current;
+      if (t === null) return null;
+      if (check(t)) return null; // stays in the field with its message
+      live.current = null;
       setDraft(null);
-      if (draft !== value) store(draft);
-      return draft;
+      if (t !== value) store(t);
+      return t;
     },
-    cancel: () => setDraft(null),
+    cancel: () => { live.current = null; setDraft(null); },
   };
 }
 
@@ -68,7 +73,8 @@ export function TextField({ label, value, onChange, onBlur, multiline, placehold
     placeholder,
     onChange: (e: { target: { value: string } }) => d.edit(e.target.value),
     onBlur: finish,
-    onKeyDown: finishKeys(() => (document.activeElement as HTMLElement | null)?.blur(), d.cancel, multiline),
+    // Enter stores the draft itself (not through leaving the field: a window without focus never blurs)
+    onKeyDown: finishKeys(finish, d.cancel, multiline),
   };
   return <Field label={label} id={id}>{multiline ? <textarea {...common} rows={3} /> : <input {...common} />}</Field>;
 }
