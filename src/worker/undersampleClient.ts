@@ -5,6 +5,7 @@
  * (no progress, and Cancel only drops the answer).
  */
 import type { InverseProgress } from '../core/undersample/index';
+import { noWorkerRequested } from './lane';
 import { inverseJob, type InverseJobAnswer, type InverseRequest } from './undersampleApi';
 
 export type InverseOutcome =
@@ -30,8 +31,8 @@ function onMainThread(req: InverseRequest): InverseRun {
   return { result, cancel: () => { cancelled = true; finish({ status: 'cancelled' }); } };
 }
 
-/** Start one inverse search. `noWorker` (the app's `?noworker`) runs it on the main thread. */
-export function runInverse(req: InverseRequest, onProgress: (p: InverseProgress) => void, noWorker = false): InverseRun {
+/** Start one inverse search. `noWorker` (by default the app's `?noworker`, read once by the lane) runs it on the main thread. */
+export function runInverse(req: InverseRequest, onProgress: (p: InverseProgress) => void, noWorker = noWorkerRequested()): InverseRun {
   let worker: Worker;
   try {
     if (noWorker || typeof Worker === 'undefined') return onMainThread(req);

@@ -21,7 +21,6 @@ import { runInverse, type InverseOutcome, type InverseRun } from '../../worker/u
 import './steps.css';
 
 const CAPTION = 'A model-based reading: the edges an analysis of data taken at this rate would show, if the causal-step graph is right.';
-const noWorker = typeof location !== 'undefined' && new URLSearchParams(location.search).has('noworker');
 
 interface Source {
   name: string;
@@ -185,7 +184,7 @@ function InverseSection({ graph, rate, maxRate, fromFile }: { graph: MeasuredGra
     run.current?.cancel();
     setOutcome(null);
     setProgress({ rate: rates[0], rateIndex: 0, rates: rates.length, nodes: 0, fraction: 0, count: 0 });
-    const r = runInverse({ graph, rates, maxSolutions: 200 }, setProgress, noWorker);
+    const r = runInverse({ graph, rates, maxSolutions: 200 }, setProgress);
     run.current = r;
     r.result.then((o) => {
       if (run.current !== r) return;
