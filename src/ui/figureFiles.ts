@@ -13,19 +13,23 @@ export function downloadSvg(svg: string, name: string): void {
 export async function downloadPng(svg: string, name: string, scale: 1 | 2 | 4): Promise<void> {
   const w = Number(/width="(\d+)"/.exec(svg)?.[1] ?? 800);
   const h = Number(/height="(\d+)"/.exec(svg)?.[1] ?? 600);
+  downloadBlob(await svgPng(svg, { width: w * scale, height: h * scale }), `${name}@${scale}x.png`);
+}
+
+/** The SVG text drawn by the browser on a canvas of `size` pixels, as PNG. */
+export async function svgPng(svg: string, size: { width: number; height: number }): Promise<Blob> {
   const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
   try {
     const img = new Image();
     img.src = url;
     await img.decode();
     const canvas = document.createElement('canvas');
-    canvas.width = w * scale;
-    canvas.height = h * scale;
-    const ctx = canvas.getContext('2d')!;
-    ctx.scale(scale, scale);
-    ctx.drawImage(img, 0, 0, w, h);
+    canvas.width = size.width;
+    canvas.height = size.height;
+    canvas.getContext('2d')!.drawImage(img, 0, 0, size.width, size.height);
     const blob = await new Promise<Blob | null>((res) => canvas.toBlob(res, 'image/png'));
-    if (blob) downloadBlob(blob, `${name}@${scale}x.png`);
+    if (!blob) throw new Error('the browser made no PNG');
+    return blob;
   } finally {
     URL.revokeObjectURL(url);
   }

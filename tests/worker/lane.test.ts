@@ -129,3 +129,13 @@ describe('lane policies', () => {
     expect(noWorkerRequested()).toBe(false);
   });
 });
+
+describe('?noworker is read in one place', () => {
+  it('no source file but the lane reads the page address for it', async () => {
+    const { readdirSync, readFileSync, statSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const walk = (d: string): string[] => readdirSync(d).flatMap((f) => (statSync(join(d, f)).isDirectory() ? walk(join(d, f)) : /\.tsx?$/.test(f) ? [join(d, f)] : []));
+    const readers = walk('src').filter((f) => /has\(\s*['"]noworker['"]\s*\)/.test(readFileSync(f, 'utf8')));
+    expect(readers).toEqual([join('src', 'worker', 'lane.ts')]);
+  });
+});

@@ -11,6 +11,7 @@ import { BACKGROUNDS, DEFAULT_FONT_PT, parseFontSize, parseWidth, type Backgroun
 import { PALETTES, type PaletteName } from '../../theme/palettes';
 import { browserElk } from '../../layout/browser';
 import { downloadBlob } from '../download';
+import { svgPng } from '../figureFiles';
 import { cliArgs, commandText, pngPixels, printedFigure, printedSvg, type FigureSource } from './printFile';
 import './export.css';
 
@@ -57,22 +58,9 @@ function checked(width: WidthChoice, length: string, font: string, palette: Pale
 
 /** The SVG drawn on a canvas at the print width and DPI, the DPI written into the PNG. */
 async function svgToPng(svg: string, size: { width: number; height: number }, dpi: number): Promise<Blob> {
-  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
-  try {
-    const img = new Image();
-    img.src = url;
-    await img.decode();
-    const canvas = document.createElement('canvas');
-    canvas.width = size.width;
-    canvas.height = size.height;
-    canvas.getContext('2d')!.drawImage(img, 0, 0, size.width, size.height);
-    const blob = await new Promise<Blob | null>((res) => canvas.toBlob(res, 'image/png'));
-    if (!blob) throw new Error('the browser made no PNG');
-    const bytes = withDpi(new Uint8Array(await blob.arrayBuffer()), dpi);
-    return new Blob([bytes.slice().buffer], { type: 'image/png' });
-  } finally {
-    URL.revokeObjectURL(url);
-  }
+  const blob = await svgPng(svg, size);
+  const bytes = withDpi(new Uint8Array(await blob.arrayBuffer()), dpi);
+  return new Blob([bytes.slice().buffer], { type: 'image/png' });
 }
 
 export function ExportDialog({ what, name, modelFile, source, onClose }: ExportDialogProps) {

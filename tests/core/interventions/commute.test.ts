@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { commutation, commutesByCriterion, feedbackSet, holdThenSettle, sameStructure, settleThenHold } from '../../../src/core/interventions/commute';
 import { chainRegulated, mech, rolesOf, selfRegulated, simultaneous } from './systems';
+import { seededRandom } from '../../helpers/random';
 
 // Sources: the cases below are rebuilt from memory of Dash (2005), whose text was not available here.
 // What they test — that holding a variable and letting the fast states settle need not commute, that
@@ -114,18 +115,6 @@ describe('the commutation verdict against exhaustive recomputation on random sma
   interface Sys { inputs: string[]; states: Record<string, string[]>; derived: Record<string, string[]> }
   interface Side { eqs: Eqs; exogenous: Set<string>; dynamic: Set<string> }
 
-  /** mulberry32, a small seeded generator (common practice for reproducible random tests). */
-  function rng(seed: number) {
-    let a = seed >>> 0;
-    return () => {
-      a = (a + 0x6d2b79f5) >>> 0;
-      let t = a;
-      t = Math.imul(t ^ (t >>> 15), t | 1);
-      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-  }
-
   function randomSystem(r: () => number): { sys: Sys; settle: string[]; freeze: string[] } {
     const inputs = Array.from({ length: 1 + Math.floor(r() * 2) }, (_, i) => `u${i}`);
     const states = Array.from({ length: 1 + Math.floor(r() * 3) }, (_, i) => `x${i}`);
@@ -211,7 +200,7 @@ describe('the commutation verdict against exhaustive recomputation on random sma
   const key = (s: Side) => JSON.stringify([[...s.eqs].map(([k, v]) => `${k}{${[...v].sort().join(',')}}`).sort(), [...s.exogenous].sort(), [...s.dynamic].sort()]);
 
   it('agrees with the exhaustive recomputation for single and paired holds on 200 random systems', () => {
-    const r = rng(20260105);
+    const r = seededRandom(20260105);
     let compared = 0, disagreeing = 0, ambiguous = 0;
     for (let n = 0; n < 200; n++) {
       const { sys, settle, freeze } = randomSystem(r);
