@@ -10,6 +10,7 @@ import { lazy, Suspense } from 'react';
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
 const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
 const StepsPane = lazy(() => import('./undersample/StepsPane'));
+const StudyPane = lazy(() => import('./study/StudyPane'));
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
@@ -19,6 +20,7 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'numbers', name: 'Numbers' },
   { id: 'pictures', name: 'Pictures' },
   { id: 'steps', name: 'Steps' },
+  { id: 'study', name: 'Study' },
 ];
 
 /** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
@@ -75,6 +77,7 @@ export function RightPane() {
           </Suspense>
         )}
         {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}
+        {pane === 'study' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StudyPane /></Suspense>}
       </div>
     </aside>
   );
