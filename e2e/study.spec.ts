@@ -168,3 +168,49 @@ test.describe('the Study tab', () => {
     expect(errors).toEqual([]);
   });
 });
+
+test.describe('choosing an interval elsewhere sets the study', () => {
+  test.setTimeout(300_000);
+  test('compare designs side by side, use one; use the peak of a strength curve; undo each', async ({ page }, testInfo) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto('/?example=sleep-stress');
+    await expect(nodes(page)).toHaveCount(7, { timeout: 60_000 });
+    const interval = async () => ((await page.evaluate(() => window.__loopfold!.model())) as { study: { interval: unknown } }).study.interval;
+    await page.getByRole('tab', { name: 'Study' }).click();
+    await page.getByRole('button', { name: 'Compare designs…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Compare designs' });
+    // three designs (the study's 2.4 h, daily, weekly), three figures each: ordering, lagged, same-interval
+    await expect(dialog.locator('section[data-design]')).toHaveCount(3);
+    await expect(dialog.locator('svg')).toHaveCount(9, { timeout: 120_000 });
+    await expect(dialog.getByRole('button', { name: /^Use every 2\.4 h/ })).toBeDisabled();
+    await shot(page, testInfo.outputPath('20-compare-1440.png'));
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await shot(page, testInfo.outputPath('21-compare-1024.png'));
+    await page.setViewportSize({ width: 1440, height: 900 });
+    // a typo in a design's interval is named and changes nothing
+    const third = dialog.getByLabel('Interval of design 3');
+    await third.fill('every so often');
+    await third.press('Enter');
+    await expect(dialog.getByRole('alert').filter({ hasText: 'Interval: "every so often" is not an interval' })).toBeVisible();
+    await dialog.getByRole('button', { name: /^Use every 1 day/ }).click();
+    expect(await interval()).toBe('1 day');
+    await dialog.getByRole('button', { name: 'Close' }).click();
+    await page.keyboard.press('Control+z');
+    await expect.poll(interval).toBe('2.4 h');
+
+    // the strength curve of a lagged link: its peak is offered as the interval
+    await page.getByRole('tab', { name: 'Numbers' }).click();
+    const use = page.locator('.lf-use-interval').first();
+    await expect(use).toBeVisible({ timeout: 120_000 });
+    const peak = (await use.getAttribute('data-interval'))!;
+    await use.click();
+    expect(await interval()).toBe(peak);
+    await expect(use).toBeDisabled();
+    await shot(page, testInfo.outputPath('22-curve-peak-used-1440.png'));
+    await page.keyboard.press('Control+z');
+    await expect.poll(interval).toBe('2.4 h');
+    expect(errors).toEqual([]);
+  });
+});
