@@ -143,6 +143,7 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
           <LinkCurveChart model={model} curve={curve.answer.curve} breakpoints={breakpoints} current={current} />
           {curve.answer.curve.peaks.length > 0 && (
             <p className="lf-num-row" aria-label="Intervals where the link peaks">
+              {curve.answer.curve.peaks.length === 1 ? 'Its peak:' : 'Its peaks:'}{' '}
               {curve.answer.curve.peaks.map((p) => <UseInterval key={p.interval} value={p.interval} unit={model.timeUnit} what={`where ${labelOf(model, f!)} → ${labelOf(model, t!)} peaks`} />)}
             </p>
           )}
