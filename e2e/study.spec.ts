@@ -101,3 +101,116 @@ test.describe('the study is exact, saved and shared', () => {
     await shot(page, testInfo.outputPath('05-daily.png'));
   });
 });
+
+test.describe('the Study tab', () => {
+  test.setTimeout(300_000);
+  test('edit the schedule, see what it estimates, undo, reload keeps it', async ({ page }, testInfo) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto('/?example=sleep-stress');
+    await expect(nodes(page)).toHaveCount(7, { timeout: 60_000 });
+    await page.getByRole('tab', { name: 'Study' }).click();
+    const perDay = page.getByLabel('Prompts per day');
+    await expect(perDay).toHaveValue('5');
+    // the example's study: 5 stratified-random prompts 09:00–21:00 → 12 h / 5 = 2.4 h apart
+    await expect(page.getByLabel('Interval', { exact: true })).toHaveValue('2.4 h');
+    const estimates = page.locator('.lf-study-estimates');
+    await expect(estimates).toHaveAttribute('data-status', 'done', { timeout: 90_000 });
+    await expect(estimates.getByRole('note', { name: 'The night-gap effect' })).toContainText('night-gap shrinkage');
+    await shot(page, testInfo.outputPath('10-study-tab-1440.png'));
+
+    // a problem stays in the field with a message naming it, and nothing is stored
+    await perDay.fill('0');
+    await perDay.press('Enter');
+    await expect(page.getByRole('alert').filter({ hasText: 'Prompts per day: must be at least 1' })).toBeVisible();
+    const stored = async () => (await page.evaluate(() => window.__loopfold!.model()) as { study: { schedule: { promptsPerDay?: number }; interval: unknown } }).study;
+    expect((await stored()).schedule.promptsPerDay).toBe(5);
+    await perDay.press('Escape');
+
+    // 4 prompts: 12 h / 4 = 3 h apart; the interval follows the schedule
+    await perDay.fill('4');
+    await perDay.press('Enter');
+    await expect(page.getByLabel('Interval', { exact: true })).toHaveValue('3 h');
+    expect(await stored()).toMatchObject({ interval: '3 h', schedule: { promptsPerDay: 4 } });
+    await expect(estimates).toHaveAttribute('data-status', 'done', { timeout: 90_000 });
+    await expect(estimates.locator('tr[data-gap="3"]')).toBeVisible();
+
+    // undo brings back 5 prompts and 2.4 h
+    await page.locator('#lf-study-schedule').click();
+    await page.keyboard.press('Control+z');
+    await expect(perDay).toHaveValue('5');
+    expect(await stored()).toMatchObject({ interval: '2.4 h', schedule: { promptsPerDay: 5 } });
+
+    // 6 prompts from 08:00, then reload: the autosave keeps it
+    await perDay.fill('6');
+    await perDay.press('Tab');
+    await page.getByLabel('First prompt from').fill('8');
+    await page.getByLabel('First prompt from').press('Enter');
+    const edited = await stored();
+    expect(edited).toMatchObject({ interval: '130 min', schedule: { promptsPerDay: 6, from: '08:00' } });
+    await page.waitForTimeout(1200);
+    await page.reload();
+    await expect(nodes(page)).toHaveCount(7, { timeout: 60_000 });
+    await page.getByRole('tab', { name: 'Study' }).click();
+    await expect(page.getByLabel('Prompts per day')).toHaveValue('6');
+    await expect(page.getByLabel('First prompt from')).toHaveValue('08:00');
+    expect(await stored()).toEqual(edited);
+    await expect(estimates).toHaveAttribute('data-status', 'done', { timeout: 90_000 });
+    await shot(page, testInfo.outputPath('11-study-reloaded-1440.png'));
+    await estimates.scrollIntoViewIfNeeded();
+    await shot(page, testInfo.outputPath('12-study-estimates-1440.png'));
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.getByRole('tab', { name: 'Study' }).scrollIntoViewIfNeeded();
+    await shot(page, testInfo.outputPath('13-study-1024.png'));
+    await estimates.scrollIntoViewIfNeeded();
+    await shot(page, testInfo.outputPath('14-study-estimates-1024.png'));
+    expect(errors).toEqual([]);
+  });
+});
+
+test.describe('choosing an interval elsewhere sets the study', () => {
+  test.setTimeout(300_000);
+  test('compare designs side by side, use one; use the peak of a strength curve; undo each', async ({ page }, testInfo) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto('/?example=sleep-stress');
+    await expect(nodes(page)).toHaveCount(7, { timeout: 60_000 });
+    const interval = async () => ((await page.evaluate(() => window.__loopfold!.model())) as { study: { interval: unknown } }).study.interval;
+    await page.getByRole('tab', { name: 'Study' }).click();
+    await page.getByRole('button', { name: 'Compare designs…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Compare designs' });
+    // three designs (the study's 2.4 h, daily, weekly), three figures each: ordering, lagged, same-interval
+    await expect(dialog.locator('section[data-design]')).toHaveCount(3);
+    await expect(dialog.locator('svg')).toHaveCount(9, { timeout: 120_000 });
+    await expect(dialog.getByRole('button', { name: /^Use every 2\.4 h/ })).toBeDisabled();
+    await shot(page, testInfo.outputPath('20-compare-1440.png'));
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await shot(page, testInfo.outputPath('21-compare-1024.png'));
+    await page.setViewportSize({ width: 1440, height: 900 });
+    // a typo in a design's interval is named and changes nothing
+    const third = dialog.getByLabel('Interval of design 3');
+    await third.fill('every so often');
+    await third.press('Enter');
+    await expect(dialog.getByRole('alert').filter({ hasText: 'Interval: "every so often" is not an interval' })).toBeVisible();
+    await dialog.getByRole('button', { name: /^Use every 1 day/ }).click();
+    expect(await interval()).toBe('1 day');
+    await dialog.getByRole('button', { name: 'Close' }).click();
+    await page.keyboard.press('Control+z');
+    await expect.poll(interval).toBe('2.4 h');
+
+    // the strength curve of a lagged link: its peak is offered as the interval
+    await page.getByRole('tab', { name: 'Numbers' }).click();
+    const use = page.locator('.lf-use-interval').first();
+    await expect(use).toBeVisible({ timeout: 120_000 });
+    const peak = (await use.getAttribute('data-interval'))!;
+    await use.click();
+    expect(await interval()).toBe(peak);
+    await expect(use).toBeDisabled();
+    await shot(page, testInfo.outputPath('22-curve-peak-used-1440.png'));
+    await page.keyboard.press('Control+z');
+    await expect.poll(interval).toBe('2.4 h');
+    expect(errors).toEqual([]);
+  });
+});

@@ -10,6 +10,7 @@ import { lazy, Suspense } from 'react';
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
 const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
 const StepsPane = lazy(() => import('./undersample/StepsPane'));
+const StudyPane = lazy(() => import('./study/StudyPane'));
 const DataPane = lazy(() => import('./data/DataPane'));
 
 const TABS: { id: Pane; name: string }[] = [
@@ -20,6 +21,7 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'numbers', name: 'Numbers' },
   { id: 'pictures', name: 'Pictures' },
   { id: 'steps', name: 'Steps' },
+  { id: 'study', name: 'Study' },
   { id: 'data', name: 'Data' },
 ];
 
@@ -77,6 +79,7 @@ export function RightPane() {
           </Suspense>
         )}
         {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}
+        {pane === 'study' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StudyPane /></Suspense>}
         {pane === 'data' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><DataPane /></Suspense>}
       </div>
     </aside>

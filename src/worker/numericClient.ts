@@ -77,6 +77,8 @@ export function workerNumeric(): NumericTransport {
     timescales: (m, i) => call(() => remote.timescales(m, i)),
     curve: (m, f, t) => call(() => remote.curve(m, f, t)),
     advise: (m, l, f) => call(() => remote.advise(m, l, f)),
+    design: (m, st) => call(() => remote.design(m, st)),
+    sampledAt: (m, xs) => call(() => remote.sampledAt(m, xs)),
     dispose: w.dispose,
   };
 }

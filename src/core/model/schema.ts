@@ -325,6 +325,24 @@ function checkStudy(model: Model, study: Study, issues: ModelIssue[], warnings: 
     issues.push({ path: 'study.length', message: `is ${formatDuration(length.window, unit)}, shorter than the interval (${formatDuration(interval.value, unit)}): no two prompts fit in it` });
 }
 
+/**
+ * The problems of a study as the modeller edits it, before it is written into
+ * the model: its form (the same rules as the file) and the checks against the
+ * model (interval and length readable, holds naming variables, a window that
+ * ends after its start, a length that fits two prompts). Paths start at
+ * "study" ("study.schedule.promptsPerDay"). Issues block the edit; warnings do not.
+ * Example: `studyIssues({ interval: "3h", length: 1, schedule: { kind: "fixed" } }, model).issues`
+ * → [{ path: "study.length", message: "a study length in samples must be a whole number of at least 2, not 1" }].
+ */
+export function studyIssues(study: unknown, model: Model): { issues: ModelIssue[]; warnings: ModelIssue[] } {
+  const r = studySchema.safeParse(study, { reportInput: true });
+  if (!r.success) return { issues: zodIssues(r.error).map((i) => ({ ...i, path: i.path === '(top level)' ? 'study' : `study.${i.path}` })), warnings: [] };
+  const issues: ModelIssue[] = [];
+  const warnings: ModelIssue[] = [];
+  checkStudy(model, r.data as Study, issues, warnings);
+  return { issues, warnings };
+}
+
 /** Parse model text (JSON) with a located message when the JSON itself is broken. */
 export function parseModelText(textIn: string): ParseResult {
   let json: unknown;

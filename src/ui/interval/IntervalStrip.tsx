@@ -11,6 +11,7 @@ import { fromPosition, passed, stepInterval, toPosition, type IntervalKey, type 
 import { documentStore, useValidatedModel } from '../../state/document';
 import { setStudyInterval, setStudyLength, useSessionStudy, type StudyLength } from '../../state/session';
 import { exactDuration, intervalLabel, parseInterval } from '../../core/study/convert';
+import { plannedSlots } from '../../core/study/schedule';
 import { useBandCache, type BandCache } from '../views/bandCache';
 import { breakpointRanges, type BreakpointRange } from '../../core/pictures/uncertain';
 import { setIntervalDrag } from './dragging';
@@ -200,7 +201,15 @@ function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval
     apply(next, as);
   };
   const nSamples = by === 'window' ? Math.max(1, Math.round(length.window / interval)) : 0;
-  const other = by === 'window' ? `${nSamples} ${nSamples === 1 ? 'sample' : 'samples'}` : `lasts ${formatDuration(length.samples * interval, unit)}`;
+  // a schedule other than a fixed interval plans its own prompts (5 a day for 14 days: 70, not 14 days / 2.4 h)
+  const session = useSessionStudy();
+  const planned = useMemo(() => {
+    if (!session || session.study.schedule.kind === 'fixed' || by !== 'window') return null;
+    try { return plannedSlots(session.study, unit).base.length; } catch { return null; }
+  }, [session, unit, by]);
+  const other = by === 'window'
+    ? planned !== null ? `${planned} prompts planned` : `${nSamples} ${nSamples === 1 ? 'sample' : 'samples'}`
+    : `lasts ${formatDuration(length.samples * interval, unit)}`;
   return (
     <div className="lf-study">
       <label>

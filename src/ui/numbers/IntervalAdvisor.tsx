@@ -5,6 +5,7 @@ import type { AdviceAnswer } from '../../worker/numericApi';
 import { numText } from '../../present/index';
 import { labelOf } from '../../present/index';
 import { isFailed, useNumeric } from './useNumeric';
+import { UseInterval } from '../study/UseInterval';
 
 type Pair = { from: VariableId; to: VariableId };
 const key = (p: Pair) => `${p.from}>${p.to}`;
@@ -64,6 +65,7 @@ export function IntervalAdvisor({ model, states, reach }: { model: Model; states
               ? `Best single interval: every ${formatDuration(a.advice.best, u)}. There each chosen link is at least ${Math.round(a.advice.score * 100)}% as strong as at its own best interval; the table gives each effect's size there, per unit of its source.`
               : 'No single interval can be recommended for these links: at least one of them only grows or only fades over the range looked at.'}
           </p>
+          {a.advice.best !== null && <p><UseInterval value={a.advice.best} unit={u} what="the advised interval" /></p>}
           <details><summary>In detail</summary><p>{a.advice.explanation}</p></details>
         </div>
       )}

@@ -13,6 +13,7 @@ import type { CurveAnswer, SampledAnswer, TimescalesAnswer } from '../../worker/
 import { EquilibriumTable } from './EquilibriumTable';
 import { IntervalAdvisor } from './IntervalAdvisor';
 import { LinkCurveChart } from './LinkCurveChart';
+import { UseInterval } from '../study/UseInterval';
 import { SampledNetworks } from './SampledNetworks';
 import { SimulationPanel } from './SimulationPanel';
 import { TimescalesTable } from './TimescalesTable';
@@ -142,6 +143,12 @@ function LinkPicker({ model, states, breakpoints, study, pair, setPair }: { mode
       ) : (
         <>
           <LinkCurveChart model={model} curve={curve.answer.curve} breakpoints={breakpoints} current={current} />
+          {curve.answer.curve.peaks.length > 0 && (
+            <p className="lf-num-row" aria-label="Intervals where the link peaks">
+              {curve.answer.curve.peaks.length === 1 ? 'Its peak:' : 'Its peaks:'}{' '}
+              {curve.answer.curve.peaks.map((p) => <UseInterval key={p.interval} value={p.interval} unit={model.timeUnit} what={`where ${labelOf(model, f!)} → ${labelOf(model, t!)} peaks`} />)}
+            </p>
+          )}
           <ExportButtons
             what="the link chart"
             name={`${fileStem(model.name)}-${f}-to-${t}`}
