@@ -21,3 +21,4 @@ COMMANDS.push(...pictureCommands);
 import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampleCommands);
 import { batchCommand } from './batch';
 COMMANDS.push(batchCommand((argv, io) => import('../run').then((m) => m.runCli(argv, io))));
+import { rehearseCommands } from './rehearse'; COMMANDS.push(...rehearseCommands);
