@@ -22,3 +22,4 @@ import { undersampleCommands } from './undersample'; COMMANDS.push(...undersampl
 import { batchCommand } from './batch';
 COMMANDS.push(batchCommand((argv, io) => import('../run').then((m) => m.runCli(argv, io))));
 import { cointCommands } from './coint'; COMMANDS.push(...cointCommands);
+import { rehearseCommands } from './rehearse'; COMMANDS.push(...rehearseCommands);

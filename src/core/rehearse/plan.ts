@@ -1,0 +1,98 @@
+/**
+ * The design advisor: analytic power for the links of interest against the interval between
+ * prompts, under a budget, and the design to recommend.
+ *
+ * - Budget of prompts (M per person): every interval costs the same; the recommended design is
+ *   the interval of greatest power. It is shorter than the interval where the lagged effect
+ *   peaks, because the innovation variance Q(Δ) grows with the interval and the SE with it.
+ * - Budget of span (S): an interval Δ gives ⌊S/Δ⌋ prompts; the recommended design is the longest
+ *   interval (fewest prompts: least burden) whose power reaches the target for every link.
+ * Designs use one prompt every interval (schedule `fixed`) with the study's missed prompts.
+ * When no design reaches the target, the result says so and names the link that fails.
+ */
+import type { Study } from '../model/types';
+import { studyRange } from '../study/index';
+import { analyticPower, type LinkPower } from './power';
+import type { Rehearsal } from './setup';
+
+export type Budget = { kind: 'prompts'; prompts: number } | { kind: 'span'; span: number };
+
+export interface PlanPoint {
+  interval: number;
+  prompts: number;
+  links: LinkPower[];
+  /** The smallest power over the links (every link must be detected). */
+  minPower: number;
+}
+
+export interface PlanResult {
+  budget: Budget;
+  persons: number;
+  target: number;
+  curve: PlanPoint[];
+  /** Per link: the interval on the grid where the lagged effect the analysis estimates is largest. */
+  peaks: { from: string; to: string; interval: number; effect: number }[];
+  recommended: PlanPoint | null;
+  /** One plain sentence: the design to use, or that none affordable reaches the target and which link fails. */
+  statement: string;
+}
+
+function designStudy(base: Study, interval: number, prompts: number): Study {
+  return { ...base, interval, length: prompts, schedule: { kind: 'fixed' } };
+}
+
+/** Log-spaced intervals over the range the interval control offers for the budget. */
+export function planGrid(r: Rehearsal, budget: Budget, points = 60): number[] {
+  const range = studyRange(r.model, budget.kind === 'span' ? { window: budget.span } : { samples: budget.prompts });
+  const lo = range.min, hi = budget.kind === 'span' ? Math.min(range.max, budget.span / 3) : range.max;
+  if (!(hi > lo)) throw new Error('the budget leaves no interval to compare: the span is too short for the model\'s timescales');
+  return Array.from({ length: points }, (_, k) => lo * (hi / lo) ** (k / (points - 1)));
+}
+
+/**
+ * Example: `planStudy(rehearsalOf(model, { persons: 50, links }), { kind: 'prompts', prompts: 70 })`.
+ * `format(x)` writes an interval for the statement (the CLI passes its duration text).
+ */
+export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; grid?: number[]; format?: (interval: number) => string } = {}): PlanResult {
+  if (r.links.length === 0) throw new Error('--link: name the link(s) the study must detect');
+  if (budget.kind === 'prompts' && !(Number.isInteger(budget.prompts) && budget.prompts >= 3)) throw new Error(`--budget prompts: a whole number of at least 3 prompts per person is needed, not ${budget.prompts}`);
+  if (budget.kind === 'span' && !(budget.span > 0)) throw new Error(`--budget span: a positive duration is needed, not ${budget.span}`);
+  const target = opt.target ?? 0.8;
+  const fmt = opt.format ?? ((x: number) => x.toPrecision(3));
+  const grid = opt.grid ?? planGrid(r, budget);
+  const missed = r.study.missedPrompts ?? 0;
+  const curve: PlanPoint[] = [];
+  for (const interval of grid) {
+    const prompts = budget.kind === 'prompts' ? budget.prompts : Math.floor(budget.span / interval + 1e-9);
+    if (prompts < 3) continue;
+    const study = designStudy(r.study, interval, prompts);
+    const res = analyticPower({ ...r, study, plannedPerPerson: prompts, answeredPerPerson: prompts * (1 - missed) });
+    curve.push({ interval, prompts, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) });
+  }
+  if (curve.length === 0) throw new Error('no interval of the grid leaves at least 3 prompts within the budget');
+  const peaks = r.links.map((l, k) => {
+    let best = curve[0];
+    for (const p of curve) if (Math.abs(p.links[k].effect) > Math.abs(best.links[k].effect)) best = p;
+    return { from: l.from, to: l.to, interval: best.interval, effect: best.links[k].effect };
+  });
+  let recommended: PlanPoint | null = null;
+  if (budget.kind === 'prompts') {
+    const best = curve.reduce((a, b) => (b.minPower > a.minPower ? b : a));
+    if (best.minPower >= target) recommended = best;
+  } else {
+    const ok = curve.filter((p) => p.minPower >= target);
+    if (ok.length > 0) recommended = ok.reduce((a, b) => (b.interval > a.interval ? b : a));
+  }
+  const pct = (x: number) => `${Math.round(x * 100)} %`;
+  const budgetText = budget.kind === 'prompts' ? `${budget.prompts} prompts per person` : `a span of ${fmt(budget.span)}`;
+  let statement: string;
+  if (recommended) {
+    statement = `Recommended: one prompt every ${fmt(recommended.interval)}, ${recommended.prompts} prompts per person, ${r.persons} persons: power ${pct(recommended.minPower)} or more for every link (target ${pct(target)}, ${budgetText}).`;
+  } else {
+    const best = curve.reduce((a, b) => (b.minPower > a.minPower ? b : a));
+    const k = best.links.findIndex((l) => l.power === best.minPower);
+    const fail = best.links[k];
+    statement = `No affordable design reaches ${pct(target)} power with ${budgetText} and ${r.persons} persons: ${fail.from}->${fail.to} fails (at best ${pct(fail.power)}, one prompt every ${fmt(best.interval)}). More persons or a larger budget would be needed.`;
+  }
+  return { budget, persons: r.persons, target, curve, peaks, recommended, statement };
+}
