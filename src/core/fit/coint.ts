@@ -24,7 +24,7 @@
  *   differences; a series whose loading pulls it back toward the equilibrium
  *   (and is distinguishable from zero) tracks the others.
  */
-import { ols } from '../stats/ols';
+import { nestedResidualSums, ols } from '../stats/ols';
 import { normalCdf } from '../stats/normal';
 import { symmetricEigen } from '../pictures/symmetric';
 import { fromRows, type Mat } from '../numeric/dense';
@@ -105,11 +105,15 @@ export function adf(series: ArrayLike<number>, options: AdfOptions = {}, name = 
   let usedLag = maxLag;
   let bestAic: number | null = null;
   if (autoLag === 'aic') {
+    // Every lag order on the longest lag's sample; the columns are nested, so one QR gives every SSR.
+    const d = adfDesign(x, dx, maxLag, maxLag, regression);
+    const ssr = nestedResidualSums(d.y, d.cols);
+    const m = d.y.length;
     for (let lag = 0; lag <= maxLag; lag++) {
-      const d = adfDesign(x, dx, lag, maxLag, regression);
-      const fit = ols(d.y, d.cols);
-      if (bestAic === null || fit.aic < bestAic) {
-        bestAic = fit.aic;
+      const k = nt + 1 + lag;
+      const aic = m * (Math.log(2 * Math.PI) + Math.log(ssr[k - 1] / m) + 1) + 2 * k;
+      if (bestAic === null || aic < bestAic) {
+        bestAic = aic;
         usedLag = lag;
       }
     }
