@@ -414,7 +414,7 @@ export function errorCorrection(series: readonly ArrayLike<number>[], eg: EngleG
  * the tracker's settled balance is determined by what it tracks.
  */
 export function trackingSentence(ec: ErrorCorrection, eg: EngleGrangerResult, names: string[]): string {
-  const list = (xs: string[]): string => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`);
+  const list = listText;
   const balance = balanceText(eg, names, ec.trackers.length === 1 ? names.indexOf(ec.trackers[0]) : 0);
   if (ec.trackers.length === 0) return `No series is pulled back toward the balance ${balance} distinguishably from zero; the data do not say which tracks which.`;
   if (ec.leaders.length === 0) return `Each of ${list(ec.trackers)} is pulled back toward the balance ${balance}; at a long interval they settle together and no one of them determines the others.`;
@@ -439,6 +439,14 @@ export function balanceText(eg: EngleGrangerResult, names: string[], solveFor = 
   terms.push({ v: f * wc, text: fmt(Math.abs(f * wc)) });
   if (wt !== null) terms.push({ v: f * wt, text: `${fmt(Math.abs(f * wt))}·t` });
   return `${names[solveFor]} ≈ ${terms.map((t, i) => (i === 0 ? (t.v < 0 ? '−' : '') : t.v < 0 ? ' − ' : ' + ') + t.text).join('')}`;
+}
+
+function signed(x: number): string {
+  return x < 0 ? `−${fmt(-x)}` : fmt(x);
+}
+
+function listText(xs: string[]): string {
+  return xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`;
 }
 
 function fmt(x: number): string {
@@ -489,7 +497,7 @@ export function cointegrationReport(series: readonly ArrayLike<number>[], names:
     ec = errorCorrection(series, eg0, names, Math.max(1, lags));
     sentence = trackingSentence(ec, eg0, names);
   } else {
-    sentence = `No cointegration at 5 % (Engle–Granger τ = ${fmt(eg.statistic)}, critical ${fmt(eg.critical['5%'])}): ${names.join(' and ')} may drift apart, so no series' settled balance is determined by another at a long interval.`;
+    sentence = `No cointegration at 5 % (Engle–Granger τ = ${signed(eg.statistic)}, critical ${signed(eg.critical['5%'])}): ${listText(names)} may drift apart, so no series' settled balance is determined by another at a long interval.`;
   }
   if (eg.cointegrated !== jo.rank.trace > 0) notes.push(`Engle–Granger and Johansen's trace test disagree at 5 % (${eg.cointegrated ? 'cointegrated' : 'not cointegrated'} vs rank ${jo.rank.trace})`);
   return { names, nobs: series[0].length, adf: adfs, engleGranger: eg, johansen: jo, errorCorrection: ec, sentence, notes };
