@@ -24,7 +24,7 @@
  *   differences; a series whose loading pulls it back toward the equilibrium
  *   (and is distinguishable from zero) tracks the others.
  */
-import { ols } from '../stats/ols';
+import { nestedResidualSums, ols } from '../stats/ols';
 import { normalCdf } from '../stats/normal';
 import { symmetricEigen } from '../pictures/symmetric';
 import { fromRows, type Mat } from '../numeric/dense';
@@ -105,11 +105,15 @@ export function adf(series: ArrayLike<number>, options: AdfOptions = {}, name = 
   let usedLag = maxLag;
   let bestAic: number | null = null;
   if (autoLag === 'aic') {
+    // Every lag order on the longest lag's sample; the columns are nested, so one QR gives every SSR.
+    const d = adfDesign(x, dx, maxLag, maxLag, regression);
+    const ssr = nestedResidualSums(d.y, d.cols);
+    const m = d.y.length;
     for (let lag = 0; lag <= maxLag; lag++) {
-      const d = adfDesign(x, dx, lag, maxLag, regression);
-      const fit = ols(d.y, d.cols);
-      if (bestAic === null || fit.aic < bestAic) {
-        bestAic = fit.aic;
+      const k = nt + 1 + lag;
+      const aic = m * (Math.log(2 * Math.PI) + Math.log(ssr[k - 1] / m) + 1) + 2 * k;
+      if (bestAic === null || aic < bestAic) {
+        bestAic = aic;
         usedLag = lag;
       }
     }
@@ -410,7 +414,7 @@ export function errorCorrection(series: readonly ArrayLike<number>[], eg: EngleG
  * the tracker's settled balance is determined by what it tracks.
  */
 export function trackingSentence(ec: ErrorCorrection, eg: EngleGrangerResult, names: string[]): string {
-  const list = (xs: string[]): string => (xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`);
+  const list = listText;
   const balance = balanceText(eg, names, ec.trackers.length === 1 ? names.indexOf(ec.trackers[0]) : 0);
   if (ec.trackers.length === 0) return `No series is pulled back toward the balance ${balance} distinguishably from zero; the data do not say which tracks which.`;
   if (ec.leaders.length === 0) return `Each of ${list(ec.trackers)} is pulled back toward the balance ${balance}; at a long interval they settle together and no one of them determines the others.`;
@@ -435,6 +439,14 @@ export function balanceText(eg: EngleGrangerResult, names: string[], solveFor = 
   terms.push({ v: f * wc, text: fmt(Math.abs(f * wc)) });
   if (wt !== null) terms.push({ v: f * wt, text: `${fmt(Math.abs(f * wt))}·t` });
   return `${names[solveFor]} ≈ ${terms.map((t, i) => (i === 0 ? (t.v < 0 ? '−' : '') : t.v < 0 ? ' − ' : ' + ') + t.text).join('')}`;
+}
+
+function signed(x: number): string {
+  return x < 0 ? `−${fmt(-x)}` : fmt(x);
+}
+
+function listText(xs: string[]): string {
+  return xs.length <= 1 ? xs.join('') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`;
 }
 
 function fmt(x: number): string {
@@ -485,7 +497,7 @@ export function cointegrationReport(series: readonly ArrayLike<number>[], names:
     ec = errorCorrection(series, eg0, names, Math.max(1, lags));
     sentence = trackingSentence(ec, eg0, names);
   } else {
-    sentence = `No cointegration at 5 % (Engle–Granger τ = ${fmt(eg.statistic)}, critical ${fmt(eg.critical['5%'])}): ${names.join(' and ')} may drift apart, so no series' settled balance is determined by another at a long interval.`;
+    sentence = `No cointegration at 5 % (Engle–Granger τ = ${signed(eg.statistic)}, critical ${signed(eg.critical['5%'])}): ${listText(names)} may drift apart, so no series' settled balance is determined by another at a long interval.`;
   }
   if (eg.cointegrated !== jo.rank.trace > 0) notes.push(`Engle–Granger and Johansen's trace test disagree at 5 % (${eg.cointegrated ? 'cointegrated' : 'not cointegrated'} vs rank ${jo.rank.trace})`);
   return { names, nobs: series[0].length, adf: adfs, engleGranger: eg, johansen: jo, errorCorrection: ec, sentence, notes };

@@ -121,3 +121,50 @@ export function ols(y: ArrayLike<number>, columns: readonly ArrayLike<number>[])
   const logLik = (-n / 2) * (Math.log(2 * Math.PI) + Math.log(ssr / n) + 1);
   return { beta, se, t, cov, residuals, ssr, sigma2, n, k, logLik, aic: -2 * logLik + 2 * k, rSquared: 1 - ssr / (hasConstant ? tss : uss) };
 }
+
+/**
+ * Residual sums of squares of the nested regressions of y on the first m
+ * columns, m = 1…k, from one Householder QR: the QR of a column prefix is the
+ * prefix of the QR, and the residual of the first m columns is
+ * Σ_{i≥m} (Qᵀy)ᵢ². Used to choose a lag order without k separate fits.
+ */
+export function nestedResidualSums(y: ArrayLike<number>, columns: readonly ArrayLike<number>[]): Float64Array {
+  const n = y.length;
+  const k = columns.length;
+  if (n <= k) throw new Error(`the regression needs more rows (${n}) than columns (${k})`);
+  const a = new Float64Array(n * k);
+  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) a[j * n + i] = columns[j][i];
+  const qty = Float64Array.from(y);
+  let colScale = 0;
+  for (let j = 0; j < k; j++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += a[j * n + i] ** 2;
+    colScale = Math.max(colScale, Math.sqrt(s));
+  }
+  for (let j = 0; j < k; j++) {
+    const o = j * n;
+    let norm = 0;
+    for (let i = j; i < n; i++) norm += a[o + i] ** 2;
+    norm = Math.sqrt(norm);
+    if (!(norm > 1e-13 * colScale)) throw new Error(`the regression's columns are linearly dependent (column ${j + 1} adds nothing)`);
+    a[o + j] -= a[o + j] > 0 ? -norm : norm;
+    let vv = 0;
+    for (let i = j; i < n; i++) vv += a[o + i] ** 2;
+    for (let c = j + 1; c <= k; c++) {
+      const col = c === k ? qty : a;
+      const off = c === k ? 0 : c * n;
+      let d = 0;
+      for (let i = j; i < n; i++) d += a[o + i] * col[off + i];
+      const f = (2 * d) / vv;
+      for (let i = j; i < n; i++) col[off + i] -= f * a[o + i];
+    }
+  }
+  const out = new Float64Array(k);
+  let tail = 0;
+  for (let i = n - 1; i >= k; i--) tail += qty[i] ** 2;
+  for (let m = k; m >= 1; m--) {
+    out[m - 1] = tail;
+    tail += qty[m - 1] ** 2;
+  }
+  return out;
+}

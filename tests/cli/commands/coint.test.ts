@@ -63,6 +63,23 @@ describe('loopfold coint', () => {
     expect(r.out).toMatch(/(gdp tracks cons|cons tracks gdp): .*settled balance is determined by/);
   });
 
+  it('three columns with --trend ct: Engle–Granger and Johansen (det_order 1) equal statsmodels; without cointegration the sentence says no balance is determined', async () => {
+    const r = await run(['coint', 'm.csv', '--columns', 'cons,gdp,inv', '--trend', 'ct', '--json'], { 'm.csv': csv });
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { engleGranger: { statistic: number; pValue: number; critical: Record<string, number>; cointegrated: boolean }; johansen: { trace: number[] }; errorCorrection: unknown; sentence: string };
+    const eg = ref.coint.find((c) => c.names.join() === 'cons,gdp,inv' && c.trend === 'ct')!;
+    expectClose(j.engleGranger.statistic, eg.stat, { relTol: 1e-6 }, 'EG τ');
+    expectClose(j.engleGranger.pValue, eg.p, { relTol: 1e-6 }, 'EG p');
+    expectClose([j.engleGranger.critical['1%'], j.engleGranger.critical['5%'], j.engleGranger.critical['10%']], eg.crit, { relTol: 1e-9 }, 'EG critical (Table 3 agrees with the copy)');
+    const jo = ref.johansen.find((x) => x.names.join() === 'cons,gdp,inv' && x.det === 1 && x.k === 1)!;
+    expectClose(j.johansen.trace, jo.trace, { relTol: 1e-6 }, 'trace');
+    // statsmodels' τ lies above its 5 % value here: not cointegrated.
+    expect(eg.stat).toBeGreaterThan(eg.crit[1]);
+    expect(j.engleGranger.cointegrated).toBe(false);
+    expect(j.errorCorrection).toBeNull();
+    expect(j.sentence).toMatch(/^No cointegration at 5 % \(Engle–Granger τ = −\d.*cons, gdp and inv may drift apart/);
+  });
+
   it('names a missing column, a non-numeric cell by row and column, and a bad option', async () => {
     let r = await run(['coint', 'm.csv', '--columns', 'cons,income'], { 'm.csv': csv });
     expect(r.code).toBe(1);
