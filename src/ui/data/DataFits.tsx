@@ -30,7 +30,7 @@ function ComparisonTable({ model, rows, what }: { model: Model; rows: LinkCompar
       <thead><tr><th scope="col">link</th><th scope="col">sketch</th><th scope="col">fitted [95 % interval]</th><th scope="col">verdict</th></tr></thead>
       <tbody>
         {rows.map((r) => (
-          <tr key={`${r.from}>${r.to}`} data-verdict={r.verdict}>
+          <tr key={`${r.from}>${r.to}`} data-link={`${r.from}>${r.to}`} data-verdict={r.verdict}>
             <th scope="row">{r.from === r.to ? `${labelOf(model, r.from)} on itself` : `${labelOf(model, r.from)} → ${labelOf(model, r.to)}`}</th>
             <td className="lf-data-num">{r.sketchSign ? `${r.sketchSign === '+' ? '+' : '−'} ${n3(Math.abs(r.sketch))}` : 'no link'}</td>
             <td className="lf-data-num">{n3(r.estimate)} [{n3(r.low)}, {n3(r.high)}]</td>
