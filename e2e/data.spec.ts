@@ -46,6 +46,13 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(result).toContainText(`${cli.n.persons} persons, ${cli.n.pairs} pairs`);
   for (const c of cli.comparison) await expect(result.locator(`tr[data-link="${c.from}>${c.to}"]`)).toHaveAttribute('data-verdict', c.verdict);
   await expect(page.locator('svg[data-chart="lag-curve"]')).toBeVisible();
+
+  // The continuous-time fit is slow on 30 persons: it shows progress and stops on Cancel.
+  await page.getByRole('button', { name: 'Fit the continuous-time model (slow)' }).click();
+  await expect(page.getByRole('progressbar', { name: 'Progress of the fit' })).toBeVisible();
+  await page.getByTestId('data-fits').getByRole('button', { name: 'Cancel' }).click();
+  await expect(page.getByText('The continuous-time fit was stopped.')).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Fit the VAR' })).toBeEnabled();
   await result.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('data-var-1440.png') });
   expect(await axeViolations(page)).toEqual([]);
