@@ -13,7 +13,8 @@ import { dataIntervals, lagCurves } from '../../core/fit/lagCurve';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
-import { labelOf, numText, toCsv } from '../../present/index';
+import { labelOf, numText } from '../../present/index';
+import { comparisonCsv } from '../../present/comparisonCsv';
 import { appDataClient, type FitAnswer } from '../../worker/dataClient';
 import type { CtAnswer, VarAnswer } from '../../worker/dataApi';
 import type { CancellableRun } from '../../worker/lane';
@@ -40,13 +41,6 @@ function ComparisonTable({ model, rows, what, sketchHead }: { model: Model; rows
       </tbody>
     </table>
   );
-}
-
-function csvOf(model: Model, rows: LinkComparison[], method: string): string {
-  return toCsv([
-    ['method', 'from', 'to', 'sketch', 'estimate', 'low', 'high', 'verdict', 'in words'],
-    ...rows.map((r) => [method, labelOf(model, r.from), labelOf(model, r.to), r.sketch, r.estimate, r.low, r.high, r.verdict, r.words]),
-  ]);
 }
 
 type Running = { kind: 'var' | 'ct'; progress: number; run: CancellableRun<unknown> } | null;
@@ -138,7 +132,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
             {V.fit.excluded.length > 0 && ` Pairs left out: ${V.fit.excluded.map((e) => `${e.pairs} ${e.reason}`).join('; ')}.`}
           </p>
           <ComparisonTable model={model} rows={V.comparison} what="VAR" sketchHead="sketch, lagged effect at this interval" />
-          <button type="button" onClick={() => downloadBlob(new Blob([csvOf(model, V.comparison, 'VAR')], { type: 'text/csv' }), `${stem}-var-comparison.csv`)}>Comparison as CSV</button>
+          <button type="button" onClick={() => downloadBlob(new Blob([comparisonCsv(model, V.comparison, 'VAR')], { type: 'text/csv' }), `${stem}-var-comparison.csv`)}>Comparison as CSV</button>
           <p className="lf-data-note">Between persons (usual levels): variances {V.fit.between.cov.map((r, i) => `${labelOf(model, V.fit.variables[i])} ${n3(r[i])}`).join(', ')}.</p>
           {V.fit.warnings.map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
@@ -154,7 +148,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
             {Number.isFinite(T.lr.p) ? (T.lr.p < 0.05 ? ' — the data need links the sketch does not have.' : ' — the sketch\'s links are enough for these data.') : ''}
           </p>
           <ComparisonTable model={model} rows={T.comparison} what="continuous-time" sketchHead="sketch, drift entry" />
-          <button type="button" onClick={() => downloadBlob(new Blob([csvOf(model, T.comparison, 'continuous-time')], { type: 'text/csv' }), `${stem}-ct-comparison.csv`)}>Comparison as CSV</button>
+          <button type="button" onClick={() => downloadBlob(new Blob([comparisonCsv(model, T.comparison, 'continuous-time')], { type: 'text/csv' }), `${stem}-ct-comparison.csv`)}>Comparison as CSV</button>
           <p className="lf-data-note">
             Timescales (1/|Re λ|, {u}): fitted {T.open.timescales.map((t) => n3(t.timescale)).join(', ')}; sketch {sketchScales.map(n3).join(', ')}.
             {T.open.between && ` Person differences as random intercepts; their variances: ${T.open.between.map((r, i) => `${labelOf(model, T.open.measured[i])} ${n3(r[i])}`).join(', ')}.`}
