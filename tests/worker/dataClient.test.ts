@@ -4,6 +4,8 @@ import { createDataClient } from '../../src/worker/dataClient';
 import { localData, type DataApi } from '../../src/worker/dataApi';
 import { parseModelText } from '../../src/core/model/schema';
 import { fitVar } from '../../src/core/fit/var';
+import { fitCt } from '../../src/core/fit/ct';
+import { simulateCt } from '../../src/core/fit/simulate';
 import type { Panel } from '../../src/core/data/panel';
 import { expectClose } from '../helpers/tolerance';
 
@@ -89,6 +91,23 @@ describe('data client', () => {
     expect(a.comparison).toHaveLength(1);
     expect(a.comparison[0]).toMatchObject({ from: 'stress', to: 'stress' });
     expect(seen).toEqual([0, 1]);
+  });
+
+  it('fits the continuous-time model, open and the sketch\'s, with rising progress and the core\'s answer', async () => {
+    // One measured state, stress, simulated with drift −0.5 per hour (invented values): small enough to fit in a second.
+    const times = Array.from({ length: 6 }, (_, p) => Array.from({ length: 12 }, (_, k) => k * 2 + (p % 3) * 0.5 * (k % 2)));
+    const panel = simulateCt({ states: ['stress'], drift: [[-0.5]], diffusion: [[1]], levels: [3], between: [[0.5]] }, times, { seed: 7 });
+    const c = createDataClient(null, () => localData);
+    const seen: number[] = [];
+    const a = await c.fitCt(sleepStress, panel, { maxIterations: 60 }, (f) => seen.push(f)).result;
+    if (!a || !a.ok) throw new Error(`fit failed: ${a && !a.ok ? a.reason : 'replaced'}`);
+    const direct = fitCt(panel, { states: ['stress'], initial: 'free', intercepts: 'random', maxIterations: 60 });
+    expect(a.open.minus2LL).toBe(direct.minus2LL);
+    // The sketch has stress regulating itself: the confirmatory fit frees the same single drift entry, so the test has 0 df.
+    expect(a.lr.df).toBe(0);
+    expect(a.comparison).toHaveLength(1);
+    expect(seen.at(-1)).toBe(1);
+    expect(seen.every((f, i) => i === 0 || f >= seen[i - 1] || f === 0.5)).toBe(true);
   });
 
   it('a column mapped to a variable that is not a state of the sketch is a reason naming it', async () => {

@@ -55,7 +55,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
   const select = (role: 'person' | 'time' | 'day' | 'prompt', label: string, optional: boolean) => (
     <label>
       {label}{' '}
-      <select value={mapping[role] ?? ''} onChange={(e) => setRole(role, e.target.value)}>
+      <select aria-label={label} value={mapping[role] ?? ''} onChange={(e) => setRole(role, e.target.value)}>
         {optional ? <option value="">none</option> : !mapping[role] && <option value="">choose…</option>}
         {fields.filter((f) => f !== '').map((f) => <option key={f} value={f}>{f}</option>)}
       </select>
@@ -68,7 +68,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
       <div className="lf-data-grid">
         <label>
           Layout{' '}
-          <select value={mapping.format} onChange={(e) => {
+          <select aria-label="Layout" value={mapping.format} onChange={(e) => {
             const format = e.target.value as ColumnMapping['format'];
             if (format === 'long') onChange({ ...mapping, format, variables: mapping.variables.length ? mapping.variables : matchVariables(fields, model.variables, new Set(roles)) });
             else onChange({ ...mapping, format, waves: mapping.waves ?? header.suggestion.waves ?? [] });
@@ -83,7 +83,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
             {select('time', 'Time', false)}
             <label>
               Time written as{' '}
-              <select value={mapping.timeFormat ?? 'auto'} onChange={(e) => onChange({ ...mapping, timeFormat: e.target.value as ColumnMapping['timeFormat'] })}>
+              <select aria-label="Time written as" value={mapping.timeFormat ?? 'auto'} onChange={(e) => onChange({ ...mapping, timeFormat: e.target.value as ColumnMapping['timeFormat'] })}>
                 <option value="auto">decide from the cells</option>
                 <option value="iso">ISO date-times (2026-03-02T09:15+01:00)</option>
                 <option value="number">numbers in a unit</option>
@@ -92,7 +92,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
             {mapping.timeFormat === 'number' && (
               <label>
                 Unit of the numbers{' '}
-                <select value={mapping.timeInputUnit ?? mapping.timeUnit} onChange={(e) => onChange({ ...mapping, timeInputUnit: e.target.value as ColumnMapping['timeUnit'] })}>
+                <select aria-label="Unit of the numbers" value={mapping.timeInputUnit ?? mapping.timeUnit} onChange={(e) => onChange({ ...mapping, timeInputUnit: e.target.value as ColumnMapping['timeUnit'] })}>
                   {TIME_UNITS.map((u) => <option key={u} value={u}>{u}</option>)}
                 </select>
               </label>
@@ -103,7 +103,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
         )}
         <label>
           Missing-value codes{' '}
-          <input type="text" value={(mapping.missing ?? []).join(', ')} placeholder="e.g. -99" onChange={(e) => onChange({ ...mapping, missing: e.target.value.split(',').map((s) => s.trim()).filter((s) => s !== '') })} />
+          <input type="text" aria-label="Missing-value codes" value={(mapping.missing ?? []).join(', ')} placeholder="e.g. -99" onChange={(e) => onChange({ ...mapping, missing: e.target.value.split(',').map((s) => s.trim()).filter((s) => s !== '') })} />
         </label>
       </div>
       <p className="lf-data-note">Empty cells and NA are always missing; add codes such as -99, separated by commas.</p>

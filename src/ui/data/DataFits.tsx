@@ -13,7 +13,8 @@ import { dataIntervals, lagCurves } from '../../core/fit/lagCurve';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
-import { labelOf, numText, toCsv } from '../../present/index';
+import { labelOf, numText } from '../../present/index';
+import { comparisonCsv } from '../../present/comparisonCsv';
 import { appDataClient, type FitAnswer } from '../../worker/dataClient';
 import type { CtAnswer, VarAnswer } from '../../worker/dataApi';
 import type { CancellableRun } from '../../worker/lane';
@@ -24,13 +25,13 @@ import { ExportButtons } from '../numbers/ExportButtons';
 
 const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
 
-function ComparisonTable({ model, rows, what }: { model: Model; rows: LinkComparison[]; what: string }) {
+function ComparisonTable({ model, rows, what, sketchHead }: { model: Model; rows: LinkComparison[]; what: string; sketchHead: string }) {
   return (
     <table className="lf-data-table" aria-label={`Sketch against data, ${what}`} data-testid="comparison">
-      <thead><tr><th scope="col">link</th><th scope="col">sketch</th><th scope="col">fitted [95 % interval]</th><th scope="col">verdict</th></tr></thead>
+      <thead><tr><th scope="col">link</th><th scope="col">{sketchHead}</th><th scope="col">fitted [95 % interval]</th><th scope="col">verdict</th></tr></thead>
       <tbody>
         {rows.map((r) => (
-          <tr key={`${r.from}>${r.to}`} data-verdict={r.verdict}>
+          <tr key={`${r.from}>${r.to}`} data-link={`${r.from}>${r.to}`} data-verdict={r.verdict}>
             <th scope="row">{r.from === r.to ? `${labelOf(model, r.from)} on itself` : `${labelOf(model, r.from)} → ${labelOf(model, r.to)}`}</th>
             <td className="lf-data-num">{r.sketchSign ? `${r.sketchSign === '+' ? '+' : '−'} ${n3(Math.abs(r.sketch))}` : 'no link'}</td>
             <td className="lf-data-num">{n3(r.estimate)} [{n3(r.low)}, {n3(r.high)}]</td>
@@ -40,13 +41,6 @@ function ComparisonTable({ model, rows, what }: { model: Model; rows: LinkCompar
       </tbody>
     </table>
   );
-}
-
-function csvOf(model: Model, rows: LinkComparison[], method: string): string {
-  return toCsv([
-    ['method', 'from', 'to', 'sketch', 'estimate', 'low', 'high', 'verdict', 'in words'],
-    ...rows.map((r) => [method, labelOf(model, r.from), labelOf(model, r.to), r.sketch, r.estimate, r.low, r.high, r.verdict, r.words]),
-  ]);
 }
 
 type Running = { kind: 'var' | 'ct'; progress: number; run: CancellableRun<unknown> } | null;
@@ -128,8 +122,8 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
           <button type="button" onClick={() => running.run.cancel()}>Cancel</button>
         </p>
       )}
-      {varAnswer && !varAnswer.ok && <p className="lf-data-error" role="alert">VAR: {varAnswer.reason}</p>}
-      {ctAnswer && !ctAnswer.ok && <p className="lf-data-error" role="alert">Continuous-time fit: {ctAnswer.reason}</p>}
+      {varAnswer && !varAnswer.ok && ('cancelled' in varAnswer ? <p className="lf-data-note" role="status">The VAR fit was stopped.</p> : <p className="lf-data-error" role="alert">VAR: {varAnswer.reason}</p>)}
+      {ctAnswer && !ctAnswer.ok && ('cancelled' in ctAnswer ? <p className="lf-data-note" role="status">The continuous-time fit was stopped.</p> : <p className="lf-data-error" role="alert">Continuous-time fit: {ctAnswer.reason}</p>)}
       {V && (
         <div data-testid="var-result">
           <h4>VAR(1) within persons, every {n3(V.interval)} {u} (median interval{sameDay ? ' within days' : ''})</h4>
@@ -137,8 +131,8 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
             {V.fit.n.persons} persons, {V.fit.n.pairs} pairs of occasions; person means taken out (people differ in their usual levels). Intervals: cluster-robust across persons.
             {V.fit.excluded.length > 0 && ` Pairs left out: ${V.fit.excluded.map((e) => `${e.pairs} ${e.reason}`).join('; ')}.`}
           </p>
-          <ComparisonTable model={model} rows={V.comparison} what="VAR" />
-          <button type="button" onClick={() => downloadBlob(new Blob([csvOf(model, V.comparison, 'VAR')], { type: 'text/csv' }), `${stem}-var-comparison.csv`)}>Comparison as CSV</button>
+          <ComparisonTable model={model} rows={V.comparison} what="VAR" sketchHead="sketch, lagged effect at this interval" />
+          <button type="button" onClick={() => downloadBlob(new Blob([comparisonCsv(model, V.comparison, 'VAR')], { type: 'text/csv' }), `${stem}-var-comparison.csv`)}>Comparison as CSV</button>
           <p className="lf-data-note">Between persons (usual levels): variances {V.fit.between.cov.map((r, i) => `${labelOf(model, V.fit.variables[i])} ${n3(r[i])}`).join(', ')}.</p>
           {V.fit.warnings.map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
@@ -153,8 +147,8 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
             Likelihood ratio, the sketch's links against every link free: χ² {n3(T.lr.chi2)} on {T.lr.df} df, p = {n3(T.lr.p)}
             {Number.isFinite(T.lr.p) ? (T.lr.p < 0.05 ? ' — the data need links the sketch does not have.' : ' — the sketch\'s links are enough for these data.') : ''}
           </p>
-          <ComparisonTable model={model} rows={T.comparison} what="continuous-time" />
-          <button type="button" onClick={() => downloadBlob(new Blob([csvOf(model, T.comparison, 'continuous-time')], { type: 'text/csv' }), `${stem}-ct-comparison.csv`)}>Comparison as CSV</button>
+          <ComparisonTable model={model} rows={T.comparison} what="continuous-time" sketchHead="sketch, drift entry" />
+          <button type="button" onClick={() => downloadBlob(new Blob([comparisonCsv(model, T.comparison, 'continuous-time')], { type: 'text/csv' }), `${stem}-ct-comparison.csv`)}>Comparison as CSV</button>
           <p className="lf-data-note">
             Timescales (1/|Re λ|, {u}): fitted {T.open.timescales.map((t) => n3(t.timescale)).join(', ')}; sketch {sketchScales.map(n3).join(', ')}.
             {T.open.between && ` Person differences as random intercepts; their variances: ${T.open.between.map((r, i) => `${labelOf(model, T.open.measured[i])} ${n3(r[i])}`).join(', ')}.`}
