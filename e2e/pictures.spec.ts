@@ -67,3 +67,31 @@ test('Pictures pane on the evening-unrest example: three pictures with readings,
   expect(at).toBeGreaterThan(0);
   expect(errors).toEqual([]);
 });
+
+test('a link\'s strength range is stored on Enter or leaving the field; invalid text stays with its message', async ({ page }, testInfo) => {
+  await page.goto('/?example=sleep-stress');
+  await page.locator('.react-flow__node[data-id="mood"]').click();
+  const inspector = page.locator('.lf-inspector');
+  await inspector.locator('.lf-links-of button.lf-linkish').first().click();
+  const field = inspector.getByLabel('Strength range (optional)');
+  await expect(field).toHaveValue('');
+  // Whatever link the inspector shows: the ranges stored anywhere in the model.
+  const stored = () => page.evaluate(() => window.__loopfold!.model().links.flatMap((l) => (l.strengthRange ? [l.strengthRange] : [])));
+  await field.fill('0.9..0.2');
+  await field.press('Enter');
+  await expect(inspector.getByRole('alert')).toContainText('the low end 0.9 is above the high end 0.2');
+  await field.blur();
+  await expect(field).toHaveValue('0.9..0.2'); // kept, not silently reverted
+  expect(await stored()).toEqual([]);
+  await page.screenshot({ path: testInfo.outputPath('strength-range-invalid-1440.png') });
+  await field.fill('0.2..0.9');
+  await field.press('Enter');
+  await expect(inspector.getByRole('alert')).toHaveCount(0);
+  await expect.poll(stored).toEqual([{ low: 0.2, high: 0.9 }]);
+  await field.fill('0.3..1.2');
+  await field.blur();
+  await expect.poll(stored).toEqual([{ low: 0.3, high: 1.2 }]);
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await field.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('strength-range-1024.png') });
+});

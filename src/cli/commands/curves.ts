@@ -9,6 +9,7 @@ import { loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { formatNumber } from '../../present/index';
+import { adviceUnderStrengthRanges } from '../../core/pictures/strengthRanges';
 
 /** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
 const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
@@ -69,8 +70,8 @@ export const curveCommands: CliCommand[] = [
   {
     name: 'advise',
     summary: 'for chosen lagged links, the intervals where each is strong, and one interval for all',
-    usage: 'MODEL.json --links X>Y,U>V [--fraction 0.5] [--points N] [--json]',
-    options: { links: true, fraction: true, points: true, json: false },
+    usage: 'MODEL.json --links X>Y,U>V [--fraction 0.5] [--points N] [--uncertain [--draws K] [--seed S]] [--json]',
+    options: { links: true, fraction: true, points: true, json: false, uncertain: false, draws: true, seed: true },
     run(args, io) {
       const model = loadModel(args, io);
       const text = stringOption(args, 'links', 'sleep>mood,mood>sleep');
@@ -85,8 +86,23 @@ export const curveCommands: CliCommand[] = [
       const r = adviceOf(model, links, fraction, pointsOption(args));
       if (!r.ok) throw new CliError(r.reason);
       const a = r.advice;
-      if (args.options.json) io.out(JSON.stringify({ timeUnit: model.timeUnit, fraction, links: a.links, best: a.best, score: a.score, explanation: a.explanation }, null, 2));
-      else io.out([`${model.name}: interval advice (model-based)`, '', a.explanation].join('\n'));
+      // Strength ranges (a link's strengthRange): the advice over seeded draws of the strengths.
+      let u = null;
+      if (args.options.uncertain) {
+        const whole = (name: string, dflt: number, lo: number, hi: number) => {
+          const v = args.options[name];
+          if (v === undefined) return dflt;
+          const x = Number(v);
+          if (v === true || !Number.isInteger(x) || x < lo || x > hi) throw new CliError(`--${name} must be a whole number from ${lo} to ${hi}`, 2);
+          return x;
+        };
+        const res = adviceUnderStrengthRanges(model, links, { draws: whole('draws', 200, 1, 100000), seed: whole('seed', 1, 0, 2 ** 32 - 1), fraction, points: pointsOption(args) });
+        if (!res.ok) throw new CliError(res.reason);
+        u = res;
+      }
+      const uncertain = u && { draws: u.draws, seed: u.seed, ranged: u.ranged.map(({ from, to, low, high, point, decides }) => ({ from, to, low, high, point, decides })), holds: u.holds, best: u.best, noAdvice: u.noAdvice, links: u.links, readings: u.readings };
+      if (args.options.json) io.out(JSON.stringify({ timeUnit: model.timeUnit, fraction, links: a.links, best: a.best, score: a.score, explanation: a.explanation, ...(uncertain ? { uncertain } : {}) }, null, 2));
+      else io.out([`${model.name}: interval advice (model-based)`, '', a.explanation, ...(u ? ['', 'Under the strength ranges:', ...u.readings.map((x) => `  ${x}`)] : [])].join('\n'));
       return a.best === null ? 1 : 0;
     },
   },

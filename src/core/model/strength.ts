@@ -54,3 +54,27 @@ export function linkStrengths(model: Model): Strength[] {
 export function signedStrength(link: Link, s: Strength): number {
   return (link.sign === '-' ? -1 : 1) * s.value;
 }
+
+/** A strength range as the inspector shows it: "0.2..0.9". */
+export function strengthRangeText(r: { low: number; high: number } | undefined): string {
+  return r === undefined ? '' : `${r.low}..${r.high}`;
+}
+
+/**
+ * Read a strength range typed as "low..high" (sizes; the sign is the link's):
+ * '' → no range. Every refusal says what is wrong with the text.
+ * Example: `parseStrengthRangeText('0.2..0.9')` → { ok: true, value: { low: 0.2, high: 0.9 } }.
+ */
+export function parseStrengthRangeText(text: string): { ok: true; value: { low: number; high: number } | undefined } | { ok: false; message: string } {
+  const t = text.trim();
+  if (t === '') return { ok: true, value: undefined };
+  const parts = t.split('..');
+  if (parts.length !== 2) return { ok: false, message: `"${t}" is not a range: write low..high, such as 0.2..0.9` };
+  const [lo, hi] = parts.map((p) => p.trim());
+  const low = Number(lo), high = Number(hi);
+  if (lo === '' || !Number.isFinite(low)) return { ok: false, message: `the low end "${lo}" is not a number` };
+  if (hi === '' || !Number.isFinite(high)) return { ok: false, message: `the high end "${hi}" is not a number` };
+  if (low < 0 || high < 0) return { ok: false, message: 'a strength range holds sizes: both ends must be 0 or more (the sign is the link’s sign)' };
+  if (low > high) return { ok: false, message: `the low end ${low} is above the high end ${high}` };
+  return { ok: true, value: { low, high } };
+}

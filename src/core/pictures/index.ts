@@ -213,3 +213,5 @@ export function picturesAt(model: Model, options: PictureOptions): { ok: true; p
 }
 export { orderingProbabilities, breakpointRanges, logUniformBelow, seededUniform } from './uncertain';
 export type { OrderingProbabilities, OrderingShare, StateUncertainty, BreakpointRange, UncertainOptions } from './uncertain';
+export { adviceUnderStrengthRanges } from './strengthRanges';
+export type { StrengthRangeAdvice, StrengthRangeOptions, StrengthRangeResult, Spread } from './strengthRanges';

@@ -3,7 +3,7 @@ import type { Link, LinkKind, Model } from '../../core/model/types';
 import { LINK_STYLE } from '../../theme/visual';
 import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
-import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths } from '../../core/model/strength';
+import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths, parseStrengthRangeText, strengthRangeText } from '../../core/model/strength';
 import { CheckedField, numberCheck, toNumber } from './fields';
 import { labeller } from '../../present/index';
 
@@ -69,6 +69,15 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
         onBlur={stop}
         hint={strengthHint(link, model, name)}
         placeholder={`empty: ${Number((DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy).toPrecision(3))}`}
+      />
+      <CheckedField
+        label="Strength range (optional)"
+        value={strengthRangeText(link.strengthRange)}
+        check={(t) => { const r = parseStrengthRangeText(t); return r.ok ? null : r.message; }}
+        commit={(t) => { const r = parseStrengthRangeText(t); if (r.ok) editDocument({ type: 'updateLink', id: link.id!, patch: { strengthRange: r.value } }, { squash: `${link.id}:strengthRange` }); }}
+        onBlur={stop}
+        hint="When the strength is only roughly known: low..high, such as 0.2..0.9 (sizes; the sign above applies). The design advisor then reports how often its interval holds over strengths drawn from the range (loopfold advise --uncertain)."
+        placeholder="e.g. 0.2..0.9"
       />
     </div>
   );

@@ -71,3 +71,34 @@ describe('curves and advise commands', () => {
     }
   });
 });
+
+describe('advise --uncertain (strength ranges)', () => {
+  it('adds the share of draws the advice holds in; degenerate ranges give the point advice in every draw', async () => {
+    const { mkdtempSync, readFileSync, writeFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { tmpdir } = await import('node:os');
+    const dir = mkdtempSync(join(tmpdir(), 'lf-advise-'));
+    const base = JSON.parse(readFileSync(GREENHOUSE, 'utf8')) as { links: { from: string; to: string; weight?: number; strengthRange?: { low: number; high: number } }[] };
+    const withRanges = (k: number) => {
+      const m = structuredClone(base);
+      // Every link keeps its strength as written (its default share when the file gives none: 0.8 / links into its target).
+      const into = new Map<string, number>();
+      for (const l of m.links) into.set(l.to, (into.get(l.to) ?? 0) + 1);
+      for (const l of m.links) { const w = l.weight ?? 0.8 / into.get(l.to)!; l.strengthRange = { low: w * (1 - k), high: w * (1 + k) }; }
+      const f = join(dir, `gh-${k}.json`);
+      writeFileSync(f, JSON.stringify(m));
+      return f;
+    };
+    const argv = (f: string) => ['advise', f, '--links', 'soilWater>humidity,airTemp>humidity', '--uncertain', '--draws', '12', '--seed', '5', '--points', '41', '--json'];
+    type Out = { best: number | null; uncertain: { draws: number; holds: number; best: { q10: number; median: number; q90: number } | null; readings: string[] } };
+    const point = await json<Out>(argv(withRanges(0)));
+    expect(point.uncertain.draws).toBe(12);
+    expect(point.uncertain.holds).toBe(1);
+    expect(point.uncertain.best).toEqual({ q10: point.best, median: point.best, q90: point.best });
+    const wide = await json<Out>(argv(withRanges(0.9)));
+    expect(wide.uncertain.readings[0]).toMatch(/of 12 draws of the strengths/);
+    const m = memoryIo();
+    expect(await runCli(['advise', GREENHOUSE, '--links', 'soilWater>humidity', '--uncertain', '--draws', 'x'], m.io)).toBe(2);
+    expect(m.err.join('\n')).toMatch(/--draws must be a whole number/);
+  });
+});
