@@ -237,3 +237,42 @@ test.describe('accessibility (axe-core, WCAG 2.1 AA)', () => {
     expect(found).toEqual({ Edit: [], Equations: [], Timescales: [], Intervene: [], Numbers: [], gallery: [], 'variable inspector': [] });
   });
 });
+
+test.describe('keyboard access to the canvas', () => {
+  test('select a variable, move it with the arrows, add a link from the inspector and pick a link, all from the keyboard', async ({ page }, testInfo) => {
+    test.setTimeout(180_000);
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    const model = () => page.evaluate(() => window.__loopfold!.model());
+    const before = await model();
+    // a variable is in the Tab order (tabindex 0); Enter picks it
+    const mood = page.locator('.react-flow__node[data-id="mood"]');
+    await expect(mood).toHaveAttribute('tabindex', '0');
+    await mood.focus();
+    await page.keyboard.press('Enter');
+    const inspector = page.locator('.lf-inspector');
+    await expect(inspector.getByRole('heading', { level: 2 })).toHaveText('Variable: Mood');
+    // the arrows move it; the document stores the new place
+    const x0 = before.variables.find((v) => v.id === 'mood')!.position!.x;
+    for (let i = 0; i < 4; i++) await page.keyboard.press('ArrowRight');
+    await expect.poll(async () => (await model()).variables.find((v) => v.id === 'mood')!.position!.x).toBeGreaterThan(x0);
+    // Tab on into the inspector, to its "New link to" list: a new link from Mood to Workload
+    const target = inspector.getByLabel('New link to');
+    for (let i = 0; i < 80 && !(await target.evaluate((e) => e === document.activeElement)); i++) await page.keyboard.press('Tab');
+    await expect(target).toBeFocused();
+    const workload = await target.locator('option', { hasText: 'Workload' }).getAttribute('value');
+    await page.keyboard.type('Workload'); // a closed list picks the option typed
+    await expect(target).toHaveValue(workload!);
+    await page.keyboard.press('Tab');
+    await expect(inspector.getByRole('button', { name: 'Add link' })).toBeFocused();
+    await page.keyboard.press('Enter');
+    await expect.poll(async () => (await model()).links.filter((l) => l.from === 'mood' && l.to === 'workload').length).toBe(1);
+    expect((await model()).links.length).toBe(before.links.length + 1);
+    // a link is in the Tab order too; Enter picks it
+    const link = page.locator('.lf-link[tabindex="0"]').first();
+    await link.focus();
+    await page.keyboard.press('Enter');
+    await expect(inspector.getByRole('heading', { level: 2 })).toHaveText('Link');
+    await shot(page, testInfo.outputPath('keyboard-canvas.png'));
+  });
+});

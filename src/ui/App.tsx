@@ -15,6 +15,7 @@ import { useEffect } from 'react';
 import { useUi } from '../state/ui';
 import { startSession } from '../state/session';
 import { isIntervalDragging, onIntervalDrag } from './interval/dragging';
+import { Presentation } from './Presentation';
 
 function Shell() {
   useShortcuts();
@@ -38,6 +39,7 @@ function Shell() {
       <GalleryDialog />
       <NoticeDialog />
       <Toast />
+      <Presentation />
     </div>
   );
 }

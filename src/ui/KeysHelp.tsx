@@ -8,8 +8,10 @@ const KEYS: [string, string][] = [
   ['Ctrl+A', 'select everything'],
   ['Ctrl+Z; Shift+Ctrl+Z or Ctrl+Y', 'undo; redo'],
   ['Ctrl+S', 'save'],
-  ['F', 'fit the drawing into view'],
+  ['F', 'fit the drawing into view (never below 11 px text: a big drawing is panned)'],
   ['Shift+drag', 'select with a box'],
+  ['New link to (inspector)', 'add a link from the selected variable with the keyboard'],
+  ['P', 'present: the ordering, the interval and the explanation large; arrows or Page Up/Down step the band, Esc leaves'],
 ];
 
 /** The editor's keys, one click away from the status line. */

@@ -24,6 +24,7 @@ import { ViewCanvas } from './ViewCanvas';
 import { ExplainList } from './ExplainList';
 import { GrowthNotice } from '../diagnostics/GrowthNotice';
 import { restDelay, useIntervalDrag } from '../interval/dragging';
+import { openPresentation } from '../Presentation';
 import './views.css';
 
 export function TimescalePane() {
@@ -32,7 +33,8 @@ export function TimescalePane() {
   return <TimescalePaneFor model={model} />;
 }
 
-export function TimescalePaneFor({ model }: { model: Model }) {
+/** `presenting`: inside presentation mode (no toolbar, no mechanism beside it). */
+export function TimescalePaneFor({ model, presenting = false }: { model: Model; presenting?: boolean }) {
   const session = useSessionStudy();
   const length = session?.length ?? DEFAULT_LENGTH;
   const liveInterval = session ? session.interval : null;
@@ -48,7 +50,7 @@ export function TimescalePaneFor({ model }: { model: Model }) {
   const interval = !drag ? liveInterval : rested?.drag === drag.id ? rested.interval : drag.from;
   const folded = useStudy((s) => s.folded);
   const view = useStudy((s) => s.view);
-  const sideBySide = useStudy((s) => s.sideBySide);
+  const sideBySide = useStudy((s) => s.sideBySide) && !presenting;
   // interventions are the study's holds
   const holds = session?.holds;
   const hold = holds && Object.keys(holds).length > 0 ? holds : undefined;
@@ -113,8 +115,8 @@ export function TimescalePaneFor({ model }: { model: Model }) {
     })();
   };
   return (
-    <section className="lf-timescale" aria-label="Ordering at the sampling interval" data-band={band} data-compute-ms={shown ? shown.computeMs.toFixed(3) : undefined} data-computed-in={shown?.where}>
-      <div className="lf-timescale-bar" role="toolbar" aria-label="Timescale view">
+    <section className={`lf-timescale${presenting ? ' is-presenting' : ''}`} aria-label="Ordering at the sampling interval" data-band={band} data-compute-ms={shown ? shown.computeMs.toFixed(3) : undefined} data-computed-in={shown?.where}>
+      {!presenting && <div className="lf-timescale-bar" role="toolbar" aria-label="Timescale view">
         <div className="lf-seg" role="group" aria-label="View at the interval">
           <button type="button" aria-pressed={view === 'ordering'} onClick={() => studyStore.getState().setView('ordering')}>Ordering</button>
           <button type="button" aria-pressed={view === 'unrolled'} onClick={() => studyStore.getState().setView('unrolled')}>Three instants</button>
@@ -148,7 +150,8 @@ export function TimescalePaneFor({ model }: { model: Model }) {
         <button type="button" onClick={() => doExport(2)}>2×</button>
         <button type="button" onClick={() => doExport(4)}>4×</button>
         <button type="button" onClick={() => setPrinting(true)}>Print options…</button>
-      </div>
+        <button type="button" className="lf-present-open" title="Presentation mode (P): the figure, the interval and the explanation large; arrows step the band, Esc leaves" onClick={openPresentation}>Present</button>
+      </div>}
       {printing && (
         <ExportDialog
           what={exportOf === 'mechanism' ? 'the mechanism' : view === 'unrolled' ? 'the three instants' : 'the ordering'}
