@@ -194,7 +194,10 @@ function shorten(s: string): string {
  * which links are left out; `left`: how many were.
  */
 export function drawnLinks(states: readonly VariableId[], matrix: readonly (readonly number[])[], directed: boolean): { links: { from: number; to: number; weight: number }[]; threshold: number; left: number } {
-  const all = strongEdges(matrix, 0, !directed).filter((e) => e.weight !== 0);
+  // an undirected link runs from the smaller id to the larger (not by the file's order): its weight sits at the same place in any order
+  const all = strongEdges(matrix, 0, !directed)
+    .filter((e) => e.weight !== 0)
+    .map((e) => (!directed && states[e.from] > states[e.to] ? { from: e.to, to: e.from, weight: e.weight } : e));
   const max = Math.max(0, ...all.map((e) => Math.abs(e.weight)));
   const cap = Math.max(6, LINKS_PER_STATE * states.length);
   const key = (e: { from: number; to: number }) => `${states[e.from]}>${states[e.to]}`;

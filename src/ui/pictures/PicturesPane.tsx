@@ -16,6 +16,7 @@ import { useSessionStudy } from '../../state/session';
 import { factorFigure, laggedMatrixFigure, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
 import { svgDocument } from '../../export/svg';
 import type { El } from '../../export/scene';
+import type { FigureOptions } from '../../export/charts';
 import { elToReact } from '../elReact';
 import { fileStem } from '../figureFiles';
 import { ExportButtons } from '../numbers/ExportButtons';
@@ -71,9 +72,9 @@ function PicturesOf({ model }: { model: Model }) {
   const P = answer?.ok ? answer.pictures : null;
   const pictures = P
     ? [
-        { key: 'within', title: 'Within persons', reading: P.within.reading + ' ' + P.byLevel.within.reading, el: withinNetworkFigure(model, P.within), file: () => withinNetworkFigure(model, P.within, file), name: `${stem}-within-network` },
-        { key: 'factor', title: `Factor picture ${LEVEL_WORDS[level]}`, reading: P.byLevel[level].reading, el: factorFigure(model, P.levels.observed, P.byLevel[level]), file: () => factorFigure(model, P.levels.observed, P.byLevel[level], file), name: `${stem}-factor-${level}` },
-        { key: 'long', title: `Lagged matrix every ${formatDuration(P.rankLong.interval, model.timeUnit)}`, reading: P.longReading, el: laggedMatrixFigure(model, P.rankLong), file: () => laggedMatrixFigure(model, P.rankLong, file), name: `${stem}-lagged-matrix` },
+        { key: 'within', title: 'Within persons', reading: P.within.reading + ' ' + P.byLevel.within.reading, el: withinNetworkFigure(model, P.within), file: (o: FigureOptions = file) => withinNetworkFigure(model, P.within, o), name: `${stem}-within-network` },
+        { key: 'factor', title: `Factor picture ${LEVEL_WORDS[level]}`, reading: P.byLevel[level].reading, el: factorFigure(model, P.levels.observed, P.byLevel[level]), file: (o: FigureOptions = file) => factorFigure(model, P.levels.observed, P.byLevel[level], o), name: `${stem}-factor-${level}` },
+        { key: 'long', title: `Lagged matrix every ${formatDuration(P.rankLong.interval, model.timeUnit)}`, reading: P.longReading, el: laggedMatrixFigure(model, P.rankLong), file: (o: FigureOptions = file) => laggedMatrixFigure(model, P.rankLong, o), name: `${stem}-lagged-matrix` },
       ]
     : [];
   const row = (
@@ -83,7 +84,7 @@ function PicturesOf({ model }: { model: Model }) {
           <h4>{p.title}</h4>
           <p className="lf-pic-reading">{p.reading}</p>
           {p.el ? <div className="lf-pic-figure">{elToReact(p.el)}</div> : <p className="lf-pic-note">Not defined here.</p>}
-          {p.el && <ExportButtons what={p.title.toLowerCase()} name={p.name} svg={() => svgDocument(p.file()!)} />}
+          {p.el && <ExportButtons what={p.title.toLowerCase()} name={p.name} svg={() => svgDocument(p.file()!)} print={{ modelFile: `${stem}.json`, source: () => ({ kind: 'chart', build: p.file, caption }) }} />}
         </section>
       ))}
     </div>

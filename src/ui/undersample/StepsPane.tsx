@@ -140,7 +140,12 @@ function StepsView({ source, rate, maxRate }: { source: Source; rate: number; ma
       <div data-testid="steps-figure" data-rate={source.measured ? undefined : u} data-directed={edges.directed.length} data-bidirected={edges.bidirected.length}>
         {elToReact(figure, (e) => (e.tag === 'svg' ? { className: 'lf-steps-figure' } : undefined))}
       </div>
-      <ExportButtons what="the measured graph" name={`${fileStem(source.name)}-every-${u}`} svg={() => svgDocument(figureOf(true))} />
+      <ExportButtons
+        what="the measured graph"
+        name={`${fileStem(source.name)}-every-${u}`}
+        svg={() => svgDocument(figureOf(true))}
+        print={{ modelFile: `${fileStem(source.name)}.json`, source: () => ({ kind: 'chart', build: (o) => measuredGraphFigure({ causal: causal ?? { names: shown.names, directed: shown.directed }, rate: u, reasons, measured: shown }, { heading: o.heading, label, caption: o.caption }), caption: CAPTION }) }}
+      />
       <p className="lf-steps-note" data-testid="steps-summary">
         {edges.directed.length} directed and {edges.bidirected.length} bidirected edge{edges.bidirected.length === 1 ? '' : 's'}
         {causal && !source.measured && u > 1 ? `; at u = 1 the causal-step graph has ${edgeList({ ...causal, bidirected: [] }).directed.length}.` : '.'}
