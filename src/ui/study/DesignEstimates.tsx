@@ -77,7 +77,7 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
           <tbody>
             {main.map((g) => (
               <tr key={`${g.gap}|${g.spread}`} data-gap={g.gap}>
-                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 ? ` ± ${formatDuration(g.spread, u)}` : ''}</th>
+                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> ± {formatDuration(g.spread, u)}</span>}</th>
                 <td>{pct(g.share)}</td>
                 <td>{where(g)}</td>
                 {r.states.map((id, i) => <td key={id}>{weightText(g.phi[i][i])}</td>)}
