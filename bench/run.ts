@@ -12,6 +12,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'cli', file: './cli.ts', fn: 'benchCli' },
   { name: 'undersample', file: './undersample.ts', fn: 'benchUndersample' },
   { name: 'data', file: './data.ts', fn: 'benchData' },
+  { name: 'power', file: './power.ts', fn: 'benchPower' },
 ];
 
 const wanted = process.argv.slice(2);
