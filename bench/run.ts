@@ -13,6 +13,7 @@ const PARTS: { name: string; file: string; fn: string }[] = [
   { name: 'undersample', file: './undersample.ts', fn: 'benchUndersample' },
   { name: 'data', file: './data.ts', fn: 'benchData' },
   { name: 'data', file: './coint.ts', fn: 'benchCoint' },
+  { name: 'power', file: './power.ts', fn: 'benchPower' },
 ];
 
 const wanted = process.argv.slice(2);

@@ -86,6 +86,8 @@ export function gapTransitions(process: PersonProcess): { stationary: Mat | null
   };
 }
 
+const transitionCache = new WeakMap<PersonProcess, ReturnType<typeof gapTransitions>>();
+
 /**
  * Simulate one person: the states at each prompt, then the measurements (state + error).
  * Throws when the process has no stationary distribution (a growing or undamped mode):
@@ -93,7 +95,12 @@ export function gapTransitions(process: PersonProcess): { stationary: Mat | null
  */
 export function simulatePerson(process: PersonProcess, prompts: PersonPrompts, opt: StudySimulationOptions, rng: Random): PersonSeries {
   const n = opt.states.length;
-  const tr = gapTransitions(process);
+  // Persons without differences share one process object: its transitions are worked out once.
+  let tr = transitionCache.get(process);
+  if (!tr) {
+    tr = gapTransitions(process);
+    transitionCache.set(process, tr);
+  }
   if (!tr.stationary) throw new Error('the mechanism has no stationary distribution (a state grows or drifts without bound), so a study of it cannot be simulated from a steady start: make every state self-regulating or lower the loop gains');
   const start = choleskyPsd(tr.stationary);
   const times = Float64Array.from(prompts.times);

@@ -1,0 +1,105 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../../src/cli/run';
+import { importText } from '../../../src/core/data/import';
+import { parseModelText } from '../../../src/core/model/schema';
+import { rehearsalOf, simulateStudy } from '../../../src/core/rehearse/setup';
+import { memoryIo } from '../../helpers/cli';
+import { runPython } from '../../helpers/python';
+import { expectClose } from '../../helpers/tolerance';
+
+// An invented two-state greenhouse sketch (air heat drives leaf damp, damp cools the air), hourly prompts.
+const MODEL = 'tests/fixtures/rehearse/greenhouse-air.json';
+const REF = 'tests/reference/rehearse_design.py';
+
+async function run(argv: string[], files: Record<string, string> = {}) {
+  const m = memoryIo(files);
+  const code = await runCli(argv, m.io);
+  return { code, out: m.out.join('\n'), err: m.err.join('\n'), files: m.files };
+}
+
+function model() {
+  const r = parseModelText(readFileSync(MODEL, 'utf8'));
+  if (!r.ok) throw new Error('fixture does not load');
+  return r.model;
+}
+
+type Ref = { phi: number[][]; se: number; power: number; peak: number; best: number };
+function reference(persons: number, pairs: number): Ref {
+  const r = rehearsalOf(model(), { persons });
+  const drift = Array.from({ length: 2 }, (_, i) => Array.from(r.process.base.drift.data.subarray(2 * i, 2 * i + 2)));
+  // heat = state 0, damp = state 1: the link heat -> damp is φ[1][0].
+  return runPython<Ref>(REF, { drift, noise: Array.from(r.process.base.noise), delta: 1, pairs, persons, target: r.process.states.indexOf('damp'), source: r.process.states.indexOf('heat'), alpha: 0.05, bounds: [0.05, 50] });
+}
+
+describe('loopfold simulate-study', () => {
+  it('writes a long CSV that the importer reads back to the same numbers', async () => {
+    const r = await run(['simulate-study', MODEL, '--persons', '4', '--seed', '12', '--out', 's.csv']);
+    expect(r.code).toBe(0);
+    const csv = r.files['s.csv'];
+    expect(csv.split('\r\n')[0]).toBe('person,day,prompt,time,heat,damp');
+    const imp = importText(csv, { format: 'long', person: 'person', time: 'time', day: 'day', prompt: 'prompt', timeFormat: 'number', timeUnit: 'h', variables: [{ column: 'heat', variable: 'heat' }, { column: 'damp', variable: 'damp' }] });
+    expect(imp.summary.refused).toBe(0);
+    const truth = simulateStudy(rehearsalOf(model(), { persons: 4, seed: 12 }));
+    expect(imp.panel!.persons.map((p) => p.id)).toEqual(truth.persons.map((p) => p.id));
+    imp.panel!.persons.forEach((p, k) => {
+      expect(Array.from(p.time)).toEqual(Array.from(truth.persons[k].time));
+      expect(Array.from(p.values)).toEqual(Array.from(truth.persons[k].values));
+      expect(Array.from(p.day ?? [])).toEqual(Array.from(truth.persons[k].day ?? []));
+    });
+    expect((await run(['simulate-study', MODEL])).err).toMatch(/--out FILE.csv/);
+  });
+});
+
+describe('loopfold power', () => {
+  it('analytic: effect Φ(Δ) and the textbook SE √(Σu,ii (Σ⁻¹)jj / (T N)) computed by SciPy (Lütkepohl 2005, Prop. 3.1)', async () => {
+    const ref = reference(3, 119);
+    const r = await run(['power', MODEL, '--link', 'Air heat->damp', '--persons', '3', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { design: { persons: number }; links: { from: string; to: string; effect: number; se: number; power: number }[] };
+    expect(j.design.persons).toBe(3);
+    expect(j.links[0].from).toBe('heat');
+    expectClose(j.links[0].effect, ref.phi[1][0], { relTol: 1e-8 }, 'effect');
+    expectClose(j.links[0].se, ref.se, { relTol: 1e-8 }, 'se');
+    expectClose(j.links[0].power, ref.power, { relTol: 1e-8 }, 'power');
+    expect(ref.power).toBeGreaterThan(0.3);
+    expect(ref.power).toBeLessThan(0.95);
+  });
+
+  it('Monte Carlo agrees with the SciPy figure within its Monte Carlo error, and reports that error as √(p(1−p)/K) (common practice)', async () => {
+    const ref = reference(3, 119);
+    const K = 300;
+    const r = await run(['power', MODEL, '--link', 'heat->damp', '--persons', '3', '--method', 'montecarlo', '--replications', String(K), '--seed', '5', '--json']);
+    expect(r.code).toBe(0);
+    const l = (JSON.parse(r.out) as { links: { effect: number; se: number; power: number; mcError: number }[] }).links[0];
+    expectClose(l.mcError, Math.sqrt((l.power * (1 - l.power)) / K), { relTol: 1e-12 }, 'mcError');
+    // 3 Monte Carlo errors, plus 0.04 for the small-sample bias of person-mean centring at T = 119 (Nickell 1981: O(1/T)).
+    expect(Math.abs(l.power - ref.power)).toBeLessThan(3 * Math.sqrt((ref.power * (1 - ref.power)) / K) + 0.04);
+    expect(Math.abs(l.se - ref.se)).toBeLessThan(0.15 * ref.se);
+  }, 120_000);
+
+  it('names what is wrong with the flags', async () => {
+    expect((await run(['power', MODEL, '--link', 'heat->sun'])).err).toMatch(/"sun" is not a variable of the model/);
+    expect((await run(['power', MODEL])).err).toMatch(/--link/);
+    expect((await run(['power', MODEL, '--link', 'heat->damp', '--method', 'guess'])).err).toMatch(/--method/);
+    expect((await run(['power', MODEL, '--link', 'heat->damp', '--persons', '0'])).err).toMatch(/--persons/);
+    expect((await run(['plan', MODEL, '--link', 'heat->damp', '--budget', 'coins=3'])).err).toMatch(/--budget "coins=3"/);
+  });
+});
+
+describe('loopfold plan', () => {
+  it('recommends an interval shorter than the peak of the lagged effect under a budget of prompts (peak and optimum by SciPy)', async () => {
+    const ref = reference(20, 39);
+    const r = await run(['plan', MODEL, '--link', 'heat->damp', '--budget', 'prompts=40', '--persons', '20', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { recommended: { interval: number; prompts: number } | null; peaks: { interval: number }[]; curve: { interval: number }[] };
+    expect(j.recommended).not.toBeNull();
+    expect(j.recommended!.prompts).toBe(40);
+    expect(j.recommended!.interval).toBeLessThan(ref.peak);
+    const step = j.curve[1].interval / j.curve[0].interval;
+    expect(Math.abs(Math.log(j.recommended!.interval / ref.best))).toBeLessThan(Math.log(step));
+    expect(Math.abs(Math.log(j.peaks[0].interval / ref.peak))).toBeLessThan(Math.log(step));
+    const text = await run(['plan', MODEL, '--link', 'heat->damp', '--budget', 'span="2 days"', '--persons', '1']);
+    expect(text.out).toMatch(/No affordable design reaches 80 % power .* heat->damp fails/);
+  });
+});
