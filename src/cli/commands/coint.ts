@@ -110,13 +110,13 @@ export const cointCommands: CliCommand[] = [
         }, null, 2));
         return 0;
       }
-      const lines = [`${path}: ${columns.join(', ')} per person (${pooled.tested} of ${pooled.persons} tested; rows of each person in file order, read as equally spaced); model-based tests, not findings`, ''];
-      for (const a of pooled.adf) lines.push(`  unit root rejected at 5 % for ${a.series} in ${a.rejected} of ${pooled.tested} persons (combined p ${pText(a.fisherP)})`);
-      lines.push(`  Engle–Granger: cointegrated at 5 % in ${pooled.engleGranger.rejected} of ${pooled.tested} persons (combined p ${pText(pooled.engleGranger.fisherP)})`);
-      lines.push(`  Johansen trace rank at 5 %: ${pooled.johansenRank.map((c, r) => `${r}: ${c}`).join(', ')} persons`);
-      for (const t of pooled.trackers) if (t.persons) lines.push(`  ${t.series} tracks the others in ${t.persons} persons`);
+      const lines = [`${path}: ${columns.join(', ')} per ${person} (${pooled.tested} of ${pooled.persons} tested; rows of each ${person} in file order, read as equally spaced); model-based tests, not findings`, ''];
+      for (const a of pooled.adf) lines.push(`  unit root rejected at 5 % for ${a.series} in ${a.rejected} of ${pooled.tested} (combined p ${pText(a.fisherP)})`);
+      lines.push(`  Engle–Granger: cointegrated at 5 % in ${pooled.engleGranger.rejected} of ${pooled.tested} (combined p ${pText(pooled.engleGranger.fisherP)})`);
+      lines.push(`  Johansen trace rank at 5 %: ${pooled.johansenRank.map((c, r) => `rank ${r} in ${c}`).join(', ')}`);
+      for (const t of pooled.trackers) if (t.persons) lines.push(`  ${t.series} tracks the others in ${t.persons} of ${pooled.tested}`);
       for (const s of pooled.skipped) lines.push(`  skipped ${s.id}: ${s.reason}`);
-      for (const p of pooled.perPerson) lines.push('', `person ${p.id} (${p.report.nobs} occasions):`, ...reportLines(p.report, '  '));
+      for (const p of pooled.perPerson) lines.push('', `${person} ${p.id} (${p.report.nobs} occasions):`, ...reportLines(p.report, '  '));
       io.out(lines.join('\n'));
       return 0;
     },

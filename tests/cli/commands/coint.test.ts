@@ -131,4 +131,18 @@ print(json.dumps({'eg': [list(map(float, o)) for o in out], 'fisher': float(fish
     // Fisher's combination −2 Σ ln p ~ χ²(4) against scipy.stats.chi2.sf.
     expectClose(j.pooled.engleGranger.fisherP, e.fisher, { relTol: 1e-8 }, 'Fisher');
   });
+
+  it('the warehouse demo (scripts/demo-coint.ts: stock generated to close a quarter of its gap to 1.5 × orders + 20 each week, orders a random walk) shows stock tracking orders', async () => {
+    const r = await run(['coint', 'public/demo/warehouse-weeks.csv', '--columns', 'stock,orders', '--person', 'warehouse', '--json']);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { pooled: { tested: number; trackers: { series: string; persons: number }[] }; perPerson: { id: string; engleGranger: { coefficients: number[] } }[] };
+    expect(j.pooled.tested).toBe(3);
+    expect(j.pooled.trackers).toEqual([{ series: 'stock', persons: 3 }, { series: 'orders', persons: 0 }]);
+    // The generator's balance is stock = 1.5·orders + 20; over 200 weeks the static slope is biased toward zero
+    // (stock lags orders), so only its sign is checked here.
+    for (const p of j.perPerson) expect(p.engleGranger.coefficients[0], p.id).toBeGreaterThan(0);
+    const text = await run(['coint', 'public/demo/warehouse-weeks.csv', '--columns', 'stock,orders', '--person', 'warehouse']);
+    expect(text.out).toMatch(/stock, orders per warehouse \(3 of 3 tested/);
+    expect(text.out).toMatch(/warehouse north \(200 occasions\)/);
+  });
 });

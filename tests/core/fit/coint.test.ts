@@ -1,7 +1,7 @@
 import { spawnSync } from 'node:child_process';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { adf, balanceText, engleGranger, errorCorrection, johansen, tauPValue, trackingSentence } from '../../../src/core/fit/coint';
-import { TAU_C_2010, tauCritical } from '../../../src/core/fit/cointTables';
+import { TAU_C_2010, johansenCritical, tauCritical } from '../../../src/core/fit/cointTables';
 import { seededRandom } from '../../../src/core/stats/random';
 import { expectClose } from '../../helpers/tolerance';
 
@@ -137,6 +137,19 @@ describe('Johansen', () => {
       }
       expect(mine.vectors[0][0]).toBeGreaterThan(0);
     }
+  });
+});
+
+describe('Johansen critical values against published MacKinnon–Haug–Michelis (1999) 5 % values', () => {
+  it('agree to within 0.005 with the 5 % values printed in published cointegration tables (constant in the data)', () => {
+    // Source: 5 % critical values labelled MacKinnon-Haug-Michelis (1999) in the tables of a published article
+    // (https://html.scirp.org/file/_16-1531567_11.htm) and in a published output listing
+    // (https://m.pinggu.org/bbs/thread-4621392-1-1.html). Our table (LeSage's johdist run, as statsmodels) differs in the
+    // fourth significant digit, e.g. 15.4943 vs 15.49471, hence the tolerance.
+    const trace5 = [3.841466, 15.49471, 29.79707, 47.85613];
+    const maxEig5 = [3.841466, 14.26460, 21.13162, 27.58434, 33.87687];
+    trace5.forEach((v, i) => expectClose(johansenCritical(i + 1, 0).trace[1], v, { absTol: 0.005 }, `trace ${i + 1} trends`));
+    maxEig5.forEach((v, i) => expectClose(johansenCritical(i + 1, 0).maxEig[1], v, { absTol: 0.005 }, `max-eig ${i + 1} trends`));
   });
 });
 
