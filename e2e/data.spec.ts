@@ -39,6 +39,8 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(page.getByTestId('import-counts')).toContainText('30 persons');
   await expect(page.getByTestId('data-overview').locator('svg[data-chart="interval-histogram"]')).toBeVisible();
   await page.screenshot({ path: testInfo.outputPath('data-imported-1440.png'), fullPage: false });
+  await page.getByTestId('data-overview').locator('svg[data-chart="person-series"]').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-overview-1440.png') });
 
   await page.getByRole('button', { name: 'Fit the VAR' }).click();
   const result = page.getByTestId('var-result');
@@ -46,6 +48,12 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(result).toContainText(`${cli.n.persons} persons, ${cli.n.pairs} pairs`);
   for (const c of cli.comparison) await expect(result.locator(`tr[data-link="${c.from}>${c.to}"]`)).toHaveAttribute('data-verdict', c.verdict);
   await expect(page.locator('svg[data-chart="lag-curve"]')).toBeVisible();
+  // The sketch's ordering at the data's interval: every measured state changes from occasion to occasion at about 3 h.
+  await expect(page.getByTestId('data-roles').locator('tr[data-state="mood"]')).toContainText('changes from occasion to occasion');
+  await page.getByTestId('data-roles').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-roles-1440.png') });
+  await page.locator('svg[data-chart="lag-curve"]').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-lag-1440.png') });
 
   // The continuous-time fit is slow on 30 persons: it shows progress and stops on Cancel.
   await page.getByRole('button', { name: 'Fit the continuous-time model (slow)' }).click();

@@ -9,7 +9,8 @@ import type { Model } from '../../core/model/types';
 import type { Panel } from '../../core/data/panel';
 import type { LinkComparison } from '../../core/fit/compare';
 import { sketchDrift } from '../../core/fit/compare';
-import { dataIntervals, lagCurves } from '../../core/fit/lagCurve';
+import { dataInterval, dataIntervals, lagCurves } from '../../core/fit/lagCurve';
+import { dataRoles, medianSpan } from '../../core/fit/roles';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
@@ -42,6 +43,13 @@ function ComparisonTable({ model, rows, what, sketchHead }: { model: Model; rows
     </table>
   );
 }
+
+const ROLE_WORDS: Partial<Record<string, string>> = {
+  settled: 'settles within an interval (a balance)',
+  state: 'changes from occasion to occasion',
+  frozen: 'constant over the study',
+  held: 'held',
+};
 
 type Running = { kind: 'var' | 'ct'; progress: number; run: CancellableRun<unknown> } | null;
 
@@ -93,6 +101,12 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
   }, [sketch]);
   const stem = fileStem(model.name);
   const u = panel.timeUnit;
+  const delta = V?.interval ?? dataInterval(panel, sameDay);
+  const span = medianSpan(panel.persons);
+  const roles = useMemo(() => {
+    if (!V && !T) return null;
+    try { return dataRoles(model, states, T ? T.open.drift : null, delta, span); } catch { return null; }
+  }, [model, states.join(','), V, T, delta, span]); // eslint-disable-line react-hooks/exhaustive-deps
 
   return (
     <section className="lf-data-section" aria-labelledby={`${id}-h`} data-testid="data-fits">
@@ -155,6 +169,23 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
           </p>
           {[...T.open.warnings, ...T.confirmatory.warnings].map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
+      )}
+      {roles && (
+        <>
+          <h4>Ordering at the data's interval ({n3(delta)} {u}; a person's data span about {n3(span)} {u})</h4>
+          <table className="lf-data-table" aria-label="Roles of the states at the data's interval" data-testid="data-roles">
+            <thead><tr><th scope="col">state</th><th scope="col">in the sketch</th><th scope="col">from the fit{T ? ' (own rate 1/|A_ii| only)' : ''}</th></tr></thead>
+            <tbody>
+              {roles.map((r) => (
+                <tr key={r.state} data-state={r.state}>
+                  <th scope="row">{labelOf(model, r.state)}</th>
+                  <td>{ROLE_WORDS[r.sketch] ?? r.sketch}</td>
+                  <td>{r.fitted ? `${ROLE_WORDS[r.fitted]} (τ ${n3(r.fittedTimescale ?? NaN)} ${u})` : 'fit the continuous-time model'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
       )}
       {curves && chosen && (
         <>
