@@ -51,7 +51,7 @@ export function planGrid(r: Rehearsal, budget: Budget, points = 60): number[] {
 
 /**
  * Example: `planStudy(rehearsalOf(model, { persons: 50, links }), { kind: 'prompts', prompts: 70 })`.
- * `format(x)` writes an interval for the statement (the CLI passes its duration text).
+ * The format option writes an interval for the statement (the CLI passes its duration text).
  */
 export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; grid?: number[]; format?: (interval: number) => string } = {}): PlanResult {
   if (r.links.length === 0) throw new Error('--link: name the link(s) the study must detect');
