@@ -35,7 +35,7 @@ test('presentation mode shows the ordering, the interval and the explanation lar
   expect(parseFloat(await value.evaluate((e) => getComputedStyle(e).fontSize))).toBeGreaterThanOrEqual(24);
   expect(parseFloat(await present.locator('.lf-explain').evaluate((e) => getComputedStyle(e).fontSize))).toBeGreaterThanOrEqual(16);
   const fig = await host.evaluate((h) => { const s = h.querySelector('svg')!.getBoundingClientRect(); return { scale: Number(h.getAttribute('data-scale')), bottom: s.bottom, right: s.right }; });
-  expect(fig.scale).toBeGreaterThan(0.6);
+  expect(fig.scale).toBeGreaterThanOrEqual(0.6);
   expect(fig.right).toBeLessThanOrEqual(1024);
   await page.screenshot({ path: testInfo.outputPath('present-1024.png') });
 

@@ -12,7 +12,7 @@ import { instantLayout } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { patchSvg, type SvgHost } from './svgPatch';
 import { contains, grown, visibleRect, type Area } from './inView';
-import { fitScaleFor, roomIn, type Size } from './fit';
+import { aboveInPane, fitScaleFor, roomIn, type Size } from './fit';
 
 const ANIMATION_MS = 320;
 /** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
@@ -186,6 +186,8 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
     // the box's width, and the pane's height (the window, the panes around it)
     const ro = new ResizeObserver(soon);
     ro.observe(view);
+    // and what sits above it in the pane: a toolbar that wraps to a second row moves the box down
+    for (const el of aboveInPane(view)) ro.observe(el);
     const win = view.ownerDocument.defaultView;
     win?.addEventListener('resize', soon);
     return () => { cancelAnimationFrame(raf); ro.disconnect(); win?.removeEventListener('resize', soon); };
@@ -215,6 +217,7 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
         <button type="button" aria-label="Zoom out" onClick={() => zoomBy(1 / 1.25)}>−</button>
         <button type="button" aria-pressed={zoom === 'fit'} onClick={() => setZoom('fit')}>Fit</button>
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
+        <button type="button" aria-label="1:1, actual size" title="Actual size: the exported file's own scale" aria-pressed={zoom === 1} onClick={() => setZoom(1)}>1:1</button>
       </div>
       <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} data-scale={scale.toFixed(3)} data-fit={zoom === 'fit' ? 'true' : 'false'} onClick={onClick} />
     </div>

@@ -27,7 +27,7 @@ export function fitScaleFor(natural: Size, box: Size, min: number, max = MAX_FIT
 }
 
 /** The nearest ancestor of `el` that scrolls vertically (the pane it sits in), or null for the window. */
-function scrollport(el: Element): HTMLElement | null {
+export function scrollport(el: Element): HTMLElement | null {
   const win = el.ownerDocument.defaultView;
   for (let a = el.parentElement; a && a !== el.ownerDocument.documentElement; a = a.parentElement) {
     const oy = win?.getComputedStyle(a).overflowY;
@@ -42,6 +42,20 @@ function scrollport(el: Element): HTMLElement | null {
  * lower of the box's own height limit and the bottom of the pane it sits in, as if the pane were
  * scrolled to its top (the room does not change while the pane scrolls).
  */
+/**
+ * What, besides the box itself, moves the box's top within its pane: everything laid out before it
+ * (the toolbars, the tab row, a notice that appears). A change in their size changes the room.
+ */
+export function aboveInPane(view: HTMLElement): HTMLElement[] {
+  const port = scrollport(view);
+  const out: HTMLElement[] = [];
+  for (let a: HTMLElement | null = view; a && a !== port && a !== a.ownerDocument.body; a = a.parentElement) {
+    for (let s = a.previousElementSibling; s; s = s.previousElementSibling) if (s instanceof HTMLElement) out.push(s);
+  }
+  if (port) out.push(port);
+  return out;
+}
+
 export function roomIn(view: HTMLElement, reserved: number): Size {
   const win = view.ownerDocument.defaultView;
   const st = win?.getComputedStyle(view);
