@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { EXAMPLES } from '../src/examples/index';
-import { parseModel } from '../src/core/model/schema';
+import { EXAMPLES } from '../../src/examples/index';
+import { parseModel } from '../../src/core/model/schema';
 
 describe('example gallery', () => {
   it.each(EXAMPLES.map((e) => [e.id, e] as const))('%s is a valid model file', (_id, e) => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../src/cli/run';
-import { memoryIo } from '../helpers/cli';
-import { runPython } from '../helpers/python';
+import { runCli } from '../../../src/cli/run';
+import { memoryIo } from '../../helpers/cli';
+import { runPython } from '../../helpers/python';
 
 /** Savings and spending of a household that feed each other (invented): every strength 1, so the loop gain is 1.2 × 1. */
 const household = {

@@ -1,7 +1,7 @@
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../src/cli/run';
-import { memoryIo } from '../helpers/cli';
+import { runCli } from '../../../src/cli/run';
+import { memoryIo } from '../../helpers/cli';
 
 const SLEEP = 'src/examples/sleep-stress.json';
 

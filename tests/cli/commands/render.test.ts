@@ -5,9 +5,9 @@
  * and timescales commands.
  */
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../src/cli/run';
-import { decimals, expectClose } from '../helpers/tolerance';
-import { memoryIo } from '../helpers/cli';
+import { runCli } from '../../../src/cli/run';
+import { decimals, expectClose } from '../../helpers/tolerance';
+import { memoryIo } from '../../helpers/cli';
 
 const SLEEP = 'src/examples/sleep-stress.json';
 const GREENHOUSE = 'src/examples/greenhouse.json';

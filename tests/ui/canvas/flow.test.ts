@@ -1,16 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import type { NodeChange } from '@xyflow/react';
-import { buildNodes, canvasLines, settledMove, type FlowNode } from '../../src/ui/canvas/flow';
-import { dashScaleAt, scaledDash } from '../../src/ui/canvas/zoomDetail';
-import { drawnBetween, signPath } from '../../src/ui/canvas/CanvasDrawing';
-import { createDocumentStore, selectModel } from '../../src/state/document';
-import { boxExit, headPath, linkPath } from '../../src/ui/canvas/geometry';
-import { collectProblems, badgesOf, nodeOfEquation } from '../../src/ui/diagnostics/collect';
-import { equationId } from '../../src/core/ordering/types';
-import { applyChange, emptyModel, withLinkIds } from '../../src/state/changes';
-import { validateModel } from '../../src/state/validate';
-import type { Model } from '../../src/core/model/types';
-import { decimals, expectClose } from '../helpers/tolerance';
+import { buildNodes, canvasLines, settledMove, type FlowNode } from '../../../src/ui/canvas/flow';
+import { dashScaleAt, scaledDash } from '../../../src/ui/canvas/zoomDetail';
+import { drawnBetween, signPath } from '../../../src/ui/canvas/CanvasDrawing';
+import { createDocumentStore, selectModel } from '../../../src/state/document';
+import { boxExit, headPath, linkPath } from '../../../src/ui/canvas/geometry';
+import { collectProblems, badgesOf, nodeOfEquation } from '../../../src/ui/diagnostics/collect';
+import { equationId } from '../../../src/core/ordering/types';
+import { applyChange, emptyModel, withLinkIds } from '../../../src/state/changes';
+import { validateModel } from '../../../src/state/validate';
+import type { Model } from '../../../src/core/model/types';
+import { decimals, expectClose } from '../../helpers/tolerance';
 
 const model: Model = withLinkIds({
   ...emptyModel(),

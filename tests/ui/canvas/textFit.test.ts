@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { fitText, fontMeasure } from '../../src/ui/canvas/textFit';
-import { decimals, expectClose } from '../helpers/tolerance';
+import { fitText, fontMeasure } from '../../../src/ui/canvas/textFit';
+import { decimals, expectClose } from '../../helpers/tolerance';
 
 // A fixed-pitch stand-in for a font: 7 px per character (the ellipsis too).
 const mono = (s: string) => [...s].length * 7;
