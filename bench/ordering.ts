@@ -11,9 +11,9 @@ import { loadavg } from 'node:os';
 import { causalOrder, orderIndexed } from '../src/core/ordering/causal';
 import type { EquationSystem } from '../src/core/ordering/structure';
 import { PYTHON } from '../tests/helpers/python';
-import { seededRandom } from '../tests/helpers/random';
+import { seededRandom } from '../src/core/stats/random';
 
-const rng = seededRandom;
+const rng = (seed: number): (() => number) => seededRandom(seed).uniform;
 
 /** n equations over n unknowns: a planted perfect matching plus two random variables each. */
 export function randomSquareSystem(n: number, seed: number): { system: EquationSystem; eq: number[]; var: number[] } {

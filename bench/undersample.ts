@@ -9,7 +9,7 @@
  */
 import { loadavg } from 'node:os';
 import { causalGraphsFor, measureInto, measuredGraph, type InverseMethod } from '../src/core/undersample/index';
-import { seededRandom } from '../tests/helpers/random';
+import { seededRandom } from '../src/core/stats/random';
 import { ms, stats } from './common';
 
 function randomGraph(n: number, density: number, rnd: () => number): number[] {
@@ -21,7 +21,7 @@ function randomGraph(n: number, density: number, rnd: () => number): number[] {
 }
 
 function runSet(n: number, method: InverseMethod, cases: number, seed: number) {
-  const rnd = seededRandom(seed);
+  const rnd = seededRandom(seed).uniform;
   const times: number[] = [];
   const nodes: number[] = [];
   let incomplete = 0;

@@ -3,11 +3,11 @@
  * meaning): `generatedSketch(500)` is the same model on every run.
  */
 import type { Link, Model, Variable } from '../../src/core/model/types';
-import { seededRandom } from './random';
+import { seededRandom } from '../../src/core/stats/random';
 
 /** A sketch of n variables: 10 % inputs, 40 % states (timescales 1 min … 1 year), 50 % derived; two links into each non-input. */
 export function generatedSketch(n: number, seed = 7): Model {
-  const r = seededRandom(seed);
+  const r = seededRandom(seed).uniform;
   const variables: Variable[] = [];
   for (let i = 0; i < n; i++) {
     const u = r();

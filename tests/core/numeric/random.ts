@@ -1,15 +1,4 @@
-import { seededRandom } from '../../helpers/random';
-
-/** Seeded pseudo-random numbers for reproducible numeric test cases: the tests' one generator. */
-export const seeded = seededRandom;
-
-export function normals(rand: () => number): () => number {
-  return () => {
-    const u = 1 - rand();
-    const v = rand();
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
-  };
-}
+import { seededRandom } from '../../../src/core/stats/random';
 
 /**
  * A random stable n×n drift matrix: Gaussian entries scaled by 1/√n (spectrum
@@ -17,7 +6,7 @@ export function normals(rand: () => number): () => number {
  * with rows scaled by `spread` decades to make the system stiff.
  */
 export function randomStable(n: number, seed: number, shift = 1.5, spread = 0): number[][] {
-  const g = normals(seeded(seed));
+  const g = seededRandom(seed).normal;
   const rows: number[][] = [];
   for (let i = 0; i < n; i++) {
     const s = 10 ** ((spread * i) / Math.max(1, n - 1));
@@ -30,7 +19,7 @@ export function randomStable(n: number, seed: number, shift = 1.5, spread = 0): 
 
 /** A random positive semi-definite G Gᵀ with G n×n Gaussian. */
 export function randomDiffusion(n: number, seed: number): number[][] {
-  const g = normals(seeded(seed));
+  const g = seededRandom(seed).normal;
   const G: number[][] = [];
   for (let i = 0; i < n; i++) G.push(Array.from({ length: n }, () => g()));
   const c: number[][] = [];

@@ -3,11 +3,11 @@ import { fileURLToPath } from 'node:url';
 import { causalOrder } from '../../../src/core/ordering/causal';
 import type { EquationSystem } from '../../../src/core/ordering/structure';
 import { runPython } from '../../helpers/python';
-import { seededRandom } from '../../helpers/random';
+import { seededRandom } from '../../../src/core/stats/random';
 
 const SCRIPT = fileURLToPath(new URL('../../reference/ordering_reference.py', import.meta.url));
 
-const rng = seededRandom;
+const rng = (seed: number): (() => number) => seededRandom(seed).uniform;
 
 interface Spec { ne: number; nv: number; exo: number; planted: boolean; width: number; seed: number }
 

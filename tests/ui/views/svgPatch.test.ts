@@ -108,7 +108,7 @@ describe('the figure on screen, updated in place', () => {
     expect(kept).toBeGreaterThan(0);
     // a role that changes changes a node's elements (a glyph more or less): that node is drawn afresh
     expect(replaced).toBeGreaterThan(0);
-  });
+  }, 180_000);
 
   it('a new layout (every node moved) keeps every element and writes the new coordinates in', () => {
     const model = generatedSketch(120);
