@@ -4,16 +4,20 @@ import { parseDuration } from '../core/model/units';
 import { parseInterval, studyInterval } from '../core/study/convert';
 import { CliError, type CliArgs, type CliIO } from './commands/types';
 
+/** The text of the file at `path`; a file that cannot be read is a CliError naming it ("no such file" when missing). */
+export function readInput(path: string, io: CliIO): string {
+  try {
+    return io.readFile(path);
+  } catch (e) {
+    throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
+  }
+}
+
 /** Read and validate the model named by the first positional argument. */
 export function loadModel(args: CliArgs, io: CliIO): Model {
   const path = args.positional[0];
   if (!path) throw new CliError('name a model file, e.g. loopfold order model.json', 2);
-  let text: string;
-  try {
-    text = io.readFile(path);
-  } catch (e) {
-    throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
+  const text = readInput(path, io);
   const r = parseModelText(text);
   if (!r.ok) throw new CliError(`${path} is not a valid model: ${r.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
   return r.model;

@@ -26,13 +26,14 @@ export interface FigureOptions {
 }
 
 const PAD = 10;
-const r1 = (x: number) => Math.round(x * 10) / 10;
-const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
-const text = (attrs: Record<string, Attr>, s: string): El => el('text', attrs, [s]);
-const tick = (x: number, y: number, s: string, anchor: 'start' | 'middle' | 'end'): El =>
+/** Drawing helpers the chart modules share: coordinates to a tenth, elements, tick labels, axis lines. */
+export const r1 = (x: number) => Math.round(x * 10) / 10;
+export const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
+export const text = (attrs: Record<string, Attr>, s: string): El => el('text', attrs, [s]);
+export const tick = (x: number, y: number, s: string, anchor: 'start' | 'middle' | 'end'): El =>
   text({ x: r1(x), y: r1(y), 'text-anchor': anchor === 'start' ? undefined : anchor, 'font-size': 10, fill: C.text }, s);
-const hline = (x1: number, x2: number, y: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x1), x2: r1(x2), y1: r1(y), y2: r1(y), ...attrs });
-const vline = (x: number, y1: number, y2: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x), x2: r1(x), y1: r1(y1), y2: r1(y2), ...attrs });
+export const hline = (x1: number, x2: number, y: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x1), x2: r1(x2), y1: r1(y), y2: r1(y), ...attrs });
+export const vline = (x: number, y1: number, y2: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x), x2: r1(x), y1: r1(y1), y2: r1(y2), ...attrs });
 
 /** The root: white ground, optional heading and caption around the drawing of `width` × `height`. */
 export function figure(kind: string, label: string, width: number, height: number, body: El[], opts: FigureOptions, defs?: El): El {

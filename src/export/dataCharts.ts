@@ -11,17 +11,10 @@ import { INTERVAL_KINDS, type IntervalHistogram, type IntervalKind, type Missing
 import type { LagCurves } from '../core/fit/lagCurve';
 import { CHART_STYLE as C, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
-import { figure, type FigureOptions } from './charts';
+import { el, figure, hline, r1, text, tick, vline, type FigureOptions } from './charts';
 import { labelOf, numText } from '../present/index';
 import type { Attr, El } from './scene';
 
-const r1 = (x: number) => Math.round(x * 10) / 10;
-const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
-const text = (attrs: Record<string, Attr>, s: string): El => el('text', attrs, [s]);
-const tick = (x: number, y: number, s: string, anchor: 'start' | 'middle' | 'end'): El =>
-  text({ x: r1(x), y: r1(y), 'text-anchor': anchor === 'start' ? undefined : anchor, 'font-size': 10, fill: C.text }, s);
-const hline = (x1: number, x2: number, y: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x1), x2: r1(x2), y1: r1(y), y2: r1(y), ...attrs });
-const vline = (x: number, y1: number, y2: number, attrs: Record<string, Attr>): El => el('line', { x1: r1(x), x2: r1(x), y1: r1(y1), y2: r1(y2), ...attrs });
 
 const W = 360, L = 50, R = 10;
 

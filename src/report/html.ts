@@ -86,9 +86,7 @@ function rangeText(model: Model, b: Band): string {
 /** A role in the report's words: a state that keeps moving is "dynamic". */
 const roleWord = (r: string): string => (r === 'state' ? 'dynamic' : r);
 
-function label(model: Model, id: string): string {
-  return model.variables.find((v) => v.id === id)?.label ?? id;
-}
+const label = labelOf;
 
 /** An equation in the modeller's words: "the formula of Mood", "the rate of Stress", a relation by its text. */
 export function equationWords(model: Model, id: string): string {

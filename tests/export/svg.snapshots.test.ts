@@ -4,7 +4,7 @@
  * references to them) re-indexed in order of appearance, numbers with more
  * than one decimal rounded to one. A changed figure is written beside its snapshot as
  * `<name>.actual.svg`; after looking at it, approve every change with
- *   LOOPFOLD_APPROVE=1 npx vitest run tests/export/snapshots.test.ts
+ *   LOOPFOLD_APPROVE=1 npx vitest run tests/export/svg.snapshots.test.ts
  * and commit tests/export/snapshots/.
  */
 import { describe, expect, it } from 'vitest';

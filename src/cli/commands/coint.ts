@@ -2,6 +2,7 @@
 import { readColumns } from '../../core/data/columns';
 import { cointegrationReport, pooledCointegration, type CointegrationReport } from '../../core/fit/coint';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { readInput } from '../load';
 
 function num(x: number): string {
   if (!Number.isFinite(x)) return String(x);
@@ -70,12 +71,7 @@ export const cointCommands: CliCommand[] = [
       const lagsText = str(args, 'lags') ?? '1';
       const lags = Number(lagsText);
       if (!Number.isInteger(lags) || lags < 0 || lags > 24) throw new CliError(`--lags must be a whole number from 0 to 24, not "${lagsText}"`, 2);
-      let text: string;
-      try {
-        text = io.readFile(path);
-      } catch (e) {
-        throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-      }
+      const text = readInput(path, io);
       const d = str(args, 'delimiter');
       const delimiter = d === 'tab' || d === '\\t' ? '\t' : d ?? (/\.tsv$/i.test(path) ? '\t' : undefined);
       const person = str(args, 'person');

@@ -6,7 +6,7 @@ import { suggestMapping } from '../../core/data/importMapping';
 import { fitVar } from '../../core/fit/var';
 import { fitCt } from '../../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, medianInterval, sketchFreePattern, sketchStates } from '../../core/fit/compare';
-import { loadModel } from '../load';
+import { loadModel, readInput } from '../load';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 
 const IMPORT_OPTIONS = { format: true, person: true, time: true, 'time-unit': true, day: true, prompt: true, map: true, missing: true, delimiter: true, json: false } as const;
@@ -18,13 +18,6 @@ function str(args: CliArgs, name: string): string | undefined {
   return v.trim();
 }
 
-function readData(path: string, io: CliIO): string {
-  try {
-    return io.readFile(path);
-  } catch (e) {
-    throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
-}
 
 /** The column mapping: a first guess from the header and the model's variables, overridden by the options. */
 export function mappingFromArgs(args: CliArgs, header: string[], variables: Model['variables'], unit: TimeUnit): ColumnMapping {
@@ -66,7 +59,7 @@ function delimiterOf(args: CliArgs, path: string): string | undefined {
 }
 
 function importFile(args: CliArgs, io: CliIO, path: string, variables: Model['variables'], unit: TimeUnit): { result: ImportResult; mapping: ColumnMapping } {
-  const text = readData(path, io);
+  const text = readInput(path, io);
   const delimiter = delimiterOf(args, path);
   const header = readHeader(text, delimiter ? { delimiter } : {});
   const mapping = mappingFromArgs(args, header.fields, variables, unit);
@@ -101,7 +94,7 @@ export const dataCommands: CliCommand[] = [
       let variables: Model['variables'] = [];
       let unit: TimeUnit = 'h';
       if (args.positional[1]) { const model = loadModel({ ...args, positional: [args.positional[1]] }, io); variables = model.variables; unit = model.timeUnit; }
-      const text = readData(path, io);
+      const text = readInput(path, io);
       const delimiter = delimiterOf(args, path);
       const header = readHeader(text, delimiter ? { delimiter } : {});
       if (variables.length === 0) variables = header.fields.map((f) => ({ id: f, kind: 'state' as const }));

@@ -11,7 +11,7 @@ import { formatDuration } from '../../core/model/units';
 import { intervalLabel } from '../../core/study/convert';
 import { studyOfModel } from '../../core/study/design';
 import { studyDesign, type StudyDesignReport } from '../../core/study/report';
-import { loadModel } from '../load';
+import { loadModel, readInput } from '../load';
 import { CliError, type CliCommand } from './types';
 
 function scheduleText(study: Study): string {
@@ -89,12 +89,7 @@ export const studyCommands: CliCommand[] = [
       const out = args.options.out;
       if (out === undefined || out === true) throw new CliError('name the new file, e.g. loopfold migrate old.json --out new.json', 2);
       if (!path) throw new CliError('name a model file, e.g. loopfold migrate old.json --out new.json', 2);
-      let text: string;
-      try {
-        text = io.readFile(path);
-      } catch (e) {
-        throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-      }
+      const text = readInput(path, io);
       const r = parseModelText(text);
       if (!r.ok) throw new CliError(`${path} is not a valid model: ${r.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
       try {

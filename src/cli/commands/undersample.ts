@@ -6,6 +6,7 @@ import {
 import { measuredGraphFigure } from '../../export/undersample';
 import { svgTarget, writeSvg } from '../figure';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
+import { readInput } from '../load';
 
 /** Default rates tried by `unsample` when neither the command nor the file names one. */
 export const DEFAULT_MAX_RATE = 5;
@@ -13,12 +14,7 @@ export const DEFAULT_MAX_RATE = 5;
 function loadGraph(args: CliArgs, io: CliIO): GraphFile {
   const path = args.positional[0];
   if (!path) throw new CliError('name a graph file, e.g. loopfold undersample graph.json --rate 2 (a Loopfold model file works too)', 2);
-  let text: string;
-  try {
-    text = io.readFile(path);
-  } catch (e) {
-    throw new CliError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
+  const text = readInput(path, io);
   const r = parseGraphText(text);
   if (!r.ok) throw new CliError(`${path} is not a valid graph: ${r.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
   return r.file;

@@ -13,6 +13,7 @@ import { fromRows } from '../numeric/dense';
 import { sampledModel } from '../numeric/sampled';
 import { factorAnalysis, oneFactorPrecision, type FactorFit } from './factor';
 import { LEVELS, levelCovariances, type Level, type LevelCovariances, type LevelOptions } from './levels';
+import { labeller } from '../../present/labels';
 import { laggedRank, laggedRankCurve, type LaggedRank } from './rank';
 
 export { factorAnalysis, oneFactorPrecision, chiSquareSurvival, UNIQUENESS_FLOOR } from './factor';
@@ -116,7 +117,7 @@ export function picturesAt(model: Model, options: PictureOptions): { ok: true; p
   const lv = levelCovariances(model, options);
   if (!lv.ok) return lv;
   const warnings = [...lv.warnings];
-  const label = (id: VariableId) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const p = lv.observed.length;
   const idx = lv.observed.map((id) => lv.states.indexOf(id));
 

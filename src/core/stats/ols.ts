@@ -43,16 +43,9 @@ export function ols(y: ArrayLike<number>, columns: readonly ArrayLike<number>[])
   for (let j = 0; j < k; j++) if (columns[j].length !== n) throw new Error(`column ${j + 1} of the regression has ${columns[j].length} rows, not ${n}`);
   if (n <= k) throw new Error(`the regression needs more rows (${n}) than columns (${k})`);
   // A: n × k column-major copy, reduced in place to R (upper part) and the Householder vectors.
-  const a = new Float64Array(n * k);
-  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) a[j * n + i] = columns[j][i];
+  const { a, colScale } = columnMajor(columns, n);
   const qty = Float64Array.from(y);
   const rdiag = new Float64Array(k);
-  let colScale = 0;
-  for (let j = 0; j < k; j++) {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += a[j * n + i] ** 2;
-    colScale = Math.max(colScale, Math.sqrt(s));
-  }
   for (let j = 0; j < k; j++) {
     let norm = 0;
     for (let i = j; i < n; i++) norm += a[j * n + i] ** 2;
@@ -132,15 +125,8 @@ export function nestedResidualSums(y: ArrayLike<number>, columns: readonly Array
   const n = y.length;
   const k = columns.length;
   if (n <= k) throw new Error(`the regression needs more rows (${n}) than columns (${k})`);
-  const a = new Float64Array(n * k);
-  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) a[j * n + i] = columns[j][i];
+  const { a, colScale } = columnMajor(columns, n);
   const qty = Float64Array.from(y);
-  let colScale = 0;
-  for (let j = 0; j < k; j++) {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += a[j * n + i] ** 2;
-    colScale = Math.max(colScale, Math.sqrt(s));
-  }
   for (let j = 0; j < k; j++) {
     const o = j * n;
     let norm = 0;
@@ -167,4 +153,20 @@ export function nestedResidualSums(y: ArrayLike<number>, columns: readonly Array
     tail += qty[m - 1] ** 2;
   }
   return out;
+}
+
+/** The n × k column-major copy of `columns` and the largest column norm (the scale for the rank test). */
+function columnMajor(columns: readonly ArrayLike<number>[], n: number): { a: Float64Array; colScale: number } {
+  const k = columns.length;
+  const a = new Float64Array(n * k);
+  let colScale = 0;
+  for (let j = 0; j < k; j++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) {
+      a[j * n + i] = columns[j][i];
+      s += columns[j][i] ** 2;
+    }
+    colScale = Math.max(colScale, Math.sqrt(s));
+  }
+  return { a, colScale };
 }
