@@ -10,7 +10,7 @@ import { importText, readHeader, type ColumnMapping, type ImportResult } from '.
 import { suggestMapping } from '../core/data/importMapping';
 import type { Panel } from '../core/data/panel';
 import { fitVar, type VarFit, type VarOptions } from '../core/fit/var';
-import { fitCt, type CtFit } from '../core/fit/ct';
+import { ctSpec, ctStartFrom, fitCt, type CtFit } from '../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, sketchFreePattern, sketchStates, type LinkComparison } from '../core/fit/compare';
 import { dataInterval } from '../core/fit/lagCurve';
 import Papa from 'papaparse';
@@ -103,7 +103,9 @@ export const localData: DataApi = {
       // Two fits, each about half the work: progress is the share of iterations used so far (a fit that converges early jumps ahead).
       const open = fitCt(panel, { ...base, onIteration: (k) => onProgress?.(Math.min(0.49, (0.5 * k) / Math.min(maxIterations, 60))) });
       onProgress?.(0.5);
-      const confirmatory = fitCt(panel, { ...base, free: sketchFreePattern(model, states), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
+      const free = sketchFreePattern(model, states);
+      // The sketch's fit starts from the open fit's estimates (far fewer iterations).
+      const confirmatory = fitCt(panel, { ...base, free, start: ctStartFrom(panel, ctSpec(panel, { ...base, free }), open), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
       onProgress?.(1);
       return { ok: true, open, confirmatory, lr: likelihoodRatio(confirmatory, open), comparison: compareDrift(model, open) };
     } catch (e) {

@@ -4,8 +4,10 @@ import { isTimeUnit } from '../../core/model/units';
 import { importText, readHeader, type ColumnMapping, type ImportResult } from '../../core/data/import';
 import { suggestMapping } from '../../core/data/importMapping';
 import { fitVar } from '../../core/fit/var';
-import { fitCt } from '../../core/fit/ct';
+import { ctSpec, ctStartFrom, fitCt } from '../../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, medianInterval, sketchFreePattern, sketchStates } from '../../core/fit/compare';
+import { fittedOrdering, type FittedOrdering } from '../../core/fit/fittedOrdering';
+import { medianSpan } from '../../core/fit/roles';
 import { loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 
@@ -161,16 +163,24 @@ export const dataCommands: CliCommand[] = [
       let open, confirmatory = null;
       try {
         open = fitCt(panel, base);
-        if (!args.options.open) confirmatory = fitCt(panel, { ...base, free: sketchFreePattern(model, fitStates) });
+        if (!args.options.open) {
+          const free = sketchFreePattern(model, fitStates);
+          confirmatory = fitCt(panel, { ...base, free, start: ctStartFrom(panel, ctSpec(panel, { ...base, free }), open) });
+        }
       } catch (e) { throw new CliError((e as Error).message); }
       const shown = confirmatory ?? open;
       const lr = confirmatory ? likelihoodRatio(confirmatory, open) : null;
       const comparison = compareDrift(model, open).map(({ words: _w, sketchSign: _s, ...rest }) => rest);
+      // The whole ordering at the data's interval and span: the sketch's, and the one the open fit's links give.
+      let ordering: FittedOrdering | null;
+      const design = { interval: medianInterval(panel.persons.map((p) => p.time)), window: medianSpan(panel.persons) };
+      try { ordering = fittedOrdering(model, open, design); } catch { ordering = null; }
+      const orderingJson = ordering ? { interval: design.interval, window: design.window, sketch: ordering.sketch, fitted: ordering.fitted, links: ordering.links } : null;
       if (args.options.json) {
         io.out(JSON.stringify({
           method: 'ct', fit: confirmatory ? 'confirmatory' : 'open', states: shown.states, drift: shown.drift, diffusion: shown.diffusion, intercepts: shown.intercepts, between: shown.between,
           se: { drift: shown.se.drift, intercepts: shown.se.intercepts }, minus2LL: shown.minus2LL, aic: shown.aic, bic: shown.bic, parameters: shown.parameters,
-          n: { persons: shown.n.persons, occasions: shown.n.occasions }, timescales: shown.timescales, lr, comparison, warnings: [...shown.warnings, ...(refusedNote ? [refusedNote] : [])],
+          n: { persons: shown.n.persons, occasions: shown.n.occasions }, timescales: shown.timescales, lr, comparison, ordering: orderingJson, warnings: [...shown.warnings, ...(refusedNote ? [refusedNote] : [])],
         }, null, 2));
       } else {
         const lines = [`${model.name}: continuous-time fit (${confirmatory ? 'confirmatory: drift entries the sketch has' : 'open: every drift entry'}), ${shown.n.persons} persons, ${shown.n.occasions} occasions; model-based, not a finding`, ''];
@@ -178,6 +188,10 @@ export const dataCommands: CliCommand[] = [
         lines.push('', `−2LL ${num(shown.minus2LL)}, AIC ${num(shown.aic)}, BIC ${num(shown.bic)}`);
         if (lr) lines.push(`likelihood ratio, sketch against open: χ² ${num(lr.chi2)} on ${lr.df} df, p = ${num(lr.p)}`);
         lines.push('', ...compareDrift(model, open).map((c) => `  ${c.words}: ${c.verdict}`));
+        if (ordering) {
+          const roleText = (o: FittedOrdering['sketch']) => Object.entries(o.roles).filter(([id]) => shown.states.includes(id)).map(([id, r]) => `${id} ${r}`).join(', ');
+          lines.push('', `ordering at the data's interval (${num(design.interval)} ${model.timeUnit}, span ${num(design.window)} ${model.timeUnit}): sketch ${roleText(ordering.sketch)}; fitted ${roleText(ordering.fitted)}`);
+        }
         io.out(lines.join('\n'));
       }
       return 0;

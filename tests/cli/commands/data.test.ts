@@ -74,6 +74,13 @@ print(json.dumps(out))
     expect(j.aic).toBeGreaterThan(j.minus2LL);
     // The sketch's stress–mood block is full (mood → stress through rumination, stress → mood directly): nothing to restrict.
     expect(j.lr.df).toBe(0);
+    // The whole ordering at the data's interval: the sketch's and the fitted model's, from the same ordering core.
+    const o = j.ordering as { interval: number; window: number; sketch: { roles: Record<string, string> }; fitted: { roles: Record<string, string> }; links: { from: string; to: string; low: number; high: number }[] };
+    expect(o.interval).toBeGreaterThan(1);
+    expect(o.interval).toBeLessThan(3);
+    expect(Object.keys(o.fitted.roles).sort()).toEqual(['mood', 'stress']);
+    expect(o.sketch.roles).toHaveProperty('stress');
+    for (const l of o.links) expect(l.low > 0 || l.high < 0).toBe(true);
   }, 600_000);
 
   it('refuses a bad option with a one-line reason', async () => {
