@@ -47,6 +47,12 @@ export type CtAnswer =
 export interface DataApi {
   header(text: string, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
   importData(text: string, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
+  /**
+   * The same from a File or Blob: read where this runs (in the worker, so the main thread neither
+   * reads nor copies the text; a Blob crosses to the worker by reference). The worker sends the
+   * panel's typed arrays back by transfer (`panelBuffers`), not by copy.
+   */
+  importBlob(blob: Blob, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
   fitVar(model: Model, panel: Panel, request: VarRequest, onProgress?: (fraction: number) => void): Promise<VarAnswer>;
   fitCt(model: Model, panel: Panel, request: CtRequest, onProgress?: (fraction: number) => void): Promise<CtAnswer>;
 }
@@ -81,6 +87,11 @@ export const localData: DataApi = {
       return reason(e);
     }
   },
+  async importBlob(blob, mapping, delimiter) {
+    let text: string;
+    try { text = await blob.text(); } catch (e) { return { ok: false, reason: `the file could not be read: ${(e as Error)?.message ?? String(e)}` }; }
+    return localData.importData(text, mapping, delimiter);
+  },
   async fitVar(model, panel, request, onProgress) {
     try {
       checkStates(model, panel);
@@ -113,3 +124,11 @@ export const localData: DataApi = {
     }
   },
 };
+
+/** The buffers of an import's panel (times, values, days, prompts of every person), to send by transfer. */
+export function panelBuffers(answer: ImportAnswer): ArrayBuffer[] {
+  if (!answer.ok || !answer.panel) return [];
+  const out: ArrayBuffer[] = [];
+  for (const p of answer.panel.persons) for (const a of [p.time, p.values, p.day, p.prompt]) if (a && a.buffer instanceof ArrayBuffer && !out.includes(a.buffer)) out.push(a.buffer);
+  return out;
+}
