@@ -10,7 +10,7 @@ import { importText, readHeader, type ColumnMapping, type ImportResult } from '.
 import { suggestMapping } from '../core/data/importMapping';
 import type { Panel } from '../core/data/panel';
 import { fitVar, type VarFit, type VarOptions } from '../core/fit/var';
-import { fitCt, type CtFit } from '../core/fit/ct';
+import { ctSpec, ctStartFrom, fitCt, type CtFit } from '../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, sketchFreePattern, sketchStates, type LinkComparison } from '../core/fit/compare';
 import { dataInterval } from '../core/fit/lagCurve';
 import Papa from 'papaparse';
@@ -47,6 +47,12 @@ export type CtAnswer =
 export interface DataApi {
   header(text: string, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
   importData(text: string, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
+  /**
+   * The same from a File or Blob: read where this runs (in the worker, so the main thread neither
+   * reads nor copies the text; a Blob crosses to the worker by reference). The worker sends the
+   * panel's typed arrays back by transfer (`panelBuffers`), not by copy.
+   */
+  importBlob(blob: Blob, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
   fitVar(model: Model, panel: Panel, request: VarRequest, onProgress?: (fraction: number) => void): Promise<VarAnswer>;
   fitCt(model: Model, panel: Panel, request: CtRequest, onProgress?: (fraction: number) => void): Promise<CtAnswer>;
 }
@@ -81,6 +87,11 @@ export const localData: DataApi = {
       return reason(e);
     }
   },
+  async importBlob(blob, mapping, delimiter) {
+    let text: string;
+    try { text = await blob.text(); } catch (e) { return { ok: false, reason: `the file could not be read: ${(e as Error)?.message ?? String(e)}` }; }
+    return localData.importData(text, mapping, delimiter);
+  },
   async fitVar(model, panel, request, onProgress) {
     try {
       checkStates(model, panel);
@@ -103,7 +114,9 @@ export const localData: DataApi = {
       // Two fits, each about half the work: progress is the share of iterations used so far (a fit that converges early jumps ahead).
       const open = fitCt(panel, { ...base, onIteration: (k) => onProgress?.(Math.min(0.49, (0.5 * k) / Math.min(maxIterations, 60))) });
       onProgress?.(0.5);
-      const confirmatory = fitCt(panel, { ...base, free: sketchFreePattern(model, states), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
+      const free = sketchFreePattern(model, states);
+      // The sketch's fit starts from the open fit's estimates (far fewer iterations).
+      const confirmatory = fitCt(panel, { ...base, free, start: ctStartFrom(panel, ctSpec(panel, { ...base, free }), open), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
       onProgress?.(1);
       return { ok: true, open, confirmatory, lr: likelihoodRatio(confirmatory, open), comparison: compareDrift(model, open) };
     } catch (e) {
@@ -111,3 +124,11 @@ export const localData: DataApi = {
     }
   },
 };
+
+/** The buffers of an import's panel (times, values, days, prompts of every person), to send by transfer. */
+export function panelBuffers(answer: ImportAnswer): ArrayBuffer[] {
+  if (!answer.ok || !answer.panel) return [];
+  const out: ArrayBuffer[] = [];
+  for (const p of answer.panel.persons) for (const a of [p.time, p.values, p.day, p.prompt]) if (a && a.buffer instanceof ArrayBuffer && !out.includes(a.buffer)) out.push(a.buffer);
+  return out;
+}

@@ -16,6 +16,8 @@ export type FitAnswer<T> = T | { ok: false; reason: string; cancelled: true };
 export interface DataClient {
   header(...args: Parameters<DataApi['header']>): Promise<HeaderAnswer | Failed | null>;
   importData(...args: Parameters<DataApi['importData']>): Promise<ImportAnswer | null>;
+  /** Import a File or Blob read in the worker (the main thread never holds the text); same queue rule as importData. */
+  importBlob(...args: Parameters<DataApi['importBlob']>): Promise<ImportAnswer | null>;
   fitVar(model: Parameters<DataApi['fitVar']>[0], panel: Parameters<DataApi['fitVar']>[1], request: Parameters<DataApi['fitVar']>[2], onProgress?: (fraction: number) => void): CancellableRun<FitAnswer<VarAnswer>>;
   fitCt(model: Parameters<DataApi['fitCt']>[0], panel: Parameters<DataApi['fitCt']>[1], request: Parameters<DataApi['fitCt']>[2], onProgress?: (fraction: number) => void): CancellableRun<FitAnswer<CtAnswer>>;
   where(): Where;
@@ -29,9 +31,11 @@ export function createDataClient(worker: (() => Transport<DataApi>) | null, fall
   const failed = (e: unknown): Failed => ({ ok: false, reason: (e as Error)?.message ?? String(e) });
   const header = lane.latest((...a: Parameters<DataApi['header']>) => lane.run((x) => x.header(...a)).then((r) => r.value), { failed });
   const importData = lane.latest((...a: Parameters<DataApi['importData']>) => lane.run((x) => x.importData(...a)).then((r) => r.value), { failed });
+  const importBlob = lane.latest((...a: Parameters<DataApi['importBlob']>) => lane.run((x) => x.importBlob(...a)).then((r) => r.value), { failed });
   return {
     header: (...a) => header.latest(...a),
     importData: (...a) => importData.latest(...a),
+    importBlob: (...a) => importBlob.latest(...a),
     fitVar: (model, panel, request, onProgress) => lane.cancellable('var', (x, progress) => x.fitVar(model, panel, request, progress), { onProgress, cancelled, failed }),
     fitCt: (model, panel, request, onProgress) => lane.cancellable('ct', (x, progress) => x.fitCt(model, panel, request, progress), { onProgress, cancelled, failed }),
     where: () => lane.where(),
@@ -44,6 +48,7 @@ function workerData(): Transport<DataApi> {
   return {
     header: (t, v, u, d) => w.call(() => w.remote.header(t, v, u, d)),
     importData: (t, m, d) => w.call(() => w.remote.importData(t, m, d)),
+    importBlob: (b, m, d) => w.call(() => w.remote.importBlob(b, m, d)),
     fitVar: (m, p, r, on) => w.call(() => w.remote.fitVar(m, p, r, on ? proxy(on) : undefined)),
     fitCt: (m, p, r, on) => w.call(() => w.remote.fitCt(m, p, r, on ? proxy(on) : undefined)),
     dispose: w.dispose,

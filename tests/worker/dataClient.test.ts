@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createDataClient } from '../../src/worker/dataClient';
-import { localData, type DataApi } from '../../src/worker/dataApi';
+import { localData, panelBuffers, type DataApi } from '../../src/worker/dataApi';
 import { parseModelText } from '../../src/core/model/schema';
 import { fitVar } from '../../src/core/fit/var';
 import { fitCt } from '../../src/core/fit/ct';
@@ -43,7 +43,7 @@ function deferred() {
   const pending: { kind: string; resolve: (r: unknown) => void; progress?: (f: number) => void }[] = [];
   let disposed = 0;
   const call = (kind: string) => (...args: unknown[]) => new Promise((resolve) => { pending.push({ kind, resolve, progress: args[3] as ((f: number) => void) | undefined }); });
-  const api = { header: call('header'), importData: call('importData'), fitVar: call('fitVar'), fitCt: call('fitCt'), dispose: () => { disposed++; } } as unknown as DataApi;
+  const api = { header: call('header'), importData: call('importData'), importBlob: call('importBlob'), fitVar: call('fitVar'), fitCt: call('fitCt'), dispose: () => { disposed++; } } as unknown as DataApi;
   return { api, pending, disposed: () => disposed };
 }
 const tick = () => new Promise((r) => setTimeout(r, 0));
@@ -52,7 +52,7 @@ describe('data client', () => {
   it('reads the header with a first mapping, and imports with refused rows named by row and column (main thread after a failed worker)', async () => {
     const broken = (): DataApi => {
       const no = () => Promise.reject(new Error('the data worker could not start'));
-      return { header: no, importData: no, fitVar: no, fitCt: no };
+      return { header: no, importData: no, importBlob: no, fitVar: no, fitCt: no };
     };
     const c = createDataClient(broken, () => localData);
     const h = await c.header(CSV, sleepStress.variables, 'h');
@@ -70,6 +70,22 @@ describe('data client', () => {
     ]));
     // −99 is the missing code: A's last stress and B's "x" are the two missing stress cells among 5 kept occasions.
     expect(r.summary.missing.find((m) => m.variable === 'stress')).toEqual({ variable: 'stress', missing: 2, total: 5 });
+    c.dispose();
+  });
+
+  it('imports a Blob read where the import runs, with the same answer as the text, and lists the panel buffers to transfer', async () => {
+    const c = createDataClient(null, () => localData);
+    const h = await c.header(CSV, sleepStress.variables, 'h');
+    if (!h || !h.ok) throw new Error('header refused');
+    const mapping = { ...h.suggestion, missing: ['-99'] };
+    const fromText = await c.importData(CSV, mapping);
+    const fromBlob = await c.importBlob(new Blob([CSV]), mapping);
+    expect(fromBlob).toEqual(fromText);
+    if (!fromBlob || !fromBlob.ok || !fromBlob.panel) throw new Error('import refused');
+    // Two persons, each with times, values, days (from the dates): six distinct buffers, none twice.
+    const buffers = panelBuffers(fromBlob);
+    expect(buffers).toHaveLength(fromBlob.panel.persons.reduce((n, p) => n + 2 + (p.day ? 1 : 0) + (p.prompt ? 1 : 0), 0));
+    expect(new Set(buffers).size).toBe(buffers.length);
     c.dispose();
   });
 

@@ -4,8 +4,10 @@ import { isTimeUnit } from '../../core/model/units';
 import { importText, readHeader, type ColumnMapping, type ImportResult } from '../../core/data/import';
 import { suggestMapping } from '../../core/data/importMapping';
 import { fitVar } from '../../core/fit/var';
-import { fitCt } from '../../core/fit/ct';
+import { ctSpec, ctStartFrom, fitCt } from '../../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, medianInterval, sketchFreePattern, sketchStates } from '../../core/fit/compare';
+import { fittedOrdering, type FittedOrdering } from '../../core/fit/fittedOrdering';
+import { medianSpan } from '../../core/fit/roles';
 import { loadModel, readInput } from '../load';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 
@@ -111,8 +113,8 @@ export const dataCommands: CliCommand[] = [
   {
     name: 'fit',
     summary: 'fit a VAR(1) within persons or a continuous-time model to data, and hold the sketch against it link by link',
-    usage: 'MODEL.json --data FILE.csv [--format long|wide] [--person COL] [--time COL] [--time-unit U] [--map col=variable,...] [--method var|ct] [--same-day] [--skip-rule prompt|MAXGAP] [--initial free|stationary] [--open] [--json]',
-    options: { ...IMPORT_OPTIONS, data: true, method: true, 'same-day': false, 'skip-rule': true, initial: true, open: false, intercepts: true, 'measurement-error': false },
+    usage: 'MODEL.json --data FILE.csv [--format long|wide] [--person COL] [--time COL] [--time-unit U] [--map col=variable,...] [--method var|ct] [--same-day] [--skip-rule prompt|MAXGAP] [--person-fits [--min-pairs N]] [--initial free|stationary] [--open] [--json]',
+    options: { ...IMPORT_OPTIONS, data: true, method: true, 'same-day': false, 'skip-rule': true, initial: true, open: false, intercepts: true, 'measurement-error': false, 'person-fits': false, 'min-pairs': true },
     run(args, io) {
       const model = loadModel(args, io);
       const file = str(args, 'data');
@@ -130,17 +132,30 @@ export const dataCommands: CliCommand[] = [
         const skip = str(args, 'skip-rule');
         const skipRule = skip === undefined ? 'none' as const : skip === 'prompt' ? 'prompt' as const : { maxInterval: Number(skip) };
         if (typeof skipRule === 'object' && !(skipRule.maxInterval > 0)) throw new CliError('--skip-rule must be prompt or a positive maximum interval', 2);
+        const minPairsText = str(args, 'min-pairs');
+        const minPairs = minPairsText === undefined ? 20 : Number(minPairsText);
+        if (!(Number.isInteger(minPairs) && minPairs >= 3)) throw new CliError(`--min-pairs must be a whole number of at least 3, not "${minPairsText}"`, 2);
+        const personFits = !!args.options['person-fits'];
         let fit;
-        try { fit = fitVar(panel, { sameDay: !!args.options['same-day'], skipRule, perPerson: true }); } catch (e) { throw new CliError((e as Error).message); }
+        try { fit = fitVar(panel, { sameDay: !!args.options['same-day'], skipRule, perPerson: { minPairs } }); } catch (e) { throw new CliError((e as Error).message); }
+        // N = 1 fits: each person with at least minPairs usable lag pairs, a VAR(1) with a constant on that person's series alone.
+        const fitted = new Set(fit.perPerson.map((p) => p.person));
+        const tooShort = panel.persons.filter((p) => !fitted.has(p.id)).map((p) => p.id);
+        const persons = personFits ? { minPairs, fits: fit.perPerson, notFitted: tooShort } : undefined;
         const withinDay = panel.persons.map((p) => (args.options['same-day'] && p.day ? Float64Array.from(Array.from(p.time).filter((_, k) => k === 0 || p.day![k] === p.day![k - 1])) : p.time));
         const interval = medianInterval(withinDay);
         const comparison = compareLagged(model, fit, interval).map(({ words: _w, sketchSign: _s, ...rest }) => rest);
         if (args.options.json) {
-          io.out(JSON.stringify({ method: 'var', states: fit.variables, phi: fit.phi, residualCov: fit.residualCov, se: { phi: fit.se.phiCluster ?? fit.se.phi, phiConventional: fit.se.phi }, interval, n: { persons: fit.n.persons, occasions: fit.n.occasions, pairs: fit.n.pairs }, excluded: fit.excluded, between: fit.between.cov, comparison, warnings: [...fit.warnings, ...(refusedNote ? [refusedNote] : [])] }, null, 2));
+          io.out(JSON.stringify({ method: 'var', states: fit.variables, phi: fit.phi, residualCov: fit.residualCov, se: { phi: fit.se.phiCluster ?? fit.se.phi, phiConventional: fit.se.phi }, interval, n: { persons: fit.n.persons, occasions: fit.n.occasions, pairs: fit.n.pairs }, excluded: fit.excluded, between: fit.between.cov, comparison, ...(persons ? { perPerson: persons } : {}), warnings: [...fit.warnings, ...(refusedNote ? [refusedNote] : [])] }, null, 2));
         } else {
           const lines = [`${model.name}: VAR(1) within persons at the data's interval (median ${num(interval)} ${model.timeUnit}); model-based comparison, not a finding`, ''];
           fit.variables.forEach((to, i) => lines.push(`  ${to.padEnd(14)} ← ${fit.variables.map((from, j) => `${from} ${num(fit.phi[i][j])} (${num((fit.se.phiCluster ?? fit.se.phi)[i][j])})`).join(', ')}`));
           lines.push('', ...compareLagged(model, fit, interval).map((c) => `  ${c.words}: ${c.verdict}`));
+          if (persons) {
+            lines.push('', `each person alone (N = 1, VAR(1) with a constant; persons with at least ${minPairs} lag pairs): ${persons.fits.length} of ${panel.persons.length}`);
+            for (const p of persons.fits) lines.push(`  ${p.person} (${p.pairs} pairs): ${fit.variables.map((to, i) => `${to} ← ${fit.variables.map((from, j) => `${from} ${num(p.phi[i][j])} (${num(p.se[i][j])})`).join(', ')}`).join('; ')}`);
+            if (persons.notFitted.length) lines.push(`  too few lag pairs: ${persons.notFitted.join(', ')}`);
+          }
           io.out(lines.join('\n'));
         }
         return 0;
@@ -154,16 +169,24 @@ export const dataCommands: CliCommand[] = [
       let open, confirmatory = null;
       try {
         open = fitCt(panel, base);
-        if (!args.options.open) confirmatory = fitCt(panel, { ...base, free: sketchFreePattern(model, fitStates) });
+        if (!args.options.open) {
+          const free = sketchFreePattern(model, fitStates);
+          confirmatory = fitCt(panel, { ...base, free, start: ctStartFrom(panel, ctSpec(panel, { ...base, free }), open) });
+        }
       } catch (e) { throw new CliError((e as Error).message); }
       const shown = confirmatory ?? open;
       const lr = confirmatory ? likelihoodRatio(confirmatory, open) : null;
       const comparison = compareDrift(model, open).map(({ words: _w, sketchSign: _s, ...rest }) => rest);
+      // The whole ordering at the data's interval and span: the sketch's, and the one the open fit's links give.
+      let ordering: FittedOrdering | null;
+      const design = { interval: medianInterval(panel.persons.map((p) => p.time)), window: medianSpan(panel.persons) };
+      try { ordering = fittedOrdering(model, open, design); } catch { ordering = null; }
+      const orderingJson = ordering ? { interval: design.interval, window: design.window, sketch: ordering.sketch, fitted: ordering.fitted, links: ordering.links } : null;
       if (args.options.json) {
         io.out(JSON.stringify({
           method: 'ct', fit: confirmatory ? 'confirmatory' : 'open', states: shown.states, drift: shown.drift, diffusion: shown.diffusion, intercepts: shown.intercepts, between: shown.between,
           se: { drift: shown.se.drift, intercepts: shown.se.intercepts }, minus2LL: shown.minus2LL, aic: shown.aic, bic: shown.bic, parameters: shown.parameters,
-          n: { persons: shown.n.persons, occasions: shown.n.occasions }, timescales: shown.timescales, lr, comparison, warnings: [...shown.warnings, ...(refusedNote ? [refusedNote] : [])],
+          n: { persons: shown.n.persons, occasions: shown.n.occasions }, timescales: shown.timescales, lr, comparison, ordering: orderingJson, warnings: [...shown.warnings, ...(refusedNote ? [refusedNote] : [])],
         }, null, 2));
       } else {
         const lines = [`${model.name}: continuous-time fit (${confirmatory ? 'confirmatory: drift entries the sketch has' : 'open: every drift entry'}), ${shown.n.persons} persons, ${shown.n.occasions} occasions; model-based, not a finding`, ''];
@@ -171,6 +194,10 @@ export const dataCommands: CliCommand[] = [
         lines.push('', `−2LL ${num(shown.minus2LL)}, AIC ${num(shown.aic)}, BIC ${num(shown.bic)}`);
         if (lr) lines.push(`likelihood ratio, sketch against open: χ² ${num(lr.chi2)} on ${lr.df} df, p = ${num(lr.p)}`);
         lines.push('', ...compareDrift(model, open).map((c) => `  ${c.words}: ${c.verdict}`));
+        if (ordering) {
+          const roleText = (o: FittedOrdering['sketch']) => Object.entries(o.roles).filter(([id]) => shown.states.includes(id)).map(([id, r]) => `${id} ${r}`).join(', ');
+          lines.push('', `ordering at the data's interval (${num(design.interval)} ${model.timeUnit}, span ${num(design.window)} ${model.timeUnit}): sketch ${roleText(ordering.sketch)}; fitted ${roleText(ordering.fitted)}`);
+        }
         io.out(lines.join('\n'));
       }
       return 0;

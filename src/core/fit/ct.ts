@@ -32,6 +32,7 @@ import { expm, vanLoan } from '../numeric/expm';
 import { eigen, eigenvalues, fromRows, type Mat } from '../numeric/dense';
 import { lyapunov } from '../numeric/lyapunov';
 import { hessian, minimize } from './optimize';
+import { fitVar } from './var';
 
 export interface CtOptions {
   /** Process states (default: the panel's variables). States not in the panel are latent. */
@@ -197,120 +198,230 @@ const mat = (data: Float64Array, n: number): Mat => ({ rows: n, cols: n, data })
 
 /** −2 log-likelihood of the panel under the parameters (Infinity where undefined: an unstable drift with a stationary start). */
 export function ctMinus2LL(panel: Panel, spec: CtSpec, theta: ArrayLike<number>): number {
-  const par = unpack(spec, theta);
-  for (const v of theta as number[]) if (!Number.isFinite(v)) return Infinity;
-  const n = spec.states.length, m = spec.measured.length;
-  const A = mat(par.A, n), GG = mat(par.GG, n);
-  const ev = eigenvalues(A);
-  let stable = true;
-  for (let i = 0; i < n; i++) if (!(ev.re[i] < -1e-10)) stable = false;
-  let sigma: Float64Array | null = null;
-  if (stable) {
-    const ly = lyapunov(A, GG);
-    if (ly.ok) sigma = ly.sigma.data;
+  return ctLikelihood(panel, spec)(theta);
+}
+
+/** How many leading entries of the parameter vector set the dynamics (drift and diffusion): Φ(Δ), Q(Δ) and Σ depend on these alone. */
+export function dynamicCount(spec: CtSpec): number {
+  const n = spec.states.length;
+  let k = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (spec.free[i][j]) k++;
+  for (let i = 0; i < n; i++) {
+    if (spec.column[i] < 0) continue;
+    for (let j = 0; j <= i; j++) if (spec.column[j] >= 0 && (j === i || spec.diffusion !== 'diagonal')) k++;
   }
-  if (spec.initial === 'stationary' && !sigma) return Infinity;
-  const d = n + (par.psi ? m : 0);
-  const cache = new Map<number, { phi: Float64Array; q: Float64Array }>();
-  const spectral = spectralExp(par.A, n);
-  const transition = (dt: number) => {
-    let t = cache.get(dt);
-    if (t) return t;
-    const phi = spectral ? spectral(dt) : expm({ rows: n, cols: n, data: par.A.map((v) => v * dt) }).data;
-    let q: Float64Array;
-    if (sigma) {
-      // Q = Σ − Φ Σ Φ′
-      const ps = matMul(phi, sigma, n);
-      q = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) { let s = 0; for (let k = 0; k < n; k++) s += ps[i * n + k] * phi[j * n + k]; const v = sigma[i * n + j] - s; q[i * n + j] = v; q[j * n + i] = v; }
-    } else q = vanLoan(A, GG, dt).q.data;
-    t = { phi, q };
-    if (cache.size < 100000) cache.set(dt, t);
-    return t;
-  };
-  const nv = panel.variables.length;
-  const LOG2PI = Math.log(2 * Math.PI);
-  let total = 0;
-  const a = new Float64Array(d), P = new Float64Array(d * d);
-  const an = new Float64Array(d), Pn = new Float64Array(d * d);
-  const obs = new Int32Array(m);
-  const v = new Float64Array(m), F = new Float64Array(m * m), ZP = new Float64Array(m * d);
-  const FiZP = new Float64Array(m * d), col = new Float64Array(m);
-  for (const person of panel.persons) {
-    a.fill(0); P.fill(0);
-    if (spec.initial === 'free') {
-      for (let i = 0; i < n; i++) { a[i] = par.m0![i]; for (let j = 0; j < n; j++) P[i * d + j] = par.P0![i * n + j]; }
-    } else for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) P[i * d + j] = sigma![i * n + j];
-    if (par.psi) for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) P[(n + i) * d + n + j] = par.psi[i * m + j];
-    const T = person.time.length;
-    for (let k = 0; k < T; k++) {
-      if (k > 0) {
-        const { phi, q } = transition(person.time[k] - person.time[k - 1]);
-        // a_η ← Φ a_η; P ← [[Φ Pηη Φ′ + Q, Φ Pητ], [Pτη Φ′, Pττ]]
-        for (let i = 0; i < n; i++) { let s = 0; for (let j = 0; j < n; j++) s += phi[i * n + j] * a[j]; an[i] = s; }
-        for (let i = 0; i < n; i++) a[i] = an[i];
-        // Pn = Φ P[η rows, all cols]
-        for (let i = 0; i < n; i++) for (let c = 0; c < d; c++) { let s = 0; for (let j = 0; j < n; j++) s += phi[i * n + j] * P[j * d + c]; Pn[i * d + c] = s; }
-        for (let i = n; i < d; i++) for (let c = 0; c < d; c++) Pn[i * d + c] = P[i * d + c];
-        // P = Pn · blockdiag(Φ′, I)
-        for (let r = 0; r < d; r++) {
-          for (let j = 0; j < n; j++) { let s = 0; for (let c = 0; c < n; c++) s += Pn[r * d + c] * phi[j * n + c]; P[r * d + j] = s; }
-          for (let c = n; c < d; c++) P[r * d + c] = Pn[r * d + c];
-        }
-        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) P[i * d + j] += q[i * n + j];
-      }
-      let p = 0;
-      for (let j = 0; j < m; j++) if (Number.isFinite(person.values[k * nv + spec.column[spec.reads[j]]])) obs[p++] = j;
-      if (p === 0) continue;
-      // v = y − (a_η[s] + a_τ[j] + μ_j); ZP rows; F = Z P Z′ + R
-      for (let u = 0; u < p; u++) {
-        const j = obs[u], s = spec.reads[j];
-        v[u] = person.values[k * nv + spec.column[s]] - a[s] - par.mu[j] - (par.psi ? a[n + j] : 0);
-        for (let c = 0; c < d; c++) ZP[u * d + c] = P[s * d + c] + (par.psi ? P[(n + j) * d + c] : 0);
-      }
-      for (let u = 0; u < p; u++) {
-        const j2 = obs[u], s2 = spec.reads[j2];
-        for (let w = 0; w < p; w++) F[u * p + w] = ZP[w * d + s2] + (par.psi ? ZP[w * d + n + j2] : 0);
-        F[u * p + u] += par.r[j2];
-      }
-      // Cholesky of F
-      const Lf = cholesky(F.subarray(0, p * p), p);
-      if (!Lf) return Infinity;
-      let logdet = 0;
-      for (let u = 0; u < p; u++) logdet += 2 * Math.log(Lf[u * p + u]);
-      // Finv v and Finv ZP via the factor
-      const fv = cholSolve(Lf, p, v.subarray(0, p));
-      let quad = 0;
-      for (let u = 0; u < p; u++) quad += v[u] * fv[u];
-      total += p * LOG2PI + logdet + quad;
-      // a += (ZP)′ F⁻¹ v ; P −= (ZP)′ F⁻¹ ZP
-      for (let c = 0; c < d; c++) { let s = 0; for (let u = 0; u < p; u++) s += ZP[u * d + c] * fv[u]; a[c] += s; }
-      for (let c = 0; c < d; c++) {
-        for (let u = 0; u < p; u++) col[u] = ZP[u * d + c];
-        const x = cholSolve(Lf, p, col.subarray(0, p));
-        for (let u = 0; u < p; u++) FiZP[u * d + c] = x[u];
-      }
-      for (let r = 0; r < d; r++)
-        for (let c = 0; c <= r; c++) {
-          let s = 0;
-          for (let u = 0; u < p; u++) s += ZP[u * d + r] * FiZP[u * d + c];
-          const val = P[r * d + c] - s;
-          P[r * d + c] = val; P[c * d + r] = val;
-        }
-    }
-  }
-  return Number.isFinite(total) ? total : Infinity;
+  return k;
+}
+
+interface Dynamics {
+  key: Float64Array;
+  /** Φ(Δ_u) and Q(Δ_u) for each distinct interval u, n×n each, packed. */
+  phi: Float64Array;
+  q: Float64Array;
+  sigma: Float64Array | null;
 }
 
 /**
- * e^{AΔ} = V e^{ΛΔ} V⁻¹ from one eigendecomposition of A, for many Δ at the
- * cost of a few n×n products each; null when A is not safely diagonalisable
- * (the reconstruction V Λ V⁻¹ misses A by more than 1e-10 relative), and then
- * each Δ takes the Padé exponential.
+ * The −2 log-likelihood as a function of the parameter vector, for repeated
+ * evaluation (an optimiser, its gradient and Hessian). Once per panel: the
+ * occasions flattened, the observed cells listed, the distinct intervals
+ * (exact, not rounded) collected. Per dynamics (drift and diffusion): one
+ * eigendecomposition of A and Σ from one Lyapunov solve, then Φ(Δ) and Q(Δ)
+ * once per distinct interval; the last few dynamics are kept, so a step in a
+ * level, a between-person or an initial-state parameter (a gradient or
+ * Hessian column) reuses them. The Kalman filter runs on preallocated
+ * buffers.
  */
-function spectralExp(a: Float64Array, n: number): ((dt: number) => Float64Array) | null {
-  let e;
-  try { e = eigen({ rows: n, cols: n, data: a }); } catch { return null; }
+export function ctLikelihood(panel: Panel, spec: CtSpec): (theta: ArrayLike<number>) => number {
+  const n = spec.states.length, m = spec.measured.length, n2 = n * n;
+  const nv = panel.variables.length;
+  const P_ = panel.persons.length;
+  const personStart = new Int32Array(P_ + 1);
+  let K = 0;
+  panel.persons.forEach((p, i) => { personStart[i] = K; K += p.time.length; });
+  personStart[P_] = K;
+  const gapIndex = new Map<number, number>();
+  const gaps: number[] = [];
+  const stepGap = new Int32Array(K).fill(-1);
+  const obsStart = new Int32Array(K + 1);
+  const obsJ: number[] = [], obsY: number[] = [];
+  let k0 = 0;
+  for (const p of panel.persons) {
+    for (let k = 0; k < p.time.length; k++, k0++) {
+      if (k > 0) {
+        const dt = p.time[k] - p.time[k - 1];
+        let u = gapIndex.get(dt);
+        if (u === undefined) { u = gaps.length; gaps.push(dt); gapIndex.set(dt, u); }
+        stepGap[k0] = u;
+      }
+      obsStart[k0] = obsJ.length;
+      for (let j = 0; j < m; j++) {
+        const y = p.values[k * nv + spec.column[spec.reads[j]]];
+        if (Number.isFinite(y)) { obsJ.push(j); obsY.push(y); }
+      }
+    }
+  }
+  obsStart[K] = obsJ.length;
+  const U = gaps.length;
+  const nDyn = dynamicCount(spec);
+  const slots: Dynamics[] = [];
+  const SLOTS = 4;
+  const d = n + (spec.intercepts === 'random' ? m : 0);
+  const a = new Float64Array(d), P = new Float64Array(d * d), Pn = new Float64Array(d * d);
+  const an = new Float64Array(n);
+  const v = new Float64Array(m), F = new Float64Array(m * m), ZP = new Float64Array(m * d), FiZP = new Float64Array(m * d);
+  const fv = new Float64Array(m), tmp = new Float64Array(n2);
+  const LOG2PI = Math.log(2 * Math.PI);
+
+  const dynamicsOf = (theta: ArrayLike<number>, par: CtParameters): Dynamics | null => {
+    for (let s = 0; s < slots.length; s++) {
+      const key = slots[s].key;
+      let same = true;
+      for (let i = 0; i < nDyn; i++) if (key[i] !== theta[i]) { same = false; break; }
+      if (same) {
+        const hit = slots[s];
+        if (s > 0) { slots.splice(s, 1); slots.unshift(hit); }
+        return hit;
+      }
+    }
+    for (let i = 0; i < n2; i++) if (!Number.isFinite(par.GG[i])) return null;
+    const A = mat(par.A, n), GG = mat(par.GG, n);
+    let e: ReturnType<typeof eigen> | null;
+    try { e = eigen(A); } catch { e = null; }
+    const ev = e ?? eigenvalues(A);
+    let stable = true;
+    for (let i = 0; i < n; i++) if (!(ev.re[i] < -1e-10)) stable = false;
+    let sigma: Float64Array | null = null;
+    if (stable) {
+      const ly = lyapunov(A, GG);
+      if (ly.ok) sigma = ly.sigma.data;
+    }
+    // Reuse the arrays of the dynamics evicted last (large typed arrays are costly to allocate and collect).
+    const old = slots.length >= SLOTS ? slots.pop()! : null;
+    const phi = old ? old.phi : new Float64Array(U * n2), q = old ? old.q : new Float64Array(U * n2);
+    const parts = e ? spectralParts(e, par.A, n) : null;
+    const cr = new Float64Array(n), ci = new Float64Array(n);
+    for (let u = 0; u < U; u++) {
+      const dt = gaps[u], o = u * n2;
+      if (parts) {
+        for (let k = 0; k < n; k++) {
+          const er = Math.exp(parts.lr[k] * dt);
+          if (parts.li[k] === 0) { cr[k] = er; ci[k] = 0; } else { cr[k] = er * Math.cos(parts.li[k] * dt); ci[k] = er * Math.sin(parts.li[k] * dt); }
+        }
+        for (let x = 0; x < n2; x++) {
+          let s = 0;
+          for (let k = 0; k < n; k++) s += cr[k] * parts.mre[k * n2 + x] - ci[k] * parts.mim[k * n2 + x];
+          phi[o + x] = s;
+        }
+      } else {
+        const ex = expm({ rows: n, cols: n, data: par.A.map((val) => val * dt) }).data;
+        for (let x = 0; x < n2; x++) phi[o + x] = ex[x];
+      }
+      if (sigma) {
+        // Q = Σ − Φ Σ Φ′
+        for (let i = 0; i < n; i++)
+          for (let j = 0; j < n; j++) { let s = 0; for (let k = 0; k < n; k++) s += phi[o + i * n + k] * sigma[k * n + j]; tmp[i * n + j] = s; }
+        for (let i = 0; i < n; i++)
+          for (let j = 0; j <= i; j++) {
+            let s = 0;
+            for (let k = 0; k < n; k++) s += tmp[i * n + k] * phi[o + j * n + k];
+            const val = sigma[i * n + j] - s;
+            q[o + i * n + j] = val; q[o + j * n + i] = val;
+          }
+      } else {
+        const vq = vanLoan(A, GG, dt).q.data;
+        for (let x = 0; x < n2; x++) q[o + x] = vq[x];
+      }
+    }
+    const key = old ? old.key : new Float64Array(nDyn);
+    for (let i = 0; i < nDyn; i++) key[i] = theta[i];
+    const made: Dynamics = { key, phi, q, sigma };
+    slots.unshift(made);
+    return made;
+  };
+
+  return (theta) => {
+    for (let i = 0; i < theta.length; i++) if (!Number.isFinite(theta[i])) return Infinity;
+    const par = unpack(spec, theta);
+    const dyn = dynamicsOf(theta, par);
+    if (!dyn) return Infinity;
+    const { phi, q, sigma } = dyn;
+    if (spec.initial === 'stationary' && !sigma) return Infinity;
+    const psi = par.psi, mu = par.mu, r = par.r, reads = spec.reads;
+    let total = 0;
+    for (let pi = 0; pi < P_; pi++) {
+      a.fill(0); P.fill(0);
+      if (spec.initial === 'free') {
+        for (let i = 0; i < n; i++) { a[i] = par.m0![i]; for (let j = 0; j < n; j++) P[i * d + j] = par.P0![i * n + j]; }
+      } else for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) P[i * d + j] = sigma![i * n + j];
+      if (psi) for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) P[(n + i) * d + n + j] = psi[i * m + j];
+      for (let k = personStart[pi]; k < personStart[pi + 1]; k++) {
+        const u = stepGap[k];
+        if (u >= 0) {
+          const o = u * n2;
+          // a_η ← Φ a_η; P ← [[Φ Pηη Φ′ + Q, Φ Pητ], [Pτη Φ′, Pττ]]
+          for (let i = 0; i < n; i++) { let s = 0; for (let j = 0; j < n; j++) s += phi[o + i * n + j] * a[j]; an[i] = s; }
+          for (let i = 0; i < n; i++) a[i] = an[i];
+          for (let i = 0; i < n; i++) for (let c = 0; c < d; c++) { let s = 0; for (let j = 0; j < n; j++) s += phi[o + i * n + j] * P[j * d + c]; Pn[i * d + c] = s; }
+          for (let i = n; i < d; i++) for (let c = 0; c < d; c++) Pn[i * d + c] = P[i * d + c];
+          for (let rr = 0; rr < d; rr++) {
+            for (let j = 0; j < n; j++) { let s = 0; for (let c = 0; c < n; c++) s += Pn[rr * d + c] * phi[o + j * n + c]; P[rr * d + j] = s; }
+            for (let c = n; c < d; c++) P[rr * d + c] = Pn[rr * d + c];
+          }
+          for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) P[i * d + j] += q[o + i * n + j];
+        }
+        const s0 = obsStart[k], p = obsStart[k + 1] - s0;
+        if (p === 0) continue;
+        for (let uu = 0; uu < p; uu++) {
+          const j = obsJ[s0 + uu], s = reads[j];
+          v[uu] = obsY[s0 + uu] - a[s] - mu[j] - (psi ? a[n + j] : 0);
+          for (let c = 0; c < d; c++) ZP[uu * d + c] = P[s * d + c] + (psi ? P[(n + j) * d + c] : 0);
+        }
+        for (let uu = 0; uu < p; uu++) {
+          const j2 = obsJ[s0 + uu], s2 = reads[j2];
+          for (let w = 0; w < p; w++) F[uu * p + w] = ZP[w * d + s2] + (psi ? ZP[w * d + n + j2] : 0);
+          F[uu * p + uu] += r[j2];
+        }
+        // Cholesky of F in place (lower triangle)
+        let logdet = 0;
+        for (let i = 0; i < p; i++)
+          for (let j = 0; j <= i; j++) {
+            let s = F[i * p + j];
+            for (let kk = 0; kk < j; kk++) s -= F[i * p + kk] * F[j * p + kk];
+            if (i === j) { if (!(s > 0)) return Infinity; const l = Math.sqrt(s); F[i * p + i] = l; logdet += 2 * Math.log(l); } else F[i * p + j] = s / F[j * p + j];
+          }
+        cholSolveInto(F, p, v, fv);
+        let quad = 0;
+        for (let uu = 0; uu < p; uu++) quad += v[uu] * fv[uu];
+        total += p * LOG2PI + logdet + quad;
+        // a += (ZP)′ F⁻¹ v ; P −= (ZP)′ F⁻¹ ZP
+        for (let c = 0; c < d; c++) { let s = 0; for (let uu = 0; uu < p; uu++) s += ZP[uu * d + c] * fv[uu]; a[c] += s; }
+        for (let c = 0; c < d; c++) {
+          // forward and back substitution on column c of ZP, into column c of FiZP
+          for (let i = 0; i < p; i++) { let s = ZP[i * d + c]; for (let kk = 0; kk < i; kk++) s -= F[i * p + kk] * FiZP[kk * d + c]; FiZP[i * d + c] = s / F[i * p + i]; }
+          for (let i = p - 1; i >= 0; i--) { let s = FiZP[i * d + c]; for (let kk = i + 1; kk < p; kk++) s -= F[kk * p + i] * FiZP[kk * d + c]; FiZP[i * d + c] = s / F[i * p + i]; }
+        }
+        for (let rr = 0; rr < d; rr++)
+          for (let c = 0; c <= rr; c++) {
+            let s = 0;
+            for (let uu = 0; uu < p; uu++) s += ZP[uu * d + rr] * FiZP[uu * d + c];
+            const val = P[rr * d + c] - s;
+            P[rr * d + c] = val; P[c * d + rr] = val;
+          }
+      }
+    }
+    return Number.isFinite(total) ? total : Infinity;
+  };
+}
+
+/**
+ * e^{AΔ} = V e^{ΛΔ} V⁻¹ = Σ_k Re(e^{λ_k Δ} M_k) with M_k = v_k w_k (column k of V,
+ * row k of V⁻¹), from one eigendecomposition of A, for many Δ at n³ products
+ * each; null when A is not safely diagonalisable (the reconstruction
+ * Σ_k λ_k M_k misses A by more than 1e-10 relative, or V is close to
+ * singular), and then each Δ takes the Padé exponential.
+ */
+function spectralParts(e: ReturnType<typeof eigen>, a: Float64Array, n: number): { lr: Float64Array; li: Float64Array; mre: Float64Array; mim: Float64Array } | null {
   // Complex V (re, im) from the real packing.
   const vr = new Float64Array(n * n), vi = new Float64Array(n * n);
   const V = e.vectors.data;
@@ -349,51 +460,30 @@ function spectralExp(a: Float64Array, n: number): ((dt: number) => Float64Array)
       }
     }
   }
-  const lr = e.re, li = e.im;
-  const build = (fr: (k: number) => number, fi: (k: number) => number) => {
-    const out = new Float64Array(n * n);
+  const n2 = n * n;
+  const mre = new Float64Array(n * n2), mim = new Float64Array(n * n2);
+  for (let k = 0; k < n; k++)
     for (let i = 0; i < n; i++)
       for (let j = 0; j < n; j++) {
-        let s = 0;
-        for (let k = 0; k < n; k++) {
-          // Re(V_ik f_k W_kj)
-          const xr = vr[i * n + k] * fr(k) - vi[i * n + k] * fi(k), xi = vr[i * n + k] * fi(k) + vi[i * n + k] * fr(k);
-          s += xr * wr[k * n + j] - xi * wi[k * n + j];
-        }
-        out[i * n + j] = s;
+        const xr = vr[i * n + k], xi = vi[i * n + k], yr = wr[k * n + j], yi = wi[k * n + j];
+        mre[k * n2 + i * n + j] = xr * yr - xi * yi;
+        mim[k * n2 + i * n + j] = xr * yi + xi * yr;
       }
-    return out;
-  };
-  // Check: V Λ V⁻¹ reproduces A, and V is not close to singular.
-  const back = build((k) => lr[k], (k) => li[k]);
+  const lr = Float64Array.from(e.re), li = Float64Array.from(e.im);
+  // Check: Σ λ_k M_k reproduces A, and V is not close to singular.
   let err = 0, nrm = 0, cond = 0;
-  for (let i = 0; i < n * n; i++) { err = Math.max(err, Math.abs(back[i] - a[i])); nrm = Math.max(nrm, Math.abs(a[i])); cond = Math.max(cond, Math.abs(wr[i]) + Math.abs(wi[i])); }
+  for (let x = 0; x < n2; x++) {
+    let s = 0;
+    for (let k = 0; k < n; k++) s += lr[k] * mre[k * n2 + x] - li[k] * mim[k * n2 + x];
+    err = Math.max(err, Math.abs(s - a[x])); nrm = Math.max(nrm, Math.abs(a[x])); cond = Math.max(cond, Math.abs(wr[x]) + Math.abs(wi[x]));
+  }
   if (!(err <= 1e-10 * Math.max(nrm, 1e-300)) || cond > 1e6) return null;
-  return (dt) => build((k) => Math.exp(lr[k] * dt) * Math.cos(li[k] * dt), (k) => Math.exp(lr[k] * dt) * Math.sin(li[k] * dt));
+  return { lr, li, mre, mim };
 }
 
-function matMul(a: Float64Array, b: Float64Array, n: number): Float64Array {
-  const c = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) { const aik = a[i * n + k]; for (let j = 0; j < n; j++) c[i * n + j] += aik * b[k * n + j]; }
-  return c;
-}
-
-function cholesky(F: Float64Array, p: number): Float64Array | null {
-  const L = new Float64Array(p * p);
-  for (let i = 0; i < p; i++)
-    for (let j = 0; j <= i; j++) {
-      let s = F[i * p + j];
-      for (let k = 0; k < j; k++) s -= L[i * p + k] * L[j * p + k];
-      if (i === j) { if (!(s > 0)) return null; L[i * p + i] = Math.sqrt(s); } else L[i * p + j] = s / L[j * p + j];
-    }
-  return L;
-}
-
-function cholSolve(L: Float64Array, p: number, b: ArrayLike<number>): Float64Array {
-  const y = new Float64Array(p);
+function cholSolveInto(L: Float64Array, p: number, b: Float64Array, y: Float64Array): void {
   for (let i = 0; i < p; i++) { let s = b[i]; for (let k = 0; k < i; k++) s -= L[i * p + k] * y[k]; y[i] = s / L[i * p + i]; }
   for (let i = p - 1; i >= 0; i--) { let s = y[i]; for (let k = i + 1; k < p; k++) s -= L[k * p + i] * y[k]; y[i] = s / L[i * p + i]; }
-  return y;
 }
 
 /** The fit's structure from the panel and the options (throws with a message naming what is wrong). */
@@ -410,7 +500,62 @@ export function ctSpec(panel: Panel, opt: CtOptions = {}): CtSpec {
   return { states, column, measured, reads, free, initial: opt.initial ?? 'free', intercepts: opt.intercepts ?? 'random', measurementError: opt.measurementError ?? false, diffusion: opt.diffusion ?? 'full' };
 }
 
-/** Starting values from the data: diagonal drift from lag-one autocorrelations at the median interval, diffusion and levels from the within- and between-person spread. */
+/**
+ * The drift and diffusion a pooled VAR(1) at the data's interval implies: A₀ = log(Φ̂)/Δ (the
+ * principal matrix logarithm by the eigendecomposition of Φ̂, Δ the median interval, lag pairs at
+ * most two median intervals apart), entries the spec fixes set to 0, latent states' rows and columns
+ * from `decay`; G G′ from the VAR residual covariance Σ_u = Q(Δ) entry by entry as for a diagonal
+ * drift, G G′_ij = Σ_u,ij (a_ii + a_jj) / (e^{(a_ii + a_jj)Δ} − 1). Null when Φ̂ has an eigenvalue
+ * on the closed negative real axis or outside the unit circle, when the restricted A₀ is not
+ * stable, or when G G′ is not positive definite; the caller then starts from a diagonal drift.
+ */
+function varStartDynamics(panel: Panel, spec: CtSpec, med: number, decay: (i: number) => number): { drift: number[][]; chol: number[][] } | null {
+  const n = spec.states.length, m = spec.measured.length;
+  if (!(med > 0) || m === 0) return null;
+  let v;
+  try { v = fitVar(panel, { variables: spec.measured, skipRule: { maxInterval: 2 * med } }); } catch { return null; }
+  const e = (() => { try { return eigen(fromRows(v.phi)); } catch { return null; } })();
+  if (!e) return null;
+  for (let k = 0; k < m; k++) {
+    const mod = Math.hypot(e.re[k], e.im[k]);
+    if (!(mod > 1e-6 && mod < 1) || (e.im[k] === 0 && e.re[k] <= 0)) return null;
+  }
+  const parts = spectralParts(e, Float64Array.from(v.phi.flat()), m);
+  if (!parts) return null;
+  const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (__, j) => (i === j ? decay(i) : 0)));
+  const m2 = m * m;
+  for (let a = 0; a < m; a++)
+    for (let b = 0; b < m; b++) {
+      let s = 0;
+      for (let k = 0; k < m; k++) {
+        const lr = Math.log(Math.hypot(parts.lr[k], parts.li[k])), li = Math.atan2(parts.li[k], parts.lr[k]);
+        s += lr * parts.mre[k * m2 + a * m + b] - li * parts.mim[k * m2 + a * m + b];
+      }
+      A[spec.reads[a]][spec.reads[b]] = s / med;
+    }
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (!spec.free[i][j]) A[i][j] = 0;
+  const ev = eigenvalues(fromRows(A));
+  for (let i = 0; i < n; i++) if (!(ev.re[i] < 0)) return null;
+  // G G′ of the measured states (latent ones keep 1), then its Cholesky factor.
+  const GG: number[][] = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (__, j) => (i === j ? 1 : 0)));
+  for (let a = 0; a < m; a++)
+    for (let b = 0; b < m; b++) {
+      if (a !== b && spec.diffusion === 'diagonal') continue;
+      const i = spec.reads[a], j = spec.reads[b], s = A[i][i] + A[j][j];
+      GG[i][j] = (v.residualCov[a][b] * s) / Math.expm1(s * med);
+    }
+  const L = Array.from({ length: n }, () => new Array<number>(n).fill(0));
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j <= i; j++) {
+      let s = GG[i][j];
+      for (let k = 0; k < j; k++) s -= L[i][k] * L[j][k];
+      if (i === j) { if (!(s > 0)) return null; L[i][i] = Math.sqrt(s); } else L[i][j] = s / L[j][j];
+    }
+  if (L.flat().some((x) => !Number.isFinite(x))) return null;
+  return { drift: A, chol: L };
+}
+
+/** Starting values from the data: drift and diffusion from the pooled VAR(1) (`varStartDynamics`), else a diagonal drift from lag-one autocorrelations at the median interval; levels from the within- and between-person spread. */
 export function ctStart(panel: Panel, spec: CtSpec): number[] {
   const n = spec.states.length, m = spec.measured.length;
   const nv = panel.variables.length;
@@ -448,14 +593,27 @@ export function ctStart(panel: Panel, spec: CtSpec): number[] {
     const r = j >= 0 ? Math.min(0.9, Math.max(0.1, ac[j])) : 0.5;
     return Math.log(r) / med;
   };
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (spec.free[i][j]) theta.push(i === j ? decay(i) : 0);
-  for (let i = 0; i < n; i++) {
-    if (spec.column[i] < 0) continue;
-    for (let j = 0; j <= i; j++) {
-      if (spec.column[j] < 0) continue;
-      if (j < i && spec.diffusion === 'diagonal') continue;
-      const jm = spec.reads.indexOf(i);
-      theta.push(j === i ? 0.5 * Math.log(Math.max(1e-8, 2 * Math.abs(decay(i)) * within[jm])) : 0);
+  const fromVar = varStartDynamics(panel, spec, med, decay);
+  if (fromVar) {
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (spec.free[i][j]) theta.push(fromVar.drift[i][j]);
+    for (let i = 0; i < n; i++) {
+      if (spec.column[i] < 0) continue;
+      for (let j = 0; j <= i; j++) {
+        if (spec.column[j] < 0) continue;
+        if (j < i && spec.diffusion === 'diagonal') continue;
+        theta.push(j === i ? Math.log(fromVar.chol[i][i]) : fromVar.chol[i][j]);
+      }
+    }
+  } else {
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (spec.free[i][j]) theta.push(i === j ? decay(i) : 0);
+    for (let i = 0; i < n; i++) {
+      if (spec.column[i] < 0) continue;
+      for (let j = 0; j <= i; j++) {
+        if (spec.column[j] < 0) continue;
+        if (j < i && spec.diffusion === 'diagonal') continue;
+        const jm = spec.reads.indexOf(i);
+        theta.push(j === i ? 0.5 * Math.log(Math.max(1e-8, 2 * Math.abs(decay(i)) * within[jm])) : 0);
+      }
     }
   }
   for (let j = 0; j < m; j++) theta.push(mean[j]);
@@ -477,6 +635,19 @@ export function ctStart(panel: Panel, spec: CtSpec): number[] {
 }
 
 /**
+ * Starting values for `spec` from an earlier fit of the same data (e.g. the confirmatory fit from
+ * the open one): each parameter of the same name takes the earlier estimate, the rest come from
+ * `ctStart`; drift entries the new spec fixes are left out. When that start gives no finite
+ * likelihood (the restricted drift is not stable and the start is stationary), `ctStart`'s.
+ */
+export function ctStartFrom(panel: Panel, spec: CtSpec, previous: { spec: CtSpec; theta: number[] }): number[] {
+  const base = ctStart(panel, spec);
+  const before = new Map(parameterNames(previous.spec).map((name, i) => [name, previous.theta[i]] as const));
+  const start = parameterNames(spec).map((name, i) => before.get(name) ?? base[i]);
+  return Number.isFinite(ctLikelihood(panel, spec)(start)) ? start : base;
+}
+
+/**
  * Example: `fitCt(panel, { initial: 'stationary', intercepts: 'random' })`.
  * With `free` from the sketch this is the confirmatory fit; without, the open fit.
  */
@@ -485,20 +656,30 @@ export function fitCt(panel: Panel, opt: CtOptions = {}): CtFit {
   const names = parameterNames(spec);
   const theta0 = opt.start ?? ctStart(panel, spec);
   if (theta0.length !== names.length) throw new Error(`the start vector has ${theta0.length} values; this model has ${names.length} parameters (${names.join(', ')})`);
-  const f = (th: number[]) => ctMinus2LL(panel, spec, th);
-  const res = minimize(f, theta0, { maxIterations: opt.maxIterations ?? 400, onIteration: opt.onIteration });
+  const lik = ctLikelihood(panel, spec);
+  const f = (th: number[]) => lik(th);
+  const res = minimize(f, theta0, { maxIterations: opt.maxIterations ?? 400, onIteration: opt.onIteration, gradient: 'forward-then-central', diagonalStart: true });
   const warnings: string[] = [];
   if (!Number.isFinite(res.f)) throw new Error(`the likelihood is not defined at the starting values (${res.message}); try initial 'free' or other starting values`);
   if (!res.converged) warnings.push(`the optimiser stopped before converging (${res.message}, ${res.iterations} iterations)`);
   const k = names.length;
-  let se = new Array<number>(k).fill(NaN);
+  const se = new Array<number>(k).fill(NaN);
   if (!opt.noStandardErrors) {
     const H = hessian(f, res.x);
-    const cov = invertSymmetric(H);
+    // A variance that ran to its boundary (a log SD far below the others, the likelihood flat in it)
+    // leaves a zero row in the Hessian; the other parameters' standard errors come from the rest,
+    // conditional on it, and the warning names it.
+    const maxDiag = Math.max(...H.map((row, i) => Math.abs(row[i])));
+    const flat = names.map((name, i) => / log (L|SD) /.test(name) && Math.abs(H[i][i]) <= 1e-6 * maxDiag);
+    const keep = names.map((_, i) => i).filter((i) => !flat[i]);
+    const sub = keep.map((i) => keep.map((j) => H[i][j]));
+    const cov = invertSymmetric(sub);
     if (!cov) warnings.push('the Hessian at the optimum is singular: some parameters are not identified by these data (standard errors not shown)');
     else {
-      se = cov.map((row, i) => Math.sqrt(2 * row[i]));
-      if (se.some((s) => !Number.isFinite(s))) warnings.push('the Hessian at the optimum is not positive definite (a boundary or a saddle): some standard errors are missing');
+      keep.forEach((i, a) => { se[i] = Math.sqrt(2 * cov[a][a]); });
+      const atBoundary = names.filter((_, i) => flat[i]);
+      if (atBoundary.length) warnings.push(`at a boundary (a variance near zero, the likelihood flat in it): ${atBoundary.join(', ')}; no standard error for it, the others' are conditional on it`);
+      if (keep.some((i) => !Number.isFinite(se[i]))) warnings.push('the Hessian at the optimum is not positive definite (a boundary or a saddle): some standard errors are missing');
     }
   }
   const par = unpack(spec, res.x);

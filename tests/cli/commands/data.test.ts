@@ -74,7 +74,53 @@ print(json.dumps(out))
     expect(j.aic).toBeGreaterThan(j.minus2LL);
     // The sketch's stress–mood block is full (mood → stress through rumination, stress → mood directly): nothing to restrict.
     expect(j.lr.df).toBe(0);
+    // The whole ordering at the data's interval: the sketch's and the fitted model's, from the same ordering core.
+    const o = j.ordering as { interval: number; window: number; sketch: { roles: Record<string, string> }; fitted: { roles: Record<string, string> }; links: { from: string; to: string; low: number; high: number }[] };
+    expect(o.interval).toBeGreaterThan(1);
+    expect(o.interval).toBeLessThan(3);
+    expect(Object.keys(o.fitted.roles).sort()).toEqual(['mood', 'stress']);
+    expect(o.sketch.roles).toHaveProperty('stress');
+    for (const l of o.links) expect(l.low > 0 || l.high < 0).toBe(true);
   }, 600_000);
+
+  it('fit --method var --person-fits gives each person their own VAR(1) with a constant, equal to statsmodels VAR on the series of that person', async () => {
+    // A diary without missing cells, so that each person's lag pairs are the consecutive rows statsmodels uses.
+    const g = seededRandom(14);
+    const r0 = (): number => g.uniform();
+    const times = [40, 40, 8].map((T) => { let t = 0; return Array.from({ length: T }, () => (t += 1 + r0())); });
+    const panel = simulateCt({ states: ['stress', 'mood'], drift: [[-1.2, -0.3], [-0.2, -0.4]], diffusion: [[1, 0], [0, 0.5]], levels: [3, 5] }, times, { seed: 15 });
+    const lines = ['pid,hours,stress,mood'];
+    panel.persons.forEach((p) => p.time.forEach((t, k) => lines.push([p.id, t.toFixed(4), p.values[k * 2].toFixed(6), p.values[k * 2 + 1].toFixed(6)].join(','))));
+    const csv = lines.join('\n');
+    const r = await run(['fit', MODEL, '--data', 'd.csv', '--person', 'pid', '--time', 'hours', '--map', 'stress=stress,mood=mood', '--person-fits', '--min-pairs', '20', '--json'], { 'd.csv': csv });
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out) as { perPerson: { minPairs: number; fits: { person: string; pairs: number; phi: number[][]; intercept: number[]; se: number[][]; residualCov: number[][] }[]; notFitted: string[] } };
+    expect(j.perPerson.fits.map((f) => [f.person, f.pairs])).toEqual([[panel.persons[0].id, 39], [panel.persons[1].id, 39]]);
+    expect(j.perPerson.notFitted).toEqual([panel.persons[2].id]);
+    // Reference: statsmodels.tsa.api.VAR(...).fit(1) (trend 'c') on the first person's series (Debian's python).
+    const ref = spawnSync('/usr/bin/python3', ['-c', `
+import sys, json, io
+import pandas as pd
+from statsmodels.tsa.api import VAR
+d = pd.read_csv(io.StringIO(sys.stdin.read()))
+s = d[d.pid == d.pid.iloc[0]].sort_values('hours')[['stress', 'mood']].to_numpy()
+f = VAR(s).fit(1)
+print(json.dumps({'phi': f.coefs[0].tolist(), 'const': f.intercept.tolist(), 'se': f.stderr[1:].T.tolist(), 'sigma_u': f.sigma_u.tolist()}))
+`], { input: csv, encoding: 'utf8' });
+    expect(ref.status, ref.stderr).toBe(0);
+    const o = JSON.parse(ref.stdout) as { phi: number[][]; const: number[]; se: number[][]; sigma_u: number[][] };
+    const mine = j.perPerson.fits[0];
+    expectClose(mine.phi, o.phi, { relTol: 1e-8, absTol: 1e-12 }, 'phi');
+    expectClose(mine.intercept, o.const, { relTol: 1e-8, absTol: 1e-12 }, 'intercept');
+    expectClose(mine.se, o.se, { relTol: 1e-8 }, 'se');
+    expectClose(mine.residualCov, o.sigma_u, { relTol: 1e-8 }, 'sigma_u');
+  });
+
+  it('refuses --min-pairs below 3 naming the option', async () => {
+    const r = await run(['fit', MODEL, '--data', 'd.csv', '--person', 'pid', '--time', 'hours', '--map', 'stress=stress,mood=mood', '--person-fits', '--min-pairs', '1'], { 'd.csv': diary() });
+    expect(r.code).not.toBe(0);
+    expect(r.err).toMatch(/--min-pairs must be a whole number of at least 3/);
+  });
 
   it('refuses a bad option with a one-line reason', async () => {
     const r = await run(['fit', MODEL, '--data', 'd.csv', '--method', 'xyz'], { 'd.csv': 'pid,hours,stress\n' });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ctMinus2LL, ctStart, fitCt, type CtFit } from '../../../src/core/fit/ct';
+import { ctMinus2LL, ctSpec, ctStart, ctStartFrom, fitCt, type CtFit } from '../../../src/core/fit/ct';
 import { simulateCt, type CtTruth } from '../../../src/core/fit/simulate';
 import { seededRandom } from '../../../src/core/stats/random';
 import type { Panel } from '../../../src/core/data/panel';
@@ -52,6 +52,25 @@ describe('fitCt', () => {
     const ref = runPython<{ start: number; min: number }>('tests/reference/fit_ct.py', scipyInput(panel, fit, fit.theta, true));
     expect(Math.abs(fit.minus2LL - ref.start) / Math.abs(ref.start)).toBeLessThan(1e-9);
     expect(Math.abs(fit.minus2LL - ref.min) / Math.abs(ref.min)).toBeLessThan(1e-6);
+  }, 600_000);
+
+  it('a restricted fit started from the estimates of the open fit (ctStartFrom) reaches the minimum that the BFGS of SciPy confirms', () => {
+    // Reference: tests/reference/fit_ct.py as above.
+    const truth: CtTruth = { states: ['a', 'b'], drift: [[-0.7, 0.3], [0, -0.5]], diffusion: [[0.8, 0], [0, 0.6]], levels: [1, -1], between: [[0.3, 0], [0, 0.2]] };
+    const panel = simulateCt(truth, irregularTimes(8, 20, 31), { seed: 32, missing: 0.05 });
+    const base = { initial: 'stationary' as const, intercepts: 'random' as const, noStandardErrors: true };
+    const open = fitCt(panel, base);
+    const free = [[true, true], [false, true]];
+    const spec = ctSpec(panel, { ...base, free });
+    const start = ctStartFrom(panel, spec, open);
+    // The shared parameters carry over by name: the drift entries kept free, the levels.
+    expect(start[0]).toBe(open.theta[0]);
+    expect(start[3]).toBe(open.theta[4]);
+    const fit = fitCt(panel, { ...base, free, start });
+    const ref = runPython<{ start: number; min: number }>('tests/reference/fit_ct.py', scipyInput(panel, fit, fit.theta, true));
+    expect(Math.abs(fit.minus2LL - ref.start) / Math.abs(ref.start)).toBeLessThan(1e-9);
+    expect(Math.abs(fit.minus2LL - ref.min) / Math.abs(ref.min)).toBeLessThan(1e-6);
+    expect(fit.minus2LL).toBeGreaterThanOrEqual(open.minus2LL - 1e-6);
   }, 600_000);
 
   it('stays finite across very long gaps (‖A‖Δ ≈ 400): Q from Σ − ΦΣΦ′ is positive semidefinite', () => {
