@@ -15,6 +15,32 @@ async function axeViolations(page: Page): Promise<string[]> {
   return r.violations.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
 }
 
+/**
+ * Words in the Data pane's table cells that the layout broke across lines:
+ * a word whose text range has more than one line box. Cells of class
+ * lf-data-raw (text from the file: column names, values, row lists) may break.
+ */
+async function brokenWords(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const out: string[] = [];
+    for (const cell of document.querySelectorAll('.lf-data .lf-data-table th, .lf-data .lf-data-table td')) {
+      if (cell.closest('.lf-data-raw')) continue;
+      const walker = document.createTreeWalker(cell, NodeFilter.SHOW_TEXT);
+      for (let n = walker.nextNode(); n; n = walker.nextNode()) {
+        const text = n.textContent ?? '';
+        for (const m of text.matchAll(/\S+/g)) {
+          const r = document.createRange();
+          r.setStart(n, m.index);
+          r.setEnd(n, m.index + m[0].length);
+          const tops = new Set(Array.from(r.getClientRects()).filter((b) => b.width > 0).map((b) => Math.round(b.top)));
+          if (tops.size > 1) out.push(m[0]);
+        }
+      }
+    }
+    return out;
+  });
+}
+
 test('Data tab: the demo diary mapped, imported, summarised, kept in the browser; the VAR against the sketch as the command line gives it', async ({ page }, testInfo) => {
   test.setTimeout(90_000);
   const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'fit', 'src/examples/sleep-stress.json', '--data', 'public/demo/sleep-stress-diary.csv', '--method', 'var', '--json'], { encoding: 'utf8' })) as { comparison: { from: string; to: string; verdict: string }[]; n: { persons: number; pairs: number } };
@@ -63,6 +89,7 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(page.getByRole('button', { name: 'Fit the VAR' })).toBeEnabled();
   await result.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('data-var-1440.png') });
+  expect(await brokenWords(page)).toEqual([]);
   expect(await axeViolations(page)).toEqual([]);
 
   await page.setViewportSize({ width: 1024, height: 768 });
@@ -70,6 +97,10 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await page.screenshot({ path: testInfo.outputPath('data-summary-1024.png') });
   await result.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('data-var-1024.png') });
+  // Verdicts and labels keep their words whole in the narrow pane, and the table fits it.
+  expect(await brokenWords(page)).toEqual([]);
+  const fits = await result.locator('table').evaluate((t) => t.getBoundingClientRect().right <= (t.closest('.lf-data') as HTMLElement).getBoundingClientRect().right + 1);
+  expect(fits).toBe(true);
   expect(await axeViolations(page)).toEqual([]);
 
   // Kept in this browser: after a reload the summary is back without opening the file.

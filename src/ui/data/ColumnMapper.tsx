@@ -113,8 +113,8 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
           <tbody>
             {dataColumns.map((col) => (
               <tr key={col}>
-                <th scope="row">{col}</th>
-                <td>{example(col)}</td>
+                <th scope="row" className="lf-data-raw">{col}</th>
+                <td className="lf-data-raw">{example(col)}</td>
                 <td>
                   <select aria-label={`Variable measured by column ${col}`} value={mappedTo(col)} onChange={(e) => setVariable(col, e.target.value)}>
                     <option value="">not used</option>
