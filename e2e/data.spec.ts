@@ -110,3 +110,99 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(page.getByTestId('import-counts')).toContainText('30 persons');
   expect(errors).toEqual([]);
 });
+
+type CointJson = {
+  pooled: { tested: number; engleGranger: { rejected: number } };
+  perPerson: {
+    id: string;
+    adf: { series: string; statistic: number; pValue: number }[];
+    engleGranger: { statistic: number; pValue: number };
+    johansen: { trace: number[]; maxEig: number[] };
+    errorCorrection: { loadings: { series: string; alpha: number; se: number; pValue: number }[] } | null;
+    sentence: string;
+  }[];
+};
+
+/**
+ * The app's number (an attribute holding it at full precision) equals the command line's to 1e-10
+ * relative: the same core code, but Chromium's and Node's Math.exp/log may differ in the last bit.
+ */
+async function expectSame(cell: ReturnType<Page['locator']>, want: number, what: string, attribute = 'data-value') {
+  const got = Number(await cell.getAttribute(attribute));
+  expect(Math.abs(got - want), `${what}: app ${got}, command line ${want}`).toBeLessThanOrEqual(1e-10 * Math.max(1e-300, Math.abs(want)));
+}
+
+test('Data tab: unit roots and cointegration of the demo warehouse weeks equal loopfold coint --json, person by person', async ({ page }, testInfo) => {
+  test.setTimeout(120_000);
+  const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'coint', 'public/demo/warehouse-weeks.csv', '--columns', 'stock,orders', '--person', 'warehouse', '--json'], { encoding: 'utf8' })) as CointJson;
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=warehouse');
+  await page.getByRole('tab', { name: 'Data' }).click();
+  await page.getByRole('button', { name: 'Demo warehouse weeks' }).click();
+  const mapper = page.getByTestId('column-mapper');
+  await expect(mapper).toContainText('Columns of warehouse-weeks.csv', { timeout: 30_000 });
+  await mapper.getByLabel('Person', { exact: true }).selectOption('warehouse');
+  await mapper.getByLabel('Time', { exact: true }).selectOption('week');
+  await mapper.getByLabel('Time written as').selectOption('number');
+  await mapper.getByLabel('Unit of the numbers').selectOption('week');
+  await mapper.getByLabel('Variable measured by column stock').selectOption('inventory');
+  await mapper.getByRole('button', { name: 'Import' }).click();
+  await expect(page.getByTestId('import-counts')).toContainText('3 persons');
+
+  const coint = page.getByTestId('data-coint');
+  await expect(coint).toContainText('Every state of the sketch self-regulates');
+  // On request: stock first (regressed on orders), as --columns stock,orders.
+  await coint.getByRole('checkbox', { name: /^stock/ }).check();
+  await coint.getByRole('checkbox', { name: /^orders/ }).check();
+  await expect(coint.getByTestId('coint-order')).toHaveText('Order: stock, orders.');
+  await coint.getByRole('button', { name: 'Test the series' }).click();
+  await expect(coint.getByTestId('coint-pooled')).toContainText(`Tested ${cli.pooled.tested} of 3`, { timeout: 30_000 });
+  await expect(coint.getByTestId('coint-pooled')).toContainText(`in ${cli.pooled.engleGranger.rejected} of ${cli.pooled.tested}`);
+
+  for (const p of cli.perPerson) {
+    const row = coint.locator(`[data-testid="coint-persons"] tr[data-person="${p.id}"]`);
+    await expectSame(row.locator('td').nth(0), p.engleGranger.statistic, `${p.id} Engle–Granger τ in the table`);
+    await coint.getByLabel('Show the tests of').selectOption(p.id);
+    const report = coint.locator(`[data-testid="coint-report"][data-who="${p.id}"]`);
+    await expect(report).toBeVisible();
+    for (const a of p.adf) {
+      const r = report.locator(`[data-testid="coint-adf"] tr[data-series="${a.series}"] td`);
+      await expectSame(r.nth(0), a.statistic, `${p.id} ADF τ of ${a.series}`);
+      await expectSame(r.nth(1), a.pValue, `${p.id} ADF p of ${a.series}`);
+    }
+    const eg = report.getByTestId('coint-eg');
+    await expectSame(eg, p.engleGranger.statistic, `${p.id} Engle–Granger τ`, 'data-statistic');
+    await expectSame(eg, p.engleGranger.pValue, `${p.id} Engle–Granger p`, 'data-p');
+    for (let i = 0; i < p.johansen.trace.length; i++) {
+      const r = report.locator(`[data-testid="coint-johansen"] tr[data-rank="${i}"] td`);
+      await expectSame(r.nth(0), p.johansen.trace[i], `${p.id} Johansen trace r ≤ ${i}`);
+      await expectSame(r.nth(2), p.johansen.maxEig[i], `${p.id} Johansen max-eig r ≤ ${i}`);
+    }
+    for (const l of p.errorCorrection?.loadings ?? []) {
+      const r = report.locator(`[data-testid="coint-loadings"] tr[data-series="${l.series}"] td`);
+      await expectSame(r.nth(0), l.alpha, `${p.id} loading of ${l.series}`);
+      await expectSame(r.nth(1), l.se, `${p.id} SE of the loading of ${l.series}`);
+    }
+    await expect(report.getByTestId('coint-sentence')).toHaveText(p.sentence);
+  }
+  // The reading a modeller sees: stock tracks orders, and the ordering a long interval gives.
+  await expect(coint.getByTestId('coint-ordering').first()).toContainText('orders → stock');
+  await coint.getByTestId('coint-pooled').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-coint-1440.png') });
+  await coint.getByTestId('coint-report').first().scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-coint-report-1440.png') });
+  expect(await brokenWords(page)).toEqual([]);
+  expect(await axeViolations(page)).toEqual([]);
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await coint.getByTestId('coint-report').first().scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-coint-1024.png') });
+  expect(await brokenWords(page)).toEqual([]);
+  expect(await axeViolations(page)).toEqual([]);
+
+  // A bad choice is named by its field, and nothing is lost.
+  await coint.getByRole('checkbox', { name: /^orders/ }).uncheck();
+  await coint.getByRole('button', { name: 'Test the series' }).click();
+  await expect(coint.getByRole('alert')).toHaveText('Series to test: choose 2 to 6 columns (now 1).');
+  expect(errors).toEqual([]);
+});

@@ -16,9 +16,15 @@ import { ColumnMapper, mappingProblem } from './ColumnMapper';
 import { ImportSummaryView } from './ImportSummary';
 import { DataOverview } from './DataOverview';
 import { DataFits } from './DataFits';
+import { DataCoint } from './DataCoint';
 import './data.css';
 
 export const DEMO_FILE = 'sleep-stress-diary.csv';
+/** Further demo files (invented): weekly stock and orders of three warehouses. */
+export const DEMO_FILES: { file: string; button: string; what: string }[] = [
+  { file: DEMO_FILE, button: 'Demo diary', what: 'The demo diary' },
+  { file: 'warehouse-weeks.csv', button: 'Demo warehouse weeks', what: 'The demo warehouse weeks' },
+];
 
 export default function DataPane() {
   const model = useValidatedModel();
@@ -73,14 +79,14 @@ function DataOf({ model }: { model: Model }) {
       setError(`${file.name} could not be read: ${(e as Error).message ?? String(e)}`);
     }
   };
-  const openDemo = async () => {
+  const openDemo = async (demo: (typeof DEMO_FILES)[number]) => {
     setError(null);
     try {
-      const r = await fetch(`${import.meta.env.BASE_URL}demo/${DEMO_FILE}`);
+      const r = await fetch(`${import.meta.env.BASE_URL}demo/${demo.file}`);
       if (!r.ok) throw new Error(`the server answered ${r.status}`);
-      await read({ fileName: DEMO_FILE, text: await r.text() });
+      await read({ fileName: demo.file, text: await r.text() });
     } catch (e) {
-      setError(`The demo diary could not be loaded: ${(e as Error).message ?? String(e)}`);
+      setError(`${demo.what} could not be loaded: ${(e as Error).message ?? String(e)}`);
     }
   };
   const runImport = async () => {
@@ -112,7 +118,7 @@ function DataOf({ model }: { model: Model }) {
       {model.caution && <p className="lf-data-note">{model.caution}</p>}
       <div className="lf-data-row">
         <label className="lf-data-file">Open a CSV or TSV file <input type="file" accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values" onChange={(e) => { const f = e.target.files?.[0]; if (f) void openFile(f); e.target.value = ''; }} /></label>
-        <button type="button" onClick={() => void openDemo()}>Demo diary</button>
+        {DEMO_FILES.map((d) => <button key={d.file} type="button" onClick={() => void openDemo(d)}>{d.button}</button>)}
         {dataset && <button type="button" onClick={() => void forget()}>Remove the data from this browser</button>}
       </div>
       {!restored && <p className="lf-data-note">Looking for data kept in this browser…</p>}
@@ -128,6 +134,7 @@ function DataOf({ model }: { model: Model }) {
       {dataset && <ImportSummaryView dataset={dataset} />}
       {panel && <DataOverview model={model} panel={panel} />}
       {panel && <DataFits model={model} panel={panel} />}
+      {dataset && header && source?.fileName === dataset.fileName && <DataCoint key={`${dataset.fileName}:${dataset.importedAt}`} model={model} dataset={dataset} fields={header.fields} />}
     </div>
   );
 }
