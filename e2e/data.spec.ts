@@ -206,3 +206,68 @@ test('Data tab: unit roots and cointegration of the demo warehouse weeks equal l
   await expect(coint.getByRole('alert')).toHaveText('Series to test: choose 2 to 6 columns (now 1).');
   expect(errors).toEqual([]);
 });
+
+test('Data tab: a wide lake survey — waves of each variable, typed times unequal years apart, bad input named by field, row and column', async ({ page }, testInfo) => {
+  test.setTimeout(120_000);
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=lake');
+  await page.getByRole('tab', { name: 'Data' }).click();
+  await page.getByRole('button', { name: 'Demo lake survey' }).click();
+  const mapper = page.getByTestId('column-mapper');
+  await expect(mapper).toContainText('Columns of lake-survey-waves.csv', { timeout: 30_000 });
+  await expect(mapper.getByLabel('Layout')).toHaveValue('wide');
+  await expect(mapper.getByLabel('Person', { exact: true })).toHaveValue('lake');
+  const waves = page.getByTestId('wave-mapper');
+  await expect(waves.locator('tbody tr')).toHaveCount(4);
+  await expect(waves.getByLabel('Column of Planktivorous fish in wave 3')).toHaveValue('fish_2019');
+  await expect(waves.getByLabel('Column of Sediment phosphorus in wave 4')).toHaveValue('sediment_2020');
+
+  // The visits were 2014, 2016, 2019, 2020: times from the names, in years.
+  await waves.getByRole('button', { name: 'Times from the years in the column names (2014, 2016, 2019, 2020)' }).click();
+  await expect(waves.getByLabel('Unit of the wave times')).toHaveValue('year');
+  await expect(waves.getByTestId('wave-times')).toHaveText('Waves at 0, 2, 5, 6 years since the first (intervals 2, 3, 1: unequal).');
+  // The same as intervals from the wave before; a typed interval that is not a number is named and blocks the import.
+  await waves.getByLabel('Wave times given as').selectOption('intervals');
+  await expect(waves.getByLabel('Interval from wave 2 to wave 3')).toHaveValue('3');
+  await waves.getByLabel('Interval from wave 2 to wave 3').fill('three');
+  await expect(waves.locator('tr[data-wave="3"]')).toContainText('“three” is not a number');
+  await mapper.getByRole('button', { name: 'Import' }).click();
+  await expect(page.getByRole('alert')).toHaveText('Wave 3: its time is not a number; type it as a number in year.');
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await mapper.scrollIntoViewIfNeeded();
+  await waves.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-waves-1024.png') });
+  expect(await brokenWords(page)).toEqual([]);
+  expect(await axeViolations(page)).toEqual([]);
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await waves.getByLabel('Interval from wave 2 to wave 3').fill('3');
+  await expect(waves.getByTestId('wave-times')).toHaveText('Waves at 0, 2, 5, 6 years since the first (intervals 2, 3, 1: unequal).');
+  // A column chosen twice is named.
+  await waves.getByLabel('Column of Sediment phosphorus in wave 2').selectOption('fish_2016');
+  await mapper.getByRole('button', { name: 'Import' }).click();
+  await expect(page.getByRole('alert')).toHaveText('Column “fish_2016” is chosen twice (Wave 2 fish and Wave 2 sediment); each cell of the file belongs to one wave and one variable.');
+  await waves.getByLabel('Column of Sediment phosphorus in wave 2').selectOption('sediment_2016');
+  await waves.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-waves-1440.png') });
+
+  await mapper.getByRole('button', { name: 'Import' }).click();
+  await expect(page.getByTestId('import-counts')).toContainText('40 persons');
+  await expect(page.getByTestId('import-counts')).toContainText('160 occasions kept');
+  // The VAR's interval is the median of the waves' intervals, 2 years = 730.5 days (a Julian year of 365.25 days, common practice), shown to 3 digits.
+  await page.getByRole('button', { name: 'Fit the VAR' }).click();
+  await expect(page.getByTestId('var-result')).toContainText('every 731 day', { timeout: 30_000 });
+  expect(await axeViolations(page)).toEqual([]);
+
+  // A bad cell of a wide file is named by row and column, the rest imported.
+  const bad = (await (await page.request.get('/demo/lake-survey-waves.csv')).text()).split('\n');
+  bad[3] = bad[3].replace(/^([^,]*),([^,]*),([^,]*),([^,]*)/, '$1,$2,$3,lots'); // row 4 (header = row 1), column fish_2016
+  await page.getByLabel('Open a CSV or TSV file').setInputFiles({ name: 'lake-edited.csv', mimeType: 'text/csv', buffer: Buffer.from(bad.join('\n')) });
+  await expect(mapper).toContainText('Columns of lake-edited.csv', { timeout: 30_000 });
+  await waves.getByRole('button', { name: /Times from the years/ }).click();
+  await mapper.getByRole('button', { name: 'Import' }).click();
+  await expect(page.getByTestId('import-summary')).toContainText('lake-edited.csv');
+  await page.getByTestId('import-summary').getByText(/Every issue by row and column/).click();
+  await expect(page.getByTestId('import-summary')).toContainText('row 4, column fish_2016: "lots" is not a number: set missing');
+  expect(errors).toEqual([]);
+});

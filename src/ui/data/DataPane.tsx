@@ -20,10 +20,11 @@ import { DataCoint } from './DataCoint';
 import './data.css';
 
 export const DEMO_FILE = 'sleep-stress-diary.csv';
-/** Further demo files (invented): weekly stock and orders of three warehouses. */
+/** Further demo files (invented): weekly stock and orders of three warehouses; a wide survey of 40 lakes in four waves unequal years apart. */
 export const DEMO_FILES: { file: string; button: string; what: string }[] = [
   { file: DEMO_FILE, button: 'Demo diary', what: 'The demo diary' },
   { file: 'warehouse-weeks.csv', button: 'Demo warehouse weeks', what: 'The demo warehouse weeks' },
+  { file: 'lake-survey-waves.csv', button: 'Demo lake survey', what: 'The demo lake survey' },
 ];
 
 export default function DataPane() {
@@ -50,12 +51,15 @@ function DataOf({ model }: { model: Model }) {
   const [header, setHeader] = useState<HeaderAnswer | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping | null>(null);
   const [error, setError] = useState<string | null>(null);
+  /** What keeps the mapping from being imported, shown beside the Import button until the mapping changes. */
+  const [mapError, setMapError] = useState<string | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
 
   useEffect(() => { void restoreDataset(); }, []);
 
   const read = async (src: Source, keepMapping?: ColumnMapping) => {
     setError(null);
+    setMapError(null);
     setBusy('Reading the header…');
     const c = await appDataClient();
     const h = await c.header(src.text, model.variables, model.timeUnit, src.delimiter);
@@ -92,7 +96,8 @@ function DataOf({ model }: { model: Model }) {
   const runImport = async () => {
     if (!source || !mapping) return;
     const problem = mappingProblem(mapping);
-    if (problem) { setError(problem); return; }
+    if (problem) { setMapError(problem); return; }
+    setMapError(null);
     setError(null);
     setBusy('Importing…');
     const c = await appDataClient();
@@ -129,12 +134,12 @@ function DataOf({ model }: { model: Model }) {
         <p className="lf-data-warn">These data were mapped to the model “{dataset.modelName}”; check the mapping against this model and import again.</p>
       )}
       {source && header && mapping && (
-        <ColumnMapper model={model} fileName={source.fileName} header={header} mapping={mapping} onChange={setMapping} onImport={() => void runImport()} busy={busy !== null} />
+        <ColumnMapper model={model} fileName={source.fileName} header={header} mapping={mapping} onChange={(m) => { setMapping(m); setMapError(null); }} problem={mapError} onImport={() => void runImport()} busy={busy !== null} />
       )}
       {dataset && <ImportSummaryView dataset={dataset} />}
       {panel && <DataOverview model={model} panel={panel} />}
       {panel && <DataFits model={model} panel={panel} />}
-      {dataset && header && source?.fileName === dataset.fileName && <DataCoint key={`${dataset.fileName}:${dataset.importedAt}`} model={model} dataset={dataset} fields={header.fields} />}
+      {dataset && header && source?.fileName === dataset.fileName && dataset.mapping.format === 'long' && <DataCoint key={`${dataset.fileName}:${dataset.importedAt}`} model={model} dataset={dataset} fields={header.fields} />}
     </div>
   );
 }
