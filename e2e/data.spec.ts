@@ -15,6 +15,22 @@ async function axeViolations(page: Page): Promise<string[]> {
   return r.violations.map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
 }
 
+/** One person's VAR(1) with a constant by statsmodels OLS, equation by equation, on consecutive occasions both complete. */
+const PERSON_OLS = `
+import csv, json, sys
+import numpy as np
+import statsmodels.api as sm
+rows = [r for r in csv.DictReader(open(sys.argv[1])) if r['participant'] == sys.argv[2]]
+rows.sort(key=lambda r: r['answered'])
+cols = ['stress', 'sleep_debt', 'mood']
+v = [[float(r[c]) if r[c] != '' else None for c in cols] for r in rows]
+pairs = [(v[k - 1], v[k]) for k in range(1, len(v)) if None not in v[k - 1] and None not in v[k]]
+X = sm.add_constant(np.array([p[0] for p in pairs]), has_constant='add')
+Y = np.array([p[1] for p in pairs])
+fits = [sm.OLS(Y[:, i], X).fit() for i in range(3)]
+print(json.dumps({'pairs': len(pairs), 'phi': [list(f.params[1:]) for f in fits], 'se': [list(f.bse[1:]) for f in fits]}))
+`;
+
 /**
  * Words in the Data pane's table cells that the layout broke across lines:
  * a word whose text range has more than one line box. Cells of class
@@ -42,7 +58,7 @@ async function brokenWords(page: Page): Promise<string[]> {
 }
 
 test('Data tab: the demo diary mapped, imported, summarised, kept in the browser; the VAR against the sketch as the command line gives it', async ({ page }, testInfo) => {
-  test.setTimeout(90_000);
+  test.setTimeout(240_000);
   const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'fit', 'src/examples/sleep-stress.json', '--data', 'public/demo/sleep-stress-diary.csv', '--method', 'var', '--json'], { encoding: 'utf8' })) as { comparison: { from: string; to: string; verdict: string }[]; n: { persons: number; pairs: number } };
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
@@ -74,6 +90,25 @@ test('Data tab: the demo diary mapped, imported, summarised, kept in the browser
   await expect(result).toContainText(`${cli.n.persons} persons, ${cli.n.pairs} pairs`);
   for (const c of cli.comparison) await expect(result.locator(`tr[data-link="${c.from}>${c.to}"]`)).toHaveAttribute('data-verdict', c.verdict);
   await expect(page.locator('svg[data-chart="lag-curve"]')).toBeVisible();
+
+  // One person at a time: P02's own VAR(1) with a constant equals statsmodels' OLS (Debian's python3-statsmodels),
+  // equation by equation, on P02's pairs of consecutive occasions with no missing cell.
+  const sm = JSON.parse(execFileSync('/usr/bin/python3', ['-c', PERSON_OLS, 'public/demo/sleep-stress-diary.csv', 'P02'], { encoding: 'utf8' })) as { phi: number[][]; se: number[][]; pairs: number };
+  const person = page.getByTestId('person-var');
+  await person.getByLabel('Person for an N = 1 fit').selectOption('P02');
+  await expect(person.getByTestId('person-var-table')).toHaveAttribute('data-person', 'P02');
+  await expect(person).toContainText(`${sm.pairs} pairs.`);
+  const vars = ['stress', 'sleepDebt', 'mood'];
+  for (let i = 0; i < 3; i++)
+    for (let j = 0; j < 3; j++) {
+      const cells = person.locator(`tr[data-link="${vars[j]}>${vars[i]}"] td`);
+      for (const [k, want, what] of [[0, sm.phi[i][j], 'φ'], [1, sm.se[i][j], 'SE']] as const) {
+        const got = Number(await cells.nth(k).getAttribute('data-value'));
+        expect(Math.abs(got - want), `P02 ${what} ${vars[j]} → ${vars[i]}: app ${got}, statsmodels ${want}`).toBeLessThanOrEqual(1e-8 * Math.max(1, Math.abs(want)));
+      }
+    }
+  await person.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('data-person-1440.png') });
   // The sketch's ordering at the data's interval: every measured state changes from occasion to occasion at about 3 h.
   await expect(page.getByTestId('data-roles').locator('tr[data-state="mood"]')).toContainText('changes from occasion to occasion');
   await page.getByTestId('data-roles').scrollIntoViewIfNeeded();
@@ -133,7 +168,7 @@ async function expectSame(cell: ReturnType<Page['locator']>, want: number, what:
 }
 
 test('Data tab: unit roots and cointegration of the demo warehouse weeks equal loopfold coint --json, person by person', async ({ page }, testInfo) => {
-  test.setTimeout(120_000);
+  test.setTimeout(240_000);
   const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'coint', 'public/demo/warehouse-weeks.csv', '--columns', 'stock,orders', '--person', 'warehouse', '--json'], { encoding: 'utf8' })) as CointJson;
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
@@ -208,7 +243,7 @@ test('Data tab: unit roots and cointegration of the demo warehouse weeks equal l
 });
 
 test('Data tab: a wide lake survey — waves of each variable, typed times unequal years apart, bad input named by field, row and column', async ({ page }, testInfo) => {
-  test.setTimeout(120_000);
+  test.setTimeout(240_000);
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
   await page.goto('/?example=lake');

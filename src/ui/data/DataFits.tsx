@@ -23,6 +23,7 @@ import { elToReact } from '../elReact';
 import { fileStem } from '../figureFiles';
 import { downloadBlob } from '../download';
 import { ExportButtons } from '../numbers/ExportButtons';
+import { PersonVar } from './PersonVar';
 
 const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
 
@@ -151,6 +152,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
           {V.fit.warnings.map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
       )}
+      {V && <PersonVar model={model} fit={V.fit} minPairs={20} />}
       {T && (
         <div data-testid="ct-result">
           <h4>Continuous-time fit ({T.open.n.persons} persons, {T.open.n.occasions} occasions)</h4>
