@@ -291,7 +291,7 @@ test('Data tab: a wide lake survey — waves of each variable, typed times unequ
   await expect(page.getByTestId('import-counts')).toContainText('160 occasions kept');
   // The VAR's interval is the median of the waves' intervals, 2 years = 730.5 days (a Julian year of 365.25 days, common practice), shown to 3 digits.
   await page.getByRole('button', { name: 'Fit the VAR' }).click();
-  await expect(page.getByTestId('var-result')).toContainText('every 731 day', { timeout: 30_000 });
+  await expect(page.getByTestId('var-result')).toContainText('every 731 days', { timeout: 30_000 });
   expect(await axeViolations(page)).toEqual([]);
 
   // A bad cell of a wide file is named by row and column, the rest imported.
