@@ -7,7 +7,8 @@
  * file's columns in file order, exactly as `loopfold coint` does.
  */
 import { useId, useMemo, useState } from 'react';
-import type { Model } from '../../core/model/types';
+import type { Model, VariableId } from '../../core/model/types';
+import type { ColumnMapping } from '../../core/data/import';
 import type { Dataset } from '../../state/dataset';
 import { labelOf, numText } from '../../present/index';
 import { appDataClient } from '../../worker/dataClient';
@@ -83,16 +84,26 @@ function ReportView({ r, who }: { r: CointReport; who: string }) {
   );
 }
 
+/** States the sketch does not let settle: marked not self-regulating. */
+export function driftingStates(model: Model): Set<VariableId> {
+  return new Set(model.variables.filter((v) => v.kind === 'state' && v.selfRegulating === false).map((v) => v.id));
+}
+
+/** The columns tested first: those mapped to states that do not self-regulate, when there are two to six of them (else none: on request). */
+export function defaultCointColumns(model: Model, mapping: ColumnMapping, columns: string[]): string[] {
+  const drifting = driftingStates(model);
+  const picked = columns.filter((c) => { const v = mapping.variables.find((x) => x.column === c)?.variable; return v !== undefined && drifting.has(v); });
+  return picked.length >= 2 ? picked.slice(0, 6) : [];
+}
+
 export function DataCoint({ model, dataset, fields }: { model: Model; dataset: Dataset; fields: string[] }) {
   const id = useId();
   const m = dataset.mapping;
   const roles = [m.person, m.time, m.day, m.prompt].filter((x): x is string => !!x);
   const columns = fields.filter((f) => f !== '' && !roles.includes(f));
   const variableOf = (col: string) => m.variables.find((v) => v.column === col)?.variable;
-  // States the sketch does not let settle: marked not self-regulating.
-  const drifting = useMemo(() => new Set(model.variables.filter((v) => v.kind === 'state' && v.selfRegulating === false).map((v) => v.id)), [model]);
-  const driftingColumns = columns.filter((c) => { const v = variableOf(c); return v !== undefined && drifting.has(v); });
-  const [chosen, setChosen] = useState<string[]>(driftingColumns.length >= 2 ? driftingColumns.slice(0, 6) : []);
+  const drifting = useMemo(() => driftingStates(model), [model]);
+  const [chosen, setChosen] = useState<string[]>(() => defaultCointColumns(model, m, columns));
   const [perPerson, setPerPerson] = useState(true);
   const [trend, setTrend] = useState<'c' | 'ct'>('c');
   const [lagsText, setLagsText] = useState('1');
