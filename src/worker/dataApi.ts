@@ -13,6 +13,8 @@ import { fitVar, type VarFit, type VarOptions } from '../core/fit/var';
 import { ctSpec, ctStartFrom, fitCt, type CtFit } from '../core/fit/ct';
 import { compareDrift, compareLagged, likelihoodRatio, sketchFreePattern, sketchStates, type LinkComparison } from '../core/fit/compare';
 import { dataInterval } from '../core/fit/lagCurve';
+import { readColumns } from '../core/data/columns';
+import { cointegrationReport, pooledCointegration, type CointegrationReport, type EngleGrangerResult } from '../core/fit/coint';
 import Papa from 'papaparse';
 
 export type Failed = { ok: false; reason: string };
@@ -44,6 +46,30 @@ export type CtAnswer =
   | { ok: true; confirmatory: CtFit; open: CtFit; lr: { chi2: number; df: number; p: number }; comparison: LinkComparison[] }
   | Failed;
 
+export interface CointRequest {
+  /** The file's columns to test, 2 to 6; the first is regressed on the others (Engle–Granger). */
+  columns: string[];
+  /** Test each person's rows separately (the column naming the person). */
+  person?: string;
+  missing?: string[];
+  trend?: 'c' | 'ct';
+  lags?: number;
+}
+/** One set of series' tests, without the long residual array. */
+export type CointReport = Omit<CointegrationReport, 'engleGranger'> & { engleGranger: Omit<CointegrationReport['engleGranger'], 'residuals'> & Partial<Pick<EngleGrangerResult, 'residuals'>> };
+export type CointAnswer =
+  | {
+    ok: true;
+    columns: string[];
+    person?: string;
+    /** Without a person column: one report over every row. */
+    all?: CointReport;
+    /** With a person column: the tests per person and their summary. */
+    pooled?: { persons: number; tested: number; skipped: { id: string; reason: string }[]; adf: { series: string; rejected: number; fisherP: number }[]; engleGranger: { rejected: number; fisherP: number }; johansenRank: number[]; trackers: { series: string; persons: number }[] };
+    perPerson?: { id: string; report: CointReport }[];
+  }
+  | (Failed & { problems?: { row: number; column: string; message: string }[]; moreProblems?: number });
+
 export interface DataApi {
   header(text: string, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
   importData(text: string, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
@@ -55,7 +81,15 @@ export interface DataApi {
   importBlob(blob: Blob, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
   fitVar(model: Model, panel: Panel, request: VarRequest, onProgress?: (fraction: number) => void): Promise<VarAnswer>;
   fitCt(model: Model, panel: Panel, request: CtRequest, onProgress?: (fraction: number) => void): Promise<CtAnswer>;
+  /** Unit roots, cointegration and who tracks whom, on the file's columns in file order (as `loopfold coint`). */
+  coint(text: string, request: CointRequest, delimiter?: string): Promise<CointAnswer>;
 }
+
+const lean = (r: CointegrationReport): CointReport => {
+  const { residuals: _r, ...eg } = r.engleGranger;
+  void _r;
+  return { ...r, engleGranger: eg };
+};
 
 const reason = (e: unknown): Failed => ({ ok: false, reason: (e as Error)?.message ?? String(e) });
 
@@ -119,6 +153,30 @@ export const localData: DataApi = {
       const confirmatory = fitCt(panel, { ...base, free, start: ctStartFrom(panel, ctSpec(panel, { ...base, free }), open), onIteration: (k) => onProgress?.(Math.min(0.99, 0.5 + (0.5 * k) / Math.min(maxIterations, 60))) });
       onProgress?.(1);
       return { ok: true, open, confirmatory, lr: likelihoodRatio(confirmatory, open), comparison: compareDrift(model, open) };
+    } catch (e) {
+      return reason(e);
+    }
+  },
+  async coint(text, request, delimiter) {
+    try {
+      const { columns, person } = request;
+      if (columns.length < 2 || columns.length > 6) return { ok: false, reason: `choose 2 to 6 columns to test, not ${columns.length}` };
+      const read = readColumns(text, columns, { ...(person ? { person } : {}), ...(delimiter ? { delimiter } : {}), ...(request.missing?.length ? { missing: request.missing } : {}) });
+      if (read.problems.length) {
+        const more = read.problems.length - Math.min(read.problems.length, 5) + read.moreProblems;
+        const list = read.problems.slice(0, 5).map((p) => `row ${p.row}, column ${p.column}: ${p.message}`).join('; ');
+        return { ok: false, reason: `the tests need complete numeric series; ${list}${more > 0 ? `; and ${more} more` : ''}. Nothing was tested.`, problems: read.problems, moreProblems: read.moreProblems };
+      }
+      const options = { trend: request.trend ?? 'c', lags: request.lags ?? 1 };
+      if (!person) {
+        const g = read.groups[0];
+        if (!g) return { ok: false, reason: 'the file has no data rows' };
+        return { ok: true, columns, all: lean(cointegrationReport(g.series, columns, options)) };
+      }
+      const p = pooledCointegration(read.groups, columns, options);
+      if (p.tested === 0) return { ok: false, reason: `no ${person} could be tested (${p.skipped.slice(0, 3).map((s) => `${s.id}: ${s.reason}`).join('; ')})` };
+      const { perPerson, ...pooled } = p;
+      return { ok: true, columns, person, pooled, perPerson: perPerson.map((x) => ({ id: x.id, report: lean(x.report) })) };
     } catch (e) {
       return reason(e);
     }

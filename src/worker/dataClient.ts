@@ -9,7 +9,7 @@
 import { proxy } from 'comlink';
 import { startWorker } from './guard';
 import { createLane, noWorkerRequested, type CancellableRun, type Transport, type Where } from './lane';
-import type { CtAnswer, DataApi, Failed, HeaderAnswer, ImportAnswer, VarAnswer } from './dataApi';
+import type { CointAnswer, CtAnswer, DataApi, Failed, HeaderAnswer, ImportAnswer, VarAnswer } from './dataApi';
 
 export type FitAnswer<T> = T | { ok: false; reason: string; cancelled: true };
 
@@ -20,6 +20,8 @@ export interface DataClient {
   importBlob(...args: Parameters<DataApi['importBlob']>): Promise<ImportAnswer | null>;
   fitVar(model: Parameters<DataApi['fitVar']>[0], panel: Parameters<DataApi['fitVar']>[1], request: Parameters<DataApi['fitVar']>[2], onProgress?: (fraction: number) => void): CancellableRun<FitAnswer<VarAnswer>>;
   fitCt(model: Parameters<DataApi['fitCt']>[0], panel: Parameters<DataApi['fitCt']>[1], request: Parameters<DataApi['fitCt']>[2], onProgress?: (fraction: number) => void): CancellableRun<FitAnswer<CtAnswer>>;
+  /** Latest wins: null when a newer test was asked for first. */
+  coint(...args: Parameters<DataApi['coint']>): Promise<CointAnswer | null>;
   where(): Where;
   dispose(): void;
 }
@@ -32,8 +34,10 @@ export function createDataClient(worker: (() => Transport<DataApi>) | null, fall
   const header = lane.latest((...a: Parameters<DataApi['header']>) => lane.run((x) => x.header(...a)).then((r) => r.value), { failed });
   const importData = lane.latest((...a: Parameters<DataApi['importData']>) => lane.run((x) => x.importData(...a)).then((r) => r.value), { failed });
   const importBlob = lane.latest((...a: Parameters<DataApi['importBlob']>) => lane.run((x) => x.importBlob(...a)).then((r) => r.value), { failed });
+  const coint = lane.latest((...a: Parameters<DataApi['coint']>) => lane.run((x) => x.coint(...a)).then((r) => r.value), { failed });
   return {
     header: (...a) => header.latest(...a),
+    coint: (...a) => coint.latest(...a),
     importData: (...a) => importData.latest(...a),
     importBlob: (...a) => importBlob.latest(...a),
     fitVar: (model, panel, request, onProgress) => lane.cancellable('var', (x, progress) => x.fitVar(model, panel, request, progress), { onProgress, cancelled, failed }),
@@ -51,6 +55,7 @@ function workerData(): Transport<DataApi> {
     importBlob: (b, m, d) => w.call(() => w.remote.importBlob(b, m, d)),
     fitVar: (m, p, r, on) => w.call(() => w.remote.fitVar(m, p, r, on ? proxy(on) : undefined)),
     fitCt: (m, p, r, on) => w.call(() => w.remote.fitCt(m, p, r, on ? proxy(on) : undefined)),
+    coint: (t, r, d) => w.call(() => w.remote.coint(t, r, d)),
     dispose: w.dispose,
   };
 }

@@ -52,7 +52,7 @@ describe('data client', () => {
   it('reads the header with a first mapping, and imports with refused rows named by row and column (main thread after a failed worker)', async () => {
     const broken = (): DataApi => {
       const no = () => Promise.reject(new Error('the data worker could not start'));
-      return { header: no, importData: no, importBlob: no, fitVar: no, fitCt: no };
+      return { header: no, importData: no, importBlob: no, fitVar: no, fitCt: no, coint: no };
     };
     const c = createDataClient(broken, () => localData);
     const h = await c.header(CSV, sleepStress.variables, 'h');
@@ -157,5 +157,20 @@ describe('data client', () => {
     t.pending[2].resolve({ ok: false, reason: 'newer answer' });
     expect(await older.result).toBeNull();
     expect(await newer.result).toEqual({ ok: false, reason: 'newer answer' });
+  });
+});
+
+describe('data client: unit roots and cointegration', () => {
+  it('names the row and column of a missing cell and tests nothing; tests complete series per person', async () => {
+    const c = createDataClient(null, () => localData);
+    const holed = ['site,level,inflow', 'a,1,2', 'a,,3', 'a,2,x'].join('\n');
+    const bad = await c.coint(holed, { columns: ['level', 'inflow'], person: 'site' });
+    if (!bad || bad.ok) throw new Error('a file with holes was tested');
+    // Rows count the header as row 1 (common practice for spreadsheets).
+    expect(bad.reason).toContain('row 3, column level: missing value');
+    expect(bad.reason).toContain('row 4, column inflow: "x" is not a number');
+    expect(bad.reason).toContain('Nothing was tested');
+    const one = await c.coint(holed, { columns: ['level'] });
+    expect(one && !one.ok && one.reason).toBe('choose 2 to 6 columns to test, not 1');
   });
 });

@@ -11,6 +11,7 @@ import type { ColumnMapping } from '../../core/data/import';
 import { matchVariables } from '../../core/data/importMapping';
 import type { HeaderAnswer } from '../../worker/dataApi';
 import { labelOf } from '../../present/index';
+import { WaveMapper, wavesProblem } from './WaveMapper';
 
 /** What keeps a mapping from being imported, in words naming the field (null: nothing). */
 export function mappingProblem(m: ColumnMapping): string | null {
@@ -24,12 +25,14 @@ export function mappingProblem(m: ColumnMapping): string | null {
       if (other) return `Columns “${other}” and “${v.column}” are both mapped to ${v.variable}; map each variable to one column.`;
       seen.set(v.variable, v.column);
     }
-  } else if (!m.waves || m.waves.length < 2) return 'Wide format needs at least two waves (columns like stress_1, stress_2).';
+  } else return wavesProblem(m);
   return null;
 }
 
-export function ColumnMapper({ model, fileName, header, mapping, onChange, onImport, busy }: {
+export function ColumnMapper({ model, fileName, header, mapping, onChange, onImport, busy, problem }: {
   model: Model; fileName: string; header: HeaderAnswer; mapping: ColumnMapping; onChange: (m: ColumnMapping) => void; onImport: () => void; busy: boolean;
+  /** What keeps the mapping from being imported (shown beside the Import button). */
+  problem?: string | null;
 }) {
   const id = useId();
   const fields = header.fields;
@@ -71,7 +74,7 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
           <select aria-label="Layout" value={mapping.format} onChange={(e) => {
             const format = e.target.value as ColumnMapping['format'];
             if (format === 'long') onChange({ ...mapping, format, variables: mapping.variables.length ? mapping.variables : matchVariables(fields, model.variables, new Set(roles)) });
-            else onChange({ ...mapping, format, waves: mapping.waves ?? header.suggestion.waves ?? [] });
+            else onChange({ ...mapping, format, timeFormat: 'number', waves: mapping.waves ?? header.suggestion.waves ?? [] });
           }}>
             <option value="long">long: one row per person and occasion</option>
             <option value="wide">wide: one row per person, columns per wave</option>
@@ -113,8 +116,8 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
           <tbody>
             {dataColumns.map((col) => (
               <tr key={col}>
-                <th scope="row">{col}</th>
-                <td>{example(col)}</td>
+                <th scope="row" className="lf-data-raw">{col}</th>
+                <td className="lf-data-raw">{example(col)}</td>
                 <td>
                   <select aria-label={`Variable measured by column ${col}`} value={mappedTo(col)} onChange={(e) => setVariable(col, e.target.value)}>
                     <option value="">not used</option>
@@ -126,14 +129,13 @@ export function ColumnMapper({ model, fileName, header, mapping, onChange, onImp
           </tbody>
         </table>
       ) : (
-        <ul className="lf-data-list" aria-label="Waves">
-          {(mapping.waves ?? []).map((w, k) => (
-            <li key={k}>Wave {k + 1}: {'column' in w.time ? `time from column ${w.time.column}` : `time ${w.time.value}`}; {w.cells.map((c) => `${c.column} → ${c.variable}`).join(', ')}</li>
-          ))}
-          {(mapping.waves ?? []).length < 2 && <li>No waves found: wide files name their columns like stress_1, stress_2.</li>}
-        </ul>
+        <>
+          {(mapping.waves ?? []).length < 2 && <p className="lf-data-note">Fewer than two waves were recognised (wide files often name their columns like stress_1, stress_2 or fish_2014): add waves and choose the column of each variable in each wave.</p>}
+          <WaveMapper key={header.fields.join('\u0001')} model={model} fields={fields} mapping={mapping} onChange={onChange} />
+        </>
       )}
       {latent.length > 0 && <p className="lf-data-note">Not measured (latent in the fits): {latent.map((v) => labelOf(model, v.id)).join(', ')}.</p>}
+      {problem && <p className="lf-data-error" role="alert">{problem}</p>}
       <button type="button" className="lf-primary" onClick={onImport} disabled={busy}>Import</button>
     </section>
   );

@@ -14,7 +14,7 @@ import { dataRoles, medianSpan } from '../../core/fit/roles';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
-import { labelOf, numText } from '../../present/index';
+import { labelOf, numText, timeUnitWord } from '../../present/index';
 import { comparisonCsv } from '../../present/comparisonCsv';
 import { appDataClient, type FitAnswer } from '../../worker/dataClient';
 import type { CtAnswer, VarAnswer } from '../../worker/dataApi';
@@ -23,6 +23,7 @@ import { elToReact } from '../elReact';
 import { fileStem } from '../figureFiles';
 import { downloadBlob } from '../download';
 import { ExportButtons } from '../numbers/ExportButtons';
+import { PersonVar } from './PersonVar';
 
 const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
 
@@ -140,7 +141,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
       {ctAnswer && !ctAnswer.ok && ('cancelled' in ctAnswer ? <p className="lf-data-note" role="status">The continuous-time fit was stopped.</p> : <p className="lf-data-error" role="alert">Continuous-time fit: {ctAnswer.reason}</p>)}
       {V && (
         <div data-testid="var-result">
-          <h4>VAR(1) within persons, every {n3(V.interval)} {u} (median interval{sameDay ? ' within days' : ''})</h4>
+          <h4>VAR(1) within persons, every {n3(V.interval)} {timeUnitWord(u, Number(V.interval.toPrecision(3)))} (median interval{sameDay ? ' within days' : ''})</h4>
           <p className="lf-data-note">
             {V.fit.n.persons} persons, {V.fit.n.pairs} pairs of occasions; person means taken out (people differ in their usual levels). Intervals: cluster-robust across persons.
             {V.fit.excluded.length > 0 && ` Pairs left out: ${V.fit.excluded.map((e) => `${e.pairs} ${e.reason}`).join('; ')}.`}
@@ -151,6 +152,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
           {V.fit.warnings.map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
       )}
+      {V && <PersonVar model={model} fit={V.fit} minPairs={20} />}
       {T && (
         <div data-testid="ct-result">
           <h4>Continuous-time fit ({T.open.n.persons} persons, {T.open.n.occasions} occasions)</h4>

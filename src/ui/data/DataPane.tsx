@@ -16,9 +16,16 @@ import { ColumnMapper, mappingProblem } from './ColumnMapper';
 import { ImportSummaryView } from './ImportSummary';
 import { DataOverview } from './DataOverview';
 import { DataFits } from './DataFits';
+import { DataCoint } from './DataCoint';
 import './data.css';
 
 export const DEMO_FILE = 'sleep-stress-diary.csv';
+/** Further demo files (invented): weekly stock and orders of three warehouses; a wide survey of 40 lakes in four waves unequal years apart. */
+export const DEMO_FILES: { file: string; button: string; what: string }[] = [
+  { file: DEMO_FILE, button: 'Demo diary', what: 'The demo diary' },
+  { file: 'warehouse-weeks.csv', button: 'Demo warehouse weeks', what: 'The demo warehouse weeks' },
+  { file: 'lake-survey-waves.csv', button: 'Demo lake survey', what: 'The demo lake survey' },
+];
 
 export default function DataPane() {
   const model = useValidatedModel();
@@ -44,12 +51,15 @@ function DataOf({ model }: { model: Model }) {
   const [header, setHeader] = useState<HeaderAnswer | null>(null);
   const [mapping, setMapping] = useState<ColumnMapping | null>(null);
   const [error, setError] = useState<string | null>(null);
+  /** What keeps the mapping from being imported, shown beside the Import button until the mapping changes. */
+  const [mapError, setMapError] = useState<string | null>(null);
   const [busy, setBusy] = useState<string | null>(null);
 
   useEffect(() => { void restoreDataset(); }, []);
 
   const read = async (src: Source, keepMapping?: ColumnMapping) => {
     setError(null);
+    setMapError(null);
     setBusy('Reading the header…');
     const c = await appDataClient();
     const h = await c.header(src.text, model.variables, model.timeUnit, src.delimiter);
@@ -73,20 +83,21 @@ function DataOf({ model }: { model: Model }) {
       setError(`${file.name} could not be read: ${(e as Error).message ?? String(e)}`);
     }
   };
-  const openDemo = async () => {
+  const openDemo = async (demo: (typeof DEMO_FILES)[number]) => {
     setError(null);
     try {
-      const r = await fetch(`${import.meta.env.BASE_URL}demo/${DEMO_FILE}`);
+      const r = await fetch(`${import.meta.env.BASE_URL}demo/${demo.file}`);
       if (!r.ok) throw new Error(`the server answered ${r.status}`);
-      await read({ fileName: DEMO_FILE, text: await r.text() });
+      await read({ fileName: demo.file, text: await r.text() });
     } catch (e) {
-      setError(`The demo diary could not be loaded: ${(e as Error).message ?? String(e)}`);
+      setError(`${demo.what} could not be loaded: ${(e as Error).message ?? String(e)}`);
     }
   };
   const runImport = async () => {
     if (!source || !mapping) return;
     const problem = mappingProblem(mapping);
-    if (problem) { setError(problem); return; }
+    if (problem) { setMapError(problem); return; }
+    setMapError(null);
     setError(null);
     setBusy('Importing…');
     const c = await appDataClient();
@@ -112,7 +123,7 @@ function DataOf({ model }: { model: Model }) {
       {model.caution && <p className="lf-data-note">{model.caution}</p>}
       <div className="lf-data-row">
         <label className="lf-data-file">Open a CSV or TSV file <input type="file" accept=".csv,.tsv,.txt,text/csv,text/tab-separated-values" onChange={(e) => { const f = e.target.files?.[0]; if (f) void openFile(f); e.target.value = ''; }} /></label>
-        <button type="button" onClick={() => void openDemo()}>Demo diary</button>
+        {DEMO_FILES.map((d) => <button key={d.file} type="button" onClick={() => void openDemo(d)}>{d.button}</button>)}
         {dataset && <button type="button" onClick={() => void forget()}>Remove the data from this browser</button>}
       </div>
       {!restored && <p className="lf-data-note">Looking for data kept in this browser…</p>}
@@ -123,11 +134,12 @@ function DataOf({ model }: { model: Model }) {
         <p className="lf-data-warn">These data were mapped to the model “{dataset.modelName}”; check the mapping against this model and import again.</p>
       )}
       {source && header && mapping && (
-        <ColumnMapper model={model} fileName={source.fileName} header={header} mapping={mapping} onChange={setMapping} onImport={() => void runImport()} busy={busy !== null} />
+        <ColumnMapper model={model} fileName={source.fileName} header={header} mapping={mapping} onChange={(m) => { setMapping(m); setMapError(null); }} problem={mapError} onImport={() => void runImport()} busy={busy !== null} />
       )}
       {dataset && <ImportSummaryView dataset={dataset} />}
       {panel && <DataOverview model={model} panel={panel} />}
       {panel && <DataFits model={model} panel={panel} />}
+      {dataset && header && source?.fileName === dataset.fileName && dataset.mapping.format === 'long' && <DataCoint key={`${dataset.fileName}:${dataset.importedAt}`} model={model} dataset={dataset} fields={header.fields} />}
     </div>
   );
 }

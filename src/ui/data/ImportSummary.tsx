@@ -25,9 +25,9 @@ export function ImportSummaryView({ dataset }: { dataset: Dataset }) {
               <tr key={k}>
                 <td>{r.action}</td>
                 <td>{r.reason}</td>
-                <td>{r.column ?? '—'}</td>
+                <td className="lf-data-raw">{r.column ?? '—'}</td>
                 <td>{r.count}</td>
-                <td>{r.rows.join(', ')}{r.count > r.rows.length ? ', …' : ''}</td>
+                <td className="lf-data-raw">{r.rows.join(', ')}{r.count > r.rows.length ? ', …' : ''}</td>
               </tr>
             ))}
           </tbody>
