@@ -163,6 +163,20 @@ export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurv
   return figure('rank-curve', label, W, H, body, opts);
 }
 
+/**
+ * The caption of the rank curve, the same in the app and for `loopfold rank --caption`: the variables
+ * analysed, the range of intervals drawn, what the two marks are, and that it is model-based.
+ */
+export function rankCurveCaption(model: Model, pictures: Pick<Pictures, 'rankCurve' | 'rankNow' | 'rankLong'>): string {
+  const u = model.timeUnit;
+  const c = pictures.rankCurve;
+  const names = pictures.rankNow.variables.map((id) => nameOf(model, id)).join(', ');
+  const marks = pictures.rankLong.interval !== pictures.rankNow.interval
+    ? `solid mark: the study's interval (${formatDuration(pictures.rankNow.interval, u)}); dashed: the long interval (${formatDuration(pictures.rankLong.interval, u)})`
+    : `mark: the study's interval (${formatDuration(pictures.rankNow.interval, u)})`;
+  return `Model-based, not a finding: how close the lagged matrix of ${names} comes to rank one at intervals from ${formatDuration(c[0].interval, u)} to ${formatDuration(c[c.length - 1].interval, u)}; ${marks}.`;
+}
+
 /** The within-person lagged network at the study's interval (standardized), through charts.ts's network drawing. */
 export function withinNetworkFigure(model: Model, within: Pictures['within'], opts: FigureOptions = {}): El | null {
   if (!within.lagged) return null;
