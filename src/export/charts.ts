@@ -23,6 +23,11 @@ export interface FigureOptions {
   heading?: boolean;
   /** A caption under the figure, worded by the caller (the interval and the study length). */
   caption?: string;
+  /**
+   * The print width (pt) and base font size (pt) the figure is made for: a builder that can narrow its
+   * drawing draws it so that its text is the base size and never under 7 pt at that width (the rank curve).
+   */
+  fitTo?: { widthPt: number; fontPt?: number };
 }
 
 const PAD = 10;

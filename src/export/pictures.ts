@@ -15,6 +15,8 @@ import { logScale, logTicks, linear, tickText } from './axes';
 import { networkDiagram, type FigureOptions } from './charts';
 import { nameOf, weightText } from './format';
 import { wrapText, type Attr, type El } from './scene';
+import { targetScale } from './print/figure';
+import { DEFAULT_FONT_PT } from './print/options';
 
 const PAD = 10;
 const r1 = (x: number) => Math.round(x * 10) / 10;
@@ -136,7 +138,9 @@ export function laggedMatrixFigure(model: Model, rank: LaggedRank, opts: FigureO
  */
 export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurve' | 'rankNow' | 'rankLong'>, opts: FigureOptions = {}): El {
   const label = 'Singular value ratios of the lagged matrix over the interval';
-  const W = 410, H = 190, L = 44, R = 12, T = 12, B = 34;
+  // for print: as wide as keeps its text (9.5 units) at the base size and at least 7 pt; never wider than on screen
+  const W = opts.fitTo ? Math.round(Math.max(240, Math.min(410, opts.fitTo.widthPt / targetScale(opts.fitTo.fontPt ?? DEFAULT_FONT_PT, 9.5, 9.5)))) : 410;
+  const H = 190, L = 44, R = 12, T = 12, B = 34;
   const xs = pictures.rankCurve.map((c) => c.interval);
   const x = logScale(xs[0], xs[xs.length - 1], L, W - R);
   const y = linear(0, 1, H - B, T);
@@ -151,8 +155,9 @@ export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurv
   series.forEach((s, k) => {
     const d = pictures.rankCurve.map((c, i) => `${i ? 'L' : 'M'}${r1(x(c.interval))},${r1(y(Math.min(1, c[s.key])))}`).join(' ');
     body.push(el('path', { d, fill: 'none', stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined, 'data-series': s.key }));
-    body.push(el('line', { x1: W - R - 150, x2: W - R - 124, y1: T + 12 + k * 14, y2: T + 12 + k * 14, stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined }));
-    body.push(text({ x: W - R - 120, y: T + 15 + k * 14, 'font-size': 9.5 }, s.name));
+    // the key below the axis (inside the plot it would cover the curves, which start at the top left)
+    body.push(el('line', { x1: L, x2: L + 26, y1: H + 6 + k * 14, y2: H + 6 + k * 14, stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined }));
+    body.push(text({ x: L + 30, y: H + 9 + k * 14, 'font-size': 9.5 }, s.name));
   });
   const mark = (at: number, heavy: boolean, what: string) => {
     if (at < xs[0] || at > xs[xs.length - 1]) return;
@@ -160,7 +165,7 @@ export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurv
   };
   mark(pictures.rankNow.interval, true, 'the study\'s interval');
   if (pictures.rankLong.interval !== pictures.rankNow.interval) mark(pictures.rankLong.interval, false, 'long interval');
-  return figure('rank-curve', label, W, H, body, opts);
+  return figure('rank-curve', label, W, H + 30, body, opts);
 }
 
 /**

@@ -98,7 +98,11 @@ describe("the export dialog's files equal the command line's", () => {
       cli: ['rank', '--interval', '2.4', '--observed', observed.join(','), '--caption'],
     };
     const opts = { width: width('column'), palette: 'greyscale' as const, background: 'paper' as const, fontSize: 8 };
-    const app = printedSvg((await printedFigure(source, opts, elk))!);
+    const fig = (await printedFigure(source, opts, elk))!;
+    // drawn narrower for the column, so its text stays at 7 pt or more (8 pt asked: the ticks at 8 pt)
+    expect(fig.smallestPt).toBeGreaterThanOrEqual(7);
+    expect(fig.notes).toEqual([]);
+    const app = printedSvg(fig);
     const file = await cli(['rank', SLEEP, '--interval', '2.4h', '--observed', 'mood,stress,sleepDebt,cortisol', '--caption', '--width', 'column', '--palette', 'greyscale', '--background', 'paper', '--font-size', '8', '--out', 'cli.svg']);
     expect(app).toBe(file);
     expect(app).toMatch(/<svg[^>]* width="85mm"/);
