@@ -12,11 +12,9 @@ import { formatDuration } from '../core/model/units';
 import type { LaggedRank, LevelPicture, Pictures } from '../core/pictures/index';
 import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { logScale, logTicks, linear, tickText } from './axes';
-import { networkDiagram, type FigureOptions } from './charts';
+import { fittedWidth, networkDiagram, type FigureOptions } from './charts';
 import { nameOf, weightText } from './format';
 import { wrapText, type Attr, type El } from './scene';
-import { targetScale } from './print/figure';
-import { DEFAULT_FONT_PT } from './print/options';
 
 const PAD = 10;
 const r1 = (x: number) => Math.round(x * 10) / 10;
@@ -139,7 +137,7 @@ export function laggedMatrixFigure(model: Model, rank: LaggedRank, opts: FigureO
 export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurve' | 'rankNow' | 'rankLong'>, opts: FigureOptions = {}): El {
   const label = 'Singular value ratios of the lagged matrix over the interval';
   // for print: as wide as keeps its text (9.5 units) at the base size and at least 7 pt; never wider than on screen
-  const W = opts.fitTo ? Math.round(Math.max(240, Math.min(410, opts.fitTo.widthPt / targetScale(opts.fitTo.fontPt ?? DEFAULT_FONT_PT, 9.5, 9.5)))) : 410;
+  const W = fittedWidth(opts, 410, 9.5, 9.5, 240);
   const H = 190, L = 44, R = 12, T = 12, B = 34;
   const xs = pictures.rankCurve.map((c) => c.interval);
   const x = logScale(xs[0], xs[xs.length - 1], L, W - R);

@@ -7,9 +7,8 @@ import { formatDuration } from '../../core/model/units';
 import { LEVELS, laggedRank, orderingProbabilities, picturesAt, type Level, type OrderingProbabilities } from '../../core/pictures/index';
 import type { StudyDesign } from '../../core/ordering/types';
 import { rankCurveCaption, rankCurveFigure } from '../../export/pictures';
-import { svgTarget, tableWanted, writeSvg } from '../figure';
-import { PRINT_OPTIONS, printOptionsOf } from '../output/write';
-import { widthPt } from '../../export/print/options';
+import { fitToOf, svgTarget, tableWanted, writeSvg } from '../figure';
+import { PRINT_OPTIONS } from '../output/write';
 import { durationOption, loadModel } from '../load';
 import { studyInterval } from '../../core/study/convert';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -176,9 +175,7 @@ export const pictureCommands: CliCommand[] = [
         // the rank curve of the app's Pictures pane: the same builder, caption and print path
         const text = args.options['caption-text'];
         const caption = typeof text === 'string' ? text : args.options.caption === true ? rankCurveCaption(model, r.pictures) : undefined;
-        const print = printOptionsOf(args);
-        const fit = print.width ? { fitTo: { widthPt: widthPt(print.width), ...(print.fontSize !== undefined ? { fontPt: print.fontSize } : {}) } } : {};
-        await writeSvg(target, rankCurveFigure(model, r.pictures, { heading: args.options['no-title'] !== true, ...(caption !== undefined ? { caption } : {}), ...fit }), io, args);
+        await writeSvg(target, rankCurveFigure(model, r.pictures, { heading: args.options['no-title'] !== true, ...(caption !== undefined ? { caption } : {}), ...fitToOf(args) }), io, args);
         if (target === '-' || !tableWanted(args)) return 0;
       }
       const L = r.pictures.levels;
