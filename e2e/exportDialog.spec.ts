@@ -94,3 +94,36 @@ test('the export dialog of a Numbers pane chart: a PNG at 150 DPI carries its DP
   expect(pixelsPerMetre(png)).toBe(5906);
   await page.screenshot({ path: testInfo.outputPath('numbers-dialog.png') });
 });
+
+test("the rank curve of the Pictures pane has the same print options; its PDF command line is `rank --out`", async ({ page }, testInfo) => {
+  test.setTimeout(300_000);
+  await page.goto('/?example=sleep-stress');
+  await page.getByRole('tab', { name: 'Pictures' }).click();
+  const button = page.getByRole('button', { name: 'Export the singular value ratios with print options' });
+  await expect(button).toBeVisible({ timeout: 150_000 });
+  for (const size of [{ width: 1440, height: 900 }, { width: 1024, height: 768 }]) {
+    await page.setViewportSize(size);
+    await button.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: testInfo.outputPath(`rank-curve-${size.width}.png`) });
+  }
+  await button.click();
+  const dialog = page.getByRole('dialog', { name: /Export the singular value ratios for print/ });
+  await expect(dialog).toBeVisible();
+  expect(await axeViolations(page)).toEqual([]);
+  await dialog.getByLabel('Width', { exact: true }).selectOption('column');
+  await dialog.getByLabel('Palette').selectOption('greyscale');
+  const [download] = await Promise.all([page.waitForEvent('download'), dialog.getByRole('button', { name: 'Download SVG' }).click()]);
+  const file = testInfo.outputPath('rank-curve-column-grey.svg');
+  await download.saveAs(file);
+  const svg = readFileSync(file, 'utf8');
+  expect(svg).toMatch(/<svg[^>]* width="85mm"/);
+  expect(svg).toContain('data-chart="rank-curve"');
+  expect(colours(svg).filter((c) => !isGrey(c))).toEqual([]);
+  // the caption says what the marks are, in the modeller's labels
+  expect(svg).toContain('Model-based, not a finding: how close');
+  const status = (await dialog.getByRole('status').textContent()) ?? '';
+  expect(Number(/smallest text is ([\d.]+) pt/.exec(status)![1])).toBeGreaterThanOrEqual(7);
+  await dialog.getByRole('radio', { name: 'PDF' }).check();
+  await expect(dialog.getByLabel('Command line for the PDF')).toHaveValue(/^npm run -s loopfold -- rank \S+\.json --interval \S+ --observed \S+ --caption --width column --palette greyscale --out \S+-rank-curve\.pdf$/);
+  await page.screenshot({ path: testInfo.outputPath('rank-curve-dialog.png') });
+});

@@ -11,6 +11,7 @@ import type { FigureOptions } from '../export/charts';
 import { printChart } from '../export/print/figure';
 import type { El } from '../export/scene';
 import { outTarget, printOptionsOf, PRINT_OPTIONS, writeFigure } from './output/write';
+import { widthPt } from '../export/print/options';
 import { CliError, type CliArgs, type CliIO } from './commands/types';
 
 /** The options every chart-drawing command takes. */
@@ -24,12 +25,19 @@ export function svgTarget(args: CliArgs, figureOnly: string[]): string | undefin
 /** Title (unless --no-title); the caption: --caption-text, or with --caption the interval and study length. */
 export function figureOptionsOf(args: CliArgs, model: Model, study: StudyAt): FigureOptions {
   const heading = args.options['no-title'] !== true;
+  const fit = fitToOf(args);
   const text = args.options['caption-text'];
-  if (typeof text === 'string') return { heading, caption: text };
-  if (args.options.caption !== true) return { heading };
+  if (typeof text === 'string') return { heading, caption: text, ...fit };
+  if (args.options.caption !== true) return { heading, ...fit };
   const caption = studyCaption(model, study);
   if (caption === undefined) throw new CliError('--caption states the sampling interval and the study length: give --interval too', 2);
-  return { heading, caption };
+  return { heading, caption, ...fit };
+}
+
+/** The print width and font size a chart may narrow its drawing to (`FigureOptions.fitTo`; the app's dialog passes the same). */
+export function fitToOf(args: CliArgs): Pick<FigureOptions, 'fitTo'> {
+  const o = printOptionsOf(args);
+  return o.width ? { fitTo: { widthPt: widthPt(o.width), ...(o.fontSize !== undefined ? { fontPt: o.fontSize } : {}) } } : {};
 }
 
 /** Did the command line ask for the table too (it goes to stdout only on request when a figure is written)? */

@@ -17,15 +17,31 @@ import { studyLength, type StudyAt } from './caption';
 import { placeNetwork, WEIGHT_FONT } from '../layout/network';
 import { labelOf, numText, unitOf, weightText } from '../present/index';
 import { wrapText, type Attr, type El } from './scene';
+import { targetScale } from './print/figure';
+import { DEFAULT_FONT_PT } from './print/options';
 
 export interface FigureOptions {
   /** Draw the figure's name as a heading line above it (files; the pane has headings of its own). */
   heading?: boolean;
   /** A caption under the figure, worded by the caller (the interval and the study length). */
   caption?: string;
+  /**
+   * The print width (pt) and base font size (pt) the figure is made for: a builder that can narrow its
+   * drawing draws it so that its text is the base size and never under 7 pt at that width (the rank curve).
+   */
+  fitTo?: { widthPt: number; fontPt?: number };
 }
 
 const PAD = 10;
+
+/**
+ * The width a chart is drawn at: its screen width, or for print (`opts.fitTo`) the width at which its main
+ * text (`main` units) is the base font size and its smallest (`min` units) at least 7 pt, not under `least`.
+ */
+export function fittedWidth(opts: FigureOptions, screen: number, main: number, min: number, least: number): number {
+  if (!opts.fitTo) return screen;
+  return Math.round(Math.max(least, Math.min(screen, opts.fitTo.widthPt / targetScale(opts.fitTo.fontPt ?? DEFAULT_FONT_PT, main, min))));
+}
 /** Drawing helpers the chart modules share: coordinates to a tenth, elements, tick labels, axis lines. */
 export const r1 = (x: number) => Math.round(x * 10) / 10;
 export const el = (tag: string, attrs: Record<string, Attr>, children?: (El | string)[]): El => ({ tag, attrs, ...(children ? { children } : {}) });
@@ -68,7 +84,7 @@ export interface TimeChartInput {
   timeUnit: string;
 }
 
-const TW = 360, PH = 92, TL = 50, TR = 10, GAP = 22, AXIS = 34, KEY = 16;
+const TW_SCREEN = 360, PH = 92, TL = 50, TR = 10, GAP = 22, AXIS = 34, KEY = 16;
 
 export function timeChartLabel(series: readonly { name: string }[]): string {
   return `Simulated ${series.map((s) => s.name).join(', ')} over time`;
@@ -82,6 +98,8 @@ export function timeChartLabel(series: readonly { name: string }[]): string {
  */
 export function timeSeriesChart(input: TimeChartInput, opts: FigureOptions = {}): El {
   const { times, series, samples, timeUnit } = input;
+  // for print: narrower, so its ticks (10 units) stay at 7 pt or more at the width
+  const TW = fittedWidth(opts, TW_SCREEN, 10.5, 10, 260);
   const t1 = times[times.length - 1] ?? 1;
   const x = linear(0, t1, TL, TW - TR);
   const xt = niceTicks(0, t1, 5);
@@ -322,7 +340,7 @@ export interface LinkCurveInput {
   current: number | undefined;
 }
 
-const CW = 360, CH = 230, CL = 52, CR = 10, CT = 14, CB = 40;
+const CW_SCREEN = 360, CH = 230, CL = 52, CR = 10, CT = 14, CB = 40;
 
 export function linkCurveLabel(model: Model, curve: { from: VariableId; to: VariableId }): string {
   return `Lagged effect of ${labelOf(model, curve.from)} on ${labelOf(model, curve.to)} against the sampling interval`;
@@ -335,6 +353,9 @@ export function linkCurveLabel(model: Model, curve: { from: VariableId; to: Vari
  */
 export function linkCurveChart(input: LinkCurveInput, opts: FigureOptions = {}): El {
   const { model, curve, breakpoints, current } = input;
+  const CW = fittedWidth(opts, CW_SCREEN, 10.5, 10, 260);
+  // the key's two items on one row when there is room for both, else one under the other
+  const keyRows = CW - CL < 250;
   const d0 = curve.intervals[0], d1 = curve.intervals[curve.intervals.length - 1];
   const x = logScale(d0, d1, CL, CW - CR);
   const [y0, y1] = extent([...curve.effect, 0]);
@@ -366,12 +387,13 @@ export function linkCurveChart(input: LinkCurveInput, opts: FigureOptions = {}):
   const legend: El[] = [
     hline(0, 16, 6, breakpointLine),
     tick(20, 10, 'the causal ordering changes', 'start'),
-    hline(170, 186, 6, currentLine),
-    tick(190, 10, 'current Δ', 'start'),
+    hline(keyRows ? 0 : 170, keyRows ? 16 : 186, keyRows ? 22 : 6, currentLine),
+    tick(keyRows ? 20 : 190, keyRows ? 26 : 10, 'current Δ', 'start'),
   ];
-  if (peak) legend.push(el('path', { d: diamond(8, 22), ...peakFill }), tick(20, 26, `strongest: ${numText(Number(peak.effect.toPrecision(3)))} at Δ = ${formatDuration(peak.interval, u)}`, 'start'));
+  const peakRow = keyRows ? 16 : 0;
+  if (peak) legend.push(el('path', { d: diamond(8, 22 + peakRow), ...peakFill }), tick(20, 26 + peakRow, `strongest: ${numText(Number(peak.effect.toPrecision(3)))} at Δ = ${formatDuration(peak.interval, u)}`, 'start'));
   body.push(el('g', { transform: `translate(${CL},${CH + 6})`, 'data-part': 'legend' }, legend));
-  return figure('link-curve', linkCurveLabel(model, curve), CW, CH + 42, body, opts);
+  return figure('link-curve', linkCurveLabel(model, curve), CW, CH + 42 + (keyRows ? 16 : 0), body, opts);
 }
 
 // ——— one variable in two runs (without and with an intervention) ———

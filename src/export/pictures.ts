@@ -12,7 +12,7 @@ import { formatDuration } from '../core/model/units';
 import type { LaggedRank, LevelPicture, Pictures } from '../core/pictures/index';
 import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { logScale, logTicks, linear, tickText } from './axes';
-import { networkDiagram, type FigureOptions } from './charts';
+import { fittedWidth, networkDiagram, type FigureOptions } from './charts';
 import { nameOf, weightText } from './format';
 import { wrapText, type Attr, type El } from './scene';
 
@@ -136,7 +136,9 @@ export function laggedMatrixFigure(model: Model, rank: LaggedRank, opts: FigureO
  */
 export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurve' | 'rankNow' | 'rankLong'>, opts: FigureOptions = {}): El {
   const label = 'Singular value ratios of the lagged matrix over the interval';
-  const W = 410, H = 190, L = 44, R = 12, T = 12, B = 34;
+  // for print: as wide as keeps its text (9.5 units) at the base size and at least 7 pt; never wider than on screen
+  const W = fittedWidth(opts, 410, 9.5, 9.5, 240);
+  const H = 190, L = 44, R = 12, T = 12, B = 34;
   const xs = pictures.rankCurve.map((c) => c.interval);
   const x = logScale(xs[0], xs[xs.length - 1], L, W - R);
   const y = linear(0, 1, H - B, T);
@@ -151,8 +153,9 @@ export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurv
   series.forEach((s, k) => {
     const d = pictures.rankCurve.map((c, i) => `${i ? 'L' : 'M'}${r1(x(c.interval))},${r1(y(Math.min(1, c[s.key])))}`).join(' ');
     body.push(el('path', { d, fill: 'none', stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined, 'data-series': s.key }));
-    body.push(el('line', { x1: W - R - 150, x2: W - R - 124, y1: T + 12 + k * 14, y2: T + 12 + k * 14, stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined }));
-    body.push(text({ x: W - R - 120, y: T + 15 + k * 14, 'font-size': 9.5 }, s.name));
+    // the key below the axis (inside the plot it would cover the curves, which start at the top left)
+    body.push(el('line', { x1: L, x2: L + 26, y1: H + 6 + k * 14, y2: H + 6 + k * 14, stroke: C.line, 'stroke-width': 1.6, 'stroke-dasharray': SERIES_DASHES[k] || undefined }));
+    body.push(text({ x: L + 30, y: H + 9 + k * 14, 'font-size': 9.5 }, s.name));
   });
   const mark = (at: number, heavy: boolean, what: string) => {
     if (at < xs[0] || at > xs[xs.length - 1]) return;
@@ -160,7 +163,21 @@ export function rankCurveFigure(model: Model, pictures: Pick<Pictures, 'rankCurv
   };
   mark(pictures.rankNow.interval, true, 'the study\'s interval');
   if (pictures.rankLong.interval !== pictures.rankNow.interval) mark(pictures.rankLong.interval, false, 'long interval');
-  return figure('rank-curve', label, W, H, body, opts);
+  return figure('rank-curve', label, W, H + 30, body, opts);
+}
+
+/**
+ * The caption of the rank curve, the same in the app and for `loopfold rank --caption`: the variables
+ * analysed, the range of intervals drawn, what the two marks are, and that it is model-based.
+ */
+export function rankCurveCaption(model: Model, pictures: Pick<Pictures, 'rankCurve' | 'rankNow' | 'rankLong'>): string {
+  const u = model.timeUnit;
+  const c = pictures.rankCurve;
+  const names = pictures.rankNow.variables.map((id) => nameOf(model, id)).join(', ');
+  const marks = pictures.rankLong.interval !== pictures.rankNow.interval
+    ? `solid mark: the study's interval (${formatDuration(pictures.rankNow.interval, u)}); dashed: the long interval (${formatDuration(pictures.rankLong.interval, u)})`
+    : `mark: the study's interval (${formatDuration(pictures.rankNow.interval, u)})`;
+  return `Model-based, not a finding: how close the lagged matrix of ${names} comes to rank one at intervals from ${formatDuration(c[0].interval, u)} to ${formatDuration(c[c.length - 1].interval, u)}; ${marks}.`;
 }
 
 /** The within-person lagged network at the study's interval (standardized), through charts.ts's network drawing. */

@@ -17,7 +17,8 @@ export interface El {
   children?: (El | string)[];
   /**
    * Not written to files: for a part of the figure, the box [x0, y0, x1, y1] it is drawn in (in the
-   * figure's coordinates); for the figure itself, where its coordinates start ([x, y], the first two).
+   * figure's coordinates); for the figure itself, where its coordinates start and where it ends
+   * ([x, y, x1, y1] in the svg's coordinates: the layout and every line and sign drawn, arcs included).
    * The app draws only the parts near what is in view of a big figure.
    */
   box?: readonly number[];
@@ -234,10 +235,10 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
  * Every edge's line and sign, placed together: a link into or out of an unfolded block is drawn to or
  * from the block's border (one line for several members driven by one source: the block's equations are
  * solved together); two links between one pair run apart; each sign goes to the first spot near its head
- * that covers no node, block header, other sign or other line (`placeMark`). `reach.top`: the highest
- * point a line or sign reaches (arcs over a row rise above the laid-out box), drawn or not.
+ * that covers no node, block header, other sign or other line (`placeMark`). `reach`: how far the lines
+ * and signs reach (arcs over or under a row leave the laid-out box), drawn or not.
  */
-function edgeParts(vm: ViewModel, layout: Layout, reach: { top: number }): Part[] {
+function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
   const groupOf = new Map<string, string>();
   for (const g of vm.groups) if (layout.groups[g.id]) for (const m of g.members) groupOf.set(m, g.id);
   /** The box an end is drawn at: the node, or its block when the other end lies outside that block. */
@@ -314,11 +315,17 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: { top: number }): Part[
     // no free spot at all: beside the line near its head all the same (a sign is never dropped)
     const mark = sign ? placeMark(space, l.line.ps, l.key, SIGN_BOX.width, SIGN_BOX.height, { from: 12, offset: 3 }) ?? besideHead(l.line.ps) : null;
     reach.top = Math.min(reach.top, ...l.line.ps.map((p) => p.y), mark ? mark.y - 8 : Infinity);
+    reach.bottom = Math.max(reach.bottom, ...l.line.ps.map((p) => p.y), mark ? mark.y + 8 : -Infinity);
+    reach.left = Math.min(reach.left, ...l.line.ps.map((p) => p.x), mark ? mark.x - 8 : Infinity);
+    reach.right = Math.max(reach.right, ...l.line.ps.map((p) => p.x), mark ? mark.x + 8 : -Infinity);
     const box = around([...l.line.ps, ...(l.line.hull ?? []), ...(mark ? [mark] : [])], 24);
     parts.push({ box, make: () => edgeEl(l.e, l.line, sign, mark) });
   });
   return parts;
 }
+
+/** The extent of what the lines and signs draw, in the layout's coordinates. */
+interface Reach { top: number; bottom: number; left: number; right: number }
 
 /** Whether two polylines have a corner (a point but the ends) within 2 px of each other. */
 function sharesCorner(p: readonly Point[], q: readonly Point[]): boolean {
@@ -401,12 +408,12 @@ export const sceneWidth = (layout: Layout): number => Math.ceil(Math.max(layout.
 /** The drawing of a view: a root `<svg>` element tree. */
 export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {}): El {
   const showTitle = opts.title !== false;
-  const width = Math.max(layout.width, opts.width ?? MIN_WIDTH);
-  const titleLines = showTitle ? wrapText(vm.title, width - 48, 9.6) : [];
+  const baseWidth = Math.max(layout.width, opts.width ?? MIN_WIDTH);
+  const titleLines = showTitle ? wrapText(vm.title, baseWidth - 48, 9.6) : [];
   const body: Part[] = [];
   const labels: Part[] = [];
-  // how far links rise above the laid-out box (arcs between instants on one row): room is made for them
-  const reach = { top: 0 };
+  // how far links leave the laid-out box (arcs between instants over or under a row): room is made for them
+  const reach: Reach = { top: 0, bottom: layout.height, left: 0, right: layout.width };
 
   for (const [s, box] of Object.entries(layout.slices ?? {})) {
     body.push({ box: outline(box, 2), make: () => el('g', { 'data-slice-frame': s }, [
@@ -437,16 +444,22 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
   }
   body.push(...labels);
 
+  // room above, below and to the left for lines that leave the laid-out box (4 px for the stroke and its
+  // arrowhead's tip); the figure grows to the right for one that leaves it there
   const rise = reach.top < 0 ? Math.ceil(-reach.top + 4) : 0;
+  const drop = reach.bottom > layout.height ? Math.ceil(reach.bottom - layout.height + 4) : 0;
+  const aside = reach.left < 0 ? Math.ceil(-reach.left + 4) : 0;
+  const width = Math.max(baseWidth, reach.right > layout.width ? aside + Math.ceil(reach.right + 4) : 0, aside ? aside + layout.width : 0);
   const top = (showTitle ? HEADER + (titleLines.length - 1) * 21 : 0) + rise;
   const children: (El | string)[] = [markerDefs(), el('rect', { x: 0, y: 0, width: '100%', height: '100%', fill: PAPER })];
   if (showTitle) children.push(el('text', { x: 24, y: 27, 'font-size': 16, 'font-weight': 700, fill: INK, 'data-part': 'title' }, titleLines.map((t, i) => el('tspan', { x: 24, dy: i ? 21 : 0 }, [t]))));
   // the area in the figure's coordinates (below its title and the arcs' room)
-  const area = opts.area && [opts.area[0], opts.area[1] - top, opts.area[2], opts.area[3] - top];
+  const area = opts.area && [opts.area[0] - aside, opts.area[1] - top, opts.area[2] - aside, opts.area[3] - top];
   const drawn = area ? body.filter(({ box: b }) => b[0] <= area[2] && b[2] >= area[0] && b[1] <= area[3] && b[3] >= area[1]) : body;
   // each part made carries its box (for the app; files never hold it)
-  children.push({ ...el('g', { transform: `translate(0,${top})`, 'data-part': 'figure' }, drawn.map((p) => ({ ...p.make(), box: p.box }))), box: [0, top] });
-  let y = top + layout.height;
+  const figureHeight = layout.height + drop;
+  children.push({ ...el('g', { transform: `translate(${aside},${top})`, 'data-part': 'figure' }, drawn.map((p) => ({ ...p.make(), box: p.box }))), box: [aside, top, aside + Math.max(layout.width, reach.right), top + figureHeight] });
+  let y = top + figureHeight;
   if (opts.legend !== false) {
     const lg = legendEl(vm, y, width);
     children.push(lg.el);

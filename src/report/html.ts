@@ -96,9 +96,22 @@ export function equationWords(model: Model, id: string): string {
   return rel ? `the relation ${rel.equation}` : `the relation ${id}`;
 }
 
-/** Text from the core with equation ids (formula(x), rate(x), hold(x)) put in words. */
+/** Words of the core's sentences that stay as they are even when a variable has that id. */
+const TEMPLATE_WORDS = new Set(['a', 'an', 'and', 'are', 'as', 'at', 'be', 'by', 'for', 'from', 'in', 'is', 'it', 'its', 'no', 'not', 'now', 'of', 'on', 'or', 'the', 'to', 'with',
+  'all', 'both', 'but', 'can', 'cannot', 'each', 'either', 'give', 'gives', 'has', 'have', 'into', 'lag', 'letting', 'more', 'one', 'only', 'own', 'pairs', 'same', 'so', 'than', 'that', 'this', 'through', 'turns', 'two', 'when', 'which',
+  'balance', 'block', 'causal', 'change', 'conflict', 'derived', 'determined', 'determines', 'direction', 'dynamic', 'equation', 'equilibrium', 'formula', 'frozen', 'hold', 'held', 'holding', 'input', 'interval', 'model',
+  'rate', 'relation', 'reverses', 'settle', 'settled', 'settles', 'settling', 'state', 'states', 'structure', 'study', 'time', 'timescale', 'value', 'variable', 'variables']);
+
+/**
+ * Text from the core in the modeller's words: equation ids (formula(x), rate(x), hold(x)) put in words and
+ * variable ids by their labels (one pass: a label put in is not read again; case as written, so "Mood" in a
+ * sentence is not the id "mood"). Example: "settling pipeline determines deliveries" → "settling Goods in
+ * transit determines Deliveries".
+ */
 export function withEquationWords(model: Model, text: string): string {
-  return text.replace(/\b(formula|rate|hold)\(([^()\s]+)\)/g, (_m, k: string, v: string) => equationWords(model, `${k}(${v})`));
+  const labels = new Map(model.variables.filter((v) => v.label && v.label !== v.id && !TEMPLATE_WORDS.has(v.id)).map((v) => [v.id, v.label!]));
+  // phrases of the core's own sentences come first and stay as they are ("both orders give the same structure")
+  return text.replace(/\b(?:both orders|either order)\b|\b(formula|rate|hold)\(([^()\s]+)\)|\b[A-Za-z_][A-Za-z0-9_]*\b/g, (m: string, k: string | undefined, v: string | undefined) => (k ? equationWords(model, `${k}(${v})`) : labels.get(m) ?? m));
 }
 
 function orderingTables(model: Model, o: Ordering): string {

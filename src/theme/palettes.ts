@@ -16,6 +16,7 @@
  *   frozen keeps its dashed outline, held its heavy outline.
  */
 import { BLOCK_STYLE, CHART_STYLE, INK, LINK_STYLE, MUTED, PAPER, ROLE_STYLE } from './visual';
+import { BIDIRECTED } from './tokens';
 
 export type PaletteName = 'default' | 'colour-blind' | 'greyscale';
 export const PALETTES: readonly PaletteName[] = ['default', 'colour-blind', 'greyscale'];
@@ -77,6 +78,8 @@ const ALIASES: Record<string, keyof ColourTokens> = {
   [LINK_STYLE.integrating.stroke]: 'stateStroke',
   [BLOCK_STYLE.stroke]: 'settledStroke',
   [CHART_STYLE.breakpoint]: 'settledStroke',
+  // the measured graph's bidirected edges (dashed, two heads): a tone apart from the directed ones' ink
+  [BIDIRECTED]: 'muted',
 };
 
 /**

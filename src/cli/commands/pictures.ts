@@ -6,6 +6,9 @@ import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { LEVELS, laggedRank, orderingProbabilities, picturesAt, type Level, type OrderingProbabilities } from '../../core/pictures/index';
 import type { StudyDesign } from '../../core/ordering/types';
+import { rankCurveCaption, rankCurveFigure } from '../../export/pictures';
+import { fitToOf, svgTarget, tableWanted, writeSvg } from '../figure';
+import { PRINT_OPTIONS } from '../output/write';
 import { durationOption, loadModel } from '../load';
 import { studyInterval } from '../../core/study/convert';
 import { CliError, type CliArgs, type CliCommand } from './types';
@@ -158,15 +161,23 @@ export const pictureCommands: CliCommand[] = [
   },
   {
     name: 'rank',
-    summary: 'singular values of the lagged matrix Φ(Δ) over the analysed states',
-    usage: 'MODEL.json --interval D [--observed x,y,z] [--json]',
-    options: { interval: true, observed: true, json: false },
-    run(args, io) {
+    summary: 'singular values of the lagged matrix Φ(Δ) over the analysed states; --out draws their ratios over the interval (the rank curve)',
+    usage: 'MODEL.json --interval D [--observed x,y,z] [--json] [--out FILE.svg|.png|.pdf [--caption] [print options] [--table]]',
+    options: { interval: true, observed: true, json: false, caption: false, ...PRINT_OPTIONS },
+    async run(args, io) {
       const model = loadModel(args, io);
+      const target = svgTarget(args, []);
       const interval = durationOption(args, 'interval', model);
       if (interval === undefined) throw new CliError('rank needs --interval, e.g. --interval 3h', 2);
       const r = picturesAt(model, { interval, observed: observedOption(args, model), samples: 2 });
       if (!r.ok) throw new CliError(r.reason);
+      if (target !== undefined) {
+        // the rank curve of the app's Pictures pane: the same builder, caption and print path
+        const text = args.options['caption-text'];
+        const caption = typeof text === 'string' ? text : args.options.caption === true ? rankCurveCaption(model, r.pictures) : undefined;
+        await writeSvg(target, rankCurveFigure(model, r.pictures, { heading: args.options['no-title'] !== true, ...(caption !== undefined ? { caption } : {}), ...fitToOf(args) }), io, args);
+        if (target === '-' || !tableWanted(args)) return 0;
+      }
       const L = r.pictures.levels;
       const rank = laggedRank(L.drift, L.states, L.observed, interval);
       const near = rank.singularValues[0] >= 0.01 && rank.secondRatio <= 0.1;

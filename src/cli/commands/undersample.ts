@@ -5,6 +5,7 @@ import {
 } from '../../core/undersample/index';
 import { measuredGraphFigure } from '../../export/undersample';
 import { svgTarget, writeSvg } from '../figure';
+import { PRINT_OPTIONS } from '../output/write';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 import { readInput } from '../load';
 
@@ -72,9 +73,9 @@ export const undersampleCommands: CliCommand[] = [
   {
     name: 'undersample',
     summary: 'the graph seen when an integer-step process is measured every u-th step (directed and bidirected edges, with reasons)',
-    usage: 'GRAPH.json --rate U [--json] [--svg FILE]',
-    options: { rate: true, json: false, svg: true },
-    run(args, io) {
+    usage: 'GRAPH.json --rate U [--json] [--out FILE.svg|.png|.pdf [print options: --width, --font-size, --palette, --background, --no-title, --caption-text, --dpi, --text paths]]',
+    options: { rate: true, json: false, svg: true, ...PRINT_OPTIONS },
+    async run(args, io) {
       const file = loadGraph(args, io);
       const u = rateOption(args, 'rate');
       if (u === undefined) throw new CliError('--rate is required, e.g. --rate 2 (measured every second step)', 2);
@@ -86,7 +87,8 @@ export const undersampleCommands: CliCommand[] = [
       const h = measuredGraph(g, u);
       const reasons = explainMeasured(g, u);
       if (svg !== undefined) {
-        writeSvg(svg, measuredGraphFigure({ causal: g, rate: u, reasons }, { heading: true, caption: 'A model-based reading: the edges an analysis of data taken at this rate would show, if the causal-step graph is right.' }), io);
+        const text = args.options['caption-text'];
+        await writeSvg(svg, measuredGraphFigure({ causal: g, rate: u, reasons }, { heading: args.options['no-title'] !== true, caption: typeof text === 'string' ? text : 'A model-based reading: the edges an analysis of data taken at this rate would show, if the causal-step graph is right.' }), io, args);
         if (svg === '-') return 0;
       }
       const edges = edgeList(h);

@@ -80,8 +80,8 @@ export async function printMultiples(req: MultiplesRequest, opts: PrintOptions, 
         { tag: 'text', attrs: { x: 24, y: 18, 'font-size': 14, 'font-weight': 700, fill: INK }, children: [head] },
         { tag: 'g', attrs: { transform: `translate(0,${HEAD})` }, children: figure ? [figure] : [] },
       ] });
-      // the room the scene made above the layout for arcs that rise over a row
-      tops.push((figure?.box?.[1] ?? 0) + p.layout.height);
+      // where the scene's figure ends: the layout, and the room made above and below it for arcs over or under a row
+      tops.push(figure?.box?.[3] ?? (figure?.box?.[1] ?? 0) + p.layout.height);
     });
     y += HEAD + Math.max(...tops) + GAP;
   }

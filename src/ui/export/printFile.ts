@@ -40,13 +40,18 @@ export interface ExportChoice extends PrintOptions {
 /** The figure with the print options applied, by the command line's own functions; null when the chart cannot be drawn. */
 export async function printedFigure(source: FigureSource, opts: PrintOptions, elk: () => Promise<ElkRunner>): Promise<PrintedFigure | null> {
   if (source.kind === 'chart') {
-    const el = source.build({ heading: opts.title !== false, caption: opts.caption ?? source.caption });
+    const el = source.build({ heading: opts.title !== false, caption: opts.caption ?? source.caption, ...fitTo(opts) });
     return el ? printChart(el, opts) : null;
   }
   const runner = await elk();
   const model = source.request.model;
   const layoutOf = (vm: Parameters<typeof figureLayout>[1]) => figureLayout(runner, vm, vm.mode === 'mechanism' ? drawnPositions(model.variables) : undefined);
   return printView(source.request, opts, layoutOf);
+}
+
+/** The print width and font size a chart builder may fit its drawing to (as the command line passes them). */
+export function fitTo(opts: PrintOptions): Pick<FigureOptions, 'fitTo'> {
+  return opts.width ? { fitTo: { widthPt: widthPt(opts.width), ...(opts.fontSize !== undefined ? { fontPt: opts.fontSize } : {}) } } : {};
 }
 
 /** The SVG file of a printed figure (what `--out fig.svg` writes). */

@@ -13,7 +13,7 @@ import { DEFAULT_PERSONS, defaultObserved, type Level } from '../../core/picture
 import { useValidatedModel } from '../../state/document';
 import { designOf } from '../../state/study';
 import { useSessionStudy } from '../../state/session';
-import { factorFigure, laggedMatrixFigure, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
+import { factorFigure, laggedMatrixFigure, rankCurveCaption, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
 import { svgDocument } from '../../export/svg';
 import type { El } from '../../export/scene';
 import type { FigureOptions } from '../../export/charts';
@@ -32,12 +32,12 @@ export default function PicturesPane() {
 
 const LEVEL_WORDS: Record<Level, string> = { within: 'within persons', between: 'across persons (person means)', cross: 'one-time survey' };
 
-function Figure({ el, what, name }: { el: El | null; what: string; name: string }) {
+function Figure({ el, what, name, print }: { el: El | null; what: string; name: string; print?: Parameters<typeof ExportButtons>[0]['print'] }) {
   if (!el) return <p className="lf-pic-note">Not defined here.</p>;
   return (
     <>
       <div className="lf-pic-figure">{elToReact(el)}</div>
-      <ExportButtons what={what} name={name} svg={() => svgDocument(el)} />
+      <ExportButtons what={what} name={name} svg={() => svgDocument(el)} print={print} />
     </>
   );
 }
@@ -129,7 +129,8 @@ function PicturesOf({ model }: { model: Model }) {
             </div>
           )}
           <h4>How the lagged matrix approaches rank one as the interval grows</h4>
-          <Figure el={rankCurveFigure(model, P)} what="the singular value ratios" name={`${stem}-rank-curve`} />
+          {/* print options: the builder and caption of `loopfold rank --out` (the same observed states, in the same order) */}
+          <Figure el={rankCurveFigure(model, P)} what="the singular value ratios" name={`${stem}-rank-curve`} print={{ modelFile: `${stem}.json`, source: () => ({ kind: 'chart', build: (o: FigureOptions) => rankCurveFigure(model, P, o), caption: rankCurveCaption(model, P), cli: ['rank', '--interval', String(interval), '--observed', obs.join(','), '--caption'] }) }} />
           <FitTable answer={P} />
           {P.warnings.length > 0 && <ul className="lf-pic-warnings">{P.warnings.map((w) => <li key={w}>{w}</li>)}</ul>}
         </>

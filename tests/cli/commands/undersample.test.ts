@@ -76,5 +76,12 @@ describe('undersample and unsample commands', () => {
     const edges = [...r.out.matchAll(/data-edge="([^"]+)"/g)].map((m) => m[1]).sort();
     // x → y → y, x → y (self-loop path), y → y; y ↔ z through x at one step
     expect(edges).toEqual(['x&gt;y', 'y&gt;y', 'y&lt;&gt;z'].sort());
+    // the print options of every figure command: one column in greyscale, the file's size in bytes reported
+    const p = await run(['undersample', 'g.json', '--rate', '2', '--out', '-', '--width', 'column', '--palette', 'greyscale', '--no-title'], files);
+    expect(p.code, p.err).toBe(0);
+    expect(p.out).toMatch(/<svg[^>]* width="85mm"/);
+    expect(p.out).not.toContain('data-part="title"');
+    const colours = [...new Set([...p.out.matchAll(/#[0-9a-f]{6}\b/gi)].map((m) => m[0].toLowerCase()))];
+    expect(colours.filter((c) => !(c.slice(1, 3) === c.slice(3, 5) && c.slice(3, 5) === c.slice(5, 7)))).toEqual([]);
   });
 });

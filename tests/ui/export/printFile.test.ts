@@ -12,6 +12,8 @@ import { runCli } from '../../../src/cli/run';
 import { sampledOf } from '../../../src/core/numeric/answers';
 import type { Model } from '../../../src/core/model/types';
 import { laggedNetwork } from '../../../src/export/charts';
+import { picturesAt } from '../../../src/core/pictures/index';
+import { rankCurveCaption, rankCurveFigure } from '../../../src/export/pictures';
 import { studyCaption } from '../../../src/export/caption';
 import { parseWidth } from '../../../src/export/print/options';
 import { nodeElk } from '../../../src/layout/node';
@@ -80,6 +82,40 @@ describe("the export dialog's files equal the command line's", () => {
     const bareFile = await cli(['sampled', SLEEP, '--interval', '24', '--no-title', '--caption-text', 'Own words', '--width', '1.5-column', '--palette', 'greyscale', '--out', 'cli.svg']);
     expect(bare).toBe(bareFile);
     expect(bare).not.toBe(app);
+  });
+
+  it('the rank curve of the Pictures pane equals `rank --out` with the same options (the pane computes its pictures with persons and person SDs; the curve does not depend on them)', async () => {
+    // the pane's own call (src/ui/pictures/PicturesPane.tsx): the study's interval and prompts, persons, person SDs, two factors,
+    // the analysed states in the order the modeller ticked them
+    const observed = ['mood', 'stress', 'sleepDebt', 'cortisol'];
+    const r = picturesAt(model, { interval: 2.4, samples: 70, persons: 40, observed, personSD: { workload: 1 }, factors: 2 });
+    if (!r.ok) throw new Error(r.reason);
+    const P = r.pictures;
+    const source: FigureSource = {
+      kind: 'chart',
+      build: (o) => rankCurveFigure(model, P, o),
+      caption: rankCurveCaption(model, P),
+      cli: ['rank', '--interval', '2.4', '--observed', observed.join(','), '--caption'],
+    };
+    const opts = { width: width('column'), palette: 'greyscale' as const, background: 'paper' as const, fontSize: 8 };
+    const fig = (await printedFigure(source, opts, elk))!;
+    // drawn narrower for the column, so its text stays at 7 pt or more (8 pt asked: the ticks at 8 pt)
+    expect(fig.smallestPt).toBeGreaterThanOrEqual(7);
+    expect(fig.notes).toEqual([]);
+    const app = printedSvg(fig);
+    const file = await cli(['rank', SLEEP, '--interval', '2.4h', '--observed', 'mood,stress,sleepDebt,cortisol', '--caption', '--width', 'column', '--palette', 'greyscale', '--background', 'paper', '--font-size', '8', '--out', 'cli.svg']);
+    expect(app).toBe(file);
+    expect(app).toMatch(/<svg[^>]* width="85mm"/);
+    expect(app).toContain('data-chart="rank-curve"');
+    // the caption names the analysed states by their labels and both marks
+    expect(app).toContain('Sleep debt');
+    expect(app).toMatch(/dashed: the long interval/);
+    // the dialog's own command line (run with .svg) gives the same file, and no title / own caption as --no-title --caption-text
+    expect(await cli(cliArgs(source, SLEEP, opts, 'cli.svg')!)).toBe(app);
+    const bare = printedSvg((await printedFigure(source, { ...opts, title: false, caption: 'Own words' }, elk))!);
+    expect(await cli(cliArgs(source, SLEEP, { ...opts, title: false, caption: 'Own words' }, 'cli.svg')!)).toBe(bare);
+    expect(bare).not.toContain('data-part="title"');
+    expect(app).toContain('data-part="title"');
   });
 
   it('the command line the dialog shows for PDF draws the same figure (run here with .svg in place of .pdf)', async () => {
