@@ -62,6 +62,19 @@ test('Pictures pane on the evening-unrest example: three pictures with readings,
   const dialog = page.getByRole('dialog', { name: 'The three pictures side by side' });
   await expect(dialog).toBeVisible();
   await page.screenshot({ path: testInfo.outputPath('pictures-wide-1440.png') });
+  // The side-by-side view exports as one figure: the three pictures, each with its reading.
+  const download = page.waitForEvent('download');
+  await dialog.getByRole('button', { name: 'Export the three pictures side by side as SVG' }).click();
+  const svgText = readFileSync((await (await download).path())!, 'utf8');
+  expect(svgText).toContain('data-chart="pictures-side-by-side"');
+  for (const key of ['within', 'factor', 'long']) expect(svgText).toContain(`data-panel="${key}"`);
+  expect(svgText.match(/<svg /g)?.length).toBe(4);
+  expect(svgText).toContain('Illustrative model only'); // the example's caution travels with the figure
+  const look = await page.context().newPage();
+  await look.setContent(`<body style="margin:0;background:#fff">${svgText.replace(/^<\?xml[^>]*>/, '')}</body>`);
+  await look.screenshot({ path: testInfo.outputPath('pictures-side-by-side-export.png'), fullPage: true });
+  await look.close();
+  await dialog.getByRole('button', { name: 'Close' }).focus();
   await page.keyboard.press('Escape');
   await expect(dialog).toBeHidden();
 
