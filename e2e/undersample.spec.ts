@@ -197,6 +197,8 @@ test('the measured graph on the main canvas: u = 1 … U with its control, each 
   await layer.locator(`[data-edge="${c}<>${d}"]`).click({ force: true });
   await expect(panel.getByTestId('measured-why')).toContainText(`${c} ↔ ${d} appears at u = 2:`);
   await page.screenshot({ path: testInfo.outputPath('canvas-measured-why-1440.png') });
+  // The mode keeps the page accessible (WCAG 2.1 A/AA, axe-core): the edges are named buttons, the control a named slider.
+  expect(await axeViolations(page)).toEqual([]);
   // The Steps tab shows the same rate and its own figure, unchanged.
   await page.getByRole('tab', { name: 'Steps' }).click();
   await expect(page.getByTestId('steps-figure')).toHaveAttribute('data-rate', '2');
