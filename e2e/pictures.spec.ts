@@ -179,3 +179,24 @@ test('under strength ranges the interval advisor shows the same numbers as `loop
   await expect.poll(sds).toEqual([]);
   expect(errors).toEqual([]);
 });
+
+test('the probability of each ordering under uncertain timescales is the one `loopfold order --uncertain` gives for the same study, draws and seed', async ({ page }, testInfo) => {
+  test.setTimeout(240_000);
+  // The example's own study: every 3 h, 70 prompts; the pane's default draws (2000) and seed (1).
+  const want = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'order', 'src/examples/evening-unrest.json', '--interval', '3h', '--samples', '70', '--uncertain', '--draws', '2000', '--seed', '1', '--json'], { encoding: 'utf8' })) as {
+    probabilities: { share: number }[];
+    uncertainty: { readings: string[] };
+  };
+  await page.goto('/?example=evening-unrest');
+  const slider = page.getByRole('slider', { name: /sampling interval/i });
+  await expect(slider).toBeVisible({ timeout: 90_000 });
+  await expect(slider).toHaveAttribute('data-interval', '3');
+  await page.getByRole('tab', { name: 'Pictures' }).click();
+  const unc = page.locator('.lf-pic-uncertain');
+  await expect(unc.locator('.lf-pic-summary')).toHaveAttribute('data-probabilities', String(want.probabilities.length), { timeout: 90_000 });
+  expect(await unc.locator('.lf-pic-summary li').allTextContents()).toEqual(want.uncertainty.readings);
+  const shares = await unc.locator('table tbody tr td:first-child').allTextContents();
+  expect(shares).toEqual(want.probabilities.map((p) => `${(p.share * 100).toFixed(1)} %`));
+  await unc.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('uncertain-orderings-1440.png') });
+});
