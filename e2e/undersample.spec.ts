@@ -199,8 +199,10 @@ test('the measured graph on the main canvas: u = 1 … U with its control, each 
   await page.screenshot({ path: testInfo.outputPath('canvas-measured-why-1440.png') });
   // The mode keeps the page accessible (WCAG 2.1 A/AA, axe-core): the edges are named buttons, the control a named slider.
   expect(await axeViolations(page)).toEqual([]);
-  // The Steps tab shows the same rate and its own figure, unchanged.
-  await page.getByRole('tab', { name: 'Steps' }).click();
+  // The Steps tab shows the same rate and its own figure, unchanged; the panel leads to its search back.
+  await panel.getByRole('button', { name: /Which causal graphs give this/ }).click();
+  await expect(page.getByRole('tab', { name: 'Steps' })).toHaveAttribute('aria-selected', 'true');
+  await expect(page.getByTestId('steps-inverse')).toContainText('at u = 2');
   await expect(page.getByTestId('steps-figure')).toHaveAttribute('data-rate', '2');
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.screenshot({ path: testInfo.outputPath('canvas-measured-1024.png') });

@@ -14,6 +14,7 @@ import { EdgeLabelRenderer, Panel, useStore, useStoreApi } from '@xyflow/react';
 import type { Model } from '../../core/model/types';
 import { explainMeasured, has, measuredGraph, MAX_GRAPH_VARIABLES, stepGraphOfModel, type EdgeReason } from '../../core/undersample/index';
 import { stepsStore, useSteps } from '../../state/steps';
+import { uiStore } from '../../state/ui';
 import { INK, MUTED } from '../../theme/visual';
 import { BIDIRECTED } from '../../theme/tokens';
 import { measuredLabel } from '../../export/undersample';
@@ -153,7 +154,10 @@ function MeasuredOn({ model }: { model: Model }) {
             <p className="lf-measured-why" role="status" data-testid="measured-why">
               {pickedReason ? pickedReason.text : 'Pick an edge (click, or Tab and Enter) to see why it is there.'}
             </p>
-            {left.length > 0 && <p className="lf-measured-note" style={{ color: MUTED }}>Not in the step graph: {left.map((v) => v.label ?? v.id).join(', ')} (passed on within the step, or acting on no state).</p>}
+            <p className="lf-measured-note">
+              <button type="button" className="lf-measured-close" onClick={() => uiStore.getState().set({ pane: 'steps' })}>Which causal graphs give this? (Steps tab)</button>
+            </p>
+            {left.length > 0 && <p className="lf-measured-note lf-measured-left" style={{ color: MUTED }}>Not in the step graph: {left.map((v) => v.label ?? v.id).join(', ')} (passed on within the step, or acting on no state).</p>}
           </>
         )}
       </Panel>
