@@ -20,12 +20,14 @@ function randomGraph(n: number, density: number, rnd: () => number): number[] {
   });
 }
 
-function runSet(n: number, method: InverseMethod, cases: number, seed: number) {
+/** One set of seeded random graphs searched back; prints its line and returns what it found (for the test of the bench). */
+export function runSet(n: number, method: InverseMethod, cases: number, seed: number, print = true): { median: number; solutions: number; incomplete: number; graphs: { directed: number[]; bidirected: number[]; rate: number; count: number }[] } {
   const rnd = seededRandom(seed).uniform;
   const times: number[] = [];
   const nodes: number[] = [];
   let incomplete = 0;
   let solutions = 0;
+  const graphs: { directed: number[]; bidirected: number[]; rate: number; count: number }[] = [];
   for (let k = 0; k < cases; k++) {
     const names = Array.from({ length: n }, (_, i) => `x${i + 1}`);
     const u = 2 + (k % 2);
@@ -35,11 +37,12 @@ function runSet(n: number, method: InverseMethod, cases: number, seed: number) {
     times.push(performance.now() - t0);
     nodes.push(r.byRate[0].nodes);
     solutions += r.count;
+    graphs.push({ directed: h.directed.slice(), bidirected: h.bidirected.slice(), rate: u, count: r.count });
     if (!r.complete) incomplete++;
   }
   const t = stats(times), v = stats(nodes);
-  console.log(`  ${n} variables, ${method.padEnd(6)}: median ${ms(t.median)}, p95 ${ms(t.p95)}, max ${ms(Math.max(...times))}; nodes median ${v.median}, p95 ${v.p95}; ${cases} graphs (u = 2, 3), ${solutions} causal graphs found${incomplete ? `, ${incomplete} stopped at 2 M nodes (very large classes: millions of causal graphs)` : ''}`);
-  return t.median;
+  if (print) console.log(`  ${n} variables, ${method.padEnd(6)}: median ${ms(t.median)}, p95 ${ms(t.p95)}, max ${ms(Math.max(...times))}; nodes median ${v.median}, p95 ${v.p95}; ${cases} graphs (u = 2, 3), ${solutions} causal graphs found${incomplete ? `, ${incomplete} stopped at 2 M nodes (very large classes: millions of causal graphs)` : ''}`);
+  return { median: t.median, solutions, incomplete, graphs };
 }
 
 /** Time per causal graph of exhaustive enumeration at u = 2 (all 2^(n²) graphs, each measured and compared). */
@@ -63,8 +66,8 @@ export async function benchUndersample(): Promise<void> {
   console.log(`load ${loadavg()[0].toFixed(2)} (2 cores shared)`);
   const per4 = enumerationCost(4);
   console.log(`reference, exhaustive enumeration: 4 variables (2^16 graphs) ${ms(per4 * 2 ** 16)} per measured graph; 5 variables (2^25 graphs) ≈ ${(per4 * 1.4 * 2 ** 25 / 1000).toFixed(0)} s (extrapolated: measured cost per graph × 1.4 for the larger rows)`);
-  const s5 = runSet(5, 'search', 30, 5);
-  const v5 = runSet(5, 'solver', 30, 5);
+  const s5 = runSet(5, 'search', 30, 5).median;
+  const v5 = runSet(5, 'solver', 30, 5).median;
   console.log(`  5 variables: search ${(per4 * 1.4 * 2 ** 25 / s5).toFixed(0)}× faster than enumeration, solver ${(per4 * 1.4 * 2 ** 25 / v5).toFixed(0)}×`);
   runSet(8, 'solver', 12, 8);
 }

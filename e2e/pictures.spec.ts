@@ -1,3 +1,6 @@
+import { execFileSync } from 'node:child_process';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { expect, test, type Locator } from '@playwright/test';
 
 /** Step the interval control with the arrow keys until it lies in [lo, hi] (model time unit). */
@@ -59,6 +62,19 @@ test('Pictures pane on the evening-unrest example: three pictures with readings,
   const dialog = page.getByRole('dialog', { name: 'The three pictures side by side' });
   await expect(dialog).toBeVisible();
   await page.screenshot({ path: testInfo.outputPath('pictures-wide-1440.png') });
+  // The side-by-side view exports as one figure: the three pictures, each with its reading.
+  const download = page.waitForEvent('download');
+  await dialog.getByRole('button', { name: 'Export the three pictures side by side as SVG' }).click();
+  const svgText = readFileSync((await (await download).path())!, 'utf8');
+  expect(svgText).toContain('data-chart="pictures-side-by-side"');
+  for (const key of ['within', 'factor', 'long']) expect(svgText).toContain(`data-panel="${key}"`);
+  expect(svgText.match(/<svg /g)?.length).toBe(4);
+  expect(svgText).toContain('Illustrative model only'); // the example's caution travels with the figure
+  const look = await page.context().newPage();
+  await look.setContent(`<body style="margin:0;background:#fff">${svgText.replace(/^<\?xml[^>]*>/, '')}</body>`);
+  await look.screenshot({ path: testInfo.outputPath('pictures-side-by-side-export.png'), fullPage: true });
+  await look.close();
+  await dialog.getByRole('button', { name: 'Close' }).focus();
   await page.keyboard.press('Escape');
   await expect(dialog).toBeHidden();
 
@@ -94,4 +110,93 @@ test('a link\'s strength range is stored on Enter or leaving the field; invalid 
   await page.setViewportSize({ width: 1024, height: 768 });
   await field.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('strength-range-1024.png') });
+});
+
+test('under strength ranges the interval advisor shows the same numbers as `loopfold advise --uncertain`; the person SD field of a link', async ({ page }, testInfo) => {
+  test.setTimeout(240_000);
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  // The evening-unrest example with two strengths only roughly known.
+  const model = JSON.parse(readFileSync('src/examples/evening-unrest.json', 'utf8')) as { links: { from: string; to: string; strengthRange?: { low: number; high: number } }[] };
+  for (const l of model.links) {
+    if (l.from === 'worry' && l.to === 'tension') l.strengthRange = { low: 0.2, high: 1.4 };
+    if (l.from === 'tension' && l.to === 'irritable') l.strengthRange = { low: 0.3, high: 0.9 };
+  }
+  const file = join(testInfo.outputDir, 'ranged.json');
+  mkdirSync(testInfo.outputDir, { recursive: true });
+  writeFileSync(file, JSON.stringify(model));
+  const want = (JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'advise', file, '--links', 'worry>tension,tension>irritable', '--uncertain', '--draws', '60', '--seed', '7', '--json'], { encoding: 'utf8' })) as {
+    uncertain: { holds: number; noAdvice: number; best: { q10: number; median: number; q90: number } | null; links: { from: string; to: string; inRange: number }[]; ranged: { from: string; to: string; decides: number }[]; readings: string[] };
+  }).uncertain;
+
+  await page.goto('/?example=evening-unrest');
+  await expect(page.getByRole('slider', { name: /sampling interval/i })).toBeVisible({ timeout: 90_000 });
+  await page.evaluate((m) => window.__loopfold!.load(m as never), model);
+  await page.getByRole('tab', { name: 'Numbers' }).click();
+  const adv = page.locator('.lf-numbers [data-section="advisor"]');
+  await adv.locator('input[data-link="worry>tension"]').check();
+  await adv.locator('input[data-link="tension>irritable"]').check();
+  const ranged = adv.locator('[data-section="ranged-advice"]');
+  await expect(ranged).toBeVisible({ timeout: 60_000 });
+  await ranged.getByLabel('Draws').fill('60');
+  await ranged.getByLabel('Seed').fill('7');
+  const ready = ranged.locator('[data-ranged="ready"][data-draws="60"][data-seed="7"]');
+  await expect(ready).toBeVisible({ timeout: 90_000 });
+  // The same draws give the same numbers, to the last digit.
+  expect(Number(await ready.getAttribute('data-holds'))).toBe(want.holds);
+  expect(Number(await ready.getAttribute('data-no-advice'))).toBe(want.noAdvice);
+  expect(await ready.getAttribute('data-best')).toBe(want.best ? [want.best.q10, want.best.median, want.best.q90].join(' ') : '');
+  for (const l of want.links) expect(Number(await ready.locator(`[data-link="${l.from}>${l.to}"]`).getAttribute('data-in-range'))).toBe(l.inRange);
+  for (const r of want.ranged) expect(Number(await ready.locator(`[data-ranged-link="${r.from}>${r.to}"]`).getAttribute('data-decides'))).toBe(r.decides);
+  for (const r of want.readings) await expect(ready.locator('.lf-pic-summary')).toContainText(r);
+  await ranged.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('ranged-advice-1440.png') });
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await ranged.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('ranged-advice-1024.png') });
+
+  // A link's person SD of strength: bad text stays with a message naming the field; Enter stores; undo removes it.
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await page.getByRole('tab', { name: 'Edit' }).click();
+  await page.locator('.react-flow__node[data-id="worry"]').click();
+  const inspector = page.locator('.lf-inspector');
+  await inspector.locator('.lf-links-of button.lf-linkish').first().click();
+  const field = inspector.getByLabel('Person SD of strength (optional)');
+  const sds = () => page.evaluate(() => window.__loopfold!.model().links.flatMap((l) => (l.personSD !== undefined ? [l.personSD] : [])));
+  await field.fill('lots');
+  await field.press('Enter');
+  await expect(inspector.getByRole('alert')).toContainText('Person SD of strength: "lots" is not a number');
+  await field.blur();
+  await expect(field).toHaveValue('lots');
+  expect(await sds()).toEqual([]);
+  await field.screenshot({ path: testInfo.outputPath('person-sd-invalid.png') });
+  await field.fill('0.2');
+  await field.press('Enter');
+  await expect.poll(sds).toEqual([0.2]);
+  await page.screenshot({ path: testInfo.outputPath('person-sd-1440.png') });
+  await page.locator('.react-flow__pane').click({ position: { x: 5, y: 5 } });
+  await page.keyboard.press('Control+z');
+  await expect.poll(sds).toEqual([]);
+  expect(errors).toEqual([]);
+});
+
+test('the probability of each ordering under uncertain timescales is the one `loopfold order --uncertain` gives for the same study, draws and seed', async ({ page }, testInfo) => {
+  test.setTimeout(240_000);
+  // The example's own study: every 3 h, 70 prompts; the pane's default draws (2000) and seed (1).
+  const want = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'order', 'src/examples/evening-unrest.json', '--interval', '3h', '--samples', '70', '--uncertain', '--draws', '2000', '--seed', '1', '--json'], { encoding: 'utf8' })) as {
+    probabilities: { share: number }[];
+    uncertainty: { readings: string[] };
+  };
+  await page.goto('/?example=evening-unrest');
+  const slider = page.getByRole('slider', { name: /sampling interval/i });
+  await expect(slider).toBeVisible({ timeout: 90_000 });
+  await expect(slider).toHaveAttribute('data-interval', '3');
+  await page.getByRole('tab', { name: 'Pictures' }).click();
+  const unc = page.locator('.lf-pic-uncertain');
+  await expect(unc.locator('.lf-pic-summary')).toHaveAttribute('data-probabilities', String(want.probabilities.length), { timeout: 90_000 });
+  expect(await unc.locator('.lf-pic-summary li').allTextContents()).toEqual(want.uncertainty.readings);
+  const shares = await unc.locator('table tbody tr td:first-child').allTextContents();
+  expect(shares).toEqual(want.probabilities.map((p) => `${(p.share * 100).toFixed(1)} %`));
+  await unc.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: testInfo.outputPath('uncertain-orderings-1440.png') });
 });

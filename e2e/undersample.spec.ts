@@ -157,3 +157,58 @@ test('Steps tab: a measured graph edited by hand, searched back as the command l
   expect(await axeViolations(page)).toEqual([]);
   expect(errors).toEqual([]);
 });
+
+test('the measured graph on the main canvas: u = 1 … U with its control, each edge explained, the same edges as `loopfold undersample`', async ({ page }, testInfo) => {
+  test.setTimeout(300_000);
+  const want = [1, 2, 3].map((u) => cli(['undersample', 'src/examples/lake.json', '--rate', String(u)]));
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto('/?example=lake');
+  const canvas = page.getByRole('region', { name: 'Mechanism canvas' });
+  await expect(canvas.locator('.react-flow__node').first()).toBeVisible({ timeout: 60_000 });
+  await canvas.getByRole('button', { name: /Integer steps: measured graph/ }).click();
+  const panel = canvas.getByLabel('Measured graph control');
+  const layer = canvas.locator('svg.lf-measured');
+  const edgesAt = async (u: number) => {
+    await expect(layer).toHaveAttribute('data-rate', String(u));
+    return (await layer.locator('[data-edge]').evaluateAll((els) => els.map((e) => e.getAttribute('data-edge')!))).sort();
+  };
+  const cliEdges = (u: number) => [...want[u - 1].directed.map((p) => `${p[0]}>${p[1]}`), ...want[u - 1].bidirected.map((p) => `${p[0]}<>${p[1]}`)].sort();
+  // The Steps tab's rate (2) is the canvas's too.
+  expect(await edgesAt(2)).toEqual(cliEdges(2));
+  expect(want[1].bidirected.length).toBeGreaterThan(0);
+  await page.screenshot({ path: testInfo.outputPath('canvas-measured-u2-1440.png') });
+  await panel.getByRole('button', { name: 'Measure less often (u + 1)' }).click();
+  expect(await edgesAt(3)).toEqual(cliEdges(3));
+  const slider = panel.getByRole('slider', { name: 'Measured every u-th step (canvas)' });
+  await slider.focus();
+  await page.keyboard.press('Home');
+  expect(await edgesAt(1)).toEqual(cliEdges(1));
+  await expect(layer.locator('[data-kind="bidirected"]')).toHaveCount(0);
+  await page.keyboard.press('ArrowRight');
+  expect(await edgesAt(2)).toEqual(cliEdges(2));
+  // The words for an edge: a directed edge of two steps names the variable it passes through.
+  const [a, b] = want[1].directed.find(([x, y]) => x !== y && !want[0].directed.some(([p, q]) => p === x && q === y))!;
+  const edge = layer.locator(`[data-edge="${a}>${b}"]`);
+  await edge.focus();
+  await page.keyboard.press('Enter');
+  await expect(panel.getByTestId('measured-why')).toContainText(new RegExp(`^${a} → ${b} appears at u = 2 through `));
+  const [c, d] = want[1].bidirected[0];
+  await layer.locator(`[data-edge="${c}<>${d}"]`).click({ force: true });
+  await expect(panel.getByTestId('measured-why')).toContainText(`${c} ↔ ${d} appears at u = 2:`);
+  await page.screenshot({ path: testInfo.outputPath('canvas-measured-why-1440.png') });
+  // The mode keeps the page accessible (WCAG 2.1 A/AA, axe-core): the edges are named buttons, the control a named slider.
+  expect(await axeViolations(page)).toEqual([]);
+  // The Steps tab shows the same rate and its own figure, unchanged; the panel leads to its search back.
+  await panel.getByRole('button', { name: /Which causal graphs give this/ }).click();
+  await expect(page.getByRole('tab', { name: 'Steps' })).toHaveAttribute('aria-selected', 'true');
+  await expect(page.getByTestId('steps-inverse')).toContainText('at u = 2');
+  await expect(page.getByTestId('steps-figure')).toHaveAttribute('data-rate', '2');
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await page.screenshot({ path: testInfo.outputPath('canvas-measured-1024.png') });
+  // Back to the sketch: its links are drawn again and take the pointer.
+  await panel.getByRole('button', { name: "Back to the sketch's links" }).click();
+  await expect(layer).toHaveCount(0);
+  await expect(canvas.getByRole('button', { name: /Integer steps: measured graph/ })).toBeVisible();
+  expect(errors).toEqual([]);
+});

@@ -10,6 +10,8 @@ export interface StepsState {
   maxRate: number;
   /** A graph read from a file: a causal-step graph, or a measured graph (then the figure shows it as it is). */
   file: { graph: GraphFile; as: 'causal' | 'measured'; fileName: string } | null;
+  /** The mechanism canvas shows the sketch's measured graph at `rate` instead of its links. */
+  onCanvas: boolean;
   set(patch: Partial<Omit<StepsState, 'set'>>): void;
 }
 
@@ -17,6 +19,7 @@ export const stepsStore = createStore<StepsState>()((set) => ({
   rate: 2,
   maxRate: 8,
   file: null,
+  onCanvas: false,
   set: (patch) => set(patch),
 }));
 

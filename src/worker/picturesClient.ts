@@ -6,11 +6,12 @@
  */
 import { startWorker } from './guard';
 import { createLane, noWorkerRequested, type Transport, type Where } from './lane';
-import type { PicturesApi, PicturesAnswer, ProbabilitiesAnswer } from './picturesApi';
+import type { PicturesApi, PicturesAnswer, ProbabilitiesAnswer, StrengthAdviceAnswer } from './picturesApi';
 
 export interface PicturesClient {
   pictures(...args: Parameters<PicturesApi['pictures']>): Promise<PicturesAnswer | null>;
   probabilities(...args: Parameters<PicturesApi['probabilities']>): Promise<ProbabilitiesAnswer | null>;
+  strengthAdvice(...args: Parameters<PicturesApi['strengthAdvice']>): Promise<StrengthAdviceAnswer | null>;
   where(): Where;
   dispose(): void;
 }
@@ -20,9 +21,11 @@ export function createPicturesClient(worker: (() => Transport<PicturesApi>) | nu
   const failed = (e: unknown) => ({ ok: false as const, reason: (e as Error)?.message ?? String(e) });
   const pictures = lane.latest((...a: Parameters<PicturesApi['pictures']>) => lane.run((x) => x.pictures(...a)).then((r) => r.value), { failed });
   const probabilities = lane.latest((...a: Parameters<PicturesApi['probabilities']>) => lane.run((x) => x.probabilities(...a)).then((r) => r.value), { failed });
+  const strengthAdvice = lane.latest((...a: Parameters<PicturesApi['strengthAdvice']>) => lane.run((x) => x.strengthAdvice(...a)).then((r) => r.value), { failed });
   return {
     pictures: (...a) => pictures.latest(...a),
     probabilities: (...a) => probabilities.latest(...a),
+    strengthAdvice: (...a) => strengthAdvice.latest(...a),
     where: () => lane.where(),
     dispose: () => lane.dispose(),
   };
@@ -33,6 +36,7 @@ function workerPictures(): Transport<PicturesApi> {
   return {
     pictures: (m, o) => w.call(() => w.remote.pictures(m, o)),
     probabilities: (m, d, n, s) => w.call(() => w.remote.probabilities(m, d, n, s)),
+    strengthAdvice: (m, l, o) => w.call(() => w.remote.strengthAdvice(m, l, o)),
     dispose: w.dispose,
   };
 }

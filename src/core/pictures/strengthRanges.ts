@@ -144,7 +144,8 @@ export function adviceUnderStrengthRanges(model: Model, links: { from: VariableI
         ? 'The model as written has no single interval to advise.'
         : `Sampling every ${fmt(pointBest)}${unit} keeps every chosen link at ${Math.round(fraction * 100)} % of its peak or more in ${pct(holds / draws)} of ${draws} draws of the strengths.`,
     );
-    if (b) readings.push(`The advised interval itself lies between ${fmt(b.q10)} and ${fmt(b.q90)}${unit} in 80 % of draws (median ${fmt(b.median)}${unit}).`);
+    if (b && fmt(b.q10) === fmt(b.q90)) readings.push(`The advised interval itself stays at ${fmt(b.median)}${unit} in at least 80 % of draws: these ranges barely move it.`);
+    else if (b) readings.push(`The advised interval itself lies between ${fmt(b.q10)} and ${fmt(b.q90)}${unit} in 80 % of draws (median ${fmt(b.median)}${unit}).`);
     const lead = [...ranged].sort((x, y) => Math.abs(y.decides) - Math.abs(x.decides))[0];
     if (lead && Math.abs(lead.decides) >= 0.3)
       readings.push(`The strength of ${name(lead.from)} → ${name(lead.to)} (${fmt(lead.low)}..${fmt(lead.high)}) decides most: the stronger it is, the ${lead.decides > 0 ? 'longer' : 'shorter'} the advised interval (rank correlation ${lead.decides.toFixed(2)}).`);

@@ -23,6 +23,7 @@ import { badgesOf } from '../diagnostics/collect';
 import { useProblems } from '../diagnostics/useProblems';
 import { buildNodes, settledMove, type FlowNode } from './flow';
 import { Legend } from './Legend';
+import { MeasuredLayer } from './MeasuredLayer';
 import { CanvasDrawing } from './CanvasDrawing';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
@@ -225,6 +226,7 @@ export function ModelCanvas() {
           style={MINIMAP_STYLE}
         />
         <CanvasDrawing model={model} />
+        <MeasuredLayer model={model} />
         <Legend />
       </ReactFlow>
       {model.variables.length === 0 && (

@@ -28,6 +28,15 @@ function strengthHint(link: Link, model: Model, name: (id: string) => string) {
   );
 }
 
+/** The person SD of a link's strength: empty, or a number ≥ 0; the message names the field. */
+export function personSdCheck(text: string): string | null {
+  if (text.trim() === '') return null;
+  const n = Number(text);
+  if (!Number.isFinite(n)) return `Person SD of strength: "${text}" is not a number`;
+  if (n < 0) return `Person SD of strength: ${text} is negative; a standard deviation across persons is 0 or more`;
+  return null;
+}
+
 export function LinkInspector({ link, model }: { link: Link; model: Model }) {
   const kindName = useId();
   const signName = useId();
@@ -78,6 +87,15 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
         onBlur={stop}
         hint="When the strength is only roughly known: low..high, such as 0.2..0.9 (sizes; the sign above applies). The design advisor then reports how often its interval holds over strengths drawn from the range (loopfold advise --uncertain)."
         placeholder="e.g. 0.2..0.9"
+      />
+      <CheckedField
+        label="Person SD of strength (optional)"
+        value={link.personSD === undefined ? '' : String(link.personSD)}
+        check={personSdCheck}
+        commit={(t) => editDocument({ type: 'updateLink', id: link.id!, patch: { personSD: toNumber(t) } }, { squash: `${link.id}:personSD` })}
+        onBlur={stop}
+        hint="How much this strength differs from person to person (a standard deviation, same scale as the strength). It moves each person’s balance point and so enters the covariance across persons in the Pictures tab; empty: the same for everyone."
+        placeholder="empty: 0"
       />
     </div>
   );

@@ -6,6 +6,7 @@ import { numText } from '../../present/index';
 import { labelOf } from '../../present/index';
 import { isFailed, useNumeric } from './useNumeric';
 import { UseInterval } from '../study/UseInterval';
+import { RangedAdvice } from '../pictures/RangedAdvice';
 
 type Pair = { from: VariableId; to: VariableId };
 const key = (p: Pair) => `${p.from}>${p.to}`;
@@ -67,6 +68,7 @@ export function IntervalAdvisor({ model, states, reach }: { model: Model; states
           </p>
           {a.advice.best !== null && <p><UseInterval value={a.advice.best} unit={u} what="the advised interval" /></p>}
           <details><summary>In detail</summary><p>{a.advice.explanation}</p></details>
+          <RangedAdvice model={model} links={picked} fraction={fraction} />
         </div>
       )}
     </div>

@@ -15,6 +15,7 @@ import { designOf } from '../../state/study';
 import { useSessionStudy } from '../../state/session';
 import { factorFigure, laggedMatrixFigure, rankCurveCaption, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
 import { svgDocument } from '../../export/svg';
+import { sideBySideFigure } from '../../export/picturesSideBySide';
 import type { El } from '../../export/scene';
 import type { FigureOptions } from '../../export/charts';
 import { elToReact } from '../elReact';
@@ -126,6 +127,7 @@ function PicturesOf({ model }: { model: Model }) {
             <div className="lf-pic-overlay" role="dialog" aria-modal="true" aria-label="The three pictures side by side" onKeyDown={(e) => { if (e.key === 'Escape') setWide(false); }}>
               <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong>{model.caution && <span className="lf-pic-note">{model.caution}</span>}<button type="button" autoFocus onClick={() => setWide(false)}>Close</button></div>
               {row}
+              <ExportButtons what="the three pictures side by side" name={`${stem}-three-pictures`} svg={() => svgDocument(sideBySideFigure(`${model.name}: three pictures at ${formatDuration(interval, model.timeUnit)}`, pictures.map((p) => ({ key: p.key, title: p.title, reading: p.reading, figure: p.el })), { heading: true, caption: model.caution ? `${caption} ${model.caution}` : caption }))} />
             </div>
           )}
           <h4>How the lagged matrix approaches rank one as the interval grows</h4>

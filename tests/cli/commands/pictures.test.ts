@@ -33,6 +33,31 @@ describe('factor, rank and order --uncertain', () => {
     expectClose(j.eigenvalues, s.eigenvalues, { relTol: 1e-10 }, 'eigenvalues');
   });
 
+  it('factor --level within|between --factors 1 --json: the fields of the answer, and statsmodels on the printed covariance agrees', async () => {
+    for (const level of ['within', 'between'] as const) {
+      const r = await run(['factor', FILE, '--interval', '3h', '--samples', '70', '--persons', '150', '--level', level, '--factors', '1', '--person-sd', 'load=0.5', '--json']);
+      expect(r.code, r.err).toBe(0);
+      const j = JSON.parse(r.out) as { level: string; covariance: number[][]; loadings: number[][]; uniqueness: number[]; chi2: number; df: number; rmsea: number; eigenvalues: number[]; n: number; factors: number };
+      for (const k of ['level', 'covariance', 'loadings', 'uniqueness', 'chi2', 'df', 'rmsea', 'eigenvalues']) expect(j, k).toHaveProperty(k);
+      expect(j.level).toBe(level);
+      expect(j.factors).toBe(1);
+      expect(j.loadings.every((row) => row.length === 1)).toBe(true);
+      // N per level (docs/dev/pictures.md): persons × (prompts − 1) within, persons between.
+      expect(j.n).toBe(level === 'within' ? 150 * 69 : 150);
+      const ref = spawnSync('/usr/bin/python3', ['tests/reference/pictures_factor.py'], { input: JSON.stringify({ cases: [{ cov: j.covariance, k: 1, n: j.n }] }), encoding: 'utf8' });
+      expect(ref.status, ref.stderr).toBe(0);
+      const s = (JSON.parse(ref.stdout) as { loadings: number[][]; uniqueness: number[]; chi2: number; rmsea: number }[])[0];
+      expectClose(j.loadings, s.loadings, { relTol: 0, absTol: 1e-4 }, `${level} loadings`);
+      expectClose(j.uniqueness, s.uniqueness, { relTol: 0, absTol: 1e-4 }, `${level} uniqueness`);
+      expectClose(j.chi2, s.chi2, { relTol: 1e-4, absTol: 1e-4 }, `${level} χ²`);
+      expectClose(j.rmsea, s.rmsea, { relTol: 0, absTol: 1e-4 }, `${level} RMSEA`);
+    }
+    // Two factors for four variables leave no degrees of freedom: refused, naming the option.
+    const two = await run(['factor', FILE, '--interval', '3h', '--factors', '2', '--person-sd', 'load=0.5', '--json']);
+    expect(two.code).not.toBe(0);
+    expect(two.err).toMatch(/2 factors for 4 variables are not identified/);
+  });
+
   it('rank --json: singular values of SciPy expm(A·Δ) over the states', async () => {
     const r = await run(['rank', FILE, '--interval', '2h', '--json']);
     expect(r.code, r.err).toBe(0);

@@ -30,6 +30,8 @@ describe('the design advice under strength ranges', () => {
     // The point advice keeps both links at half their peak or more (its score), so it holds in every draw.
     expect(point.advice.score).toBeGreaterThanOrEqual(0.5);
     expect(r.holds).toBe(1);
+    // A spread of nothing is said as such, not as "between x and x" (the wording rule: readings a modeller can use).
+    expect(r.readings[1]).toMatch(/^The advised interval itself stays at .* in at least 80 % of draws/);
   });
 
   it('each draw\'s advised interval and the share of draws the point advice holds in match SciPy on the same draws', () => {
