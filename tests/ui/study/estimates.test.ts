@@ -46,7 +46,7 @@ describe('what this schedule estimates, entry by entry', () => {
     const fromWater = element.rows.find((row) => row.label === 'from Water')!;
     ref.phi.forEach((phi, k) => expectClose(fromWater.perGap[k], phi[idx('y')][idx('x')], { absTol: 1e-9 }, `water → element over gap ${k}`));
     // the overnight gap shrinks the lagged effect of a loop with timescales of hours
-    expect(Math.abs(fromWater.perGap[1])).not.toBeCloseTo(Math.abs(fromWater.perGap[0]), 2);
+    expect(Math.abs(fromWater.perGap[1] - fromWater.perGap[0])).toBeGreaterThan(0.01);
   });
   it('each variable is a group with its autoregression first; effects that stay zero are counted, not listed', () => {
     const t = effectTable(kettle, report);
