@@ -6,19 +6,23 @@
  */
 import { memo, useEffect, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
 import type { Model, Study, TimeUnit } from '../../core/model/types';
-import { formatDuration, parseDuration, SECONDS_PER_UNIT } from '../../core/model/units';
+import { formatDuration, SECONDS_PER_UNIT } from '../../core/model/units';
 import { fromPosition, passed, stepInterval, toPosition, type IntervalKey, type IntervalRange } from '../../core/view/interval';
 import { documentStore, useValidatedModel } from '../../state/document';
-import { setStudyInterval, setStudyLength, useSessionStudy, type StudyLength } from '../../state/session';
-import { exactDuration, intervalLabel, parseInterval } from '../../core/study/convert';
-import { plannedSlots } from '../../core/study/schedule';
+import { editStudy, setStudyInterval, useSessionStudy, type StudyLength } from '../../state/session';
+import { exactDuration, intervalLabel, modelAxis, parseInterval } from '../../core/study/convert';
+import { lengthBy, lengthFieldText, lengthOther, switchedLength, typedLength, type LengthBy } from './length';
 import { useBandCache, type BandCache } from '../views/bandCache';
 import { breakpointRanges, type BreakpointRange } from '../../core/pictures/uncertain';
 import { setIntervalDrag } from './dragging';
 import './interval.css';
 import { BREAKPOINT, TRACK_NOTCH } from '../../theme/tokens';
 
-const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
+/** The length of a model's own study, as the control reads it (the session's, once it has one). */
+function modelLength(model: Model): StudyLength {
+  const a = modelAxis(model);
+  return a.window !== undefined ? { by: 'window', window: a.window } : { by: 'samples', samples: a.samples };
+}
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
 
@@ -35,7 +39,7 @@ export function IntervalStrip() {
 
 export function IntervalStripFor({ model }: { model: Model }) {
   const session = useSessionStudy();
-  const length = session?.length ?? DEFAULT_LENGTH;
+  const length = useMemo(() => session?.length ?? modelLength(model), [session, model]);
   const interval = session && Number.isFinite(session.interval) ? session.interval : null;
   const holds = session?.holds;
   const hold = holds && Object.keys(holds).length > 0 ? holds : undefined;
@@ -105,7 +109,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
       <div className="lf-interval-scale" aria-hidden="true">
         {unitMarks(range, unit).map((m) => <span key={m.label} style={{ left: `${toPosition(range, m.at) * 100}%` }}>{m.label}</span>)}
       </div>
-      <StudyLengthField key={`${unit}|${length.by}|${length.by === 'window' ? length.window : length.samples}`} unit={unit} interval={interval} length={length} />
+      {session && <StudyLengthField key={unit} unit={unit} study={session.study} />}
     </div>
   );
 }
@@ -175,52 +179,53 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
   );
 });
 
-function StudyLengthField({ unit, interval, length }: { unit: TimeUnit; interval: number; length: StudyLength }) {
-  const [text, setText] = useState(length.by === 'window' ? formatDuration(length.window, unit) : String(length.samples));
+function StudyLengthField({ unit, study }: { unit: TimeUnit; study: Study }) {
+  // the study's own length, as stored: "14 days" in any time unit, 70 prompts as 70
+  const [text, setText] = useState(lengthFieldText(study));
   const [problem, setProblem] = useState<string | null>(null);
-  const by = length.by;
-  const apply = (value: string, as: StudyLength['by']) => {
+  // the length this field stored last: a length set elsewhere (the Study tab, undo, a file) replaces the text
+  const stored = useRef<string | number>(study.length);
+  useEffect(() => {
+    if (study.length === stored.current) return;
+    stored.current = study.length;
+    setText(lengthFieldText(study));
+    setProblem(null);
+  }, [study]);
+  const by = lengthBy(study);
+  const apply = (value: string, as: LengthBy) => {
     setText(value);
-    if (as === 'samples') {
-      const n = Number(value);
-      if (!Number.isInteger(n) || n < 2) { setProblem('Study length: give a whole number of samples, 2 or more'); return; }
-      setProblem(null);
-      setStudyLength({ by: 'samples', samples: n }, unit);
-    } else {
-      const d = parseDuration(value, unit);
-      if (!d.ok) { setProblem(`Study length: ${d.message}`); return; }
-      setProblem(null);
-      setStudyLength({ by: 'window', window: d.value }, unit);
-    }
+    const r = typedLength(value, as, unit);
+    if (!r.ok) { setProblem(r.message); return; }
+    setProblem(null);
+    // typing in the field is one undo step
+    if (r.length === study.length) return;
+    stored.current = r.length;
+    editStudy({ length: r.length }, { squash: 'study-length' });
   };
-  const switchTo = (as: StudyLength['by']) => {
+  const switchTo = (as: LengthBy) => {
     if (as === by) return;
-    const next = as === 'window'
-      ? formatDuration((length.by === 'samples' ? length.samples : 50) * interval, unit)
-      : String(Math.max(2, Math.round((length.by === 'window' ? length.window : 50 * interval) / interval)));
-    apply(next, as);
+    documentStore.getState().stopGesture();
+    apply(String(switchedLength(study, unit, as)), as);
   };
-  const nSamples = by === 'window' ? Math.max(1, Math.round(length.window / interval)) : 0;
-  // a schedule other than a fixed interval plans its own prompts (5 a day for 14 days: 70, not 14 days / 2.4 h)
-  const session = useSessionStudy();
-  const planned = useMemo(() => {
-    if (!session || session.study.schedule.kind === 'fixed' || by !== 'window') return null;
-    try { return plannedSlots(session.study, unit).base.length; } catch { return null; }
-  }, [session, unit, by]);
-  const other = by === 'window'
-    ? planned !== null ? `${planned} prompts planned` : `${nSamples} ${nSamples === 1 ? 'sample' : 'samples'}`
-    : `lasts ${formatDuration(length.samples * interval, unit)}`;
+  const other = problem ? null : lengthOther(study, unit);
   return (
     <div className="lf-study">
       <label>
         Study length
-        <select value={by} onChange={(e) => switchTo(e.target.value as StudyLength['by'])} aria-label="Study length given as">
+        <select value={by === 'duration' ? 'window' : 'samples'} onChange={(e) => switchTo(e.target.value === 'window' ? 'duration' : 'samples')} aria-label="Study length given as">
           <option value="samples">in samples</option>
           <option value="window">as a duration</option>
         </select>
       </label>
-      <input aria-label={by === 'samples' ? 'Number of samples' : 'Study duration'} value={text} onChange={(e) => apply(e.target.value, by)} aria-invalid={problem ? true : undefined} size={9} />
-      <span className="lf-study-other">{other}</span>
+      <input
+        aria-label={by === 'samples' ? 'Number of samples' : 'Study duration'}
+        value={text}
+        onChange={(e) => apply(e.target.value, by)}
+        onBlur={() => documentStore.getState().stopGesture()}
+        aria-invalid={problem ? true : undefined}
+        size={9}
+      />
+      {other && <span className="lf-study-other">{other}</span>}
       {problem && <span className="lf-problem" role="alert">{problem}</span>}
     </div>
   );

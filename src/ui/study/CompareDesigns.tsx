@@ -1,109 +1,220 @@
 /**
- * Compare designs: up to three sampling intervals side by side, one row per
- * design, each with the causal ordering at that interval, the lagged network
- * and the same-interval network, drawn by the one renderer (src/export/).
- * The networks come from the numeric worker's lane in one question; the
+ * Compare designs: up to three whole schedules side by side (prompts in a
+ * daily window, at a fixed interval day and night, daily, weekly), over the
+ * same weeks, persons and missed prompts. One row per design, each with the
+ * causal ordering at its interval, the lagged and same-interval networks at
+ * that interval, and what a VAR over its consecutive prompts estimates
+ * (night gaps and missed prompts included). The networks come from the
+ * numeric worker's lane, drawn by the one renderer (src/export/); the
  * orderings are laid out by ELK's worker.
  */
 import { useEffect, useRef, useState } from 'react';
-import type { Model } from '../../core/model/types';
+import type { Model, Schedule, Study } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { orderingAt } from '../../core/ordering/index';
-import { parseInterval } from '../../core/study/convert';
+import { designOfStudy, parseInterval, studyInterval } from '../../core/study/convert';
 import { orderingView } from '../../core/view/derive';
-import { laggedNetwork, sameIntervalNetwork } from '../../export/charts';
+import { laggedNetwork, networkDiagram, sameIntervalNetwork } from '../../export/charts';
 import { buildScene, type El } from '../../export/scene';
 import { browserElk } from '../../layout/browser';
 import { figureLayout } from '../../layout/figure';
-import type { SessionStudy } from '../../state/session';
-import type { SampledAnswer } from '../../worker/numericApi';
+import { editStudy, type SessionStudy } from '../../state/session';
+import type { SampledAnswer, StudyDesignReport } from '../../worker/numericApi';
 import { elToReact } from '../elReact';
 import { NetworkDiagram } from '../numbers/NetworkDiagram';
 import { isFailed, useNumeric } from '../numbers/useNumeric';
-import { UseInterval } from './UseInterval';
+import { designText, designWith, MAX_DESIGNS, sameDesign, startingDesigns } from './compare';
+import { clockText, patchProblem, scheduleOfKind, wholeNumber } from './edit';
 
-/** The most designs compared at once. */
-export const MAX_DESIGNS = 3;
 
-/** The designs the dialog opens with: the study's own interval, then daily and weekly (those the study does not use already). */
-export function startingDesigns(s: SessionStudy, unit: Model['timeUnit']): string[] {
-  const own = formatDuration(s.interval, unit);
-  const out = [own];
-  for (const t of ['1 day', '1 week']) {
-    const v = parseInterval(t, unit);
-    if (v.ok && !out.some((o) => { const w = parseInterval(o, unit); return w.ok && Math.abs(w.value - v.value) <= 1e-9 * v.value; })) out.push(t);
-  }
-  return out.slice(0, MAX_DESIGNS);
-}
+const KINDS: { kind: Schedule['kind']; text: string }[] = [
+  { kind: 'daily-window', text: 'in a daily window' },
+  { kind: 'fixed', text: 'at a fixed interval, day and night' },
+  { kind: 'daily', text: 'once a day' },
+  { kind: 'weekly', text: 'once a week' },
+];
 
 export function CompareDesigns({ model, s, onClose }: { model: Model; s: SessionStudy; onClose(): void }) {
   const ref = useRef<HTMLDialogElement>(null);
   const unit = model.timeUnit;
-  const [texts, setTexts] = useState<string[]>(() => startingDesigns(s, unit));
-  const [drafts, setDrafts] = useState<string[]>(texts);
-  const parsed = texts.map((t) => parseInterval(t, unit));
-  const intervals = parsed.map((p) => (p.ok ? p.value : NaN));
-  const sampled = useNumeric<{ ok: true; answers: (SampledAnswer | { ok: false; reason: string })[] }>((c) => c.ask('sampledAt', model, intervals.filter((x) => x > 0)), [model, intervals.join('|')]);
+  const [designs, setDesigns] = useState<Study[]>(() => startingDesigns(s.study, unit));
   useEffect(() => {
     const d = ref.current;
     if (d && !d.open) d.showModal();
   }, []);
-  const problems = drafts.map((d) => { const p = parseInterval(d, unit); return p.ok ? (p.value > 0 ? null : 'Interval: must be longer than zero') : `Interval: ${p.message}`; });
-  const commit = (i: number) => {
-    if (problems[i] || drafts[i] === texts[i]) return;
-    setTexts((xs) => xs.map((x, k) => (k === i ? drafts[i] : x)));
+  const length = designs[0]?.length ?? s.study.length;
+  const add = () => {
+    const next = startingDesigns(s.study, unit).find((c) => !designs.some((d) => sameDesign(d, c, unit))) ?? designWith(s.study, unit, { kind: 'weekly' });
+    setDesigns((xs) => [...xs, next]);
   };
-  let k = 0;
   return (
     <dialog ref={ref} className="lf-dialog lf-compare" aria-labelledby="lf-compare-title" onClose={onClose}>
       <h2 id="lf-compare-title">Compare designs</h2>
-      <p className="lf-hint">One row per sampling interval, with the study's length ({s.length.by === 'window' ? formatDuration(s.length.window, unit) : `${s.length.samples} prompts`}): the causal ordering a study at that interval sees, and the lagged and same-interval networks it would estimate (in expectation; the same-interval network depends on the process noise of each state).</p>
+      <p className="lf-hint">
+        One row per schedule, each over the study's {String(length)}
+        {s.study.persons ? `, ${s.study.persons} persons` : ''}
+        {s.study.missedPrompts ? `, ${Math.round(s.study.missedPrompts * 100)} % of prompts missed` : ''}: the causal ordering a study at its interval sees, the lagged and same-interval networks at that interval (the same-interval network depends on the process noise of each state), and what a VAR over its consecutive prompts estimates, night gaps and missed prompts included.
+      </p>
       <div className="lf-compare-rows">
-        {texts.map((t, i) => {
-          const at = intervals[i];
-          const answer = sampled.status === 'done' && !isFailed(sampled.answer) && at > 0 ? sampled.answer.answers[k++] : undefined;
-          return (
-            <section key={i} className="lf-compare-row" aria-label={`Design ${i + 1}: every ${t}`} data-design={i}>
-              <div className="lf-compare-head">
-                <label>
-                  Design {i + 1}: every{' '}
-                  <input
-                    aria-label={`Interval of design ${i + 1}`}
-                    value={drafts[i]}
-                    aria-invalid={problems[i] ? true : undefined}
-                    onChange={(e) => setDrafts((xs) => xs.map((x, j) => (j === i ? e.target.value : x)))}
-                    onBlur={() => commit(i)}
-                    onKeyDown={(e) => { if (e.key === 'Enter') { e.preventDefault(); commit(i); } }}
-                    size={10}
-                  />
-                </label>
-                {problems[i] && <span className="lf-field-error" role="alert">{problems[i]}</span>}
-                {at > 0 && <UseInterval value={at} unit={unit} what={`design ${i + 1}`} />}
-                {texts.length > 1 && <button type="button" aria-label={`Remove design ${i + 1}`} onClick={() => { setTexts((xs) => xs.filter((_, j) => j !== i)); setDrafts((xs) => xs.filter((_, j) => j !== i)); }}>Remove</button>}
-              </div>
-              <div className="lf-compare-figures">
-                <figure className="lf-compare-ordering">
-                  <figcaption>Causal ordering</figcaption>
-                  {at > 0 ? <OrderingFigure model={model} interval={at} s={s} /> : null}
-                </figure>
-                <figure>
-                  <figcaption>Lagged network</figcaption>
-                  {answer === undefined ? <p className="lf-hint">Working out…</p> : isFailed(answer) ? <p className="lf-field-error">{answer.reason}</p> : <Net model={model} figure={laggedNetwork(model, answer, false)} none="No lagged effects to draw." />}
-                </figure>
-                <figure>
-                  <figcaption>Same-interval network</figcaption>
-                  {answer === undefined ? <p className="lf-hint">Working out…</p> : isFailed(answer) ? <p className="lf-field-error">{answer.reason}</p> : <Net model={model} figure={sameIntervalNetwork(model, answer)} none="Not defined here: some states receive no noise." />}
-                </figure>
-              </div>
-            </section>
-          );
-        })}
+        {designs.map((d, i) => (
+          <DesignRow
+            key={i}
+            model={model}
+            s={s}
+            design={d}
+            index={i}
+            onChange={(next) => setDesigns((xs) => xs.map((x, k) => (k === i ? next : x)))}
+            onRemove={designs.length > 1 ? () => setDesigns((xs) => xs.filter((_, k) => k !== i)) : undefined}
+          />
+        ))}
       </div>
       <p>
-        {texts.length < MAX_DESIGNS && <button type="button" onClick={() => { setTexts((xs) => [...xs, '1 month']); setDrafts((xs) => [...xs, '1 month']); }}>Add a design</button>}{' '}
+        {designs.length < MAX_DESIGNS && <button type="button" onClick={add}>Add a design</button>}{' '}
         <button type="button" onClick={() => ref.current?.close()}>Close</button>
       </p>
     </dialog>
+  );
+}
+
+/** A text field of a design row: stored on Enter or when left; a problem stays with a message naming the field. */
+function RowField({ label, value, size, check }: { label: string; value: string; size: number; check(text: string): string | null }) {
+  const [text, setText] = useState(value);
+  const [problem, setProblem] = useState<string | null>(null);
+  useEffect(() => { setText(value); setProblem(null); }, [value]);
+  const commit = () => { if (text !== value) setProblem(check(text)); };
+  return (
+    <>
+      <input
+        aria-label={label}
+        value={text}
+        size={size}
+        aria-invalid={problem ? true : undefined}
+        onChange={(e) => setText(e.target.value)}
+        onBlur={commit}
+        onKeyDown={(e) => {
+          if (e.key === 'Enter') { e.preventDefault(); commit(); }
+          if (e.key === 'Escape') { e.stopPropagation(); e.preventDefault(); setText(value); setProblem(null); }
+        }}
+      />
+      {problem && <span className="lf-field-error" role="alert">{problem}</span>}
+    </>
+  );
+}
+
+function DesignRow({ model, s, design, index, onChange, onRemove }: { model: Model; s: SessionStudy; design: Study; index: number; onChange(d: Study): void; onRemove?: () => void }) {
+  const unit = model.timeUnit;
+  const n = index + 1;
+  const at = studyInterval(design, unit);
+  const sch = design.schedule;
+  const text = designText(design, unit);
+  /** Apply a change of the schedule or interval; the message names the field when the design does not check out. */
+  const change = (schedule: Schedule, interval?: Study['interval']): string | null => {
+    const next = designWith(design, unit, schedule, interval ?? design.interval);
+    const problem = patchProblem(design, { schedule: next.schedule, interval: next.interval }, model);
+    if (problem) return problem;
+    onChange(next);
+    return null;
+  };
+  const inUse = sameDesign(design, s.study, unit);
+  const sampled = useNumeric<SampledAnswer>(at !== undefined && at > 0 ? (c) => c.ask('sampled', model, at) : null, [model, at]);
+  const estimated = useNumeric<{ ok: true; report: StudyDesignReport }>((c) => c.ask('design', model, design), [model, design]);
+  const answer = sampled.status === 'done' ? sampled.answer : undefined;
+  const report = estimated.status === 'done' ? estimated.answer : undefined;
+  return (
+    <section className="lf-compare-row" aria-label={`Design ${n}: ${text}`} data-design={index} data-kind={sch.kind}>
+      <div className="lf-compare-head">
+        <span className="lf-compare-name">Design {n}: {text}</span>
+        <button
+          type="button"
+          disabled={inUse}
+          aria-label={`Use design ${n} (${text}) as the study`}
+          title={inUse ? 'The study uses this design' : 'Set the study’s schedule and interval to this design (undo brings back the one before)'}
+          onClick={() => editStudy({ schedule: design.schedule, interval: design.interval })}
+        >
+          {inUse ? 'the study’s design' : 'Use this design'}
+        </button>
+        {onRemove && <button type="button" aria-label={`Remove design ${n}`} onClick={onRemove}>Remove</button>}
+      </div>
+      <div className="lf-compare-edit">
+        <label>
+          Prompts come{' '}
+          <select aria-label={`Schedule of design ${n}`} value={sch.kind} onChange={(e) => change(scheduleOfKind(e.target.value as Schedule['kind'], sch))}>
+            {KINDS.map((k) => <option key={k.kind} value={k.kind}>{k.text}</option>)}
+          </select>
+        </label>
+        {sch.kind === 'fixed' && (
+          <label>
+            every{' '}
+            <RowField
+              label={`Interval of design ${n}`}
+              value={String(design.interval)}
+              size={8}
+              check={(t) => {
+                const p = parseInterval(t, unit);
+                if (!p.ok) return `Interval: ${p.message}`;
+                if (!(p.value > 0)) return 'Interval: must be longer than zero';
+                return change(sch, t.trim());
+              }}
+            />
+          </label>
+        )}
+        {sch.kind === 'daily-window' && (
+          <>
+            <label>
+              <RowField label={`Prompts per day of design ${n}`} value={String(sch.promptsPerDay)} size={3} check={(t) => { const w = wholeNumber(t, 'Prompts per day', 1); return w.ok ? change({ ...sch, promptsPerDay: w.value }) : w.message; }} />{' '}
+              a day
+            </label>
+            <label>
+              from <RowField label={`First prompt of design ${n}`} value={sch.from} size={5} check={(t) => change({ ...sch, from: clockText(t) })} />
+            </label>
+            <label>
+              to <RowField label={`Last prompt of design ${n}`} value={sch.to} size={5} check={(t) => change({ ...sch, to: clockText(t) })} />
+            </label>
+            <select aria-label={`Timing of design ${n}`} value={sch.timing} onChange={(e) => change({ ...sch, timing: e.target.value as 'fixed' | 'stratified-random' })}>
+              <option value="stratified-random">stratified random</option>
+              <option value="fixed">evenly spaced</option>
+            </select>
+          </>
+        )}
+        {at !== undefined && sch.kind !== 'fixed' && <span className="lf-hint">nominal interval {formatDuration(at, unit)}</span>}
+      </div>
+      <div className="lf-compare-figures">
+        <figure className="lf-compare-ordering">
+          <figcaption>Causal ordering at {at !== undefined ? formatDuration(at, unit) : '—'}</figcaption>
+          {at !== undefined && at > 0 ? <OrderingFigure model={model} design={design} /> : null}
+        </figure>
+        <figure>
+          <figcaption>Lagged network</figcaption>
+          {answer === undefined ? <p className="lf-hint">Working out…</p> : isFailed(answer) ? <p className="lf-field-error">{answer.reason}</p> : <Net model={model} figure={laggedNetwork(model, answer, false)} none="No lagged effects to draw." />}
+        </figure>
+        <figure>
+          <figcaption>Same-interval network</figcaption>
+          {answer === undefined ? <p className="lf-hint">Working out…</p> : isFailed(answer) ? <p className="lf-field-error">{answer.reason}</p> : <Net model={model} figure={sameIntervalNetwork(model, answer)} none="Not defined here: some states receive no noise." />}
+        </figure>
+        <figure className="lf-compare-estimated" data-status={estimated.status}>
+          <figcaption>What a VAR over its prompts estimates</figcaption>
+          {report === undefined ? <p className="lf-hint">Working out…</p> : isFailed(report) ? <p className="lf-field-error">{report.reason}</p> : <Estimated model={model} r={report.report} />}
+        </figure>
+      </div>
+    </section>
+  );
+}
+
+/** The VAR(1) limit over all consecutive prompts as a lagged network, and the night-gap effect in words. */
+function Estimated({ model, r }: { model: Model; r: StudyDesignReport }) {
+  const figure = networkDiagram({ model, states: r.states, matrix: r.pooled, directed: true, label: `Estimated over consecutive prompts, ${formatDuration(r.interval, r.timeUnit)} nominal` });
+  const longest = r.gaps.reduce((m, g) => Math.max(m, g.gap), 0);
+  return (
+    <>
+      <NetworkDiagram model={model} figure={figure} />
+      <p className="lf-compare-says">
+        {r.shrinkage.length > 0
+          ? r.shrinkage[0]
+          : longest <= r.interval * 1.01
+            ? `Consecutive prompts are ${formatDuration(r.interval, r.timeUnit)} apart: the VAR estimates Φ at that interval.`
+            : `Gaps up to ${formatDuration(longest, r.timeUnit)} after missed prompts: the VAR mixes Φ over them.`}
+      </p>
+    </>
   );
 }
 
@@ -111,18 +222,19 @@ function Net({ model, figure, none }: { model: Model; figure: El | null; none: s
   return figure ? <NetworkDiagram model={model} figure={figure} /> : <p className="lf-hint">{none}</p>;
 }
 
-/** The ordering at an interval over the study's length, laid out by ELK and drawn by the scene builder. */
-function OrderingFigure({ model, interval, s }: { model: Model; interval: number; s: SessionStudy }) {
+/** The ordering at a design's interval over its length, laid out by ELK and drawn by the scene builder. */
+function OrderingFigure({ model, design }: { model: Model; design: Study }) {
   const [el, setEl] = useState<El | null | 'failed'>(null);
-  const length = s.length;
+  const unit = model.timeUnit;
+  const key = JSON.stringify([design.interval, design.length, design.holds]);
   useEffect(() => {
     let live = true;
     setEl(null);
-    const design = length.by === 'window' ? { interval, window: length.window, hold: s.holds } : { interval, samples: length.samples, hold: s.holds };
+    const d = designOfStudy(design, unit);
     void (async () => {
       try {
-        const ordering = orderingAt(model, design);
-        const vm = orderingView(model, ordering, { mode: 'ordering', interval, window: design.window, samples: design.samples });
+        const ordering = orderingAt(model, d);
+        const vm = orderingView(model, ordering, { mode: 'ordering', interval: d.interval, window: d.window, samples: d.samples });
         const layout = await figureLayout(await browserElk(), vm);
         if (live) setEl(buildScene(vm, layout, { title: false }));
       } catch {
@@ -130,7 +242,8 @@ function OrderingFigure({ model, interval, s }: { model: Model; interval: number
       }
     })();
     return () => { live = false; };
-  }, [model, interval, length, s.holds]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [model, key, unit]);
   if (el === null) return <p className="lf-hint">Laying out…</p>;
   if (el === 'failed') return <p className="lf-field-error">The ordering at this interval could not be drawn.</p>;
   return elToReact(el, (e) => (e.tag === 'svg' ? { className: 'lf-compare-svg' } : undefined));

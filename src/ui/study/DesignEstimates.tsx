@@ -5,15 +5,15 @@
  * same-day pairs only) beside Φ at the nominal interval. Computed by the core
  * (`studyDesign`) on the numeric worker's lane.
  */
+import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { labelOf, weightText } from '../../present/index';
 import type { SessionStudy } from '../../state/session';
 import type { StudyDesignReport } from '../../worker/numericApi';
 import { isFailed, useNumeric } from '../numbers/useNumeric';
+import { effectTable, SMALL_EFFECT, SMALL_SHARE } from './estimates';
 
-/** Gaps with a smaller share than this are summed in one row. */
-const SMALL_SHARE = 0.005;
 
 const pct = (x: number) => (x >= 0.995 ? `${Math.round(x * 100)} %` : x >= 0.01 ? `${(x * 100).toFixed(1)} %` : `${(x * 100).toFixed(2)} %`);
 
@@ -38,21 +38,14 @@ export function DesignEstimates({ model, s }: { model: Model; s: SessionStudy })
 
 function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
   const u = r.timeUnit;
-  const label = (id: VariableId) => labelOf(model, id);
+  const [on, setOn] = useState<VariableId | ''>('');
+  const [all, setAll] = useState(false);
   const main = r.gaps.filter((g) => g.share >= SMALL_SHARE);
   const rest = r.gaps.filter((g) => g.share < SMALL_SHARE);
   const restShare = rest.reduce((a, g) => a + g.share, 0);
   const where = (g: StudyDesignReport['gaps'][number]) => (g.sameDayShare >= g.share * 0.999 ? 'within the day' : g.sameDayShare <= g.share * 0.001 ? 'overnight' : 'both');
-  const n = r.states.length;
-  // the entries of Φ shown in the limits: every autoregression, then each cross-lagged effect that reaches 0.01 anywhere
-  const entries: { to: number; from: number }[] = [];
-  for (let i = 0; i < n; i++) entries.push({ to: i, from: i });
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) {
-      if (i === j) continue;
-      const big = [r.nominal, r.pooled, r.sameDay].some((m) => m && Math.abs(m[i][j]) >= 0.01);
-      if (big) entries.push({ to: i, from: j });
-    }
+  const table = effectTable(model, r, { on: on === '' ? undefined : on, all });
+  const cols = table.gaps.length + 4;
   return (
     <div className="lf-study-report">
       {r.shrinkage.length > 0 ? (
@@ -62,16 +55,15 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
       ) : (
         <p className="lf-hint">Every gap is one interval or shorter: the VAR over consecutive prompts estimates about Φ at the interval.</p>
       )}
-      <h4>Gaps between consecutive answered prompts, and Φ for each</h4>
-      <p className="lf-hint">Autoregressions (the diagonal of Φ over the gap). A missed prompt makes a gap of two parts or more.</p>
+      <h4>Gaps between consecutive answered prompts</h4>
+      <p className="lf-hint">A missed prompt makes a gap of two parts or more.</p>
       <div className="lf-study-scroll">
         <table className="lf-num-table lf-study-gaps">
           <thead>
             <tr>
               <th scope="col">Gap</th>
-              <th scope="col">Share</th>
+              <th scope="col">Share of pairs</th>
               <th scope="col">Where</th>
-              {r.states.map((id) => <th scope="col" key={id}>{label(id)}</th>)}
             </tr>
           </thead>
           <tbody>
@@ -80,43 +72,68 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
                 <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> ± {formatDuration(g.spread, u)}</span>}</th>
                 <td>{pct(g.share)}</td>
                 <td>{where(g)}</td>
-                {r.states.map((id, i) => <td key={id}>{weightText(g.phi[i][i])}</td>)}
               </tr>
             ))}
             {rest.length > 0 && (
               <tr>
                 <th scope="row">{rest.length} longer gaps (up to {formatDuration(rest[rest.length - 1].gap, u)})</th>
                 <td>{pct(restShare)}</td>
-                <td colSpan={1 + n}>after several missed prompts in a row</td>
+                <td>after several missed prompts in a row</td>
               </tr>
             )}
           </tbody>
         </table>
       </div>
-      <h4>What a VAR(1) over consecutive prompts estimates, beside Φ at {formatDuration(r.interval, u)}</h4>
-      <p className="lf-hint">In the limit of many prompts: over all consecutive pairs Σ w·Φ(gap), weighted by the shares above; over same-day pairs only, the night left out.</p>
+      <h4>Φ for each gap, and what a VAR(1) over consecutive prompts estimates, beside Φ at {formatDuration(r.interval, u)}</h4>
+      <p className="lf-hint">Each row is one lagged effect on a variable (row of Φ), from itself or another (column of Φ). The VAR limits hold for many prompts: all consecutive pairs give Σ w·Φ(gap), weighted by the shares above; same-day pairs only leave the night out.</p>
+      <div className="lf-study-effects-controls">
+        {r.states.length > 2 && (
+          <label>
+            Effects on{' '}
+            <select aria-label="Show the effects on" value={on} onChange={(e) => setOn(e.target.value)}>
+              <option value="">every variable</option>
+              {r.states.map((id) => <option key={id} value={id}>{labelOf(model, id)}</option>)}
+            </select>
+          </label>
+        )}
+        <label>
+          <input type="checkbox" checked={all} onChange={(e) => setAll(e.target.checked)} /> also effects under {SMALL_EFFECT} everywhere
+        </label>
+      </div>
       <div className="lf-study-scroll">
-        <table className="lf-num-table lf-study-limits">
+        <table className="lf-num-table lf-study-limits" aria-label="Lagged effects per gap and in the VAR limits">
           <thead>
             <tr>
-              <th scope="col">Effect</th>
-              <th scope="col">Φ at {formatDuration(r.interval, u)}</th>
+              <th scope="col" className="lf-study-sticky">Effect</th>
+              {table.gaps.map((g) => (
+                <th scope="col" key={`${g.gap}|${g.spread}`} className="lf-study-gapcol" title={`${pct(g.share)} of consecutive pairs, ${where(g)}`}>
+                  over {formatDuration(g.gap, u)}<span className="lf-study-spread">{pct(g.share)}, {where(g) === 'overnight' ? 'night' : where(g) === 'within the day' ? 'day' : 'both'}</span>
+                </th>
+              ))}
+              <th scope="col" className="lf-study-limitcol">Φ at {formatDuration(r.interval, u)}</th>
               <th scope="col">All pairs</th>
               <th scope="col">Same-day pairs</th>
             </tr>
           </thead>
-          <tbody>
-            {entries.map(({ to, from }) => (
-              <tr key={`${from}>${to}`} data-entry={`${r.states[from]}>${r.states[to]}`}>
-                <th scope="row">{to === from ? `${label(r.states[to])} (itself)` : `${label(r.states[from])} → ${label(r.states[to])}`}</th>
-                <td>{weightText(r.nominal[to][from])}</td>
-                <td>{weightText(r.pooled[to][from])}</td>
-                <td>{r.sameDay ? weightText(r.sameDay[to][from]) : '—'}</td>
+          {table.groups.map((g) => (
+            <tbody key={g.to} data-on={r.states[g.to]}>
+              <tr className="lf-study-group">
+                <th scope="colgroup" colSpan={cols} className="lf-study-sticky">On {g.label}</th>
               </tr>
-            ))}
-          </tbody>
+              {g.rows.map((row) => (
+                <tr key={row.from} data-entry={`${r.states[row.from]}>${r.states[row.to]}`}>
+                  <th scope="row" className="lf-study-sticky" aria-label={row.to === row.from ? `${g.label} (itself)` : `${labelOf(model, r.states[row.from])} → ${g.label}`}>{row.label}</th>
+                  {row.perGap.map((x, k) => <td key={k}>{weightText(x)}</td>)}
+                  <td className="lf-study-limitcol">{weightText(row.nominal)}</td>
+                  <td>{weightText(row.pooled)}</td>
+                  <td>{row.sameDay === null ? '—' : weightText(row.sameDay)}</td>
+                </tr>
+              ))}
+            </tbody>
+          ))}
         </table>
       </div>
+      {table.hidden > 0 && <p className="lf-hint">{table.hidden} cross-lagged {table.hidden === 1 ? 'effect stays' : 'effects stay'} under {SMALL_EFFECT} for every gap and limit and {table.hidden === 1 ? 'is' : 'are'} left out.</p>}
       {r.warnings.length > 0 && <ul className="lf-study-warnings">{r.warnings.map((w) => <li key={w}>{w}</li>)}</ul>}
     </div>
   );

@@ -6,7 +6,7 @@
  */
 import { studyIssues } from '../../core/model/schema';
 import type { Model, Schedule, Study, TimeUnit } from '../../core/model/types';
-import { exactDuration, studyInterval } from '../../core/study/convert';
+import { exactDuration, lengthAxis, studyInterval } from '../../core/study/convert';
 import { nominalSpacing, plannedSlots } from '../../core/study/schedule';
 
 /** The name of each field as the Study tab shows it, by the path the core reports. */
@@ -113,10 +113,13 @@ export function lengthAs(study: Study, unit: TimeUnit, by: LengthBy): string | n
     try {
       return Math.max(2, plannedSlots(study, unit).base.length);
     } catch {
-      return 50;
+      // a study too long to plan prompt by prompt: its window over its interval
+      const w = lengthAxis(study.length, unit);
+      const interval = studyInterval(study, unit);
+      return w.ok && w.window !== undefined && interval ? Math.max(2, Math.floor(w.window / interval)) : study.length;
     }
   }
-  const n = typeof study.length === 'number' ? study.length : 50;
+  const n = study.length as number;
   const sch = study.schedule;
   if (sch.kind === 'daily-window') return `${Math.ceil(n / sch.promptsPerDay)} day`;
   if (sch.kind === 'daily') return `${n} day`;
