@@ -138,7 +138,7 @@ export function TimescalePaneFor({ model, presenting = false }: { model: Model; 
         )}
         <span className="lf-spacer" />
         <button type="button" ref={exportToggle} aria-expanded={exportRow} aria-controls={`${exportId}-row`} onClick={() => setExportRow((o) => !o)}>Export <span aria-hidden="true">{exportRow ? '▴' : '▾'}</span></button>
-        <button type="button" className="lf-present-open" title="Presentation mode (P): the figure, the interval and the explanation large; arrows step the band, Esc leaves" onClick={openPresentation}>Present</button>
+        <button type="button" id="lf-present-open" className="lf-present-open" title="Presentation mode (P): the figure, the interval and the explanation large; arrows step the band, Esc leaves" onClick={openPresentation}>Present</button>
       </div>}
       {/* the export actions, used now and then, unfold as a row of their own under the toolbar (the toolbar keeps to its width at 1024 px) */}
       {!presenting && exportRow && <div className="lf-timescale-bar lf-timescale-export" id={`${exportId}-row`} role="group" aria-label="Export the figure" onKeyDown={(e) => { if (e.key === 'Escape' && !printing) { e.stopPropagation(); setExportRow(() => false); exportToggle.current?.focus(); } }}>
