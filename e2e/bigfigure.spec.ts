@@ -16,6 +16,7 @@ test('a big figure puts only the parts near the view on the page, and draws more
   await page.screenshot({ path: testInfo.outputPath('big-figure-top.png') });
 
   // the whole figure, as the file export writes it (laid out as on screen)
+  await page.getByRole('button', { name: 'Export', exact: true }).click(); // the export row under the toolbar
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'SVG' }).click()]);
   const file = testInfo.outputPath('big-figure.svg');
   await download.saveAs(file);

@@ -20,6 +20,7 @@ async function openBandWithBlock(page: Page, view: 'ordering' | 'unrolled') {
   await page.keyboard.press('Home');
   for (let i = 0; i < 6; i++) await page.keyboard.press('PageUp');
   if (view === 'unrolled') await page.getByRole('button', { name: 'Three instants' }).click();
+  await page.getByRole('button', { name: 'Export', exact: true }).click(); // the export row under the toolbar
   return slider;
 }
 
@@ -52,6 +53,7 @@ for (const view of ['ordering', 'unrolled'] as const) {
 test("the app's export of the mechanism is the file `loopfold render --view mechanism` writes", async ({ page }, testInfo) => {
   await page.goto('/?example=sleep-stress');
   await page.getByRole('tab', { name: 'Timescales' }).click();
+  await page.getByRole('button', { name: 'Export', exact: true }).click(); // the export row under the toolbar
   await page.getByLabel('Export figure of').selectOption('mechanism');
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'SVG' }).click()]);
   const appFile = testInfo.outputPath('app-mechanism.svg');

@@ -30,6 +30,7 @@ test('the export dialog of the ordering: one column in greyscale is 8.5 cm wide 
     await page.setViewportSize(size);
     await page.goto('/?example=sleep-stress');
     await page.getByRole('tab', { name: 'Timescales' }).click();
+    await page.getByRole('button', { name: 'Export', exact: true }).click(); // the export row under the toolbar
     await page.getByRole('button', { name: 'Print options…' }).click();
     const dialog = page.getByRole('dialog', { name: /Export the ordering for print/ });
     await expect(dialog).toBeVisible();

@@ -1,12 +1,14 @@
 import { useEffect, useRef } from 'react';
 import { EXAMPLES } from '../examples/index';
 import { useUi, uiStore } from '../state/ui';
+import { useModalFocus } from './modal';
 import { openExample } from './actions';
 
 /** The example gallery: scenarios to open and explore. */
 export function GalleryDialog() {
   const open = useUi((s) => s.galleryOpen);
   const ref = useRef<HTMLDialogElement>(null);
+  useModalFocus(ref, open);
   useEffect(() => {
     const d = ref.current;
     if (!d) return;

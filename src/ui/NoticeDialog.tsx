@@ -1,10 +1,12 @@
 import { useEffect, useRef } from 'react';
 import { useUi, uiStore } from '../state/ui';
+import { useModalFocus } from './modal';
 
 /** A message that needs reading: a file that could not be opened, with every problem and where it is. */
 export function NoticeDialog() {
   const notice = useUi((s) => s.notice);
   const ref = useRef<HTMLDialogElement>(null);
+  useModalFocus(ref, !!notice);
   useEffect(() => {
     const d = ref.current;
     if (!d) return;

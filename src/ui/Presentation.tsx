@@ -17,6 +17,7 @@ import { setStudyInterval, useSessionStudy, type StudyLength } from '../state/se
 import { useBandCache } from './views/bandCache';
 import { TimescalePaneFor } from './views/TimescalePane';
 import './presentation.css';
+import { useModalFocus } from './modal';
 
 const presentStore = createStore<{ open: boolean }>(() => ({ open: false }));
 export const openPresentation = (): void => presentStore.setState({ open: true });
@@ -54,6 +55,7 @@ export function Presentation() {
 
 function PresentationFor({ model }: { model: Model | null }) {
   const root = useRef<HTMLDivElement>(null);
+  useModalFocus(root, true);
   const session = useSessionStudy();
   const length = session?.length ?? DEFAULT_LENGTH;
   const interval = session && Number.isFinite(session.interval) ? session.interval : null;

@@ -5,6 +5,7 @@ import { DiagnosticsList } from './diagnostics/DiagnosticsList';
 import { EquationsView } from './equations/EquationsView';
 import { CommutationPanel, HoldControl } from './interventions';
 import { lazy, Suspense } from 'react';
+import { PaneTabs } from './PaneTabs';
 
 // The Numbers pane and its worker load only when the tab is first opened.
 const NumbersPane = lazy(() => import('./numbers/NumbersPane'));
@@ -30,29 +31,7 @@ export function RightPane() {
   const pane = useUi((s) => s.pane);
   return (
     <aside className="lf-right" aria-label="Side pane">
-      <div role="tablist" aria-label="Side pane view" className="lf-tabs">
-        {TABS.map((t) => (
-          <button
-            key={t.id}
-            type="button"
-            role="tab"
-            id={`lf-tab-${t.id}`}
-            aria-selected={pane === t.id}
-            aria-controls={`lf-panel-${t.id}`}
-            tabIndex={pane === t.id ? 0 : -1}
-            onClick={() => uiStore.getState().set({ pane: t.id })}
-            onKeyDown={(e) => {
-              if (e.key !== 'ArrowRight' && e.key !== 'ArrowLeft') return;
-              const i = TABS.findIndex((x) => x.id === pane);
-              const next = TABS[(i + (e.key === 'ArrowRight' ? 1 : TABS.length - 1)) % TABS.length];
-              uiStore.getState().set({ pane: next.id });
-              document.getElementById(`lf-tab-${next.id}`)?.focus();
-            }}
-          >
-            {t.name}
-          </button>
-        ))}
-      </div>
+      <PaneTabs tabs={TABS} pane={pane} choose={(id) => uiStore.getState().set({ pane: id })} />
       <div role="tabpanel" id={`lf-panel-${pane}`} aria-labelledby={`lf-tab-${pane}`} className="lf-panel">
         {pane === 'edit' && (
           <>

@@ -14,6 +14,7 @@ import { downloadBlob } from '../download';
 import { svgPng } from '../figureFiles';
 import { cliArgs, commandText, pngPixels, printedFigure, printedSvg, type FigureSource } from './printFile';
 import './export.css';
+import { useModalFocus } from '../modal';
 
 type WidthChoice = 'column' | '1.5-column' | 'two-columns' | 'own' | 'length';
 const WIDTHS: { value: WidthChoice; text: string }[] = [
@@ -65,6 +66,7 @@ async function svgToPng(svg: string, size: { width: number; height: number }, dp
 
 export function ExportDialog({ what, name, modelFile, source, onClose }: ExportDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
+  useModalFocus(ref, true);
   const id = useId();
   const [width, setWidth] = useState<WidthChoice>('column');
   const [length, setLength] = useState('120mm');

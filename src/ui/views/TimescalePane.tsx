@@ -3,7 +3,7 @@
  * chosen sampling interval (or the three instants t−1, t, t+1), the
  * explanation of what differs and why, and the figure export.
  */
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { explainOrdering } from '../../core/view/explain';
 import { mechanismView, orderingView, simultaneousBlocks, blockKey } from '../../core/view/derive';
@@ -14,8 +14,12 @@ import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
 import { useSessionStudy, type StudyLength } from '../../state/session';
 import { viewCaption } from '../../export/caption';
+import { createStore } from 'zustand/vanilla';
+import { useStore } from 'zustand';
 
 const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
+/** Whether the export row is unfolded: kept while the modeller goes to another tab and back. */
+const exportRowStore = createStore<{ open: boolean }>(() => ({ open: false }));
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
 import { exportPng, exportSvg } from './exportFigure';
 import { ExportDialog } from '../export/ExportDialog';
@@ -84,6 +88,10 @@ export function TimescalePaneFor({ model, presenting = false }: { model: Model; 
   const lines = useMemo(() => (ordering && shownInterval !== null && shownCache ? explainOrdering(shownCache.model, ordering, shownCache.design(shownInterval), shownCache.breakpoints) : []), [ordering, shownInterval, shownCache]);
   const [exportProblem, setExportProblem] = useState<string | null>(null);
   const [printing, setPrinting] = useState(false);
+  const exportRow = useStore(exportRowStore, (x) => x.open);
+  const setExportRow = (f: (open: boolean) => boolean) => exportRowStore.setState((x) => ({ open: f(x.open) }));
+  const exportToggle = useRef<HTMLButtonElement>(null);
+  const exportId = useId();
 
   if (bc.status === 'failed') return <section className="lf-timescale"><p role="alert">The ordering could not be computed: {bc.message}</p></section>;
   if (!vm || !ordering || interval === null) return <section className="lf-timescale" aria-label="Ordering at the sampling interval">{problem ? <p role="alert">The ordering could not be computed: {problem}</p> : <p>Finding the model's timescales…</p>}</section>;
@@ -129,6 +137,11 @@ export function TimescalePaneFor({ model, presenting = false }: { model: Model; 
           </>
         )}
         <span className="lf-spacer" />
+        <button type="button" ref={exportToggle} aria-expanded={exportRow} aria-controls={`${exportId}-row`} onClick={() => setExportRow((o) => !o)}>Export <span aria-hidden="true">{exportRow ? '▴' : '▾'}</span></button>
+        <button type="button" id="lf-present-open" className="lf-present-open" title="Presentation mode (P): the figure, the interval and the explanation large; arrows step the band, Esc leaves" onClick={openPresentation}>Present</button>
+      </div>}
+      {/* the export actions, used now and then, unfold as a row of their own under the toolbar (the toolbar keeps to its width at 1024 px) */}
+      {!presenting && exportRow && <div className="lf-timescale-bar lf-timescale-export" id={`${exportId}-row`} role="group" aria-label="Export the figure" onKeyDown={(e) => { if (e.key === 'Escape' && !printing) { e.stopPropagation(); setExportRow(() => false); exportToggle.current?.focus(); } }}>
         <label className="lf-export-label">
           Export{' '}
           <select aria-label="Export figure of" value={exportOf} onChange={(e) => setExportOf(e.target.value as 'view' | 'mechanism')}>
@@ -150,7 +163,6 @@ export function TimescalePaneFor({ model, presenting = false }: { model: Model; 
         <button type="button" onClick={() => doExport(2)}>2×</button>
         <button type="button" onClick={() => doExport(4)}>4×</button>
         <button type="button" onClick={() => setPrinting(true)}>Print options…</button>
-        <button type="button" className="lf-present-open" title="Presentation mode (P): the figure, the interval and the explanation large; arrows step the band, Esc leaves" onClick={openPresentation}>Present</button>
       </div>}
       {printing && (
         <ExportDialog
