@@ -13,7 +13,7 @@ import { formatDuration, parseDuration } from '../../core/model/units';
 import { linksOfText, rehearsalOf, simulateStudy, type Rehearsal } from '../../core/rehearse/setup';
 import { analyticPower, monteCarloPower, type PowerResult } from '../../core/rehearse/power';
 import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget } from '../../core/rehearse/plan';
-import { formatNumber, toCsv, type CsvValue } from '../../present/index';
+import { formatNumber, studyCsv } from '../../present/index';
 import { loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
@@ -138,12 +138,9 @@ export const rehearseCommands: CliCommand[] = [
       } catch (e) {
         throw new CliError((e as Error).message);
       }
-      const rows: CsvValue[][] = [['person', 'day', 'prompt', 'time', ...panel.variables]];
-      const n = panel.variables.length;
-      for (const p of panel.persons)
-        p.time.forEach((t, k) => rows.push([p.id, p.day ? p.day[k] : null, p.prompt ? p.prompt[k] : null, t, ...Array.from(p.values.subarray(k * n, (k + 1) * n))]));
-      io.writeFile(out, toCsv(rows));
-      io.out(`wrote ${out}: ${panel.persons.length} persons, ${rows.length - 1} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
+      io.writeFile(out, studyCsv(panel));
+      const answered = panel.persons.reduce((a, p) => a + p.time.length, 0);
+      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
       return 0;
     },
   },
