@@ -7,3 +7,4 @@
 export { labelOf, labeller, unitOf } from './labels';
 export { formatNumber, MINUS, numText, quantityText, timeUnitWord, weightText, type NumberStyle } from './numbers';
 export { csvField, defuseFormula, recordsToCsv, simulationCsv, toCsv, type CsvValue } from './csv';
+export { studyCsv, type LongStudy } from './studyCsv';

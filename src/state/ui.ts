@@ -2,7 +2,7 @@
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
 
-export type RightPane = 'edit' | 'equations' | 'timescales' | 'intervene' | 'numbers' | 'pictures' | 'steps' | 'study' | 'data';
+export type RightPane = 'edit' | 'equations' | 'timescales' | 'intervene' | 'numbers' | 'pictures' | 'steps' | 'study' | 'data' | 'rehearse';
 
 export interface Notice {
   title: string;

@@ -13,6 +13,7 @@ const PicturesPane = lazy(() => import('./pictures/PicturesPane'));
 const StepsPane = lazy(() => import('./undersample/StepsPane'));
 const StudyPane = lazy(() => import('./study/StudyPane'));
 const DataPane = lazy(() => import('./data/DataPane'));
+const RehearsePane = lazy(() => import('./rehearse/RehearsePane'));
 
 const TABS: { id: Pane; name: string }[] = [
   { id: 'edit', name: 'Edit' },
@@ -24,6 +25,7 @@ const TABS: { id: Pane; name: string }[] = [
   { id: 'steps', name: 'Steps' },
   { id: 'study', name: 'Study' },
   { id: 'data', name: 'Data' },
+  { id: 'rehearse', name: 'Rehearse' },
 ];
 
 /** The pane beside the canvas: editing and checks, the equation structure, the timescale views, or interventions. */
@@ -60,6 +62,7 @@ export function RightPane() {
         {pane === 'steps' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StepsPane /></Suspense>}
         {pane === 'study' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><StudyPane /></Suspense>}
         {pane === 'data' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><DataPane /></Suspense>}
+        {pane === 'rehearse' && <Suspense fallback={<p className="lf-num-wait">Loading…</p>}><RehearsePane /></Suspense>}
       </div>
     </aside>
   );

@@ -5,14 +5,15 @@
  * `loopfold power MODEL.json --link from->to[,..] [--persons N] [--method analytic|montecarlo]
  *   [--replications K] [--seed S] [--json]`: effect, SE and power per link.
  * `loopfold plan MODEL.json --link from->to [--budget prompts=70 | span="14 days"] [--persons N] [--json]`:
- *   power against the interval under the budget and the design to recommend.
+ *   power against the interval under the budget and the design to recommend;
+ *   `--over persons|prompts-per-day [--values 10,20,40]`: against the persons or the prompts a day instead.
  */
 import type { Model } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { linksOfText, rehearsalOf, simulateStudy, type Rehearsal } from '../../core/rehearse/setup';
 import { analyticPower, monteCarloPower, type PowerResult } from '../../core/rehearse/power';
-import { planStudy, type Budget } from '../../core/rehearse/plan';
-import { formatNumber, toCsv, type CsvValue } from '../../present/index';
+import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget } from '../../core/rehearse/plan';
+import { formatNumber, studyCsv } from '../../present/index';
 import { loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 
@@ -88,6 +89,38 @@ function budgetOption(args: CliArgs, model: Model, r: Rehearsal): Budget {
   return { kind: 'span', span: d.value };
 }
 
+function valuesOption(args: CliArgs): number[] | undefined {
+  const v = args.options.values;
+  if (v === undefined) return undefined;
+  if (v === true) throw new CliError('--values needs a list of whole numbers, e.g. --values 10,20,40', 2);
+  return v.split(',').map((t) => {
+    const n = Number(t.trim());
+    if (t.trim() === '' || !Number.isInteger(n) || n < 1) throw new CliError(`--values: "${t.trim()}" is not a whole number of at least 1`, 2);
+    return n;
+  });
+}
+
+function planOtherAxis(model: Model, r: Rehearsal, over: 'persons' | 'prompts-per-day', values: number[] | undefined, json: boolean, out: (s: string) => void): number {
+  let plan: AxisPlan;
+  try {
+    plan = over === 'persons' ? planPersons(r, { values, format: dur(model) }) : planPromptsPerDay(r, { values, format: dur(model) });
+  } catch (e) {
+    throw new CliError((e as Error).message, 2);
+  }
+  if (json) {
+    out(JSON.stringify({ design: designOf(r), timeUnit: model.timeUnit, over, ...plan, method: 'analytic', note: 'analytic power (pooled VAR(1) limit): optimistic below about 100 answered occasions per person; check the chosen design with loopfold power --method montecarlo' }, null, 2));
+    return 0;
+  }
+  const head = over === 'persons' ? 'persons' : 'a day';
+  const lines = [`${model.name}: power against ${over === 'persons' ? 'the persons' : 'the prompts per day'} (analytic)`, ''];
+  lines.push(`  ${head.padStart(8)} ${'prompts'.padStart(8)} ${'interval'.padStart(12)} ${r.links.map((l) => `${l.from}->${l.to}`.padStart(18)).join(' ')}`);
+  for (const p of plan.points)
+    lines.push(`  ${String(p.value).padStart(8)} ${String(p.prompts).padStart(8)} ${dur(model)(p.interval).padStart(12)} ${p.links.map((l) => `${num(l.power)} (${num(l.effect)})`.padStart(18)).join(' ')}${p === plan.recommended ? '  <- recommended' : ''}`);
+  lines.push('  (power, with the lagged effect the analysis estimates in brackets; prompts planned per person)', '', plan.statement, 'Analytic power is optimistic below about 100 answered occasions per person: check the design with loopfold power --method montecarlo.', CAUTION);
+  out(lines.join('\n'));
+  return 0;
+}
+
 export const rehearseCommands: CliCommand[] = [
   {
     name: 'simulate-study',
@@ -105,12 +138,9 @@ export const rehearseCommands: CliCommand[] = [
       } catch (e) {
         throw new CliError((e as Error).message);
       }
-      const rows: CsvValue[][] = [['person', 'day', 'prompt', 'time', ...panel.variables]];
-      const n = panel.variables.length;
-      for (const p of panel.persons)
-        p.time.forEach((t, k) => rows.push([p.id, p.day ? p.day[k] : null, p.prompt ? p.prompt[k] : null, t, ...Array.from(p.values.subarray(k * n, (k + 1) * n))]));
-      io.writeFile(out, toCsv(rows));
-      io.out(`wrote ${out}: ${panel.persons.length} persons, ${rows.length - 1} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
+      io.writeFile(out, studyCsv(panel));
+      const answered = panel.persons.reduce((a, p) => a + p.time.length, 0);
+      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
       return 0;
     },
   },
@@ -140,11 +170,15 @@ export const rehearseCommands: CliCommand[] = [
   {
     name: 'plan',
     summary: 'power against the interval under a budget of prompts or span, and the design to recommend',
-    usage: 'MODEL.json --link from->to [--budget prompts=70 | span="14 days"] [--persons N] [--json]',
-    options: { link: true, budget: true, persons: true, json: false },
+    usage: 'MODEL.json --link from->to [--budget prompts=70 | span="14 days"] [--over interval|persons|prompts-per-day] [--values 10,20,40] [--persons N] [--json]',
+    options: { link: true, budget: true, persons: true, json: false, over: true, values: true },
     run(args, io) {
       const model = loadModel(args, io);
       const r = rehearsal(model, args, true);
+      const over = args.options.over ?? 'interval';
+      if (over !== 'interval' && over !== 'persons' && over !== 'prompts-per-day') throw new CliError(`--over: interval, persons or prompts-per-day, not "${over === true ? '' : over}"`, 2);
+      if (over !== 'interval') return planOtherAxis(model, r, over, valuesOption(args), args.options.json === true, io.out);
+      if (args.options.values !== undefined) throw new CliError('--values: only with --over persons or --over prompts-per-day (the intervals are a grid over the budget)', 2);
       const budget = budgetOption(args, model, r);
       let plan;
       try {

@@ -113,7 +113,7 @@ export interface MonteCarloLink extends LinkOfInterest {
   mcError: number;
 }
 
-export function summarizeTally(setup: RehearsalSetup, tally: Tally): { replications: number; failed: number; failure?: string; links: MonteCarloLink[] } {
+export function summarizeTally(setup: Pick<RehearsalSetup, 'links'>, tally: Tally): { replications: number; failed: number; failure?: string; links: MonteCarloLink[] } {
   const k = tally.replications - tally.failed;
   return {
     replications: tally.replications,

@@ -11,7 +11,8 @@
  * When no design reaches the target, the result says so and names the link that fails.
  */
 import type { Study } from '../model/types';
-import { studyRange } from '../study/index';
+import { nominalSpacing, plannedSlots, studyRange } from '../study/index';
+import { studyInterval } from '../study/convert';
 import { analyticPower, type LinkPower } from './power';
 import type { Rehearsal } from './setup';
 
@@ -95,4 +96,100 @@ export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; 
     statement = `No affordable design reaches ${pct(target)} power with ${budgetText} and ${r.persons} persons: ${fail.from}->${fail.to} fails (at best ${pct(fail.power)}, one prompt every ${fmt(best.interval)}). More persons or a larger budget would be needed.`;
   }
   return { budget, persons: r.persons, target, curve, peaks, recommended, statement };
+}
+
+// ——— the other axes of the design: persons, prompts per day ———
+
+/** One design on an axis other than the interval: its value (persons, prompts per day) and the power there. */
+export interface AxisPoint {
+  value: number;
+  persons: number;
+  /** Planned prompts per person. */
+  prompts: number;
+  /** The nominal interval between prompts (the study's unit). */
+  interval: number;
+  links: LinkPower[];
+  minPower: number;
+}
+
+export type PlanAxis = 'persons' | 'promptsPerDay';
+
+export interface AxisPlan {
+  axis: PlanAxis;
+  target: number;
+  points: AxisPoint[];
+  /** The least burden (fewest persons, fewest prompts a day) that reaches the target for every link. */
+  recommended: AxisPoint | null;
+  statement: string;
+}
+
+/** Persons compared when none are given. */
+export const PERSON_STEPS = [5, 10, 15, 20, 30, 40, 50, 60, 80, 100, 150, 200, 300, 500];
+/** Prompts per day compared when none are given. */
+export const PROMPTS_PER_DAY_STEPS = [1, 2, 3, 4, 5, 6, 7, 8, 10, 12];
+
+function checkValues(values: readonly number[], name: string, min: number): void {
+  if (values.length === 0) throw new Error(`${name}: give at least one value to compare`);
+  for (const v of values) if (!(Number.isInteger(v) && v >= min)) throw new Error(`${name}: every value must be a whole number of at least ${min}, not ${v}`);
+}
+
+function axisStatement(r: Rehearsal, axis: PlanAxis, target: number, points: AxisPoint[], recommended: AxisPoint | null, fmt: (x: number) => string): string {
+  const pct = (x: number) => `${Math.round(x * 100)} %`;
+  if (recommended) {
+    const what = axis === 'persons' ? `${recommended.persons} persons` : `${recommended.value} prompts a day (every ${fmt(recommended.interval)} within the day)`;
+    return `Recommended: ${what}, ${recommended.prompts} prompts per person, ${recommended.persons} persons: power ${pct(recommended.minPower)} or more for every link (target ${pct(target)}).`;
+  }
+  const best = points.reduce((a, b) => (b.minPower > a.minPower ? b : a));
+  const fail = best.links.reduce((a, b) => (b.power < a.power ? b : a));
+  const tried = axis === 'persons' ? `up to ${Math.max(...points.map((p) => p.value))} persons` : `up to ${Math.max(...points.map((p) => p.value))} prompts a day`;
+  return `No design with ${tried} reaches ${pct(target)} power: ${fail.from}->${fail.to} fails (at best ${pct(fail.power)}, with ${axis === 'persons' ? `${best.persons} persons` : `${best.value} prompts a day`}). ${axis === 'persons' ? 'More prompts per person or another interval' : 'More persons or a longer study'} would be needed.`;
+}
+
+/**
+ * Analytic power against the number of persons, the rest of the study as planned; the
+ * recommended design is the fewest persons that reach the target for every link.
+ * Example: `planPersons(rehearsalOf(model, { links }), { values: [10, 20, 40] })`.
+ */
+export function planPersons(r: Rehearsal, opt: { values?: readonly number[]; target?: number; format?: (interval: number) => string } = {}): AxisPlan {
+  if (r.links.length === 0) throw new Error('--link: name the link(s) the study must detect');
+  const values = [...(opt.values ?? PERSON_STEPS)].sort((a, b) => a - b);
+  checkValues(values, 'persons', 1);
+  const target = opt.target ?? 0.8;
+  const interval = studyInterval(r.study, r.timeUnit) ?? NaN;
+  const points = values.map((persons): AxisPoint => {
+    const res = analyticPower({ ...r, persons });
+    return { value: persons, persons, prompts: r.plannedPerPerson, interval, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) };
+  });
+  const recommended = points.find((p) => p.minPower >= target) ?? null;
+  return { axis: 'persons', target, points, recommended, statement: axisStatement(r, 'persons', target, points, recommended, opt.format ?? ((x) => x.toPrecision(3))) };
+}
+
+/**
+ * Analytic power against the prompts per day of a daily-window schedule, with the study's span
+ * (a length given as prompts is held as the days it takes) and persons; prompts spread over the
+ * same window. The recommended design is the fewest prompts a day that reach the target.
+ * Example: `planPromptsPerDay(rehearsalOf(model, { links }), { values: [2, 4, 6] })`.
+ */
+export function planPromptsPerDay(r: Rehearsal, opt: { values?: readonly number[]; target?: number; format?: (interval: number) => string } = {}): AxisPlan {
+  if (r.links.length === 0) throw new Error('--link: name the link(s) the study must detect');
+  const sch = r.study.schedule;
+  if (sch.kind !== 'daily-window') throw new Error(`prompts per day: the study's schedule is "${sch.kind}"; prompts per day can be compared only for a schedule with prompts in a daily window`);
+  const values = [...(opt.values ?? PROMPTS_PER_DAY_STEPS)].sort((a, b) => a - b);
+  checkValues(values, 'prompts per day', 1);
+  const target = opt.target ?? 0.8;
+  const missed = r.study.missedPrompts ?? 0;
+  const length = typeof r.study.length === 'number' ? `${Math.ceil(r.study.length / sch.promptsPerDay)} day` : r.study.length;
+  const points: AxisPoint[] = [];
+  for (const k of values) {
+    const schedule = { ...sch, promptsPerDay: k };
+    const interval = nominalSpacing(schedule, r.timeUnit);
+    const study: Study = { ...r.study, schedule, interval, length };
+    const planned = plannedSlots(study, r.timeUnit).base.length;
+    if (planned < 3) continue;
+    const res = analyticPower({ ...r, study, plannedPerPerson: planned, answeredPerPerson: planned * (1 - missed) });
+    points.push({ value: k, persons: r.persons, prompts: planned, interval, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) });
+  }
+  if (points.length === 0) throw new Error('prompts per day: no value leaves at least 3 prompts per person in the study\'s span');
+  const recommended = points.find((p) => p.minPower >= target) ?? null;
+  return { axis: 'promptsPerDay', target, points, recommended, statement: axisStatement(r, 'promptsPerDay', target, points, recommended, opt.format ?? ((x) => x.toPrecision(3))) };
 }

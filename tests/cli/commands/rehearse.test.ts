@@ -103,3 +103,35 @@ describe('loopfold plan', () => {
     expect(text.out).toMatch(/No affordable design reaches 80 % power .* heat->damp fails/);
   });
 });
+
+describe('loopfold plan --over', () => {
+  it('over persons: the power at each number of persons is the textbook figure (SciPy) and the fewest that reach 80 % are recommended', async () => {
+    const r = await run(['plan', MODEL, '--link', 'heat->damp', '--over', 'persons', '--values', '3,6,12', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { over: string; points: { value: number; minPower: number }[]; recommended: { value: number } | null };
+    expect(j.over).toBe('persons');
+    const ref = [3, 6, 12].map((n) => reference(n, 119).power);
+    j.points.forEach((p, k) => expect(Math.abs(p.minPower - ref[k])).toBeLessThan(1e-8));
+    const first = [3, 6, 12][ref.findIndex((p) => p >= 0.8)];
+    expect(j.recommended?.value ?? null).toBe(first ?? null);
+    const text = await run(['plan', MODEL, '--link', 'heat->damp', '--over', 'persons', '--values', '3,6,12']);
+    expect(text.out).toContain('<- recommended');
+  });
+
+  it('names the flag when --over or --values is wrong, and a fixed schedule has no prompts per day', async () => {
+    expect((await run(['plan', MODEL, '--link', 'heat->damp', '--over', 'weeks'])).err).toMatch(/--over: interval, persons or prompts-per-day, not "weeks"/);
+    expect((await run(['plan', MODEL, '--link', 'heat->damp', '--over', 'persons', '--values', '3,x'])).err).toMatch(/--values: "x" is not a whole number/);
+    expect((await run(['plan', MODEL, '--link', 'heat->damp', '--values', '3'])).err).toMatch(/--values: only with --over/);
+    const ppd = await run(['plan', MODEL, '--link', 'heat->damp', '--over', 'prompts-per-day']);
+    expect(ppd.code).toBe(2);
+    expect(ppd.err).toMatch(/schedule is "fixed"; prompts per day can be compared only/);
+  });
+
+  it('over prompts per day on the sleep–stress study: more prompts a day, more prompts per person over the same 14 days', async () => {
+    const r = await run(['plan', 'src/examples/sleep-stress.json', '--link', 'sleepDebt->mood', '--over', 'prompts-per-day', '--values', '2,5,8', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { points: { value: number; prompts: number }[]; statement: string };
+    expect(j.points.map((p) => p.prompts)).toEqual([28, 70, 112]); // 14 days × k
+    expect(j.statement).toMatch(/^(Recommended|No design)/);
+  });
+});

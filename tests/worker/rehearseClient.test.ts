@@ -1,0 +1,49 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { parseModelText } from '../../src/core/model/schema';
+import { studyOfModel } from '../../src/core/study/design';
+import { monteCarloPower } from '../../src/core/rehearse/power';
+import { linksOfText, rehearsalOf } from '../../src/core/rehearse/setup';
+import { createRehearseClient, splitReplications } from '../../src/worker/rehearseClient';
+import { localRehearse } from '../../src/worker/rehearseApi';
+import { expectClose } from '../helpers/tolerance';
+
+// An invented two-state greenhouse sketch (air heat drives leaf damp, damp cools the air).
+const parsed = parseModelText(readFileSync('tests/fixtures/rehearse/greenhouse-air.json', 'utf8'));
+if (!parsed.ok) throw new Error('fixture does not load');
+const model = parsed.model;
+
+describe('the rehearsal client', () => {
+  it('splits K replications over at most the cores reported, covering each replication once', () => {
+    expect(splitReplications(10, 4)).toEqual([[0, 2], [2, 5], [5, 7], [7, 10]]);
+    expect(splitReplications(3, 8)).toEqual([[0, 1], [1, 2], [2, 3]]);
+    expect(splitReplications(5, 0)).toEqual([[0, 5]]);
+  });
+
+  it('a run split over parts gives the same tallies as one run of the core', async () => {
+    const links = linksOfText(model, 'heat->damp');
+    const study = { ...studyOfModel(model), persons: 4, length: 30 };
+    const c = createRehearseClient(null, () => localRehearse);
+    let last = 0;
+    const o = await c.monteCarlo({ model, study, links, seed: 9 }, 24, 3, (n) => { last = n; }).result;
+    expect(o.status).toBe('done');
+    if (o.status !== 'done') return;
+    expect(o.summary.workers).toBe(3);
+    expect(last).toBe(24);
+    const one = monteCarloPower(rehearsalOf({ ...model, study }, { links, seed: 9 }), 24);
+    expect(o.summary.replications).toBe(24);
+    expect(o.summary.links[0].power).toBe(one.links[0].power);
+    expectClose(o.summary.links[0].effect, one.links[0].effect, { absTol: 1e-12 }, 'mean estimate (sums added in another order)');
+  });
+
+  it('Cancel stops the run and says so; a bad study comes back as a message', async () => {
+    const links = linksOfText(model, 'heat->damp');
+    const c = createRehearseClient(null, () => localRehearse);
+    const run = c.monteCarlo({ model, study: studyOfModel(model), links }, 2000, 2);
+    run.cancel();
+    expect((await run.result).status).toBe('cancelled');
+    const bad = await c.analytic({ model, study: { ...studyOfModel(model), persons: 0 }, links });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(bad.reason).toMatch(/persons/);
+  });
+});
