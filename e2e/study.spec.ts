@@ -118,6 +118,19 @@ test.describe('the Study tab', () => {
     const estimates = page.locator('.lf-study-estimates');
     await expect(estimates).toHaveAttribute('data-status', 'done', { timeout: 90_000 });
     await expect(estimates.getByRole('note', { name: 'The night-gap effect' })).toContainText('night-gap shrinkage');
+    // cross-lagged effects per gap, with the modeller's labels: stress → cortisol for each main gap and in the limits
+    const effects = estimates.getByRole('table', { name: 'Lagged effects per gap and in the VAR limits' });
+    const gapColumns = await effects.locator('thead th.lf-study-gapcol').count();
+    expect(gapColumns).toBeGreaterThanOrEqual(2);
+    const cross = effects.locator('tr[data-entry="stress>cortisol"]');
+    await expect(cross.locator('th')).toHaveText('from Stress');
+    await expect(cross.locator('td')).toHaveCount(gapColumns + 3);
+    await estimates.getByLabel('Show the effects on').selectOption({ label: 'Cortisol' });
+    await expect(effects.locator('tbody')).toHaveCount(1);
+    await expect(effects.locator('tbody tr.lf-study-group')).toHaveText('On Cortisol');
+    await effects.scrollIntoViewIfNeeded();
+    await shot(page, testInfo.outputPath('10b-study-effects-on-cortisol-1440.png'));
+    await estimates.getByLabel('Show the effects on').selectOption('');
     await shot(page, testInfo.outputPath('10-study-tab-1440.png'));
 
     // a problem stays in the field with a message naming it, and nothing is stored
@@ -181,24 +194,42 @@ test.describe('choosing an interval elsewhere sets the study', () => {
     await page.getByRole('tab', { name: 'Study' }).click();
     await page.getByRole('button', { name: 'Compare designs…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Compare designs' });
-    // three designs (the study's 2.4 h, daily, weekly), three figures each: ordering, lagged, same-interval
+    const schedule = async () => ((await page.evaluate(() => window.__loopfold!.model())) as { study: { schedule: { kind: string } } }).study.schedule.kind;
+    // three whole schedules over the same 14 days: the study's window, every 2.4 h day and night, daily;
+    // four figures each: ordering, lagged, same-interval, and what a VAR over its prompts estimates
     await expect(dialog.locator('section[data-design]')).toHaveCount(3);
-    await expect(dialog.locator('svg')).toHaveCount(9, { timeout: 120_000 });
-    await expect(dialog.getByRole('button', { name: /^Use every 2\.4 h/ })).toBeDisabled();
+    expect(await dialog.locator('section[data-design]').evaluateAll((els) => els.map((e) => e.getAttribute('data-kind')))).toEqual(['daily-window', 'fixed', 'daily']);
+    await expect(dialog.locator('svg')).toHaveCount(12, { timeout: 120_000 });
+    await expect(dialog.locator('.lf-compare-estimated[data-status="done"]')).toHaveCount(3, { timeout: 120_000 });
+    await expect(dialog.locator('section[data-design="0"] .lf-compare-says')).toContainText('night-gap shrinkage');
+    await expect(dialog.locator('section[data-design="1"] .lf-compare-says')).toContainText('longer gaps');
+    await expect(dialog.getByRole('button', { name: /^Use design 1/ })).toBeDisabled();
     await shot(page, testInfo.outputPath('20-compare-1440.png'));
+    await dialog.locator('section[data-design="2"]').scrollIntoViewIfNeeded();
+    await shot(page, testInfo.outputPath('20b-compare-1440-daily.png'));
     await page.setViewportSize({ width: 1024, height: 768 });
+    await dialog.locator('section[data-design="0"]').scrollIntoViewIfNeeded();
     await shot(page, testInfo.outputPath('21-compare-1024.png'));
     await page.setViewportSize({ width: 1440, height: 900 });
-    // a typo in a design's interval is named and changes nothing
-    const third = dialog.getByLabel('Interval of design 3');
-    await third.fill('every so often');
-    await third.press('Enter');
+    // a typo in a design's interval is named and changes nothing; 3 h is taken
+    const second = dialog.getByLabel('Interval of design 2');
+    await second.fill('every so often');
+    await second.press('Enter');
     await expect(dialog.getByRole('alert').filter({ hasText: 'Interval: "every so often" is not an interval' })).toBeVisible();
-    await dialog.getByRole('button', { name: /^Use every 1 day/ }).click();
-    expect(await interval()).toBe('1 day');
+    await second.fill('3h');
+    await second.press('Enter');
+    await expect(dialog.locator('section[data-design="1"]')).toHaveAttribute('aria-label', 'Design 2: every 3 h, day and night');
+    // design 3 becomes weekly, then is used as the study
+    await dialog.getByLabel('Schedule of design 3').selectOption('weekly');
+    await expect(dialog.locator('section[data-design="2"]')).toHaveAttribute('aria-label', 'Design 3: weekly');
+    await dialog.getByRole('button', { name: /^Use design 3/ }).click();
+    expect(await interval()).toBe('1 week');
+    expect(await schedule()).toBe('weekly');
+    await expect(dialog.getByRole('button', { name: /^Use design 3/ })).toBeDisabled();
     await dialog.getByRole('button', { name: 'Close' }).click();
     await page.keyboard.press('Control+z');
     await expect.poll(interval).toBe('2.4 h');
+    expect(await schedule()).toBe('daily-window');
 
     // the strength curve of a lagged link: its peak is offered as the interval
     await page.getByRole('tab', { name: 'Numbers' }).click();

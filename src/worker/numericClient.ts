@@ -26,6 +26,11 @@ export interface SimulationRun {
 export interface NumericClient {
   /** Resolves with the answer, or null when a newer question of the same kind overtook it. */
   ask<K extends Quick>(kind: K, ...args: Parameters<NumericApi[K]>): Promise<Answer<K> | null>;
+  /**
+   * The same, in a queue of its own named `slot`: views that show several answers of one kind side by side
+   * (one per compared design) each keep their latest answer instead of overtaking one another.
+   */
+  askIn<K extends Quick>(slot: string, kind: K, ...args: Parameters<NumericApi[K]>): Promise<Answer<K> | null>;
   simulate(model: Model, options: { until: number; every?: number; hold?: Record<VariableId, number> }, onProgress?: (fraction: number) => void): SimulationRun;
   readonly where: () => 'worker' | 'main thread';
   dispose(): void;
@@ -41,17 +46,19 @@ const cancelledAnswer = (): SimulationAnswer => ({
 
 export function createNumericClient(primary: (() => NumericTransport) | null, fallback: () => NumericApi): NumericClient {
   const lane = createLane({ worker: primary, fallback, lazy: true });
-  const queues = new Map<Quick, LatestQueue<unknown[], unknown>>();
-  const queue = (kind: Quick) => {
-    let q = queues.get(kind);
+  const queues = new Map<string, LatestQueue<unknown[], unknown>>();
+  const queue = (kind: Quick, slot = '') => {
+    const key = `${kind}\u0000${slot}`;
+    let q = queues.get(key);
     if (!q) {
       q = lane.latest((...args: unknown[]) => lane.run((api) => (api[kind] as (...a: unknown[]) => Promise<unknown>)(...args)).then((r) => r.value), { mode: 'parallel' });
-      queues.set(kind, q);
+      queues.set(key, q);
     }
     return q;
   };
   return {
     ask: (kind, ...args) => queue(kind).latest(...(args as unknown[])) as never,
+    askIn: (slot, kind, ...args) => queue(kind, slot).latest(...(args as unknown[])) as never,
     simulate: (model, options, onProgress) =>
       lane.cancellable('simulate', (api, progress) => api.simulate(model, options, progress), {
         onProgress,

@@ -45,6 +45,23 @@ describe('numeric client', () => {
     expect(await e).toEqual({ ok: false, reason: 'balance' });
   });
 
+  it('questions asked in named slots (designs side by side) each keep their latest answer', async () => {
+    const t = deferredTransport();
+    const c = createNumericClient(() => t.api, () => localNumeric);
+    const one = c.askIn('row-0', 'sampled', emptyModel(), 1);
+    const two = c.askIn('row-1', 'sampled', emptyModel(), 2);
+    const plain = c.ask('sampled', emptyModel(), 3);
+    const oneAgain = c.askIn('row-0', 'sampled', emptyModel(), 4);
+    await tick();
+    expect(t.pending.map((p) => p.args[1])).toEqual([1, 2, 3, 4]);
+    t.pending.forEach((p, i) => p.resolve({ ok: false, reason: `answer ${i}` }));
+    // row 1 and the plain question are not overtaken by row 0; row 0's older question is
+    expect(await two).toEqual({ ok: false, reason: 'answer 1' });
+    expect(await plain).toEqual({ ok: false, reason: 'answer 2' });
+    expect(await one).toBeNull();
+    expect(await oneAgain).toEqual({ ok: false, reason: 'answer 3' });
+  });
+
   it('falls back to the main thread when the worker cannot start or fails', async () => {
     const c1 = createNumericClient(() => { throw new Error('no workers here'); }, () => localNumeric);
     const r1 = await c1.ask('equilibrium', greenhouse);

@@ -91,14 +91,17 @@ export function studyDesign(model: Model, study: Study = studyOfModel(model)): {
   const sameDay = lim.sameDay ? toRows(lim.sameDay) : null;
   return {
     ok: true,
-    report: { study, timeUnit: unit, interval, states: d.states, nominal, gaps, pooled, sameDay, pooledMeasured, shrinkage: shrinkageText(model, d.states, interval, gaps, nominal, pooled, sameDay), warnings },
+    report: { study, timeUnit: unit, interval, states: d.states, nominal, gaps, pooled, sameDay, pooledMeasured, shrinkage: shrinkageText(model, study.schedule.kind === 'daily-window', d.states, interval, gaps, nominal, pooled, sameDay), warnings },
   };
 }
 
 const fmt = (x: number) => (Math.abs(x) >= 0.01 || x === 0 ? x.toFixed(2) : x.toPrecision(2));
 
-/** The night-gap (long-gap) shrinkage in words. */
-function shrinkageText(model: Model, states: VariableId[], interval: number, gaps: DesignGap[], nominal: number[][], pooled: number[][], sameDay: number[][] | null): string[] {
+/**
+ * The night-gap (long-gap) shrinkage in words. Only a daily window has nights between its prompts; in other
+ * schedules the longer gaps come from missed prompts, whatever clock time they span.
+ */
+function shrinkageText(model: Model, window: boolean, states: VariableId[], interval: number, gaps: DesignGap[], nominal: number[][], pooled: number[][], sameDay: number[][] | null): string[] {
   const u = model.timeUnit;
   const long = gaps.filter((g) => g.gap > interval * 1.01);
   if (long.length === 0) return [];
@@ -106,9 +109,10 @@ function shrinkageText(model: Model, states: VariableId[], interval: number, gap
   const longest = long[long.length - 1];
   const label = (id: VariableId) => model.variables.find((v) => v.id === id)?.label ?? id;
   const out: string[] = [];
-  const what = longest.sameDayShare < longest.share * 0.5 ? 'night gaps' : 'longer gaps';
+  const nights = window && longest.sameDayShare < longest.share * 0.5;
+  const what = nights ? 'night gaps' : 'longer gaps after missed prompts';
   out.push(
-    `${Math.round(longShare * 100)} % of consecutive prompts are more than one interval (${formatDuration(interval, u)}) apart, up to ${formatDuration(longest.gap, u)}: a VAR over consecutive prompts mixes Φ over these ${what} with Φ over the intended interval (night-gap shrinkage).`,
+    `${Math.round(longShare * 100)} % of consecutive prompts are more than one interval (${formatDuration(interval, u)}) apart, up to ${formatDuration(longest.gap, u)}: a VAR over consecutive prompts mixes Φ over these ${what} with Φ over the intended interval (${nights ? 'night-gap' : 'long-gap'} shrinkage).`,
   );
   states.forEach((s, i) => {
     const a = nominal[i][i];

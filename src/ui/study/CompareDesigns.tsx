@@ -116,8 +116,8 @@ function DesignRow({ model, s, design, index, onChange, onRemove }: { model: Mod
     return null;
   };
   const inUse = sameDesign(design, s.study, unit);
-  const sampled = useNumeric<SampledAnswer>(at !== undefined && at > 0 ? (c) => c.ask('sampled', model, at) : null, [model, at]);
-  const estimated = useNumeric<{ ok: true; report: StudyDesignReport }>((c) => c.ask('design', model, design), [model, design]);
+  const sampled = useNumeric<SampledAnswer>(at !== undefined && at > 0 ? (c) => c.askIn(`compare-${index}`, 'sampled', model, at) : null, [model, at, index]);
+  const estimated = useNumeric<{ ok: true; report: StudyDesignReport }>((c) => c.askIn(`compare-${index}`, 'design', model, design), [model, design, index]);
   const answer = sampled.status === 'done' ? sampled.answer : undefined;
   const report = estimated.status === 'done' ? estimated.answer : undefined;
   return (

@@ -45,4 +45,11 @@ describe('compare designs: whole schedules over the same study', () => {
     expect(a.report.shrinkage.length).toBeGreaterThan(0);
     expect(b.report.shrinkage).toEqual([]);
   });
+  it('prompts day and night with missed prompts: the longer gaps are named as missed prompts, never as nights', () => {
+    const [, fixed] = startingDesigns({ ...study, missedPrompts: 0.2 }, 'h');
+    const b = studyDesign(model, fixed);
+    if (!b.ok) throw new Error('design');
+    expect(b.report.shrinkage[0]).toMatch(/longer gaps after missed prompts/);
+    expect(b.report.shrinkage[0]).not.toMatch(/night/);
+  });
 });
