@@ -10,7 +10,7 @@ export interface LongStudy {
   persons: readonly { id: string; time: ArrayLike<number>; day?: ArrayLike<number>; prompt?: ArrayLike<number>; values: ArrayLike<number> }[];
 }
 
-/** Example: `studyCsv(simulateStudy(rehearsal))`. */
+/** The long CSV of a simulated study (what `simulateStudy` in the core returns), as the importer reads it back. */
 export function studyCsv(study: LongStudy): string {
   const n = study.variables.length;
   const rows: CsvValue[][] = [['person', 'day', 'prompt', 'time', ...study.variables]];

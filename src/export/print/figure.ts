@@ -89,10 +89,24 @@ export function finish(root: El, opts: PrintOptions): El {
 export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: (vm: ViewModel) => Promise<Layout>, focus?: readonly string[]): Promise<PrintedFigure> {
   const scale = targetScale(opts.fontSize ?? DEFAULT_FONT_PT, SCENE_MAIN, SCENE_MIN);
   const room = opts.width ? widthPt(opts.width) / scale : undefined;
-  const { vm, layout, notes } = await adaptedView(req, room, layoutOf, opts.width ? widthText(opts.width) : '', focus);
-  // the caption adds what the title does not say (the title names the interval and the study)
-  const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
-  let root = buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room });
+  const draw = async (fit: number | undefined) => {
+    const { vm, layout, notes } = await adaptedView(req, fit, layoutOf, opts.width ? widthText(opts.width) : '', focus);
+    // the caption adds what the title does not say (the title names the interval and the study)
+    const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
+    return { notes, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room }) };
+  };
+  let fit = room;
+  let { root, notes } = await draw(fit);
+  // lines that arc beside a row widen the drawing past its layout: lay it out again in a room narrower by
+  // that much (twice at most), so the figure, not its text, gives way
+  for (let k = 0; k < 2 && room !== undefined && fit !== undefined; k++) {
+    const drawnWidth = Number(root.attrs.width);
+    if (!(drawnWidth > room + 0.5)) break;
+    fit -= drawnWidth - room;
+    const next = await draw(fit);
+    if (Number(next.root.attrs.width) >= drawnWidth) break;
+    ({ root, notes } = next);
+  }
   root = finish(root, opts);
   const smallestPt = smallestTextPt(root, opts.width);
   if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the figure does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset or fold blocks`);
