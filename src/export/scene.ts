@@ -312,8 +312,9 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
     }
     const set = signs.get(l.key);
     const sign = set?.size === 1 ? ([...set][0] === '-' ? '−' : '+') : set && set.size > 1 ? '±' : undefined;
-    // no free spot at all: beside the line near its head all the same (a sign is never dropped)
-    const mark = sign ? placeMark(space, l.line.ps, l.key, SIGN_BOX.width, SIGN_BOX.height, { from: 12, offset: 3 }) ?? besideHead(l.line.ps) : null;
+    // no free spot beside the line: the nearest spot off every node, header and sign round the line;
+    // none within reach: beside the line near its head all the same (a sign is never dropped)
+    const mark = sign ? placeMark(space, l.line.ps, l.key, SIGN_BOX.width, SIGN_BOX.height, { from: 12, offset: 3 }) ?? placeRound(space, l.line.ps, l.key) ?? besideHead(l.line.ps) : null;
     reach.top = Math.min(reach.top, ...l.line.ps.map((p) => p.y), mark ? mark.y - 8 : Infinity);
     reach.bottom = Math.max(reach.bottom, ...l.line.ps.map((p) => p.y), mark ? mark.y + 8 : -Infinity);
     reach.left = Math.min(reach.left, ...l.line.ps.map((p) => p.x), mark ? mark.x - 8 : Infinity);
@@ -390,6 +391,29 @@ function laneLine(a: Box, b: Box, lanes: readonly number[], use: Map<number, num
 }
 
 /** A spot 9 px to the left of a line, 22 px before its head. */
+/**
+ * The first spot for a sign, in rings 10–40 px round points along the line (from its head), that covers
+ * no node, block header or other sign (lines may pass under it): a sign under a node cannot be read, and
+ * two signs side by side read as one.
+ */
+function placeRound(space: Occupancy, ps: readonly Point[], owner: string): Point | null {
+  const len = polylineLength(ps);
+  if (len === 0) return null;
+  const w = SIGN_BOX.width, h = SIGN_BOX.height;
+  for (let r = 10; r <= 40; r += 5) {
+    for (let d = 12; d < len; d += 8) {
+      const { p } = pointAlong(ps, len - d);
+      for (let k = 0; k < 16; k++) {
+        const a = (2 * Math.PI * k) / 16;
+        const c = { x: p.x + r * Math.cos(a), y: p.y + r * Math.sin(a) };
+        const box: Rect = [c.x - w / 2, c.y - h / 2, c.x + w / 2, c.y + h / 2];
+        if (space.free(box, owner, false)) { space.addBox(box); return c; }
+      }
+    }
+  }
+  return null;
+}
+
 function besideHead(ps: readonly Point[]): Point {
   const { p, ux, uy } = pointAlong(ps, Math.max(0, polylineLength(ps) - 22));
   return { x: p.x + uy * 9, y: p.y - ux * 9 };

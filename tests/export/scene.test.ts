@@ -93,14 +93,8 @@ describe('timescale figures: nodes apart, every edge visible and traceable, sign
     }, 120_000);
   }
 
-  // Known defect, left open: when the placer finds no free spot for a sign glyph, the fallback
-  // beside the arrowhead can fall under the source node (seen on these generated sketches).
-  // The check expects exactly these problems, so a fix makes it fail until the entry is removed.
-  const KNOWN: Record<string, string[]> = {
-    'generated 10 at 0.00831918899384688': ['mark "−" of v8->v7:instantaneous under node v8'],
-    'generated 10 at 19.744156884321757': ['mark "−" of v8->v7:instantaneous under node v8'],
-    'generated 40 at 2.356170891958002': ['mark "−" of v9->v29:instantaneous under node v9'],
-  };
+  // a sign with no free spot beside its line goes to the nearest free spot round it (it used to fall under a node)
+  const KNOWN: Record<string, string[]> = {};
   it('generated models of 10 to 60 variables, at three bands each (seeded)', async () => {
     for (const [n, seed] of [[10, 3], [25, 5], [40, 11], [60, 7]] as const) {
       const m = generatedSketch(n, seed);
