@@ -123,3 +123,33 @@ test('every dialog opens by keyboard, keeps the focus inside, closes with Escape
   // the presentation
   await dialogRoundTrip(page, page.getByRole('button', { name: 'Present' }), page.getByRole('dialog', { name: 'Presentation' }));
 });
+
+test('the side-by-side pictures and Compare designs keep the focus inside and give it back, on Escape and on Close', async ({ page }) => {
+  test.setTimeout(300_000);
+  await page.goto('/?example=sleep-stress');
+  await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+  // the three pictures side by side
+  await page.getByRole('tab', { name: 'Pictures' }).click();
+  const wide = page.getByRole('button', { name: 'Side by side, full width' });
+  await expect(wide).toBeEnabled({ timeout: 120_000 });
+  const pictures = page.getByRole('dialog', { name: 'The three pictures side by side' });
+  await dialogRoundTrip(page, wide, pictures);
+  await wide.focus();
+  await page.keyboard.press('Enter');
+  await expect(pictures).toBeVisible();
+  await expect(pictures.getByRole('button', { name: 'Close' })).toBeFocused();
+  await page.keyboard.press('Enter');
+  await expect(pictures).toBeHidden();
+  await expect(wide).toBeFocused();
+  // Compare designs
+  await page.getByRole('tab', { name: 'Study' }).click();
+  const compare = page.getByRole('button', { name: 'Compare designs…' });
+  const dialog = page.getByRole('dialog', { name: 'Compare designs' });
+  await dialogRoundTrip(page, compare, dialog);
+  await compare.focus();
+  await page.keyboard.press('Enter');
+  await expect(dialog).toBeVisible();
+  await dialog.getByRole('button', { name: 'Close', exact: true }).click();
+  await expect(dialog).toBeHidden();
+  await expect(compare).toBeFocused();
+});

@@ -16,8 +16,8 @@ export function focusables(root: Element): HTMLElement[] {
 }
 
 const openers = new WeakMap<HTMLElement, HTMLElement | null>();
-/** A native dialog still open, or a layer still on the page (it was only set up again). */
-const stillOpen = (el: HTMLElement): boolean => (el instanceof HTMLDialogElement ? el.open : el.isConnected);
+/** A layer still on the page (it was only set up again), and a native dialog there still open (one taken off the page while open keeps its open flag). */
+const stillOpen = (el: HTMLElement): boolean => el.isConnected && (!(el instanceof HTMLDialogElement) || el.open);
 
 /** Keeps the focus inside `ref` while `open`; gives it back to the opener when it closes. Call it before the effect that opens a native dialog. */
 export function useModalFocus(ref: RefObject<HTMLElement | null>, open: boolean): void {

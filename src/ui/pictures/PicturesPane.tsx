@@ -5,7 +5,7 @@
  * the probability of each ordering when timescales are ranges. Loaded on
  * demand (React.lazy); the core runs in the pictures worker.
  */
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { readTimescale } from '../../core/model/timescale';
@@ -19,6 +19,7 @@ import { sideBySideFigure } from '../../export/picturesSideBySide';
 import type { El } from '../../export/scene';
 import type { FigureOptions } from '../../export/charts';
 import { elToReact } from '../elReact';
+import { useModalFocus } from '../modal';
 import { fileStem } from '../figureFiles';
 import { ExportButtons } from '../numbers/ExportButtons';
 import { appPicturesClient } from '../../worker/picturesClient';
@@ -55,6 +56,11 @@ function PicturesOf({ model }: { model: Model }) {
   const [level, setLevel] = useState<Level>('between');
   const [wide, setWide] = useState(false);
   const [answer, setAnswer] = useState<PicturesAnswer | null>(null);
+  // the side-by-side view is modal: the focus stays inside and goes back to its button when it closes
+  const overlay = useRef<HTMLDivElement>(null);
+  const overlayOpen = wide && !!answer?.ok;
+  useModalFocus(overlay, overlayOpen);
+  useEffect(() => { if (overlayOpen) overlay.current?.querySelector<HTMLElement>('.lf-pic-overlay-head button')?.focus(); }, [overlayOpen]);
   const obs = (observed ?? defaultObserved(model)).filter((id) => states.includes(id));
   const samples = interval === null ? 50 : length.by === 'samples' ? length.samples : Math.max(2, Math.round(length.window / interval));
   const sdOverrides = useMemo(() => Object.fromEntries(inputs.map((v) => [v.id, personSD[v.id] ?? v.personSD ?? 0])), [inputs, personSD]);
@@ -124,8 +130,8 @@ function PicturesOf({ model }: { model: Model }) {
           <ul className="lf-pic-summary" aria-label="Readings">{P.summary.map((s) => <li key={s}>{s}</li>)}</ul>
           {!wide && row}
           {wide && (
-            <div className="lf-pic-overlay" role="dialog" aria-modal="true" aria-label="The three pictures side by side" onKeyDown={(e) => { if (e.key === 'Escape') setWide(false); }}>
-              <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong>{model.caution && <span className="lf-pic-note">{model.caution}</span>}<button type="button" autoFocus onClick={() => setWide(false)}>Close</button></div>
+            <div ref={overlay} className="lf-pic-overlay" role="dialog" aria-modal="true" aria-label="The three pictures side by side" onKeyDown={(e) => { if (e.key === 'Escape') setWide(false); }}>
+              <div className="lf-pic-overlay-head"><strong>{model.name}: three pictures at {formatDuration(interval, model.timeUnit)}</strong>{model.caution && <span className="lf-pic-note">{model.caution}</span>}<button type="button" onClick={() => setWide(false)}>Close</button></div>
               {row}
               <ExportButtons what="the three pictures side by side" name={`${stem}-three-pictures`} svg={() => svgDocument(sideBySideFigure(`${model.name}: three pictures at ${formatDuration(interval, model.timeUnit)}`, pictures.map((p) => ({ key: p.key, title: p.title, reading: p.reading, figure: p.el })), { heading: true, caption: model.caution ? `${caption} ${model.caution}` : caption }))} />
             </div>

@@ -21,6 +21,7 @@ import { figureLayout } from '../../layout/figure';
 import { editStudy, type SessionStudy } from '../../state/session';
 import type { SampledAnswer, StudyDesignReport } from '../../worker/numericApi';
 import { elToReact } from '../elReact';
+import { useModalFocus } from '../modal';
 import { NetworkDiagram } from '../numbers/NetworkDiagram';
 import { isFailed, useNumeric } from '../numbers/useNumeric';
 import { designText, designWith, MAX_DESIGNS, sameDesign, startingDesigns } from './compare';
@@ -38,6 +39,7 @@ export function CompareDesigns({ model, s, onClose }: { model: Model; s: Session
   const ref = useRef<HTMLDialogElement>(null);
   const unit = model.timeUnit;
   const [designs, setDesigns] = useState<Study[]>(() => startingDesigns(s.study, unit));
+  useModalFocus(ref, true);
   useEffect(() => {
     const d = ref.current;
     if (d && !d.open) d.showModal();
