@@ -1,4 +1,4 @@
-// Data benchmark: import of 10^6 rows × 8 columns, and the continuous-time
+// Data benchmark: import of 10^6 rows × 8 columns in a worker thread (bench/dataImportWorker.ts), and the continuous-time
 // likelihood and fit of 100 persons × 70 prompts × 4 states beside the SciPy
 // implementation of the same likelihood (tests/reference/fit_ct.py), timed in
 // the same run from the same start: one evaluation each, then our whole fit against SciPy's BFGS
@@ -6,7 +6,10 @@
 // Run alone with `npx tsx bench/data.ts`.
 import { spawnSync } from 'node:child_process';
 import { cpus, loadavg } from 'node:os';
-import { importText } from '../src/core/data/import';
+import { Worker } from 'node:worker_threads';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
+import { importText, type ColumnMapping } from '../src/core/data/import';
+import type { ImportAnswer } from '../src/worker/dataApi';
 import { ctMinus2LL, ctSpec, ctStart, fitCt } from '../src/core/fit/ct';
 import { simulateCt } from '../src/core/fit/simulate';
 import { seededRandom } from '../src/core/stats/random';
@@ -24,10 +27,32 @@ export async function benchData(): Promise<void> {
   for (let k = 0; k < 1_000_000; k++) rows.push(`p${k % 2000},${(Math.floor(k / 2000) * 2.5).toFixed(2)},${Array.from({ length: 6 }, () => (r() * 10).toFixed(3)).join(',')}`);
   const text = rows.join('\n');
   const vars = ['a', 'b', 'c', 'd', 'e', 'f'].map((c) => ({ column: c, variable: c }));
+  const mapping: ColumnMapping = { format: 'long', person: 'pid', time: 'hours', timeFormat: 'number', timeUnit: 'h', variables: vars };
+  // In a worker thread, as the app does it: the file goes to the worker as a Blob (by reference), the worker
+  // reads and parses it with the pane's import API, the panel comes back by transfer. The main thread's
+  // event loop is watched meanwhile (its longest stall stands for the app's longest main-thread task).
+  const blob = new Blob([text], { type: 'text/csv' });
+  // A worker thread does not inherit tsx's loader: it registers it, then loads the worker module.
+  const entry = new URL('./dataImportWorker.ts', import.meta.url).href;
+  const worker = new Worker(`import('tsx/esm/api').then((t) => { t.register(); return import(${JSON.stringify(entry)}); });`, { eval: true });
+  await new Promise<void>((resolve, reject) => { worker.once('message', () => resolve()); worker.once('error', reject); });
+  const delay = monitorEventLoopDelay({ resolution: 10 });
+  delay.enable();
   let t0 = performance.now();
-  const res = importText(text, { format: 'long', person: 'pid', time: 'hours', timeFormat: 'number', timeUnit: 'h', variables: vars });
+  const got = await new Promise<{ answer: ImportAnswer; ms: number }>((resolve, reject) => {
+    worker.once('message', resolve);
+    worker.once('error', reject);
+    worker.postMessage({ blob, mapping });
+  });
+  const workerMs = ms(t0);
+  delay.disable();
+  await worker.terminate();
+  const kept = got.answer.ok ? got.answer.summary.kept : 0;
+  console.log(`import 10^6 rows × 8 columns (${(text.length / 1e6).toFixed(0)} MB) in a Node worker thread (Blob in, panel back by transfer): ${(workerMs / 1000).toFixed(2)} s from posting to the panel back (the worker's own read and parse ${(got.ms / 1000).toFixed(2)} s; worker start-up not counted); kept ${kept} (goal ≤ 5 s); main thread's longest event-loop stall meanwhile ${(delay.max / 1e6).toFixed(0)} ms (goal: no task over 50 ms)`);
+  t0 = performance.now();
+  const res = importText(text, mapping);
   const importMs = ms(t0);
-  console.log(`import 10^6 rows × 8 columns (${(text.length / 1e6).toFixed(0)} MB, Node, one thread): ${(importMs / 1000).toFixed(2)} s; kept ${res.summary.kept} (goal ≤ 5 s)`);
+  console.log(`the same on the main thread (Node, one thread, for comparison): ${(importMs / 1000).toFixed(2)} s; kept ${res.summary.kept}`);
 
   // Continuous-time fit: 100 persons × 70 prompts, 4 states, irregular intervals, 5 % missing cells.
   const g2 = seededRandom(2);

@@ -1,5 +1,5 @@
 /**
- * The imported data set of the Data pane: the file's text (so the mapping
+ * The imported data set of the Data pane: the file (so the mapping
  * can be changed and the file imported again), the column mapping, what the
  * importer kept and refused, and the panel. Kept in this browser's
  * IndexedDB beside the autosaved model (a store of its own), reopened with
@@ -16,7 +16,8 @@ const KEY = 'current';
 export interface Dataset {
   version: typeof DATASET_VERSION;
   fileName: string;
-  text: string;
+  /** The file as opened: a File/Blob (IndexedDB keeps it as it is; only the data worker reads it) or its text. */
+  text: string | Blob;
   delimiter?: string;
   mapping: ColumnMapping;
   result: ImportResult;
@@ -39,7 +40,7 @@ export async function saveDataset(d: Omit<Dataset, 'version'>, s?: UseStore): Pr
 /** The kept data set, or null when there is none or it is of another version. */
 export async function loadDataset(s?: UseStore): Promise<Dataset | null> {
   const raw = (await get(KEY, store(s))) as Partial<Dataset> | undefined;
-  if (!raw || raw.version !== DATASET_VERSION || typeof raw.text !== 'string' || !raw.result || !raw.mapping) return null;
+  if (!raw || raw.version !== DATASET_VERSION || !(typeof raw.text === 'string' || (typeof Blob !== 'undefined' && raw.text instanceof Blob)) || !raw.result || !raw.mapping) return null;
   return raw as Dataset;
 }
 

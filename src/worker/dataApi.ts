@@ -71,7 +71,8 @@ export type CointAnswer =
   | (Failed & { problems?: { row: number; column: string; message: string }[]; moreProblems?: number });
 
 export interface DataApi {
-  header(text: string, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
+  /** The header and a first guess of the mapping; from the text or a File/Blob (then only its first MiB is read, where this runs). */
+  header(text: string | Blob, variables: Pick<Model['variables'][number], 'id' | 'label'>[], unit: TimeUnit, delimiter?: string): Promise<HeaderAnswer | Failed>;
   importData(text: string, mapping: ColumnMapping, delimiter?: string): Promise<ImportAnswer>;
   /**
    * The same from a File or Blob: read where this runs (in the worker, so the main thread neither
@@ -82,7 +83,7 @@ export interface DataApi {
   fitVar(model: Model, panel: Panel, request: VarRequest, onProgress?: (fraction: number) => void): Promise<VarAnswer>;
   fitCt(model: Model, panel: Panel, request: CtRequest, onProgress?: (fraction: number) => void): Promise<CtAnswer>;
   /** Unit roots, cointegration and who tracks whom, on the file's columns in file order (as `loopfold coint`). */
-  coint(text: string, request: CointRequest, delimiter?: string): Promise<CointAnswer>;
+  coint(text: string | Blob, request: CointRequest, delimiter?: string): Promise<CointAnswer>;
 }
 
 const lean = (r: CointegrationReport): CointReport => {
@@ -102,8 +103,9 @@ function checkStates(model: Model, panel: Panel): void {
 }
 
 export const localData: DataApi = {
-  async header(text, variables, unit, delimiter) {
+  async header(source, variables, unit, delimiter) {
     try {
+      const text = typeof source === 'string' ? source : await source.slice(0, 1 << 20).text();
       const h = readHeader(text, delimiter ? { delimiter } : {});
       if (h.fields.length === 0 || h.fields.every((f) => f === '')) return { ok: false, reason: 'the file has no header row (the first line should name the columns)' };
       const dup = h.fields.find((f, i) => f !== '' && h.fields.indexOf(f) !== i);
@@ -157,8 +159,9 @@ export const localData: DataApi = {
       return reason(e);
     }
   },
-  async coint(text, request, delimiter) {
+  async coint(source, request, delimiter) {
     try {
+      const text = typeof source === 'string' ? source : await source.text();
       const { columns, person } = request;
       if (columns.length < 2 || columns.length > 6) return { ok: false, reason: `choose 2 to 6 columns to test, not ${columns.length}` };
       const read = readColumns(text, columns, { ...(person ? { person } : {}), ...(delimiter ? { delimiter } : {}), ...(request.missing?.length ? { missing: request.missing } : {}) });

@@ -23,6 +23,15 @@ describe('the data set kept in this browser', () => {
     expect(await loadDataset(store)).toBeNull();
   });
 
+  it('keeps the file itself (a Blob, as the pane hands it to the worker) and gives it back whole', async () => {
+    const store = createStore('d3', 'datasets');
+    const result = importText(CSV, mapping);
+    await saveDataset({ fileName: 'diary.csv', text: new Blob([CSV], { type: 'text/csv' }), mapping, result, modelName: 'Sleep', importedAt: 2 }, store);
+    const back = await loadDataset(store);
+    expect(back!.text).toBeInstanceOf(Blob);
+    expect(await (back!.text as Blob).text()).toBe(CSV);
+  });
+
   it('another version or a broken record is not read back', async () => {
     const store = createStore('d2', 'datasets');
     await set('current', { version: 99, text: CSV }, store);

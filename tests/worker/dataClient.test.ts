@@ -81,6 +81,8 @@ describe('data client', () => {
     const fromText = await c.importData(CSV, mapping);
     const fromBlob = await c.importBlob(new Blob([CSV]), mapping);
     expect(fromBlob).toEqual(fromText);
+    // The header from the File/Blob itself (the pane never reads the file on the main thread).
+    expect(await c.header(new Blob([CSV]), sleepStress.variables, 'h')).toEqual(h);
     if (!fromBlob || !fromBlob.ok || !fromBlob.panel) throw new Error('import refused');
     // Two persons, each with times, values, days (from the dates): six distinct buffers, none twice.
     const buffers = panelBuffers(fromBlob);
@@ -170,6 +172,9 @@ describe('data client: unit roots and cointegration', () => {
     expect(bad.reason).toContain('row 3, column level: missing value');
     expect(bad.reason).toContain('row 4, column inflow: "x" is not a number');
     expect(bad.reason).toContain('Nothing was tested');
+    // The same from the kept Blob.
+    const fromBlob = await c.coint(new Blob([holed]), { columns: ['level', 'inflow'], person: 'site' });
+    expect(fromBlob).toEqual(bad);
     const one = await c.coint(holed, { columns: ['level'] });
     expect(one && !one.ok && one.reason).toBe('choose 2 to 6 columns to test, not 1');
   });

@@ -11,7 +11,7 @@ import { medianSpan } from '../../core/fit/roles';
 import { loadModel, readInput } from '../load';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 
-const IMPORT_OPTIONS = { format: true, person: true, time: true, 'time-unit': true, day: true, prompt: true, map: true, missing: true, delimiter: true, json: false } as const;
+const IMPORT_OPTIONS = { waves: true, format: true, person: true, time: true, 'time-unit': true, day: true, prompt: true, map: true, missing: true, delimiter: true, json: false } as const;
 
 function str(args: CliArgs, name: string): string | undefined {
   const v = args.options[name];
@@ -50,7 +50,41 @@ export function mappingFromArgs(args: CliArgs, header: string[], variables: Mode
   };
   if (mapping.format === 'long') mapping.variables = cols;
   if (format === 'wide' && mapping.format !== 'wide') throw new CliError('--format wide: no columns like name_1, name_2 for model variables were found', 2);
+  const waves = str(args, 'waves');
+  if (waves !== undefined) {
+    if (mapping.format !== 'wide' || !mapping.waves) throw new CliError('--waves is for wide files (one row per person, columns per wave such as stress_1, stress_2); this file reads as long', 2);
+    mapping.waves = wavesFromArgs(waves, mapping.waves);
+    mapping.timeFormat = 'number';
+  }
   return mapping;
+}
+
+/**
+ * `--waves 0,1,3,6`: the waves' times in `--time-unit` (default the model's), one number per wave in
+ * the order of the waves found in the header; they replace the waves' own time columns if any.
+ * Times may start anywhere (2014,2016,2019,2020 works as 0,2,5,6) but must increase.
+ */
+export function wavesFromArgs(text: string, waves: NonNullable<ColumnMapping['waves']>): NonNullable<ColumnMapping['waves']> {
+  const parts = text.split(',').map((x) => x.trim());
+  const times = parts.map((x, k) => {
+    const v = x === '' ? NaN : Number(x);
+    if (!Number.isFinite(v)) throw new CliError(`--waves: "${x}" (wave ${k + 1}) is not a number; give the waves' times as numbers, e.g. --waves 0,1,3,6 --time-unit year`, 2);
+    return v;
+  });
+  if (times.length !== waves.length) {
+    const cols = waves.map((w, k) => `wave ${k + 1}: ${w.cells.map((c) => c.column).join(', ')}`).join('; ');
+    throw new CliError(`--waves gives ${times.length} time${times.length === 1 ? '' : 's'} but the file has ${waves.length} waves (${cols})`, 2);
+  }
+  for (let k = 1; k < times.length; k++)
+    if (!(times[k] > times[k - 1])) throw new CliError(`--waves: wave ${k + 1}'s time ${parts[k]} is not after wave ${k}'s ${parts[k - 1]}; the times must increase`, 2);
+  return waves.map((w, k) => ({ ...w, time: { value: times[k] - times[0] } }));
+}
+
+/** A note when a wide file's waves have neither time columns nor --waves: they are then read as equally spaced. */
+function wavesNote(mapping: ColumnMapping, args: CliArgs): string | null {
+  if (mapping.format !== 'wide' || !mapping.waves || args.options.waves !== undefined) return null;
+  if (mapping.waves.some((w) => 'column' in w.time)) return null;
+  return `the waves have no time columns and no --waves was given: they were read as ${mapping.waves.map((_, k) => k).join(', ')} ${mapping.timeInputUnit ?? mapping.timeUnit} apart from the first; give their times, e.g. --waves ${mapping.waves.map((_, k) => [0, 1, 3, 6, 12, 24][k] ?? k * 6).join(',')} --time-unit year`;
 }
 
 function delimiterOf(args: CliArgs, path: string): string | undefined {
@@ -65,7 +99,10 @@ function importFile(args: CliArgs, io: CliIO, path: string, variables: Model['va
   const delimiter = delimiterOf(args, path);
   const header = readHeader(text, delimiter ? { delimiter } : {});
   const mapping = mappingFromArgs(args, header.fields, variables, unit);
-  return { result: importText(text, mapping, delimiter ? { delimiter } : {}), mapping };
+  const result = importText(text, mapping, delimiter ? { delimiter } : {});
+  const note = wavesNote(mapping, args);
+  if (note) result.summary.notes.push(note);
+  return { result, mapping };
 }
 
 function summaryLines(r: ImportResult): string[] {
@@ -88,7 +125,7 @@ export const dataCommands: CliCommand[] = [
   {
     name: 'data',
     summary: 'import a CSV/TSV data file and report what was kept and refused, by row and column',
-    usage: 'FILE.csv [MODEL.json] [--format long|wide] [--person COL] [--time COL] [--time-unit U] [--day COL] [--prompt COL] [--map col=variable,...] [--missing CODE,...] [--json]',
+    usage: 'FILE.csv [MODEL.json] [--format long|wide] [--waves T1,T2,...] [--person COL] [--time COL] [--time-unit U] [--day COL] [--prompt COL] [--map col=variable,...] [--missing CODE,...] [--json]',
     options: { ...IMPORT_OPTIONS, model: true },
     run(args, io) {
       const path = args.positional[0];
@@ -104,6 +141,8 @@ export const dataCommands: CliCommand[] = [
       if (variables.length > 0 && args.positional[1] === undefined && str(args, 'map') === undefined && mapping.format === 'long')
         mapping.variables = mapping.variables.filter((v) => ![mapping.person, mapping.time, mapping.day, mapping.prompt].includes(v.column));
       const r = importText(text, mapping, delimiter ? { delimiter } : {});
+      const note = wavesNote(mapping, args);
+      if (note) r.summary.notes.push(note);
       if (args.options.json) {
         io.out(JSON.stringify({ file: path, mapping, kept: r.summary.kept, refused: r.summary.refused, summary: r.summary, issues: r.issues, moreIssues: r.moreIssues }, null, 2));
       } else io.out(summaryLines(r).join('\n'));
@@ -113,7 +152,7 @@ export const dataCommands: CliCommand[] = [
   {
     name: 'fit',
     summary: 'fit a VAR(1) within persons or a continuous-time model to data, and hold the sketch against it link by link',
-    usage: 'MODEL.json --data FILE.csv [--format long|wide] [--person COL] [--time COL] [--time-unit U] [--map col=variable,...] [--method var|ct] [--same-day] [--skip-rule prompt|MAXGAP] [--person-fits [--min-pairs N]] [--initial free|stationary] [--open] [--json]',
+    usage: 'MODEL.json --data FILE.csv [--format long|wide] [--waves T1,T2,...] [--person COL] [--time COL] [--time-unit U] [--map col=variable,...] [--method var|ct] [--same-day] [--skip-rule prompt|MAXGAP] [--person-fits [--min-pairs N]] [--initial free|stationary] [--open] [--json]',
     options: { ...IMPORT_OPTIONS, data: true, method: true, 'same-day': false, 'skip-rule': true, initial: true, open: false, intercepts: true, 'measurement-error': false, 'person-fits': false, 'min-pairs': true },
     run(args, io) {
       const model = loadModel(args, io);

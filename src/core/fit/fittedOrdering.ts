@@ -13,6 +13,7 @@
 import type { Link, Model, Variable, VariableId } from '../model/types';
 import { orderingAt } from '../ordering/index';
 import type { Ordering, StudyDesign } from '../ordering/types';
+import { sketchDrift } from './compare';
 
 const Z95 = 1.959963984540054;
 
@@ -90,4 +91,79 @@ export function fittedOrdering(model: Model, fit: DriftWithErrors, design: { int
   const { model: fittedModel, links } = modelFromDrift(model, fit);
   const d: StudyDesign = { interval: design.interval, window: design.window };
   return { design, sketch: orderingAt(model, d), fitted: orderingAt(fittedModel, d), fittedModel, links };
+}
+
+/** One variable's place in an ordering: its role, its block's level, and what acts on it. */
+export interface OrderingPlace {
+  role: string;
+  /** The level of its block (0: determined by nothing else in the model at this interval). */
+  level: number;
+  /** Determined together with these (a simultaneous block), itself left out. */
+  together: VariableId[];
+  /** What acts on it: within the instant (a balance or formula) or across time (through its rate). */
+  from: { id: VariableId; kind: 'instantaneous' | 'integrating' }[];
+}
+
+export interface OrderingRow {
+  variable: VariableId;
+  sketch: OrderingPlace | null;
+  /** Null for a variable of the sketch that is not in the fit (not measured, derived or an input). */
+  fitted: OrderingPlace | null;
+  /** For a fitted state: the role differs between the two. */
+  roleDiffers: boolean;
+  /** Fitted states acting on it in the sketch (through derived variables too) but not in the fitted model. */
+  onlySketch: VariableId[];
+  /** Fitted states acting on it in the fitted model but not in the sketch. */
+  onlyFitted: VariableId[];
+}
+
+function placeOf(o: Ordering, v: VariableId): OrderingPlace | null {
+  const role = o.roles[v];
+  if (role === undefined) return null;
+  const block = o.blocks.find((b) => b.variables.includes(v));
+  const seen = new Map<VariableId, 'instantaneous' | 'integrating'>();
+  for (const e of o.edges) if (e.to === v && e.from !== v && !seen.has(e.from)) seen.set(e.from, e.kind);
+  return {
+    role,
+    level: block?.level ?? 0,
+    together: block ? block.variables.filter((x) => x !== v) : [],
+    from: [...seen].map(([id, kind]) => ({ id, kind })).sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0)),
+  };
+}
+
+/**
+ * The two orderings row by row: every variable of the sketch and of the fit (by the sketch's level,
+ * then id), each with its role, level and what acts on it in the sketch and in the fitted model. For
+ * a fitted state, what the two disagree on: its role, and the fitted states acting on it in one model
+ * and not the other, the sketch read through its derived variables (its drift among the fitted
+ * states, `sketchDrift`), since the fit sees only those states.
+ * Example: `orderingRows(model, fittedOrdering(model, open, design))`.
+ */
+export function orderingRows(model: Model, o: FittedOrdering): OrderingRow[] {
+  const states = Object.keys(o.fitted.roles);
+  let reduced: number[][] | null;
+  try { reduced = sketchDrift(model, states); } catch { reduced = null; }
+  const ids = [...new Set([...Object.keys(o.sketch.roles), ...states])];
+  const rows = ids.map((variable): OrderingRow => {
+    const sketch = placeOf(o.sketch, variable), fitted = placeOf(o.fitted, variable);
+    const i = states.indexOf(variable);
+    let onlySketch: VariableId[] = [], onlyFitted: VariableId[] = [];
+    if (fitted && reduced && i >= 0) {
+      const f = new Set(fitted.from.map((x) => x.id));
+      const s = new Set(states.filter((id, j) => j !== i && reduced![i][j] !== 0));
+      onlySketch = [...s].filter((id) => !f.has(id)).sort();
+      onlyFitted = [...f].filter((id) => !s.has(id)).sort();
+    }
+    return { variable, sketch, fitted, roleDiffers: !!(sketch && fitted && sketch.role !== fitted.role), onlySketch, onlyFitted };
+  });
+  const key = (r: OrderingRow) => r.sketch?.level ?? r.fitted?.level ?? 0;
+  return rows.sort((a, b) => key(a) - key(b) || (a.variable < b.variable ? -1 : a.variable > b.variable ? 1 : 0));
+}
+
+/** The sketch's ordering alone at the data's design (before a continuous-time fit), in the same rows. */
+export function sketchOrderingRows(model: Model, design: { interval: number; window: number }): OrderingRow[] {
+  if (!(design.interval > 0) || !(design.window > 0)) throw new Error(`the data's interval and span must be positive numbers, not ${design.interval} and ${design.window}`);
+  const empty: Ordering = { roles: {}, blocks: [], edges: [], integrations: [], diagnostics: [] };
+  const sketch = orderingAt(model, { interval: design.interval, window: design.window });
+  return orderingRows(model, { design, sketch, fitted: empty, fittedModel: { ...model, variables: [], links: [] }, links: [] });
 }

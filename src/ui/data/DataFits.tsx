@@ -10,7 +10,7 @@ import type { Panel } from '../../core/data/panel';
 import type { LinkComparison } from '../../core/fit/compare';
 import { sketchDrift } from '../../core/fit/compare';
 import { dataInterval, dataIntervals, lagCurves } from '../../core/fit/lagCurve';
-import { dataRoles, medianSpan } from '../../core/fit/roles';
+import { medianSpan } from '../../core/fit/roles';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
@@ -24,6 +24,7 @@ import { fileStem } from '../figureFiles';
 import { downloadBlob } from '../download';
 import { ExportButtons } from '../numbers/ExportButtons';
 import { PersonVar } from './PersonVar';
+import { OrderingBeside } from './OrderingBeside';
 
 const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
 
@@ -44,13 +45,6 @@ function ComparisonTable({ model, rows, what, sketchHead }: { model: Model; rows
     </table>
   );
 }
-
-const ROLE_WORDS: Partial<Record<string, string>> = {
-  settled: 'settles within an interval (a balance)',
-  state: 'changes from occasion to occasion',
-  frozen: 'constant over the study',
-  held: 'held',
-};
 
 type Running = { kind: 'var' | 'ct'; progress: number; run: CancellableRun<unknown> } | null;
 
@@ -102,12 +96,9 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
   }, [sketch]);
   const stem = fileStem(model.name);
   const u = panel.timeUnit;
-  const delta = V?.interval ?? dataInterval(panel, sameDay);
+  // The ordering is read at the median of every interval (as `loopfold fit --method ct`), whatever the VAR's pairs.
+  const delta = useMemo(() => dataInterval(panel), [panel]);
   const span = medianSpan(panel.persons);
-  const roles = useMemo(() => {
-    if (!V && !T) return null;
-    try { return dataRoles(model, states, T ? T.open.drift : null, delta, span); } catch { return null; }
-  }, [model, states.join(','), V, T, delta, span]); // eslint-disable-line react-hooks/exhaustive-deps
 
   return (
     <section className="lf-data-section" aria-labelledby={`${id}-h`} data-testid="data-fits">
@@ -169,26 +160,10 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
             Timescales (1/|Re λ|, {u}): fitted {T.open.timescales.map((t) => n3(t.timescale)).join(', ')}; sketch {sketchScales.map(n3).join(', ')}.
             {T.open.between && ` Person differences as random intercepts; their variances: ${T.open.between.map((r, i) => `${labelOf(model, T.open.measured[i])} ${n3(r[i])}`).join(', ')}.`}
           </p>
-          {[...T.open.warnings, ...T.confirmatory.warnings].map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
+          {[...new Set([...T.open.warnings, ...T.confirmatory.warnings])].map((w) => <p key={w} className="lf-data-warn">{w}</p>)}
         </div>
       )}
-      {roles && (
-        <>
-          <h4>Ordering at the data's interval ({n3(delta)} {u}; a person's data span about {n3(span)} {u})</h4>
-          <table className="lf-data-table" aria-label="Roles of the states at the data's interval" data-testid="data-roles">
-            <thead><tr><th scope="col">state</th><th scope="col">in the sketch</th><th scope="col">from the fit{T ? ' (own rate 1/|A_ii| only)' : ''}</th></tr></thead>
-            <tbody>
-              {roles.map((r) => (
-                <tr key={r.state} data-state={r.state}>
-                  <th scope="row">{labelOf(model, r.state)}</th>
-                  <td>{ROLE_WORDS[r.sketch] ?? r.sketch}</td>
-                  <td>{r.fitted ? `${ROLE_WORDS[r.fitted]} (τ ${n3(r.fittedTimescale ?? NaN)} ${u})` : 'fit the continuous-time model'}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </>
-      )}
+      {(V || T) && <OrderingBeside model={model} fit={T ? T.open : null} interval={delta} span={span} unit={u} />}
       {curves && chosen && (
         <>
           <h4>Lagged effect against the interval</h4>

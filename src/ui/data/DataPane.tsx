@@ -2,8 +2,9 @@
  * The Data pane: open a CSV/TSV file (or the demo diary), map its columns
  * to persons, times and the model's variables, import it, and read what was
  * kept and refused; then the overview and the fits held against the sketch.
- * The data stay in this browser (IndexedDB beside the model); the import and
- * the fits run in the data worker (src/worker/dataClient.ts).
+ * The data stay in this browser (IndexedDB beside the model); the file is
+ * read, parsed and fitted in the data worker (src/worker/dataClient.ts): this
+ * thread hands it the File as it is and never reads it.
  */
 import { useEffect, useState } from 'react';
 import type { Model } from '../../core/model/types';
@@ -35,7 +36,8 @@ export default function DataPane() {
 
 interface Source {
   fileName: string;
-  text: string;
+  /** The file itself (read by the data worker, never on this thread), or the text of a data set kept before. */
+  content: string | Blob;
   delimiter?: string;
 }
 
@@ -62,7 +64,7 @@ function DataOf({ model }: { model: Model }) {
     setMapError(null);
     setBusy('Reading the header…');
     const c = await appDataClient();
-    const h = await c.header(src.text, model.variables, model.timeUnit, src.delimiter);
+    const h = await c.header(src.content, model.variables, model.timeUnit, src.delimiter);
     setBusy(null);
     if (!h) return;
     if (!h.ok) { setError(`${src.fileName}: ${h.reason}`); return; }
@@ -73,12 +75,13 @@ function DataOf({ model }: { model: Model }) {
 
   // A kept data set reopens with its mapping, ready to be changed and imported again.
   useEffect(() => {
-    if (dataset && !source) void read({ fileName: dataset.fileName, text: dataset.text, delimiter: dataset.delimiter }, dataset.mapping);
+    if (dataset && !source) void read({ fileName: dataset.fileName, content: dataset.text, delimiter: dataset.delimiter }, dataset.mapping);
   }, [dataset]); // eslint-disable-line react-hooks/exhaustive-deps
 
   const openFile = async (file: File) => {
     try {
-      await read({ fileName: file.name, text: await file.text(), delimiter: delimiterFor(file.name) });
+      // The File goes to the data worker as it is (by reference): the worker reads and parses it.
+      await read({ fileName: file.name, content: file, delimiter: delimiterFor(file.name) });
     } catch (e) {
       setError(`${file.name} could not be read: ${(e as Error).message ?? String(e)}`);
     }
@@ -88,7 +91,7 @@ function DataOf({ model }: { model: Model }) {
     try {
       const r = await fetch(`${import.meta.env.BASE_URL}demo/${demo.file}`);
       if (!r.ok) throw new Error(`the server answered ${r.status}`);
-      await read({ fileName: demo.file, text: await r.text() });
+      await read({ fileName: demo.file, content: await r.blob() });
     } catch (e) {
       setError(`${demo.what} could not be loaded: ${(e as Error).message ?? String(e)}`);
     }
@@ -101,13 +104,13 @@ function DataOf({ model }: { model: Model }) {
     setError(null);
     setBusy('Importing…');
     const c = await appDataClient();
-    const r = await c.importData(source.text, mapping, source.delimiter);
+    const r = typeof source.content === 'string' ? await c.importData(source.content, mapping, source.delimiter) : await c.importBlob(source.content, mapping, source.delimiter);
     setBusy(null);
     if (!r) return;
     if (!r.ok) { setError(`${source.fileName}: ${r.reason}`); return; }
     const { ok: _ok, ...result } = r;
     void _ok;
-    await keepDataset({ fileName: source.fileName, text: source.text, delimiter: source.delimiter, mapping, result, modelName: model.name, importedAt: Date.now() });
+    await keepDataset({ fileName: source.fileName, text: source.content, delimiter: source.delimiter, mapping, result, modelName: model.name, importedAt: Date.now() });
   };
   const forget = async () => {
     await forgetDataset();

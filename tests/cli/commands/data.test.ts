@@ -116,6 +116,47 @@ print(json.dumps({'phi': f.coefs[0].tolist(), 'const': f.intercept.tolist(), 'se
     expectClose(mine.residualCov, o.sigma_u, { relTol: 1e-8 }, 'sigma_u');
   });
 
+  it('wide files take the waves\' times from --waves in a unit: the fit equals the same data written long with those times', async () => {
+    // 30 lakes visited 2014, 2015, 2017, 2020 (unequal years apart); the lake model counts time in days.
+    const years = [2014, 2015, 2017, 2020];
+    const perDay = (y: number) => (y - years[0]) * 365.25;
+    const panel = simulateCt({ states: ['fish', 'sediment'], drift: [[-0.002, 0], [0.0008, -0.0015]], diffusion: [[0.004, 0], [0, 0.003]], levels: [12, 5], between: [[0.5, 0], [0, 0.3]] }, Array.from({ length: 30 }, () => years.map(perDay)), { seed: 5, missing: 0.05 });
+    const cell = (v: number) => (Number.isFinite(v) ? v.toFixed(4) : '');
+    const wide = [['lake', ...years.flatMap((_, k) => [`fish_${k + 1}`, `sediment_${k + 1}`])].join(',')];
+    const long = ['lake,years,fish,sediment'];
+    panel.persons.forEach((p) => {
+      wide.push([p.id, ...years.flatMap((_, k) => [cell(p.values[k * 2]), cell(p.values[k * 2 + 1])])].join(','));
+      years.forEach((y, k) => long.push([p.id, String(y - years[0]), cell(p.values[k * 2]), cell(p.values[k * 2 + 1])].join(',')));
+    });
+    const files = { 'w.csv': wide.join('\n'), 'l.csv': long.join('\n') };
+    const d = await run(['data', 'w.csv', 'src/examples/lake.json', '--waves', '2014,2015,2017,2020', '--time-unit', 'year', '--json'], files);
+    expect(d.code, d.err).toBe(0);
+    const dj = JSON.parse(d.out) as { kept: number; mapping: { waves: { time: { value: number } }[] }; summary: { notes: string[] } };
+    expect(dj.kept).toBe(120);
+    expect(dj.mapping.waves.map((w) => w.time.value)).toEqual([0, 1, 3, 6]);
+    expect(dj.summary.notes.join(' ')).not.toMatch(/no time columns/);
+    const fit = async (argv: string[]) => {
+      const r = await run(['fit', 'src/examples/lake.json', ...argv, '--method', 'ct', '--open', '--initial', 'stationary', '--json'], files);
+      expect(r.code, r.err).toBe(0);
+      return JSON.parse(r.out) as { minus2LL: number; drift: number[][]; n: { occasions: number }; ordering: { interval: number } };
+    };
+    const w = await fit(['--data', 'w.csv', '--waves', '0,1,3,6', '--time-unit', 'year']);
+    const l = await fit(['--data', 'l.csv', '--person', 'lake', '--time', 'years', '--time-unit', 'year']);
+    expect(w.n.occasions).toBe(l.n.occasions);
+    expectClose(w.minus2LL, l.minus2LL, { relTol: 1e-9 }, '−2LL wide against long');
+    expectClose(w.drift, l.drift, { relTol: 1e-6, absTol: 1e-9 }, 'drift wide against long');
+    // Intervals of 1, 2 and 3 years, 30 of each: the median is 2 years in days (365.25 days a year: the Julian year, common practice for a year as a unit).
+    expectClose(w.ordering.interval, 2 * 365.25, {}, 'interval');
+    // Without --waves the waves would be read as equally spaced: the command says so.
+    const bare = await run(['data', 'w.csv', 'src/examples/lake.json'], files);
+    expect(bare.out).toMatch(/no time columns and no --waves.*read as 0, 1, 2, 3 day apart/);
+    // Bad --waves are named: a count that does not match, a non-number, times that do not increase, a long file.
+    expect((await run(['data', 'w.csv', 'src/examples/lake.json', '--waves', '0,1,3'], files)).err).toMatch(/gives 3 times but the file has 4 waves \(wave 1: fish_1, sediment_1;/);
+    expect((await run(['data', 'w.csv', 'src/examples/lake.json', '--waves', '0,1,x,6'], files)).err).toMatch(/"x" \(wave 3\) is not a number/);
+    expect((await run(['data', 'w.csv', 'src/examples/lake.json', '--waves', '0,3,3,6'], files)).err).toMatch(/wave 3's time 3 is not after wave 2's 3/);
+    expect((await run(['data', 'l.csv', 'src/examples/lake.json', '--waves', '0,1,3,6'], files)).err).toMatch(/--waves is for wide files/);
+  }, 600_000);
+
   it('refuses --min-pairs below 3 naming the option', async () => {
     const r = await run(['fit', MODEL, '--data', 'd.csv', '--person', 'pid', '--time', 'hours', '--map', 'stress=stress,mood=mood', '--person-fits', '--min-pairs', '1'], { 'd.csv': diary() });
     expect(r.code).not.toBe(0);

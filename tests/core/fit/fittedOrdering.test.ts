@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fittedOrdering, modelFromDrift } from '../../../src/core/fit/fittedOrdering';
+import { fittedOrdering, modelFromDrift, orderingRows, sketchOrderingRows } from '../../../src/core/fit/fittedOrdering';
 import type { Model } from '../../../src/core/model/types';
 
 // A sketch of two states: x fast (30 min), y slow (1 day), x drives y; the sketch also has y → x.
@@ -55,5 +55,42 @@ describe('fittedOrdering', () => {
 
   it('refuses a design without a positive interval, naming both numbers', () => {
     expect(() => fittedOrdering(sketch, fit, { interval: 0, window: 300 })).toThrow(/0 and 300/);
+  });
+
+  it('sets the two whole orderings side by side, row by row, and names what they disagree on', () => {
+    const rows = orderingRows(sketch, fittedOrdering(sketch, fit, { interval: 3, window: 300 }));
+    expect(rows.map((r) => r.variable)).toEqual(['y', 'x']);
+    const x = rows.find((r) => r.variable === 'x')!, y = rows.find((r) => r.variable === 'y')!;
+    // x settles in both: its balance reads y in the sketch (a link within the instant), nothing in the fit.
+    expect(x.sketch).toMatchObject({ role: 'settled', from: [{ id: 'y', kind: 'instantaneous' }] });
+    expect(x.fitted).toMatchObject({ role: 'settled', from: [] });
+    expect(x.sketch!.level).toBeGreaterThan(y.sketch!.level);
+    expect([x.roleDiffers, x.onlySketch, x.onlyFitted]).toEqual([false, ['y'], []]);
+    expect([y.roleDiffers, y.onlySketch, y.onlyFitted]).toEqual([false, [], []]);
+    // At 5 minutes both are dynamic in the fit and in the sketch; x reads y across time in the sketch only.
+    const fine = orderingRows(sketch, fittedOrdering(sketch, fit, { interval: 1 / 12, window: 300 }));
+    expect(fine.find((r) => r.variable === 'x')).toMatchObject({ sketch: { role: 'state', from: [{ id: 'y', kind: 'integrating' }] }, fitted: { role: 'state', from: [] }, onlySketch: ['y'] });
+  });
+
+  it('reads the sketch through its derived variables when it compares what acts on a fitted state', () => {
+    // x drives y through a derived d (x → d within the instant, d → y across time); the fit sees x → y directly.
+    const withDerived: Model = {
+      ...sketch,
+      variables: [...sketch.variables, { id: 'd', label: 'Pressure', kind: 'derived' }],
+      links: [
+        { from: 'x', to: 'd', kind: 'instantaneous', sign: '+', weight: 1 },
+        { from: 'd', to: 'y', kind: 'integrating', sign: '+', weight: 0.5 },
+      ],
+    };
+    const rows = orderingRows(withDerived, fittedOrdering(withDerived, fit, { interval: 1 / 12, window: 300 }));
+    const y = rows.find((r) => r.variable === 'y')!;
+    expect(y.sketch!.from.map((f) => f.id)).toEqual(['d']);
+    expect(y.fitted!.from.map((f) => f.id)).toEqual(['x']);
+    expect([y.onlySketch, y.onlyFitted]).toEqual([[], []]);
+    expect(rows.find((r) => r.variable === 'd')).toMatchObject({ sketch: { role: 'derived' }, fitted: null });
+    // Before a fit: the sketch's rows alone.
+    const alone = sketchOrderingRows(withDerived, { interval: 3, window: 300 });
+    expect(alone.every((r) => r.fitted === null)).toBe(true);
+    expect(alone.find((r) => r.variable === 'x')!.sketch!.role).toBe('settled');
   });
 });
