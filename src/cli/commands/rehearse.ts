@@ -11,7 +11,7 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { linksOfText, rehearsalOf, simulateStudy, type Rehearsal } from '../../core/rehearse/setup';
-import { analyticPower, monteCarloPower, type PowerResult } from '../../core/rehearse/power';
+import { analyticPower, monteCarloPower, trustSentence, type PowerResult } from '../../core/rehearse/power';
 import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget } from '../../core/rehearse/plan';
 import { formatNumber, studyCsv } from '../../present/index';
 import { loadModel } from '../load';
@@ -64,11 +64,14 @@ function powerText(model: Model, r: Rehearsal, res: PowerResult): string {
     `${model.name}: power of the planned study (${res.method === 'analytic' ? 'analytic, pooled VAR(1) limit with sandwich variance' : `Monte Carlo, ${res.replications} simulated studies analysed by the VAR fit`})`,
     `  ${r.persons} persons, about ${Math.round(r.answeredPerPerson)} answered prompts each, α = ${r.alpha}`,
     '',
-    `  ${'link'.padEnd(28)} ${'effect'.padStart(9)} ${'SE'.padStart(9)} ${'power'.padStart(7)}${res.method === 'montecarlo' ? ' ± MC error' : ''}`,
+    `  ${'link'.padEnd(28)} ${'effect'.padStart(9)} ${'SE'.padStart(9)} ${'power'.padStart(7)}${res.method === 'montecarlo' ? ' ± MC error' : ` ${'centring'.padStart(9)} ${'expected'.padStart(9)}`}`,
   ];
   for (const l of res.links)
-    lines.push(`  ${`${l.from} -> ${l.to}`.padEnd(28)} ${num(l.effect).padStart(9)} ${num(l.se).padStart(9)} ${num(l.power).padStart(7)}${l.mcError !== undefined ? ` ± ${num(l.mcError)}` : ''}`);
-  if (res.note) lines.push('', res.note);
+    lines.push(`  ${`${l.from} -> ${l.to}`.padEnd(28)} ${num(l.effect).padStart(9)} ${num(l.se).padStart(9)} ${num(l.power).padStart(7)}${l.mcError !== undefined ? ` ± ${num(l.mcError)}` : ''}${l.centringBias !== undefined ? ` ${num(l.centringBias).padStart(9)} ${num(l.expectedEstimate ?? NaN).padStart(9)}` : ''}`);
+  if (res.method === 'analytic')
+    lines.push('  (centring: the small-sample bias of person-mean centring at this many occasions, about −(1+φ)/(T−1) for an autoregression;', '   expected: the within-person estimate the analysis is expected to give, effect + centring)');
+  lines.push('', trustSentence(r.answeredPerPerson));
+  if (res.note && res.method === 'montecarlo') lines.push('', res.note);
   lines.push('', CAUTION);
   return lines.join('\n');
 }
@@ -162,7 +165,7 @@ export const rehearseCommands: CliCommand[] = [
         throw new CliError((e as Error).message);
       }
       if (args.options.json)
-        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, ...(res.note ? { note: res.note } : {}) }, null, 2));
+        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, trust: trustSentence(r.answeredPerPerson), ...(res.note ? { note: res.note } : {}) }, null, 2));
       else io.out(powerText(model, r, res));
       return 0;
     },

@@ -76,6 +76,14 @@ describe('loopfold power', () => {
     // 3 Monte Carlo errors, plus 0.04 for the small-sample bias of person-mean centring at T = 119 (Nickell 1981: O(1/T)).
     expect(Math.abs(l.power - ref.power)).toBeLessThan(3 * Math.sqrt((ref.power * (1 - ref.power)) / K) + 0.04);
     expect(Math.abs(l.se - ref.se)).toBeLessThan(0.15 * ref.se);
+    // The mean estimate against the analytic expected within-person estimate (the pooled limit plus the bias of centring).
+    const an = JSON.parse((await run(['power', MODEL, '--link', 'heat->damp,damp->damp', '--persons', '3', '--json'])).out) as { trust: string; links: { effect: number; centringBias: number; expectedEstimate: number }[] };
+    expectClose(an.links[0].expectedEstimate, an.links[0].effect + an.links[0].centringBias, { relTol: 1e-12 }, 'expected = effect + bias');
+    expect(Math.abs(l.effect - an.links[0].expectedEstimate)).toBeLessThan(3 * l.se / Math.sqrt(K));
+    // The autoregression's bias is about Nickell's −(1+φ)/(T−1) at T = 120 occasions (large-T form; common result).
+    const phiDD = an.links[1].effect;
+    expect(Math.abs(an.links[1].centringBias / (-(1 + phiDD) / 119) - 1)).toBeLessThan(0.15);
+    expect(an.trust).toMatch(/Which to trust/);
   }, 120_000);
 
   it('names what is wrong with the flags', async () => {
