@@ -12,6 +12,7 @@ import type { Model } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { linksOfText, rehearsalOf, simulateStudy, type Rehearsal } from '../../core/rehearse/setup';
 import { analyticPower, monteCarloPower, trustSentence, type PowerResult } from '../../core/rehearse/power';
+import { simulatorText } from '../../core/rehearse/nonlinear';
 import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget } from '../../core/rehearse/plan';
 import { formatNumber, studyCsv } from '../../present/index';
 import { loadModel } from '../load';
@@ -71,6 +72,7 @@ function powerText(model: Model, r: Rehearsal, res: PowerResult): string {
   if (res.method === 'analytic')
     lines.push('  (centring: the small-sample bias of person-mean centring at this many occasions, about −(1+φ)/(T−1) for an autoregression;', '   expected: the within-person estimate the analysis is expected to give, effect + centring)');
   lines.push('', trustSentence(r.answeredPerPerson));
+  if (r.integrator) lines.push('The mechanism is nonlinear: power uses its linearization at equilibrium; simulate-study integrates its own rates (Euler–Maruyama).');
   if (res.note && res.method === 'montecarlo') lines.push('', res.note);
   lines.push('', CAUTION);
   return lines.join('\n');
@@ -143,7 +145,7 @@ export const rehearseCommands: CliCommand[] = [
       }
       io.writeFile(out, studyCsv(panel));
       const answered = panel.persons.reduce((a, p) => a + p.time.length, 0);
-      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
+      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}), simulated by ${simulatorText(r.integrator, dur(model))}. Synthetic data from the model, not observations.`);
       return 0;
     },
   },

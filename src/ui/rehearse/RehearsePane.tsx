@@ -211,11 +211,12 @@ function SimulatedCsv({ model, req }: { model: Model; req: RehearseRequest }) {
     const a = await c.csv(req);
     if (!a.ok) return setMsg({ error: true, text: a.reason });
     downloadBlob(new Blob([a.csv], { type: 'text/csv' }), `${fileStem(model.name)}-simulated-study.csv`);
-    setMsg({ error: false, text: `Saved: ${a.persons} persons, ${a.rows} answered prompts (synthetic data from the model, not observations).` });
+    setMsg({ error: false, text: `Saved: ${a.persons} persons, ${a.rows} answered prompts, simulated by ${a.simulator} (synthetic data from the model, not observations).` });
   };
   return (
     <section className="lf-rehearse-section" aria-labelledby="lf-rh-csv">
       <h3 id="lf-rh-csv">Simulated study</h3>
+      <p className="lf-hint">A linear mechanism is simulated by the exact discrete model of each gap between prompts; a nonlinear one by Euler–Maruyama on its own rates, with steps of 1/20 of its fastest timescale. Power above uses the linearization at equilibrium.</p>
       <p><button type="button" onClick={() => void save()}>Download a simulated study (CSV)</button></p>
       {msg && <p className={msg.error ? 'lf-field-error' : 'lf-hint'} role={msg.error ? 'alert' : 'status'}>{msg.text}</p>}
     </section>

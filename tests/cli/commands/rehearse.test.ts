@@ -48,6 +48,19 @@ describe('loopfold simulate-study', () => {
       expect(Array.from(p.day ?? [])).toEqual(Array.from(truth.persons[k].day ?? []));
     });
     expect((await run(['simulate-study', MODEL])).err).toMatch(/--out FILE.csv/);
+    expect(r.out).toMatch(/exact discrete model/);
+  });
+
+  it('a nonlinear model (the warehouse example) is integrated by Euler–Maruyama, says so, and reads back unchanged', async () => {
+    const r = await run(['simulate-study', 'src/examples/warehouse.json', '--persons', '2', '--out', 'w.csv']);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/Euler–Maruyama .* steps of at most .* \(1\/20 of the fastest timescale/);
+    const imp = importText(r.files['w.csv'], { format: 'long', person: 'person', time: 'time', day: 'day', prompt: 'prompt', timeFormat: 'number', timeUnit: 'day', variables: [{ column: 'pipeline', variable: 'pipeline' }, { column: 'inventory', variable: 'inventory' }] });
+    expect(imp.summary.refused).toBe(0);
+    const m = parseModelText(readFileSync('src/examples/warehouse.json', 'utf8'));
+    if (!m.ok) throw new Error('example does not load');
+    const truth = simulateStudy(rehearsalOf(m.model, { persons: 2 }));
+    imp.panel!.persons.forEach((p, k) => expect(Array.from(p.values)).toEqual(Array.from(truth.persons[k].values)));
   });
 });
 
