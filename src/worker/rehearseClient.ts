@@ -28,6 +28,19 @@ export interface McRun {
   cancel(): void;
 }
 
+/** The most parallel workers a Monte Carlo run starts, whatever the machine reports (memory: each holds the model and its own copy of the core). */
+export const MAX_WORKERS = 8;
+
+/**
+ * How many workers a Monte Carlo run uses: as many as the machine reports cores
+ * (`navigator.hardwareConcurrency`), at least 1 and at most `MAX_WORKERS`; 1 when the browser
+ * does not say. Example: `workerCount(navigator.hardwareConcurrency)`.
+ */
+export function workerCount(reported: number | undefined | null): number {
+  const n = Math.floor(Number(reported));
+  return Number.isFinite(n) && n >= 1 ? Math.min(n, MAX_WORKERS) : 1;
+}
+
 /** Parts of a run of K replications over at most `cores` workers: [from, to) each, none empty. */
 export function splitReplications(k: number, cores: number): [number, number][] {
   const w = Math.max(1, Math.min(Math.floor(cores) || 1, k));

@@ -19,7 +19,7 @@ import { labelOf, numText } from '../../present/index';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
 import { editStudy, useSessionStudy, type SessionStudy } from '../../state/session';
-import { appRehearseClient, type McOutcome, type McRun } from '../../worker/rehearseClient';
+import { appRehearseClient, workerCount, type McOutcome, type McRun } from '../../worker/rehearseClient';
 import type { AdvisorAnswer, AnalyticAnswer, Failed, Ok, RehearseRequest } from '../../worker/rehearseApi';
 import { downloadBlob } from '../download';
 import { elToReact } from '../elReact';
@@ -150,7 +150,7 @@ function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: Rehe
   useEffect(() => () => runRef.current?.cancel(), []);
   const k = Number(reps), sd = Number(seed);
   const problem = !(Number.isInteger(k) && k >= 10 && k <= 100000) ? 'Replications: a whole number from 10 to 100000' : !Number.isInteger(sd) ? 'Seed: a whole number' : null;
-  const cores = Math.max(1, Math.min(typeof navigator !== 'undefined' ? navigator.hardwareConcurrency || 1 : 1, 16));
+  const cores = workerCount(typeof navigator !== 'undefined' ? navigator.hardwareConcurrency : undefined);
   const start = async () => {
     if (problem) return;
     runRef.current?.cancel();
