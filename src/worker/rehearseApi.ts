@@ -77,10 +77,11 @@ export interface CsvAnswer {
   simulator: string;
 }
 
-export function csvJob(req: RehearseRequest): Ok<CsvAnswer> | Failed {
+/** One simulated study as CSV; `onProgress` gets the persons simulated so far. */
+export function csvJob(req: RehearseRequest, onProgress?: (persons: number) => void): Ok<CsvAnswer> | Failed {
   return guarded(() => {
     const r = rehearsal(req);
-    const panel = simulateStudy(r);
+    const panel = simulateStudy(r, onProgress);
     return { csv: studyCsv(panel), persons: panel.persons.length, rows: panel.persons.reduce((a, p) => a + p.time.length, 0), simulator: simulatorText(r.integrator, (x) => formatDuration(x, r.timeUnit)) };
   });
 }
@@ -88,7 +89,8 @@ export function csvJob(req: RehearseRequest): Ok<CsvAnswer> | Failed {
 export interface RehearseApi {
   analytic(req: RehearseRequest): Promise<Ok<AnalyticAnswer> | Failed>;
   advisor(req: RehearseRequest, budget: Budget): Promise<Ok<AdvisorAnswer> | Failed>;
-  csv(req: RehearseRequest): Promise<Ok<CsvAnswer> | Failed>;
+  /** Progress: persons simulated so far (of the study's persons). */
+  csv(req: RehearseRequest, onProgress?: (persons: number) => void): Promise<Ok<CsvAnswer> | Failed>;
   /** Replications [from, to) of the seed's streams; progress: replications done in this part. */
   replications(req: RehearseRequest, from: number, to: number, onProgress?: (done: number) => void): Promise<Ok<{ tally: Tally }> | Failed>;
 }
@@ -102,8 +104,8 @@ export const localRehearse: RehearseApi = {
   async advisor(req, budget) {
     return advisorJob(req, budget);
   },
-  async csv(req) {
-    return csvJob(req);
+  async csv(req, onProgress) {
+    return csvJob(req, onProgress);
   },
   async replications(req, from, to, onProgress) {
     let r: Rehearsal;

@@ -99,4 +99,21 @@ describe('the rehearsal client', () => {
     expect(started).toBe(7);
     expect(disposed).toBe(7);
   });
+
+  it('the simulated study reports persons done, and Cancel ends it without a file', async () => {
+    const links = linksOfText(model, 'heat->damp');
+    const study = { ...studyOfModel(model), persons: 5, length: 20 };
+    const c = createRehearseClient(null, () => localRehearse);
+    const seen: number[] = [];
+    const a = await c.csv({ model, study, links }, (n) => seen.push(n)).result;
+    expect(a.ok).toBe(true);
+    expect(seen[seen.length - 1]).toBe(5);
+    expect(seen).toEqual([...seen].sort((x, y) => x - y));
+    if (a.ok) expect(a.simulator).toMatch(/exact discrete model/);
+    const run = c.csv({ model, study, links });
+    run.cancel();
+    const b = await run.result;
+    expect(b.ok).toBe(false);
+    expect('cancelled' in b).toBe(true);
+  });
 });

@@ -161,7 +161,16 @@ export const rehearseCommands: CliCommand[] = [
       const r = rehearsal(model, args, true);
       let res: PowerResult;
       try {
-        res = method === 'analytic' ? analyticPower(r) : monteCarloPower(r, wholeOption(args, 'replications', 1) ?? 200);
+        const k = wholeOption(args, 'replications', 1) ?? 200;
+        // Progress on stderr about every tenth of a long run (stdout keeps the answer alone); Ctrl-C stops it.
+        let told = 0;
+        const progress = (done: number) => {
+          if (k >= 100 && done - told >= k / 10 && done < k) {
+            told = done;
+            io.err(`loopfold power: ${done} of ${k} replications`);
+          }
+        };
+        res = method === 'analytic' ? analyticPower(r) : monteCarloPower(r, k, { onProgress: progress });
       } catch (e) {
         if (e instanceof CliError) throw e;
         throw new CliError((e as Error).message);

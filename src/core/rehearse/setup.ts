@@ -134,14 +134,23 @@ export function promptsOf(study: Study, unit: TimeUnit, persons: number, seed: n
  * by the exact discrete model of each gap; a nonlinear one by Euler–Maruyama on its own rates
  * (`r.integrator`, `nonlinear.ts`).
  */
-export function simulateStudy(r: Rehearsal): Panel {
+export function simulateStudy(r: Rehearsal, onProgress?: (personsDone: number) => void): Panel {
   const prompts = promptsOf(r.study, r.timeUnit, r.persons, r.seed);
   const rng = seededRandom(r.seed);
   const people = rng.fork(1);
+  // Person p is asked for just before it is simulated: p persons are done.
+  const tell = <T>(f: (p: number) => T) => (p: number) => {
+    onProgress?.(p);
+    return f(p);
+  };
   if (r.integrator) {
     const models = prompts.map(() => personModel(r.model, r.process, people));
-    return simulateNonlinearPanel((p) => models[p], prompts, { states: r.process.states, noise: r.process.base.noise, stationary: r.stationary, choice: r.integrator, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+    const panel = simulateNonlinearPanel(tell((p) => models[p]), prompts, { states: r.process.states, noise: r.process.base.noise, stationary: r.stationary, choice: r.integrator, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+    onProgress?.(prompts.length);
+    return panel;
   }
   const processes = prompts.map(() => drawPerson(r.process, people));
-  return simulatePanel((p) => processes[p], prompts, { states: r.process.states, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+  const panel = simulatePanel(tell((p) => processes[p]), prompts, { states: r.process.states, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+  onProgress?.(prompts.length);
+  return panel;
 }

@@ -19,7 +19,7 @@ import { labelOf, numText } from '../../present/index';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
 import { editStudy, useSessionStudy, type SessionStudy } from '../../state/session';
-import { appRehearseClient, workerCount, type McOutcome, type McRun } from '../../worker/rehearseClient';
+import { appRehearseClient, workerCount, type CsvRun, type McOutcome, type McRun } from '../../worker/rehearseClient';
 import type { AdvisorAnswer, AnalyticAnswer, Failed, Ok, RehearseRequest } from '../../worker/rehearseApi';
 import { downloadBlob } from '../download';
 import { elToReact } from '../elReact';
@@ -205,11 +205,22 @@ function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: Rehe
 
 function SimulatedCsv({ model, req }: { model: Model; req: RehearseRequest }) {
   const [msg, setMsg] = useState<{ error: boolean; text: string } | null>(null);
+  const [running, setRunning] = useState<CsvRun | null>(null);
+  const [done, setDone] = useState(0);
+  const runRef = useRef<CsvRun | null>(null);
+  useEffect(() => () => runRef.current?.cancel(), []);
+  const persons = req.study.persons ?? 1;
   const save = async () => {
     setMsg(null);
+    setDone(0);
     const c = await appRehearseClient();
-    const a = await c.csv(req);
-    if (!a.ok) return setMsg({ error: true, text: a.reason });
+    const run = c.csv(req, setDone);
+    runRef.current = run;
+    setRunning(run);
+    const a = await run.result;
+    if (runRef.current !== run) return;
+    setRunning(null);
+    if (!a.ok) return setMsg({ error: !('cancelled' in a), text: 'cancelled' in a ? 'Cancelled: no file was saved.' : a.reason });
     downloadBlob(new Blob([a.csv], { type: 'text/csv' }), `${fileStem(model.name)}-simulated-study.csv`);
     setMsg({ error: false, text: `Saved: ${a.persons} persons, ${a.rows} answered prompts, simulated by ${a.simulator} (synthetic data from the model, not observations).` });
   };
@@ -217,8 +228,12 @@ function SimulatedCsv({ model, req }: { model: Model; req: RehearseRequest }) {
     <section className="lf-rehearse-section" aria-labelledby="lf-rh-csv">
       <h3 id="lf-rh-csv">Simulated study</h3>
       <p className="lf-hint">A linear mechanism is simulated by the exact discrete model of each gap between prompts; a nonlinear one by Euler–Maruyama on its own rates, with steps of 1/20 of its fastest timescale. Power above uses the linearization at equilibrium.</p>
-      <p><button type="button" onClick={() => void save()}>Download a simulated study (CSV)</button></p>
-      {msg && <p className={msg.error ? 'lf-field-error' : 'lf-hint'} role={msg.error ? 'alert' : 'status'}>{msg.text}</p>}
+      <p>
+        <button type="button" disabled={!!running} onClick={() => void save()}>Download a simulated study (CSV)</button>
+        {running && <> <button type="button" onClick={() => running.cancel()}>Cancel the simulated study</button></>}
+      </p>
+      {running && <p><progress aria-label="Persons simulated" max={persons} value={done} /> {done} of {persons} persons</p>}
+      {msg && <p className={msg.error ? 'lf-field-error' : 'lf-hint'} role={msg.error ? 'alert' : 'status'} data-testid="rehearse-csv-message">{msg.text}</p>}
     </section>
   );
 }

@@ -86,6 +86,8 @@ describe('loopfold power', () => {
     expect(r.code).toBe(0);
     const l = (JSON.parse(r.out) as { links: { effect: number; se: number; power: number; mcError: number }[] }).links[0];
     expectClose(l.mcError, Math.sqrt((l.power * (1 - l.power)) / K), { relTol: 1e-12 }, 'mcError');
+    // Progress goes to stderr, about every tenth of the run; stdout holds the JSON alone.
+    expect(r.err).toMatch(/loopfold power: \d+ of 300 replications/);
     // 3 Monte Carlo errors, plus 0.04 for the small-sample bias of person-mean centring at T = 119 (Nickell 1981: O(1/T)).
     expect(Math.abs(l.power - ref.power)).toBeLessThan(3 * Math.sqrt((ref.power * (1 - ref.power)) / K) + 0.04);
     expect(Math.abs(l.se - ref.se)).toBeLessThan(0.15 * ref.se);
