@@ -10,6 +10,7 @@ import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget, 
 import { analyticPower, type PowerResult } from '../core/rehearse/power';
 import { mergeTallies, runReplications, type LinkOfInterest, type Tally } from '../core/rehearse/montecarlo';
 import { rehearsalOf, simulateStudy, type Rehearsal } from '../core/rehearse/setup';
+import { simulatorText } from '../core/rehearse/nonlinear';
 import { studyCsv } from '../present/index';
 
 export interface RehearseRequest {
@@ -68,17 +69,28 @@ export function advisorJob(req: RehearseRequest, budget: Budget): Ok<AdvisorAnsw
   });
 }
 
-export function csvJob(req: RehearseRequest): Ok<{ csv: string; persons: number; rows: number }> | Failed {
+export interface CsvAnswer {
+  csv: string;
+  persons: number;
+  rows: number;
+  /** How the study was simulated (exact discrete model, or Euler–Maruyama and its step). */
+  simulator: string;
+}
+
+/** One simulated study as CSV; `onProgress` gets the persons simulated so far. */
+export function csvJob(req: RehearseRequest, onProgress?: (persons: number) => void): Ok<CsvAnswer> | Failed {
   return guarded(() => {
-    const panel = simulateStudy(rehearsal(req));
-    return { csv: studyCsv(panel), persons: panel.persons.length, rows: panel.persons.reduce((a, p) => a + p.time.length, 0) };
+    const r = rehearsal(req);
+    const panel = simulateStudy(r, onProgress);
+    return { csv: studyCsv(panel), persons: panel.persons.length, rows: panel.persons.reduce((a, p) => a + p.time.length, 0), simulator: simulatorText(r.integrator, (x) => formatDuration(x, r.timeUnit)) };
   });
 }
 
 export interface RehearseApi {
   analytic(req: RehearseRequest): Promise<Ok<AnalyticAnswer> | Failed>;
   advisor(req: RehearseRequest, budget: Budget): Promise<Ok<AdvisorAnswer> | Failed>;
-  csv(req: RehearseRequest): Promise<Ok<{ csv: string; persons: number; rows: number }> | Failed>;
+  /** Progress: persons simulated so far (of the study's persons). */
+  csv(req: RehearseRequest, onProgress?: (persons: number) => void): Promise<Ok<CsvAnswer> | Failed>;
   /** Replications [from, to) of the seed's streams; progress: replications done in this part. */
   replications(req: RehearseRequest, from: number, to: number, onProgress?: (done: number) => void): Promise<Ok<{ tally: Tally }> | Failed>;
 }
@@ -92,8 +104,8 @@ export const localRehearse: RehearseApi = {
   async advisor(req, budget) {
     return advisorJob(req, budget);
   },
-  async csv(req) {
-    return csvJob(req);
+  async csv(req, onProgress) {
+    return csvJob(req, onProgress);
   },
   async replications(req, from, to, onProgress) {
     let r: Rehearsal;

@@ -28,6 +28,19 @@ export interface McRun {
   cancel(): void;
 }
 
+/** The most parallel workers a Monte Carlo run starts, whatever the machine reports (memory: each holds the model and its own copy of the core). */
+export const MAX_WORKERS = 8;
+
+/**
+ * How many workers a Monte Carlo run uses: as many as the machine reports cores
+ * (`navigator.hardwareConcurrency`), at least 1 and at most `MAX_WORKERS`; 1 when the browser
+ * does not say. Example: `workerCount(navigator.hardwareConcurrency)`.
+ */
+export function workerCount(reported: number | undefined | null): number {
+  const n = Math.floor(Number(reported));
+  return Number.isFinite(n) && n >= 1 ? Math.min(n, MAX_WORKERS) : 1;
+}
+
 /** Parts of a run of K replications over at most `cores` workers: [from, to) each, none empty. */
 export function splitReplications(k: number, cores: number): [number, number][] {
   const w = Math.max(1, Math.min(Math.floor(cores) || 1, k));
@@ -39,10 +52,18 @@ export function splitReplications(k: number, cores: number): [number, number][] 
   return parts;
 }
 
+export type CsvOutcome = Awaited<ReturnType<RehearseApi['csv']>> | { ok: false; cancelled: true; reason: string };
+
+export interface CsvRun {
+  result: Promise<CsvOutcome>;
+  cancel(): void;
+}
+
 export interface RehearseClient {
   analytic: RehearseApi['analytic'];
   advisor(req: RehearseRequest, budget: Budget): ReturnType<RehearseApi['advisor']>;
-  csv: RehearseApi['csv'];
+  /** One simulated study on a worker of its own, with progress (persons) and Cancel. */
+  csv(req: RehearseRequest, onProgress?: (persons: number) => void): CsvRun;
   monteCarlo(req: RehearseRequest, replications: number, cores: number, onProgress?: (done: number) => void): McRun;
   where(): Where;
   dispose(): void;
@@ -54,7 +75,15 @@ export function createRehearseClient(worker: (() => Transport<RehearseApi>) | nu
   return {
     analytic: (req) => lane.run((a) => a.analytic(req)).then((r) => r.value),
     advisor: (req, budget) => lane.run((a) => a.advisor(req, budget)).then((r) => r.value),
-    csv: (req) => lane.run((a) => a.csv(req)).then((r) => r.value),
+    csv(req, onProgress) {
+      const run = lane.cancellable<CsvOutcome, number>('csv', (api, progress) => api.csv(req, progress), {
+        onProgress,
+        cancelled: () => ({ ok: false, cancelled: true, reason: 'cancelled' }),
+        failed: (e) => ({ ok: false, reason: e instanceof Error ? e.message : String(e) }),
+      });
+      // A newer simulated study replaced this one: it reads as cancelled.
+      return { result: run.result.then((a) => a ?? { ok: false, cancelled: true, reason: 'replaced by a newer run' }), cancel: run.cancel };
+    },
     monteCarlo(req, replications, cores, onProgress) {
       const seq = ++runSeq;
       const parts = splitReplications(replications, cores);
@@ -101,7 +130,7 @@ function workerRehearse(): Transport<RehearseApi> {
   return {
     analytic: (req) => w.call(() => w.remote.analytic(req)),
     advisor: (req, b) => w.call(() => w.remote.advisor(req, b)),
-    csv: (req) => w.call(() => w.remote.csv(req)),
+    csv: (req, p) => w.call(() => w.remote.csv(req, p ? proxy(p) : undefined)),
     replications: (req, from, to, p) => w.call(() => w.remote.replications(req, from, to, p ? proxy(p) : undefined)),
     dispose: w.dispose,
   };

@@ -11,7 +11,8 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration, parseDuration } from '../../core/model/units';
 import { linksOfText, rehearsalOf, simulateStudy, type Rehearsal } from '../../core/rehearse/setup';
-import { analyticPower, monteCarloPower, type PowerResult } from '../../core/rehearse/power';
+import { analyticPower, monteCarloPower, trustSentence, type PowerResult } from '../../core/rehearse/power';
+import { simulatorText } from '../../core/rehearse/nonlinear';
 import { planPersons, planPromptsPerDay, planStudy, type AxisPlan, type Budget } from '../../core/rehearse/plan';
 import { formatNumber, studyCsv } from '../../present/index';
 import { loadModel } from '../load';
@@ -64,11 +65,15 @@ function powerText(model: Model, r: Rehearsal, res: PowerResult): string {
     `${model.name}: power of the planned study (${res.method === 'analytic' ? 'analytic, pooled VAR(1) limit with sandwich variance' : `Monte Carlo, ${res.replications} simulated studies analysed by the VAR fit`})`,
     `  ${r.persons} persons, about ${Math.round(r.answeredPerPerson)} answered prompts each, α = ${r.alpha}`,
     '',
-    `  ${'link'.padEnd(28)} ${'effect'.padStart(9)} ${'SE'.padStart(9)} ${'power'.padStart(7)}${res.method === 'montecarlo' ? ' ± MC error' : ''}`,
+    `  ${'link'.padEnd(28)} ${'effect'.padStart(9)} ${'SE'.padStart(9)} ${'power'.padStart(7)}${res.method === 'montecarlo' ? ' ± MC error' : ` ${'centring'.padStart(9)} ${'expected'.padStart(9)}`}`,
   ];
   for (const l of res.links)
-    lines.push(`  ${`${l.from} -> ${l.to}`.padEnd(28)} ${num(l.effect).padStart(9)} ${num(l.se).padStart(9)} ${num(l.power).padStart(7)}${l.mcError !== undefined ? ` ± ${num(l.mcError)}` : ''}`);
-  if (res.note) lines.push('', res.note);
+    lines.push(`  ${`${l.from} -> ${l.to}`.padEnd(28)} ${num(l.effect).padStart(9)} ${num(l.se).padStart(9)} ${num(l.power).padStart(7)}${l.mcError !== undefined ? ` ± ${num(l.mcError)}` : ''}${l.centringBias !== undefined ? ` ${num(l.centringBias).padStart(9)} ${num(l.expectedEstimate ?? NaN).padStart(9)}` : ''}`);
+  if (res.method === 'analytic')
+    lines.push('  (centring: the small-sample bias of person-mean centring at this many occasions, about −(1+φ)/(T−1) for an autoregression;', '   expected: the within-person estimate the analysis is expected to give, effect + centring)');
+  lines.push('', trustSentence(r.answeredPerPerson));
+  if (r.integrator) lines.push('The mechanism is nonlinear: power uses its linearization at equilibrium; simulate-study integrates its own rates (Euler–Maruyama).');
+  if (res.note && res.method === 'montecarlo') lines.push('', res.note);
   lines.push('', CAUTION);
   return lines.join('\n');
 }
@@ -140,7 +145,7 @@ export const rehearseCommands: CliCommand[] = [
       }
       io.writeFile(out, studyCsv(panel));
       const answered = panel.persons.reduce((a, p) => a + p.time.length, 0);
-      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}). Synthetic data from the model, not observations.`);
+      io.out(`wrote ${out}: ${panel.persons.length} persons, ${answered} answered prompts, states ${panel.variables.join(', ')} (time in ${model.timeUnit}, seed ${r.seed}), simulated by ${simulatorText(r.integrator, dur(model))}. Synthetic data from the model, not observations.`);
       return 0;
     },
   },
@@ -156,13 +161,22 @@ export const rehearseCommands: CliCommand[] = [
       const r = rehearsal(model, args, true);
       let res: PowerResult;
       try {
-        res = method === 'analytic' ? analyticPower(r) : monteCarloPower(r, wholeOption(args, 'replications', 1) ?? 200);
+        const k = wholeOption(args, 'replications', 1) ?? 200;
+        // Progress on stderr about every tenth of a long run (stdout keeps the answer alone); Ctrl-C stops it.
+        let told = 0;
+        const progress = (done: number) => {
+          if (k >= 100 && done - told >= k / 10 && done < k) {
+            told = done;
+            io.err(`loopfold power: ${done} of ${k} replications`);
+          }
+        };
+        res = method === 'analytic' ? analyticPower(r) : monteCarloPower(r, k, { onProgress: progress });
       } catch (e) {
         if (e instanceof CliError) throw e;
         throw new CliError((e as Error).message);
       }
       if (args.options.json)
-        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, ...(res.note ? { note: res.note } : {}) }, null, 2));
+        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, trust: trustSentence(r.answeredPerPerson), ...(res.note ? { note: res.note } : {}) }, null, 2));
       else io.out(powerText(model, r, res));
       return 0;
     },

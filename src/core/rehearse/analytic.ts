@@ -17,9 +17,10 @@
  * (Lütkepohl 2005, New Introduction to Multiple Time Series Analysis, Prop. 3.1).
  * It treats the pairs as independent draws: an approximation that is optimistic for short
  * series (below about 100 occasions per person, where Monte Carlo is the figure to trust)
- * and ignores the downward bias of person-mean centring (Nickell 1981: about −(1+φ)/(T−1)).
+ * and leaves out the downward bias of person-mean centring (Nickell 1981: about −(1+φ)/(T−1)),
+ * which `centredMoments` gives separately.
  */
-import { inverse, mul, mulT, zeros, type Mat } from '../numeric/dense';
+import { axpby, inverse, mul, mulT, zeros, type Mat } from '../numeric/dense';
 import { normalCdf, normalQuantile } from '../stats/normal';
 
 export interface GapShare {
@@ -96,4 +97,48 @@ export function powerOfTest(effect: number, se: number, alpha = 0.05): number {
 export function pooledStandardError(variancePerPair: number, pairsPerPerson: number, persons: number, betweenSD = 0): number {
   if (!(pairsPerPerson > 0) || !(persons > 0)) return Infinity;
   return Math.sqrt((betweenSD * betweenSD + variancePerPair / pairsPerPerson) / persons);
+}
+
+/**
+ * The moments a person-mean-centred VAR(1) pools over one person's occasions, in expectation:
+ * N = Σ_a E[ỹ_a ỹ_{a−1}ᵀ] and D = Σ_a E[ỹ_{a−1} ỹ_{a−1}ᵀ], ỹ = y − (the person's mean over all T
+ * occasions). Over many persons the analysis converges to (Σ N)(Σ D)⁻¹ at a fixed T: the
+ * within-person estimate it is expected to give, including the small-T bias of centring
+ * (Nickell 1981, Econometrica 49, 1417–1426: about −(1+φ)/(T−1) for one autoregression; common
+ * result). Exact for a stationary process, from Cov(y_a, y_c) = Φ(t_a − t_c)Σ (a ≥ c) plus the
+ * error variance Θ when a = c, with the row sums R_a = Σ_c Cov(y_a, y_c) by two recursions (O(T)).
+ * `phiOf(gap)` gives Φ over a gap; `times` the person's answered occasions, increasing.
+ */
+export function centredMoments(phiOf: (gap: number) => Mat, sigma: Mat, errorVariance: ArrayLike<number>, times: ArrayLike<number>): { num: Mat; den: Mat } {
+  const n = sigma.rows, T = times.length;
+  const num = zeros(n), den = zeros(n);
+  if (T < 2) return { num, den };
+  const phis: Mat[] = [];
+  for (let a = 1; a < T; a++) phis.push(phiOf(times[a] - times[a - 1]));
+  const measured = axpby(1, sigma, 0, sigma);
+  for (let i = 0; i < n; i++) measured.data[i * n + i] += errorVariance[i];
+  // F_a = Σ_{c≤a} Φ(t_a − t_c)Σ;  H_a = Σ_{c>a} Σ Φ(t_c − t_a)ᵀ;  R_a = F_a + H_a + Θ.
+  const F: Mat[] = [sigma];
+  for (let a = 1; a < T; a++) F.push(axpby(1, sigma, 1, mul(phis[a - 1], F[a - 1])));
+  const H: Mat[] = new Array(T);
+  H[T - 1] = zeros(n);
+  for (let a = T - 2; a >= 0; a--) H[a] = mulT(axpby(1, sigma, 1, H[a + 1]), phis[a]);
+  const R = F.map((f, a) => {
+    const r = axpby(1, f, 1, H[a]);
+    for (let i = 0; i < n; i++) r.data[i * n + i] += errorVariance[i];
+    return r;
+  });
+  const G = zeros(n);
+  for (const r of R) for (let x = 0; x < n * n; x++) G.data[x] += r.data[x];
+  for (let a = 1; a < T; a++) {
+    const lag = mul(phis[a - 1], sigma); // Cov(y_a, y_{a−1})
+    const ra = R[a].data, rb = R[a - 1].data;
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j < n; j++) {
+        const g = G.data[i * n + j] / (T * T);
+        num.data[i * n + j] += lag.data[i * n + j] - ra[i * n + j] / T - rb[j * n + i] / T + g;
+        den.data[i * n + j] += measured.data[i * n + j] - rb[i * n + j] / T - rb[j * n + i] / T + g;
+      }
+  }
+  return { num, den };
 }

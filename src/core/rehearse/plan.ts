@@ -67,7 +67,7 @@ export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; 
     const prompts = budget.kind === 'prompts' ? budget.prompts : Math.floor(budget.span / interval + 1e-9);
     if (prompts < 3) continue;
     const study = designStudy(r.study, interval, prompts);
-    const res = analyticPower({ ...r, study, plannedPerPerson: prompts, answeredPerPerson: prompts * (1 - missed) });
+    const res = analyticPower({ ...r, study, plannedPerPerson: prompts, answeredPerPerson: prompts * (1 - missed) }, { withCentring: false });
     curve.push({ interval, prompts, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) });
   }
   if (curve.length === 0) throw new Error('no interval of the grid leaves at least 3 prompts within the budget');
@@ -157,7 +157,7 @@ export function planPersons(r: Rehearsal, opt: { values?: readonly number[]; tar
   const target = opt.target ?? 0.8;
   const interval = studyInterval(r.study, r.timeUnit) ?? NaN;
   const points = values.map((persons): AxisPoint => {
-    const res = analyticPower({ ...r, persons });
+    const res = analyticPower({ ...r, persons }, { withCentring: false });
     return { value: persons, persons, prompts: r.plannedPerPerson, interval, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) };
   });
   const recommended = points.find((p) => p.minPower >= target) ?? null;
@@ -186,7 +186,7 @@ export function planPromptsPerDay(r: Rehearsal, opt: { values?: readonly number[
     const study: Study = { ...r.study, schedule, interval, length };
     const planned = plannedSlots(study, r.timeUnit).base.length;
     if (planned < 3) continue;
-    const res = analyticPower({ ...r, study, plannedPerPerson: planned, answeredPerPerson: planned * (1 - missed) });
+    const res = analyticPower({ ...r, study, plannedPerPerson: planned, answeredPerPerson: planned * (1 - missed) }, { withCentring: false });
     points.push({ value: k, persons: r.persons, prompts: planned, interval, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) });
   }
   if (points.length === 0) throw new Error('prompts per day: no value leaves at least 3 prompts per person in the study\'s span');

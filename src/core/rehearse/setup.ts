@@ -13,6 +13,7 @@ import type { Mat } from '../numeric/dense';
 import { DEFAULT_PERSONS, DEFAULT_SEED, answeredOccasions, plannedSlots, promptPlan, reliabilityOf, studyOfModel } from '../study/index';
 import { seededRandom, type Random } from '../stats/random';
 import { drawPerson, studyProcess } from './process';
+import { integratorFor, isNonlinear, personModel, simulateNonlinearPanel, type IntegratorChoice } from './nonlinear';
 import { simulatePanel, type PersonPrompts } from './simulate';
 import type { LinkOfInterest, RehearsalSetup } from './montecarlo';
 
@@ -69,6 +70,12 @@ export interface Rehearsal extends RehearsalSetup {
   /** Planned prompts per person, and the expected answered ones. */
   plannedPerPerson: number;
   answeredPerPerson: number;
+  /**
+   * How `simulateStudy` simulates: null for a linear mechanism (the exact discrete model of each
+   * gap), else Euler–Maruyama on the model's own rates with its step. Power (analytic and Monte
+   * Carlo) uses the linearization at equilibrium either way.
+   */
+  integrator: IntegratorChoice | null;
 }
 
 /**
@@ -76,6 +83,7 @@ export interface Rehearsal extends RehearsalSetup {
  * Example: `rehearsalOf(model, { persons: 50, links: linksOfText(model, "a->b") })`.
  */
 export function rehearsalOf(model: Model, overrides: RehearsalOverrides = {}): Rehearsal {
+  // (The mechanism's linearity is judged once here: `integrator`.)
   const study: Study = { ...studyOfModel(model), ...(overrides.study ?? {}) };
   const persons = overrides.persons ?? study.persons ?? DEFAULT_PERSONS;
   if (!Number.isInteger(persons) || persons < 1) throw new Error(`persons: a study needs a whole number of persons ≥ 1, not ${persons}`);
@@ -106,6 +114,7 @@ export function rehearsalOf(model: Model, overrides: RehearsalOverrides = {}): R
   return {
     model, study, persons, stationary: ly.sigma, reliability,
     plannedPerPerson: planned, answeredPerPerson: planned * (1 - missed),
+    integrator: isNonlinear(model, process, ly.sigma) ? integratorFor(process.base.drift) : null,
     process, prompts, errorVariance, timeUnit: unit, links,
     analysis: overrides.analysis ?? {}, alpha: overrides.alpha ?? 0.05, seed,
   };
@@ -121,12 +130,27 @@ export function promptsOf(study: Study, unit: TimeUnit, persons: number, seed: n
 
 /**
  * One synthetic study: the study's own prompt plan (its seed), each person drawn with their
- * differences, their states at their own prompt times, measured with error.
+ * differences, their states at their own prompt times, measured with error. A linear mechanism
+ * by the exact discrete model of each gap; a nonlinear one by Euler–Maruyama on its own rates
+ * (`r.integrator`, `nonlinear.ts`).
  */
-export function simulateStudy(r: Rehearsal): Panel {
+export function simulateStudy(r: Rehearsal, onProgress?: (personsDone: number) => void): Panel {
   const prompts = promptsOf(r.study, r.timeUnit, r.persons, r.seed);
   const rng = seededRandom(r.seed);
   const people = rng.fork(1);
+  // Person p is asked for just before it is simulated: p persons are done.
+  const tell = <T>(f: (p: number) => T) => (p: number) => {
+    onProgress?.(p);
+    return f(p);
+  };
+  if (r.integrator) {
+    const models = prompts.map(() => personModel(r.model, r.process, people));
+    const panel = simulateNonlinearPanel(tell((p) => models[p]), prompts, { states: r.process.states, noise: r.process.base.noise, stationary: r.stationary, choice: r.integrator, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+    onProgress?.(prompts.length);
+    return panel;
+  }
   const processes = prompts.map(() => drawPerson(r.process, people));
-  return simulatePanel((p) => processes[p], prompts, { states: r.process.states, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+  const panel = simulatePanel(tell((p) => processes[p]), prompts, { states: r.process.states, errorVariance: r.errorVariance, timeUnit: r.timeUnit }, rng.fork(2));
+  onProgress?.(prompts.length);
+  return panel;
 }

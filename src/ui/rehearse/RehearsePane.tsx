@@ -12,14 +12,14 @@ import { exactDuration } from '../../core/study/convert';
 import { formatDuration } from '../../core/model/units';
 import type { LinkOfInterest } from '../../core/rehearse/montecarlo';
 import type { AxisPlan, Budget, PlanResult } from '../../core/rehearse/plan';
-import { ANALYTIC_OCCASIONS } from '../../core/rehearse/power';
+import { ANALYTIC_OCCASIONS, trustSentence } from '../../core/rehearse/power';
 import { powerChart } from '../../export/rehearseCharts';
 import { svgDocument } from '../../export/svg';
 import { labelOf, numText } from '../../present/index';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
 import { editStudy, useSessionStudy, type SessionStudy } from '../../state/session';
-import { appRehearseClient, type McOutcome, type McRun } from '../../worker/rehearseClient';
+import { appRehearseClient, workerCount, type CsvRun, type McOutcome, type McRun } from '../../worker/rehearseClient';
 import type { AdvisorAnswer, AnalyticAnswer, Failed, Ok, RehearseRequest } from '../../worker/rehearseApi';
 import { downloadBlob } from '../download';
 import { elToReact } from '../elReact';
@@ -62,6 +62,7 @@ function RehearseFor({ model, s }: { model: Model; s: SessionStudy }) {
   const name = (l: LinkOfInterest) => `${labelOf(model, l.from)} → ${labelOf(model, l.to)}`;
   const req: RehearseRequest = useMemo(() => ({ model, study: s.study, links: validLinks }), [model, s.study, validLinks.map(key).join(',')]); // eslint-disable-line react-hooks/exhaustive-deps
   const caution = model.caution;
+  const analytic = useAnswer<Ok<AnalyticAnswer> | Failed>(() => (req.links.length > 0 ? appRehearseClient().then((c) => c.analytic(req)) : Promise.resolve({ ok: false, reason: 'no link' })), [req]);
 
   return (
     <div className="lf-rehearse" aria-label="Rehearse the study">
@@ -90,10 +91,10 @@ function RehearseFor({ model, s }: { model: Model; s: SessionStudy }) {
         </div>
         {offered.length > links.length && <p className="lf-hint">Modelled links between states: {offered.filter((o) => !links.some((l) => key(l) === key(o))).map((o, i) => <span key={key(o)}>{i > 0 && ', '}<button type="button" className="lf-link-button" onClick={() => add(o)}>{name(o)}</button></span>)}</p>}
       </section>
-      {validLinks.length > 0 && <Analytic model={model} req={req} name={name} />}
-      {validLinks.length > 0 && <MonteCarlo model={model} req={req} name={name} s={s} />}
+      {validLinks.length > 0 && <Analytic a={analytic} name={name} />}
+      {validLinks.length > 0 && <MonteCarlo model={model} req={req} name={name} s={s} analytic={analytic} />}
       <SimulatedCsv model={model} req={req} />
-      {validLinks.length > 0 && <Advisor model={model} req={req} s={s} />}
+      {validLinks.length > 0 && <Advisor model={model} req={req} s={s} planned={analytic} />}
     </div>
   );
 }
@@ -109,8 +110,7 @@ function useAnswer<T>(ask: () => Promise<T>, deps: unknown[]): T | null {
   return answer;
 }
 
-function Analytic({ req, name }: { model: Model; req: RehearseRequest; name: (l: LinkOfInterest) => string }) {
-  const a = useAnswer<Ok<AnalyticAnswer> | Failed>(() => appRehearseClient().then((c) => c.analytic(req)), [req]);
+function Analytic({ a, name }: { a: Ok<AnalyticAnswer> | Failed | null; name: (l: LinkOfInterest) => string }) {
   return (
     <section className="lf-rehearse-section" aria-labelledby="lf-rh-analytic">
       <h3 id="lf-rh-analytic">Power, analytic</h3>
@@ -121,23 +121,26 @@ function Analytic({ req, name }: { model: Model; req: RehearseRequest; name: (l:
         <>
           <table className="lf-rehearse-table" data-testid="rehearse-analytic">
             <caption className="lf-hint">{a.persons} persons, about {Math.round(a.answeredPerPerson)} answered prompts each</caption>
-            <thead><tr><th scope="col">Link</th><th scope="col">Effect</th><th scope="col">SE</th><th scope="col">Power</th></tr></thead>
+            <thead><tr><th scope="col">Link</th><th scope="col">Effect</th><th scope="col">SE</th><th scope="col">Power</th><th scope="col">Bias of centring</th><th scope="col">Expected estimate</th></tr></thead>
             <tbody>
               {a.power.links.map((l) => (
-                <tr key={`${l.from}>${l.to}`} data-link={`${l.from}>${l.to}`} data-effect={l.effect} data-se={l.se} data-power={l.power}>
-                  <th scope="row">{name(l)}</th><td>{n3(l.effect)}</td><td>{n3(l.se)}</td><td>{pct(l.power)}</td>
+                <tr key={`${l.from}>${l.to}`} data-link={`${l.from}>${l.to}`} data-effect={l.effect} data-se={l.se} data-power={l.power} data-bias={l.centringBias} data-expected={l.expectedEstimate}>
+                  <th scope="row">{name(l)}</th><td>{n3(l.effect)}</td><td>{n3(l.se)}</td><td>{pct(l.power)}</td><td>{n3(l.centringBias ?? NaN)}</td><td>{n3(l.expectedEstimate ?? NaN)}</td>
                 </tr>
               ))}
             </tbody>
           </table>
-          {a.answeredPerPerson < ANALYTIC_OCCASIONS && <p className="lf-rehearse-warn" role="note" data-testid="rehearse-short">Short series: about {Math.round(a.answeredPerPerson)} answered prompts per person, below about {ANALYTIC_OCCASIONS}. Here the analytic figure overstates power (it understates the SE and ignores the bias of person-mean centring): trust the Monte Carlo figure below.</p>}
+          <p className="lf-hint">Bias of centring: with about {Math.round(a.answeredPerPerson)} occasions per person, removing each person's mean pulls the estimate down (about −(1+φ)/(T−1) for an autoregression); the expected estimate is what the analysis should give on average, to compare with the Monte Carlo mean below.</p>
+          {a.answeredPerPerson < ANALYTIC_OCCASIONS
+            ? <p className="lf-rehearse-warn" role="note" data-testid="rehearse-short">Short series: about {Math.round(a.answeredPerPerson)} answered prompts per person, below about {ANALYTIC_OCCASIONS}. Here the analytic figure overstates power (it understates the SE, and its effect leaves out the bias of centring shown beside it): trust the Monte Carlo figure below.</p>
+            : <p data-testid="rehearse-trust">{trustSentence(a.answeredPerPerson)}</p>}
         </>
       )}
     </section>
   );
 }
 
-function MonteCarlo({ model, req, name, s }: { model: Model; req: RehearseRequest; name: (l: LinkOfInterest) => string; s: SessionStudy }) {
+function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: RehearseRequest; name: (l: LinkOfInterest) => string; s: SessionStudy; analytic: Ok<AnalyticAnswer> | Failed | null }) {
   const [reps, setReps] = useState('200');
   const [seed, setSeed] = useState(String(s.study.seed ?? 1));
   const [done, setDone] = useState(0);
@@ -147,7 +150,7 @@ function MonteCarlo({ model, req, name, s }: { model: Model; req: RehearseReques
   useEffect(() => () => runRef.current?.cancel(), []);
   const k = Number(reps), sd = Number(seed);
   const problem = !(Number.isInteger(k) && k >= 10 && k <= 100000) ? 'Replications: a whole number from 10 to 100000' : !Number.isInteger(sd) ? 'Seed: a whole number' : null;
-  const cores = Math.max(1, Math.min(typeof navigator !== 'undefined' ? navigator.hardwareConcurrency || 1 : 1, 16));
+  const cores = workerCount(typeof navigator !== 'undefined' ? navigator.hardwareConcurrency : undefined);
   const start = async () => {
     if (problem) return;
     runRef.current?.cancel();
@@ -182,43 +185,62 @@ function MonteCarlo({ model, req, name, s }: { model: Model; req: RehearseReques
       {sum && sum.replications > 0 && (
         <table className="lf-rehearse-table" data-testid="rehearse-mc">
           <caption className="lf-hint">{sum.replications} simulated studies on {sum.workers} worker{sum.workers === 1 ? '' : 's'}{sum.failed ? `, ${sum.failed} analyses failed (counted as not found: ${sum.failure})` : ''}; ± is the Monte Carlo error √(p(1−p)/K)</caption>
-          <thead><tr><th scope="col">Link</th><th scope="col">Mean estimate</th><th scope="col">SD of estimates</th><th scope="col">Power</th></tr></thead>
+          <thead><tr><th scope="col">Link</th><th scope="col">Mean estimate</th><th scope="col">Expected (analytic)</th><th scope="col">SD of estimates</th><th scope="col">Power</th><th scope="col">Analytic power</th></tr></thead>
           <tbody>
-            {sum.links.map((l) => (
-              <tr key={`${l.from}>${l.to}`} data-link={`${l.from}>${l.to}`} data-power={l.power}>
-                <th scope="row">{name(l)}</th><td>{n3(l.effect)}</td><td>{n3(l.se)}</td><td>{pct(l.power)} ± {pct(l.mcError)}</td>
-              </tr>
-            ))}
+            {sum.links.map((l) => {
+              const an = analytic?.ok ? analytic.power.links.find((x) => x.from === l.from && x.to === l.to) : undefined;
+              return (
+                <tr key={`${l.from}>${l.to}`} data-link={`${l.from}>${l.to}`} data-power={l.power} data-effect={l.effect}>
+                  <th scope="row">{name(l)}</th><td>{n3(l.effect)}</td><td>{n3(an?.expectedEstimate ?? NaN)}</td><td>{n3(l.se)}</td><td>{pct(l.power)} ± {pct(l.mcError)}</td><td>{pct(an?.power ?? NaN)}</td>
+                </tr>
+              );
+            })}
           </tbody>
         </table>
       )}
+      {sum && sum.replications > 0 && analytic?.ok && <p data-testid="rehearse-mc-trust">{trustSentence(analytic.answeredPerPerson)}</p>}
     </section>
   );
 }
 
 function SimulatedCsv({ model, req }: { model: Model; req: RehearseRequest }) {
   const [msg, setMsg] = useState<{ error: boolean; text: string } | null>(null);
+  const [running, setRunning] = useState<CsvRun | null>(null);
+  const [done, setDone] = useState(0);
+  const runRef = useRef<CsvRun | null>(null);
+  useEffect(() => () => runRef.current?.cancel(), []);
+  const persons = req.study.persons ?? 1;
   const save = async () => {
     setMsg(null);
+    setDone(0);
     const c = await appRehearseClient();
-    const a = await c.csv(req);
-    if (!a.ok) return setMsg({ error: true, text: a.reason });
+    const run = c.csv(req, setDone);
+    runRef.current = run;
+    setRunning(run);
+    const a = await run.result;
+    if (runRef.current !== run) return;
+    setRunning(null);
+    if (!a.ok) return setMsg({ error: !('cancelled' in a), text: 'cancelled' in a ? 'Cancelled: no file was saved.' : a.reason });
     downloadBlob(new Blob([a.csv], { type: 'text/csv' }), `${fileStem(model.name)}-simulated-study.csv`);
-    setMsg({ error: false, text: `Saved: ${a.persons} persons, ${a.rows} answered prompts (synthetic data from the model, not observations).` });
+    setMsg({ error: false, text: `Saved: ${a.persons} persons, ${a.rows} answered prompts, simulated by ${a.simulator} (synthetic data from the model, not observations).` });
   };
   return (
     <section className="lf-rehearse-section" aria-labelledby="lf-rh-csv">
       <h3 id="lf-rh-csv">Simulated study</h3>
-      <p><button type="button" onClick={() => void save()}>Download a simulated study (CSV)</button></p>
-      {msg && <p className={msg.error ? 'lf-field-error' : 'lf-hint'} role={msg.error ? 'alert' : 'status'}>{msg.text}</p>}
+      <p className="lf-hint">A linear mechanism is simulated by the exact discrete model of each gap between prompts; a nonlinear one by Euler–Maruyama on its own rates, with steps of 1/20 of its fastest timescale. Power above uses the linearization at equilibrium.</p>
+      <p>
+        <button type="button" disabled={!!running} onClick={() => void save()}>Download a simulated study (CSV)</button>
+        {running && <> <button type="button" onClick={() => running.cancel()}>Cancel the simulated study</button></>}
+      </p>
+      {running && <p><progress aria-label="Persons simulated" max={persons} value={done} /> {done} of {persons} persons</p>}
+      {msg && <p className={msg.error ? 'lf-field-error' : 'lf-hint'} role={msg.error ? 'alert' : 'status'} data-testid="rehearse-csv-message">{msg.text}</p>}
     </section>
   );
 }
 
-function Advisor({ model, req, s }: { model: Model; req: RehearseRequest; s: SessionStudy }) {
+function Advisor({ model, req, s, planned }: { model: Model; req: RehearseRequest; s: SessionStudy; planned: Ok<AnalyticAnswer> | Failed | null }) {
   const unit = model.timeUnit;
   const [kind, setKind] = useState<Budget['kind']>('prompts');
-  const planned = useAnswer<Ok<AnalyticAnswer> | Failed>(() => appRehearseClient().then((c) => c.analytic(req)), [req]);
   const prompts = planned && planned.ok ? planned.plannedPerPerson : null;
   const span = s.length.by === 'window' ? s.length.window : (prompts ?? 50) * s.interval;
   const budget: Budget | null = kind === 'prompts' ? (prompts ? { kind: 'prompts', prompts: Math.max(3, prompts) } : null) : { kind: 'span', span };

@@ -48,6 +48,19 @@ describe('loopfold simulate-study', () => {
       expect(Array.from(p.day ?? [])).toEqual(Array.from(truth.persons[k].day ?? []));
     });
     expect((await run(['simulate-study', MODEL])).err).toMatch(/--out FILE.csv/);
+    expect(r.out).toMatch(/exact discrete model/);
+  });
+
+  it('a nonlinear model (the warehouse example) is integrated by Euler–Maruyama, says so, and reads back unchanged', async () => {
+    const r = await run(['simulate-study', 'src/examples/warehouse.json', '--persons', '2', '--out', 'w.csv']);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/Euler–Maruyama .* steps of at most .* \(1\/20 of the fastest timescale/);
+    const imp = importText(r.files['w.csv'], { format: 'long', person: 'person', time: 'time', day: 'day', prompt: 'prompt', timeFormat: 'number', timeUnit: 'day', variables: [{ column: 'pipeline', variable: 'pipeline' }, { column: 'inventory', variable: 'inventory' }] });
+    expect(imp.summary.refused).toBe(0);
+    const m = parseModelText(readFileSync('src/examples/warehouse.json', 'utf8'));
+    if (!m.ok) throw new Error('example does not load');
+    const truth = simulateStudy(rehearsalOf(m.model, { persons: 2 }));
+    imp.panel!.persons.forEach((p, k) => expect(Array.from(p.values)).toEqual(Array.from(truth.persons[k].values)));
   });
 });
 
@@ -73,9 +86,19 @@ describe('loopfold power', () => {
     expect(r.code).toBe(0);
     const l = (JSON.parse(r.out) as { links: { effect: number; se: number; power: number; mcError: number }[] }).links[0];
     expectClose(l.mcError, Math.sqrt((l.power * (1 - l.power)) / K), { relTol: 1e-12 }, 'mcError');
+    // Progress goes to stderr, about every tenth of the run; stdout holds the JSON alone.
+    expect(r.err).toMatch(/loopfold power: \d+ of 300 replications/);
     // 3 Monte Carlo errors, plus 0.04 for the small-sample bias of person-mean centring at T = 119 (Nickell 1981: O(1/T)).
     expect(Math.abs(l.power - ref.power)).toBeLessThan(3 * Math.sqrt((ref.power * (1 - ref.power)) / K) + 0.04);
     expect(Math.abs(l.se - ref.se)).toBeLessThan(0.15 * ref.se);
+    // The mean estimate against the analytic expected within-person estimate (the pooled limit plus the bias of centring).
+    const an = JSON.parse((await run(['power', MODEL, '--link', 'heat->damp,damp->damp', '--persons', '3', '--json'])).out) as { trust: string; links: { effect: number; centringBias: number; expectedEstimate: number }[] };
+    expectClose(an.links[0].expectedEstimate, an.links[0].effect + an.links[0].centringBias, { relTol: 1e-12 }, 'expected = effect + bias');
+    expect(Math.abs(l.effect - an.links[0].expectedEstimate)).toBeLessThan(3 * l.se / Math.sqrt(K));
+    // The autoregression's bias is about Nickell's −(1+φ)/(T−1) at T = 120 occasions (large-T form; common result).
+    const phiDD = an.links[1].effect;
+    expect(Math.abs(an.links[1].centringBias / (-(1 + phiDD) / 119) - 1)).toBeLessThan(0.15);
+    expect(an.trust).toMatch(/Which to trust/);
   }, 120_000);
 
   it('names what is wrong with the flags', async () => {
