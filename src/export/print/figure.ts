@@ -151,12 +151,16 @@ export async function adaptedView(req: ViewRequest, room: number | undefined, la
 
 /**
  * A chart or network (built at its own size by `charts.ts`) for print: sized, recoloured, measured.
- * Charts have a fixed drawing; at a width where their text would fall under 7 pt the notes say so.
+ * A chart drawn for the width (`FigureOptions.fitTo`) that changed its drawing names the change in
+ * `notes`; at a width where its text would still fall under 7 pt the notes say so.
  */
 export function printChart(root: El, opts: PrintOptions): PrintedFigure {
   const r = finish(root, opts);
   const smallestPt = smallestTextPt(r, opts.width);
   const notes: string[] = [];
+  // a builder that changed its drawing to fit the width says how (`data-adapted` on its root)
+  const adapted = root.attrs['data-adapted'];
+  if (typeof adapted === 'string' && adapted) notes.push(opts.width ? `${adapted} to fit ${widthText(opts.width)}` : adapted);
   if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the chart does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset`);
   return { root: r, notes, smallestPt };
 }
