@@ -166,6 +166,15 @@ function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: b
   for (const ps of lines) for (const p of ps) y0 = Math.min(y0, p.y);
   if (maxWidth < Infinity && (x0 < 2 || x1 + 12 > maxWidth || y0 < 2)) return null;
   for (const k of out.keys()) if (maxWidth < Infinity && (out[k].label.x - textWidth(out[k].link.label, WEIGHT_FONT) / 2 < 2 || out[k].label.x + textWidth(out[k].link.label, WEIGHT_FONT) / 2 > maxWidth - 2)) return null;
+  if (ladder) {
+    // the ladder starts 12 units under the highest node, line or weight
+    let top = Infinity;
+    for (const b of boxes) top = Math.min(top, b[1]);
+    for (const l of out) top = Math.min(top, l.label.y - (WEIGHT_FONT + 3) / 2);
+    const dy = Math.max(0, Math.min(top, y0) - 12);
+    const up = (p: Point): Point => ({ x: p.x, y: p.y - dy });
+    return { centers: centers.map(up), nodeWidth: w, nodeHeight: h, links: out.map((l) => ({ ...l, start: up(l.start), control: up(l.control), end: up(l.end), label: up(l.label) })), width: x1 + 12, height: y1 + 12 - dy };
+  }
   return { centers, nodeWidth: w, nodeHeight: h, links: out, width: x1 + 12, height: y1 + 12 };
 }
 
