@@ -52,6 +52,7 @@ const MAX_DIFFERING_PNG = 0.015, MAX_DIFFERING_PDF = 0.03;
 const FIGURES: [string, string[]][] = [
   ['lake ordering, one column', ['render', 'src/examples/lake.json', '--interval', '1 day', '--width', 'column', '--background', 'white']],
   ['sleep-stress three instants, two columns, greyscale', ['render', 'src/examples/sleep-stress.json', '--interval', '1 day', '--view', 'unrolled', '--width', 'two-columns', '--palette', 'greyscale', '--background', 'white']],
+  ['lake lagged network drawn compact, one column', ['sampled', 'src/examples/lake.json', '--interval', '1 day', '--width', 'column', '--background', 'white']],
   ['greenhouse link curve, colour-blind palette', ['curves', 'src/examples/greenhouse.json', '--from', 'soilWater', '--to', 'humidity', '--width', '1.5-column', '--palette', 'colour-blind', '--background', 'white']],
 ];
 

@@ -14,7 +14,7 @@ import { sampleTimes, valueAt } from '../core/numeric/samples';
 import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { studyLength, type StudyAt } from './caption';
-import { placeNetwork, WEIGHT_FONT } from '../layout/network';
+import { nameLines, nameWidth, placeNetwork, placeNetworkCompact, textWidth, WEIGHT_FONT, type NetworkPlacement } from '../layout/network';
 import { labelOf, numText, unitOf, weightText } from '../present/index';
 import { wrapText, type Attr, type El } from './scene';
 import { targetScale } from './print/figure';
@@ -197,6 +197,10 @@ export interface NetworkInput {
 
 /** The least width of a network figure. */
 const NW = 410;
+/** Text of a network's nodes (units): the name, its line height when on two lines, the self-effect. */
+const NET_NAME_FONT = 10.5, NET_LINE = 12, NET_SELF_FONT = 9;
+/** Room kept between the two columns of a compact ring. */
+const NODE_GAP_COMPACT = 30;
 
 /** A share of the strongest link below which links are left out (2 %), and the most links drawn per state. */
 export const NETWORK_SHARE = 0.02;
@@ -252,7 +256,22 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
   const { model, states, matrix, directed, label } = input;
   const chosen = drawnLinks(states, matrix, directed);
   const max = Math.max(1e-300, ...chosen.links.map((e) => Math.abs(e.weight)));
-  const place = placeNetwork(states, chosen.links.map((e) => ({ ...e, label: weightText(e.weight) })), directed);
+  const netLinks = chosen.links.map((e) => ({ ...e, label: weightText(e.weight) }));
+  let place: NetworkPlacement = placeNetwork(states, netLinks, directed);
+  // for a print width the usual drawing would not fit at the base size: a compact one (names on two
+  // lines in smaller nodes, a ring as wide as the room and as tall as it must be), its text unchanged
+  const room = opts.fitTo ? Math.floor(opts.fitTo.widthPt / targetScale(opts.fitTo.fontPt ?? DEFAULT_FONT_PT, NET_NAME_FONT, NET_SELF_FONT)) : undefined;
+  let names = states.map((s) => [shorten(labelOf(model, s))]);
+  let compact = false;
+  if (room !== undefined && Math.max(NW, place.width) > room) {
+    const lineMax = Math.min(92, (room - 24 - NODE_GAP_COMPACT) / 2 - 12);
+    const wrapped = states.map((s) => nameLines(labelOf(model, s), lineMax, NET_NAME_FONT));
+    const w = Math.ceil(Math.max(60, ...wrapped.flat().map((t) => nameWidth(t, NET_NAME_FONT))) + 12);
+    const lines = Math.max(...wrapped.map((l) => l.length));
+    const h = 4 + NET_LINE * lines + (directed ? 11 : 0) + 5;
+    const small = placeNetworkCompact(states, netLinks, directed, { width: w, height: h }, room);
+    if (small) { place = small; names = wrapped; compact = true; }
+  }
   const marker = `lf-arrow-${directed ? 'd' : 'u'}-${label.replace(/\W+/g, '')}`;
   const widthOf = (w: number) => r1(0.8 + 4 * (Math.abs(w) / max));
   const body: El[] = [];
@@ -275,35 +294,48 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
     const kids: El[] = [
       el('title', {}, [name]),
       el('rect', { x: -bw / 2, y: -bh / 2, width: bw, height: bh, rx: 4, fill: C.paper, stroke: C.line }),
-      text({ y: directed ? -2 : 4, 'text-anchor': 'middle', 'font-size': 10.5, fill: C.text }, shorten(name)),
     ];
-    // the self-effect inside the node, under the name
-    if (directed) kids.push(text({ y: 11, 'text-anchor': 'middle', 'font-size': 9, fill: C.label }, `self ${weightText(matrix[i][i])}`));
+    if (compact) {
+      // the name's lines from the top of the node, the self-effect under them
+      names[i].forEach((t, k) => kids.push(text({ y: r1(-bh / 2 + 4 + 10 + NET_LINE * k), 'text-anchor': 'middle', 'font-size': NET_NAME_FONT, fill: C.text }, t)));
+      if (directed) kids.push(text({ y: r1(-bh / 2 + 4 + NET_LINE * names[i].length + 9), 'text-anchor': 'middle', 'font-size': NET_SELF_FONT, fill: C.label }, `self ${weightText(matrix[i][i])}`));
+    } else {
+      kids.push(text({ y: directed ? -2 : 4, 'text-anchor': 'middle', 'font-size': NET_NAME_FONT, fill: C.text }, names[i][0]));
+      // the self-effect inside the node, under the name
+      if (directed) kids.push(text({ y: 11, 'text-anchor': 'middle', 'font-size': NET_SELF_FONT, fill: C.label }, `self ${weightText(matrix[i][i])}`));
+    }
     body.push(el('g', { 'data-variable': s, transform: `translate(${r1(p.x)},${r1(p.y)})` }, kids));
   });
   // the legend: line style for the sign, width for the size, and what is left out
-  const width = Math.max(NW, place.width);
+  const width = compact && room !== undefined ? room : Math.max(NW, place.width);
   const y0 = place.height + 6;
   const what = directed ? 'lagged effect' : 'partial correlation';
-  const sample = (x: number, w: number, dash: string | undefined) => hline(x, x + 26, y0 + 6, { stroke: C.line, 'stroke-width': widthOf(w), 'stroke-dasharray': dash });
+  const sample = (x: number, w: number, dash: string | undefined, dy = 0) => hline(x, x + 26, y0 + 6 + dy, { stroke: C.line, 'stroke-width': widthOf(w), 'stroke-dasharray': dash });
   const minW = Math.min(...chosen.links.map((e) => Math.abs(e.weight)), max);
+  const minText = weightText(minW).replace('−', '');
+  // compact: the sizes on a second row, each sample after the text before it
+  const sizeRow = compact ? 16 : 0;
+  const sizeX = compact ? PAD : PAD + 182;
+  const maxX = compact ? Math.ceil(sizeX + 30 + textWidth(minText, 10) + 12) : PAD + 252;
   const legend: El[] = [
     sample(PAD, max, undefined), tick(PAD + 30, y0 + 9.5, 'positive', 'start'),
     sample(PAD + 90, max, C.negativeDash), tick(PAD + 120, y0 + 9.5, 'negative', 'start'),
-    sample(PAD + 182, minW, undefined), tick(PAD + 212, y0 + 9.5, weightText(minW).replace('−', ''), 'start'),
-    sample(PAD + 252, max, undefined), tick(PAD + 282, y0 + 9.5, `${weightText(max).replace('−', '')} (size)`, 'start'),
+    sample(sizeX, minW, undefined, sizeRow), tick(sizeX + 30, y0 + 9.5 + sizeRow, minText, 'start'),
+    sample(maxX, max, undefined, sizeRow), tick(maxX + 30, y0 + 9.5 + sizeRow, `${weightText(max).replace('−', '')} (size)`, 'start'),
   ];
   const note = chosen.left > 0
     ? `Not drawn: ${chosen.left} ${chosen.left === 1 ? 'link' : 'links'} with |${what}| below ${thresholdText(chosen.threshold)}.`
     : `Every ${what} between two states is drawn.`;
   const noteLines = wrapText(note, width - 2 * PAD, 5.4);
-  noteLines.forEach((t, k) => legend.push(tick(PAD, y0 + 26 + k * 13, t, 'start')));
+  noteLines.forEach((t, k) => legend.push(tick(PAD, y0 + 26 + sizeRow + k * 13, t, 'start')));
   body.push(el('g', { 'data-part': 'legend', 'data-threshold': chosen.threshold }, legend));
-  const height = y0 + 26 + noteLines.length * 13;
+  const height = y0 + 26 + sizeRow + noteLines.length * 13;
   const defs = directed
     ? el('defs', {}, [el('marker', { id: marker, viewBox: '0 0 10 10', refX: 9, refY: 5, markerWidth: 9, markerHeight: 9, markerUnits: 'userSpaceOnUse', orient: 'auto-start-reverse' }, [el('path', { d: 'M0,0 L10,5 L0,10 z', fill: C.line })])])
     : undefined;
-  return figure(directed ? 'lagged-network' : 'same-interval-network', label, width, height, body, opts, defs);
+  const root = figure(directed ? 'lagged-network' : 'same-interval-network', label, width, height, body, opts, defs);
+  if (compact) root.attrs['data-adapted'] = 'the network is drawn compact (names on two lines in smaller nodes, a narrower and taller ring)';
+  return root;
 }
 
 /** The networks of the sampled model at an interval, as the numeric questions return them. */

@@ -18,6 +18,8 @@ export const NET_NODE = { width: 112, height: 22, heightWithSelf: 34 };
 export const MIN_VISIBLE = 24;
 /** The least space between two nodes. */
 export const NODE_GAP = 30;
+/** The tallest compact placement, in widths (a column figure of 8.5 cm stays within 21 cm). */
+export const COMPACT_ASPECT = 2.5;
 /** Gap between a node's border and the end of a line. */
 const CUT = 3;
 /** Weight labels: font size and the gap kept round them. */
@@ -31,6 +33,28 @@ export const WEIGHT_FONT = 9.5;
 export function textWidth(s: string, size: number): number {
   let em = 0;
   for (const ch of s) em += /[0-9]/.test(ch) ? 0.636 : ch === '.' || ch === ' ' || ch === ',' ? 0.318 : ch === '−' || ch === '+' ? 0.838 : 0.65;
+  return em * size;
+}
+
+/**
+ * Advance widths of DejaVu Sans in em for the printable ASCII characters (32 to 126), read from the
+ * font file the command line embeds (dejavu-fonts-ttf, DejaVuSans.ttf, by fontkit: advance / units per em).
+ */
+const DEJAVU_ASCII = [
+  0.318, 0.401, 0.46, 0.838, 0.636, 0.95, 0.78, 0.275, 0.39, 0.39, 0.5, 0.838, 0.318, 0.361, 0.318, 0.337, 0.636, 0.636, 0.636,
+  0.636, 0.636, 0.636, 0.636, 0.636, 0.636, 0.636, 0.337, 0.337, 0.838, 0.838, 0.838, 0.531, 1, 0.684, 0.686, 0.698, 0.77, 0.632,
+  0.575, 0.775, 0.752, 0.295, 0.295, 0.656, 0.557, 0.863, 0.748, 0.787, 0.603, 0.787, 0.695, 0.635, 0.611, 0.732, 0.684, 0.989, 0.685,
+  0.611, 0.685, 0.39, 0.337, 0.39, 0.838, 0.5, 0.5, 0.613, 0.635, 0.55, 0.635, 0.615, 0.352, 0.635, 0.634, 0.278, 0.278, 0.579,
+  0.278, 0.974, 0.634, 0.612, 0.635, 0.635, 0.411, 0.521, 0.392, 0.634, 0.592, 0.818, 0.592, 0.592, 0.525, 0.636, 0.337, 0.636, 0.838,
+];
+
+/** The width of a name at `size` by DejaVu Sans' own advances (others than ASCII taken as 0.65 em, as `textWidth`). */
+export function nameWidth(s: string, size: number): number {
+  let em = 0;
+  for (const ch of s) {
+    const c = ch.codePointAt(0)!;
+    em += c >= 32 && c < 127 ? DEJAVU_ASCII[c - 32] : ch === '…' ? 1 : 0.65;
+  }
   return em * size;
 }
 
@@ -64,13 +88,22 @@ function cutAt(c: Point, toward: Point, w: number, h: number, box: Point = c): P
   return { x: c.x + ux * t, y: c.y + uy * t };
 }
 
-/** One try at a given ellipse; null when some rule fails (the caller grows the ellipse). */
-function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: boolean, rx: number, ry: number, w: number, h: number): NetworkPlacement | null {
+/** One try at a given ellipse; null when some rule fails (the caller grows the ellipse). `maxWidth`: the drawing must also stay within 0…maxWidth. */
+function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: boolean, rx: number, ry: number, w: number, h: number, maxWidth = Infinity): NetworkPlacement | null {
   const n = ids.length;
   const order = drawingOrder(ids);
   const centers: Point[] = new Array(n);
-  const cx = rx + w / 2 + 12, cy = ry + h / 2 + 12;
+  const ladder = maxWidth < Infinity;
+  // the ladder (compact): `ry` is the step between two rows of a column
+  const right = Math.ceil(n / 2);
+  const cx = rx + w / 2 + 12, cy = ladder ? h / 2 + 24 + (Math.max(right - 1, n - right - 0.5) * ry) / 2 : ry + h / 2 + 12;
   order.forEach((i, k) => {
+    if (ladder) {
+      // down the right column, then up the left one half a step lower: no two nodes at one height
+      const half = n > 2 ? 0.5 : 0;
+      centers[i] = n === 1 ? { x: cx, y: h / 2 + 24 } : k < right ? { x: cx + rx, y: h / 2 + 24 + k * ry } : { x: cx - rx, y: h / 2 + 24 + (n - 1 - k + half) * ry };
+      return;
+    }
     // two nodes side by side; more round the ellipse from the top, clockwise
     const a = (n === 2 ? Math.PI : -Math.PI / 2) + (2 * Math.PI * k) / Math.max(1, n);
     centers[i] = n === 1 ? { x: cx, y: cy } : { x: cx + rx * Math.cos(a), y: cy + ry * Math.sin(a) };
@@ -126,9 +159,22 @@ function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: b
     if (!spot) return null;
     out[k].label = spot;
   }
-  let x1 = 0, y1 = 0;
-  for (const b of boxes) { x1 = Math.max(x1, b[2]); y1 = Math.max(y1, b[3]); }
-  for (const ps of lines) for (const p of ps) { x1 = Math.max(x1, p.x); y1 = Math.max(y1, p.y); }
+  let x0 = Infinity, x1 = 0, y1 = 0;
+  for (const b of boxes) { x0 = Math.min(x0, b[0]); x1 = Math.max(x1, b[2]); y1 = Math.max(y1, b[3]); }
+  for (const ps of lines) for (const p of ps) { x0 = Math.min(x0, p.x); x1 = Math.max(x1, p.x); y1 = Math.max(y1, p.y); }
+  let y0 = Infinity;
+  for (const ps of lines) for (const p of ps) y0 = Math.min(y0, p.y);
+  if (maxWidth < Infinity && (x0 < 2 || x1 + 12 > maxWidth || y0 < 2)) return null;
+  for (const k of out.keys()) if (maxWidth < Infinity && (out[k].label.x - textWidth(out[k].link.label, WEIGHT_FONT) / 2 < 2 || out[k].label.x + textWidth(out[k].link.label, WEIGHT_FONT) / 2 > maxWidth - 2)) return null;
+  if (ladder) {
+    // the ladder starts 12 units under the highest node, line or weight
+    let top = Infinity;
+    for (const b of boxes) top = Math.min(top, b[1]);
+    for (const l of out) top = Math.min(top, l.label.y - (WEIGHT_FONT + 3) / 2);
+    const dy = Math.max(0, Math.min(top, y0) - 12);
+    const up = (p: Point): Point => ({ x: p.x, y: p.y - dy });
+    return { centers: centers.map(up), nodeWidth: w, nodeHeight: h, links: out.map((l) => ({ ...l, start: up(l.start), control: up(l.control), end: up(l.end), label: up(l.label) })), width: x1 + 12, height: y1 + 12 - dy };
+  }
   return { centers, nodeWidth: w, nodeHeight: h, links: out, width: x1 + 12, height: y1 + 12 };
 }
 
@@ -150,6 +196,60 @@ export function placeNetwork(ids: readonly string[], links: readonly NetLink[], 
   }
   // cannot happen for the sizes drawn (a larger ellipse always separates); keep a drawing anyway
   return tryPlaceLoose(ids, links, directed, rx, ry, w, h);
+}
+
+/**
+ * A compact placement for a narrow print width (`maxWidth` drawing units): nodes of the given size
+ * (smaller: their names on two lines) in a tight ring of two columns as far apart as the width allows —
+ * down the right column, up the left one half a step lower, so no two nodes are at one height — whose
+ * rows move apart by 12 % a try until every rule above holds. Null when no ladder up to `COMPACT_ASPECT`
+ * widths tall does.
+ */
+export function placeNetworkCompact(ids: readonly string[], links: readonly NetLink[], directed: boolean, node: { width: number; height: number }, maxWidth: number): NetworkPlacement | null {
+  const { width: w, height: h } = node;
+  const n = ids.length;
+  const least = (w + NODE_GAP) / 2, most = Math.max(least, (maxWidth - w - 24) / 2);
+  // the columns as far apart as the width allows, or closer so that lines bending outwards stay inside it
+  const widths = n <= 1 ? [0] : [most, most - 12, most - 24, most - 40].filter((r) => r >= least);
+  if (!widths.length) widths.push(least);
+  let step = h + NODE_GAP;
+  for (let k = 0; k < 40; k++) {
+    // no taller than a printed page allows (two and a half times the width: 21 cm at one column)
+    if (Math.max(0, Math.ceil(n / 2) - 1, Math.floor(n / 2) - 0.5) * step + h + 48 > COMPACT_ASPECT * maxWidth) return null;
+    for (const rx of widths) {
+      const placed = tryPlace(ids, links, directed, rx, step, w, h, maxWidth);
+      if (placed) return placed;
+    }
+    step *= 1.12;
+  }
+  return null;
+}
+
+/**
+ * A name on at most `lines` lines of at most `max` units at `size` (DejaVu Sans widths, `nameWidth`),
+ * broken between words; a word or the last line that is still too long ends in "…".
+ */
+export function nameLines(name: string, max: number, size: number, lines = 2): string[] {
+  const fit = (s: string) => nameWidth(s, size) <= max;
+  const cut = (s: string) => { let t = s; while (t.length > 1 && !fit(`${t}…`)) t = t.slice(0, -1); return `${t.trimEnd()}…`; };
+  const words = name.split(/\s+/).filter(Boolean);
+  const out: string[] = [];
+  let line = '';
+  let i = 0;
+  while (i < words.length) {
+    if (out.length === lines - 1) {
+      // the last line takes the rest
+      const rest = words.slice(i).join(' ');
+      out.push(fit(rest) ? rest : cut(rest));
+      return out;
+    }
+    const next = line ? `${line} ${words[i]}` : words[i];
+    if (fit(next)) { line = next; i++; continue; }
+    if (line) { out.push(line); line = ''; continue; }
+    out.push(cut(words[i])); i++;
+  }
+  if (line) out.push(line);
+  return out;
 }
 
 function tryPlaceLoose(ids: readonly string[], links: readonly NetLink[], directed: boolean, rx: number, ry: number, w: number, h: number): NetworkPlacement {

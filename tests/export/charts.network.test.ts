@@ -68,6 +68,51 @@ describe('network figures: every link visible, no node or weight covered', () =>
     }
   });
 
+  it('drawn compact for a print width (8.5 and 11.4 cm): every example at four intervals keeps every rule and the width', () => {
+    // the widths of one column and one and a half columns in points (85 and 114 mm at 72/25.4 pt per mm)
+    let compact = 0;
+    for (const ex of EXAMPLES) {
+      const m = load(ex.model);
+      for (const interval of [0.1, 1, 10, 100]) {
+        const s = sampledOf(m, interval);
+        if (!s.ok) continue;
+        for (const widthPt of [(85 * 72) / 25.4, (114 * 72) / 25.4]) {
+          const opts = { heading: true, fitTo: { widthPt } };
+          for (const fig of [laggedNetwork(m, s, false, opts), s.phiStandardized ? laggedNetwork(m, s, true, opts) : null, sameIntervalNetwork(m, s, opts)]) {
+            if (!fig) continue;
+            expect(check(fig), `${ex.id} at ${interval}, ${widthPt} pt`).toEqual([]);
+            if (fig.attrs['data-adapted']) {
+              compact++;
+              // the drawing's width is the room that keeps its names at 9 pt: 10.5 units × width / 9 pt
+              expect(Number(fig.attrs.width), `${ex.id} at ${interval}`).toBeLessThanOrEqual(Math.floor((widthPt * 10.5) / 9));
+            }
+          }
+        }
+      }
+    }
+    expect(compact).toBeGreaterThan(0);
+  });
+
+  it('random networks of 2 to 30 states drawn for one column keep every rule; up to 7 states they are compact (seeded)', () => {
+    let compact = 0;
+    for (let seed = 1; seed <= 24; seed++) {
+      const r = seededRandom(seed).uniform;
+      const n = 2 + Math.floor(r() * 29);
+      const ids = Array.from({ length: n }, (_, i) => `s${String(i).padStart(2, '0')}`);
+      const matrix = randomMatrix(n, r, seed % 3 === 0 ? 0.9 : 0.25);
+      for (const directed of [true, false]) {
+        const sym = directed ? matrix : matrix.map((row, i) => row.map((_, j) => matrix[Math.min(i, j)][Math.max(i, j)]));
+        const fig = networkDiagram({ model: namesModel(ids), states: ids, matrix: sym, directed, label: 'random' }, { fitTo: { widthPt: (85 * 72) / 25.4 } });
+        const name = `seed ${seed}, ${n} states, ${directed ? 'directed' : 'undirected'}`;
+        if (fig.attrs['data-adapted']) compact++;
+        // up to 7 states the compact drawing always fits; larger ones may keep the wide drawing (and say so in print)
+        else expect(n, name).toBeGreaterThan(7);
+        expect(check(fig), name).toEqual([]);
+      }
+    }
+    expect(compact).toBeGreaterThan(3);
+  });
+
   it('the placement does not depend on the order of the states in the file', () => {
     const r = seededRandom(99).uniform;
     const n = 9;

@@ -10,15 +10,18 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { drawnLinks } from '../../src/export/charts';
 import { weightText } from '../../src/present/index';
-import { placeNetwork, type NetworkPlacement } from '../../src/layout/network';
+import { nameLines, nameWidth, placeNetwork, placeNetworkCompact, type NetworkPlacement } from '../../src/layout/network';
 
 const r2 = (x: number) => Math.round(x * 100) / 100;
 const pt = (p: { x: number; y: number }) => [r2(p.x), r2(p.y)];
 
 /** Everything placed, keyed by state ids (an undirected link by its two ids in id order, its line as an unordered pair of ends). */
-function byId(ids: readonly string[], matrix: number[][], directed: boolean): Record<string, unknown> {
+function byId(ids: readonly string[], matrix: number[][], directed: boolean, compact = false): Record<string, unknown> {
   const chosen = drawnLinks(ids, matrix, directed);
-  const p: NetworkPlacement = placeNetwork(ids, chosen.links.map((e) => ({ ...e, label: weightText(e.weight) })), directed);
+  const links = chosen.links.map((e) => ({ ...e, label: weightText(e.weight) }));
+  // compact: the ladder for one column (281 units: 8.5 cm with names at 9 pt), nodes of 80 × 44
+  const p: NetworkPlacement | null = compact ? placeNetworkCompact(ids, links, directed, { width: 80, height: 44 }, 281) : placeNetwork(ids, links, directed);
+  if (!p) return { compact: 'none' };
   const out: Record<string, unknown> = { size: [r2(p.width), r2(p.height)], threshold: chosen.threshold, left: chosen.left };
   ids.forEach((id, i) => { out[`node ${id}`] = pt(p.centers[i]); });
   for (const l of p.links) {
@@ -72,6 +75,45 @@ describe('network placement and the order of variables in the file', () => {
       }),
       { seed: 1515, numRuns: 60 },
     );
+  });
+
+  it('compact (one column) networks: the same by id in any order, or no compact placement in either order', () => {
+    fc.assert(
+      fc.property(networks, fc.boolean(), ({ ids, raw, symmetric, perm }, directed) => {
+        const m = directed ? raw : symmetric;
+        const q = permuted(ids, m, perm);
+        expect(byId(q.ids, q.matrix, directed, true)).toEqual(byId(ids, m, directed, true));
+      }),
+      { seed: 2515, numRuns: 40 },
+    );
+  });
+
+  it('names on two lines break between words and end in an ellipsis only when a line cannot hold them', () => {
+    // "Goods in transit" is 7.94 em in DejaVu Sans (83.4 units at 10.5; the font's advances, checked below)
+    expect(nameLines('Dissolved phosphorus', 92, 10.5)).toEqual(['Dissolved', 'phosphorus']);
+    expect(nameLines('Mood', 92, 10.5)).toEqual(['Mood']);
+    expect(nameLines('Goods in transit', 92, 10.5)).toEqual(['Goods in transit']);
+    expect(nameLines('Goods in transit', 80, 10.5)).toEqual(['Goods in', 'transit']);
+    expect(nameLines('Goods in transit', 83, 10.5)).toEqual(['Goods in', 'transit']);
+    expect(nameLines('Goods in transit', 83.5, 10.5)).toEqual(['Goods in transit']);
+    const long = nameLines('Very long name of a variable with many words', 80, 10.5);
+    expect(long).toHaveLength(2);
+    expect(long[1].endsWith('…')).toBe(true);
+    for (const line of long) expect(nameWidth(line, 10.5)).toBeLessThanOrEqual(80);
+    const word = nameLines('Supercalifragilistic', 60, 10.5);
+    expect(word[0].endsWith('…')).toBe(true);
+    expect(nameWidth(word[0], 10.5)).toBeLessThanOrEqual(60);
+  });
+
+  it('name widths are the advances of DejaVu Sans as fontkit reads them from the font file', async () => {
+    const fontkit = (await import('fontkit')) as unknown as { openSync(p: string): { unitsPerEm: number; glyphForCodePoint(c: number): { advanceWidth: number } } };
+    const font = fontkit.openSync(`${process.cwd()}/node_modules/dejavu-fonts-ttf/ttf/DejaVuSans.ttf`);
+    for (const name of ['Dissolved phosphorus', 'Planktivorous fish', 'Goods in transit', 'Sleep debt', 'Air temperature', 'Irritability', 'A-Z a-z 0-9 (x/y) %']) {
+      let units = 0;
+      for (const ch of name) units += font.glyphForCodePoint(ch.codePointAt(0)!).advanceWidth;
+      expect(nameWidth(name, 10), name).toBeGreaterThanOrEqual((units / font.unitsPerEm) * 10 - 0.01 * name.length);
+      expect(nameWidth(name, 10), name).toBeLessThanOrEqual((units / font.unitsPerEm) * 10 + 0.01 * name.length);
+    }
   });
 
   it('a permutation that changes nothing else moves no node (a fixed case the property must include)', () => {

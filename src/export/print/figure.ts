@@ -93,19 +93,28 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
     const { vm, layout, notes } = await adaptedView(req, fit, layoutOf, opts.width ? widthText(opts.width) : '', focus);
     // the caption adds what the title does not say (the title names the interval and the study)
     const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
-    return { notes, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room }) };
+    return { notes, laidOut: layout.width, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room }) };
   };
   let fit = room;
-  let { root, notes } = await draw(fit);
+  let { root, notes, laidOut } = await draw(fit);
   // lines that arc beside a row widen the drawing past its layout: lay it out again in a room narrower by
-  // that much (twice at most), so the figure, not its text, gives way
-  for (let k = 0; k < 2 && room !== undefined && fit !== undefined; k++) {
+  // that much than the layout was (three times at most), so the figure, not its text, gives way
+  // (wrapping rows adds lines that arc, so several rooms are tried — narrower by the overflow than the room
+  // or than the layout, or by a half or a quarter of it — and the narrowest drawing is kept)
+  for (let k = 0; k < 3 && room !== undefined && fit !== undefined; k++) {
     const drawnWidth = Number(root.attrs.width);
     if (!(drawnWidth > room + 0.5)) break;
-    fit -= drawnWidth - room;
-    const next = await draw(fit);
-    if (Number(next.root.attrs.width) >= drawnWidth) break;
-    ({ root, notes } = next);
+    const from = Math.min(fit, laidOut), over = drawnWidth - room;
+    // (at least one unit: then every row is wrapped to one variable a line)
+    const rooms = [...new Set([fit - over, from - over, from - over / 2, from - over / 4].map((r) => Math.max(1, r)))];
+    let best: { fit: number; drawn: Awaited<ReturnType<typeof draw>> } | undefined;
+    for (const r of rooms) {
+      const tried = await draw(r);
+      if (Number(tried.root.attrs.width) < Number((best?.drawn ?? { root }).root.attrs.width)) best = { fit: r, drawn: tried };
+    }
+    if (!best) break;
+    fit = best.fit;
+    ({ root, notes, laidOut } = best.drawn);
   }
   root = finish(root, opts);
   const smallestPt = smallestTextPt(root, opts.width);
@@ -151,12 +160,16 @@ export async function adaptedView(req: ViewRequest, room: number | undefined, la
 
 /**
  * A chart or network (built at its own size by `charts.ts`) for print: sized, recoloured, measured.
- * Charts have a fixed drawing; at a width where their text would fall under 7 pt the notes say so.
+ * A chart drawn for the width (`FigureOptions.fitTo`) that changed its drawing names the change in
+ * `notes`; at a width where its text would still fall under 7 pt the notes say so.
  */
 export function printChart(root: El, opts: PrintOptions): PrintedFigure {
   const r = finish(root, opts);
   const smallestPt = smallestTextPt(r, opts.width);
   const notes: string[] = [];
+  // a builder that changed its drawing to fit the width says how (`data-adapted` on its root)
+  const adapted = root.attrs['data-adapted'];
+  if (typeof adapted === 'string' && adapted) notes.push(opts.width ? `${adapted} to fit ${widthText(opts.width)}` : adapted);
   if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the chart does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset`);
   return { root: r, notes, smallestPt };
 }

@@ -44,6 +44,8 @@ const KINDS: Record<string, () => Promise<El>> = {
   multiples: async () => (await printMultiples({ model, intervals: [3, 28 * 24], design: { samples: 50 } }, { width: { mm: 178 } }, (vm) => layoutInNode(vm))).root,
   'time-series': async () => timeSeriesChart({ times: [0, 1, 2, 3, 4], series: [{ id: 'a', name: 'Stress', values: [0, -0.5, -1, -0.5, 0] }], samples: [0, 2, 4], timeUnit: 'h' }, { heading: true }),
   network: async () => networkDiagram({ model: greenhouse, states: ['airTemp', 'humidity', 'soilWater'], matrix: [[0.5, -0.2, 0], [0.1, 0.6, 0.3], [0, -0.4, 0.9]], directed: true, label: 'Lagged network' }, { heading: true }),
+  // the compact drawing for one column (8.5 cm = 240.9 pt), names on two lines
+  'network-compact': async () => networkDiagram({ model: greenhouse, states: ['airTemp', 'humidity', 'soilWater', 'dust'], matrix: [[0.5, -0.2, 0, -0.05], [0.1, 0.6, 0.3, 0], [0, -0.4, 0.9, 0], [0, 0, 0, 0.99]], directed: true, label: 'Lagged network' }, { heading: true, fitTo: { widthPt: (85 * 72) / 25.4 } }),
   'link-curve': async () => linkCurveChart({ model: greenhouse, curve: { from: 'soilWater', to: 'humidity', intervals: [1, 10, 100, 1000], effect: [0.01, -0.2, 0.3, 0.05], peaks: [{ interval: 100, effect: 0.3 }] } as never, breakpoints: [30], current: 10 }, { heading: true }),
 };
 
