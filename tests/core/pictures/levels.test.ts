@@ -55,7 +55,9 @@ describe('fast chained symptoms and a slow common driver', () => {
       expectClose(r.ratio, want, { relTol: 1e-6, absTol: 1e-14 }, `ratio at Δ = ${d}`);
       return want;
     });
-    for (let g = 1; g < grid.length; g++) expect(ratios[g]).toBeLessThanOrEqual(ratios[g - 1] * (1 + 1e-9));
+    // Monotone while the ratio is above what an SVD resolves: singular values below about ε·σ_max (ε = 2.2e-16,
+    // NumPy's float64) are rounding, so ratios under 1e-13 are noise in SciPy's answer as in ours (common practice).
+    for (let g = 1; g < grid.length; g++) if (ratios[g - 1] > 1e-13) expect(ratios[g]).toBeLessThanOrEqual(ratios[g - 1] * (1 + 1e-9));
     expect(ratios[0]).toBeGreaterThan(0.5);
     // Past 5× the slowest symptom's 2 h the fast modes are gone: Φ is nearly rank one (the slow strain mode).
     expect(ratios[grid.length - 1]).toBeLessThan(1e-6);
