@@ -6,6 +6,8 @@ import { logGrid } from '../../../src/core/numeric/sampled';
 import { runPython } from '../../helpers/python';
 import { expectClose } from '../../helpers/tolerance';
 import { chainMatrices, chainModel, SYMPTOMS } from './fixtures';
+import { readFileSync } from 'node:fs';
+import { parseModel } from '../../../src/core/model/schema';
 
 interface Ref { equilibria: number[][]; stationary: number[][]; meanError: number[][]; within: number[][]; between: number[][]; cross: number[][]; singular: number[][] }
 
@@ -71,6 +73,14 @@ describe('fast chained symptoms and a slow common driver', () => {
     const c = picturesAt(chainModel(0.8, 1), { interval: 3, samples: 70, persons: 150, observed: SYMPTOMS });
     if (!c.ok) throw new Error(c.reason);
     expect(c.pictures.byLevel.within.reading).toMatch(/does not fit .* loops between the variables dominate/);
+    // a ratio under .005 is not written ".00" (which reads as exactly zero)
+    const unrest = parseModel(JSON.parse(readFileSync('src/examples/evening-unrest.json', 'utf8')));
+    if (!unrest.ok) throw new Error('the example does not open');
+    const e = picturesAt(unrest.model, { interval: 3 });
+    if (!e.ok) throw new Error(e.reason);
+    expect(e.pictures.rankLong.secondRatio).toBeLessThan(0.005);
+    expect(e.pictures.longReading).toContain('nearly rank one (second/first singular value below .01)');
+    for (const p of [r.pictures, c.pictures, e.pictures]) expect(p.longReading).not.toMatch(/\.00\)/);
   });
 
   it('names a missing variable and a non-input person difference', () => {
