@@ -96,7 +96,7 @@ function levelWords(level: Level, fit: FactorFit | null, lv: LevelCovariances, u
   const p = fit.eigenvalues.length;
   const share = fit.eigenvalues[0] / p;
   if (!fits && share >= 0.75 && level !== 'within')
-    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; the loops still leave a trace the exact fit detects (RMSEA ${f2(fit.rmsea!)}).`;
+    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; ${fit.rmsea! <= 0.1 ? 'the loops still leave a trace the exact fit detects' : 'yet the exact fit rejects a single factor: the small rest of the variance follows the loops'} (RMSEA ${f2(fit.rmsea!)}).`;
   const strongest = fit.loadings.map((l, i) => ({ i, l: Math.abs(l[0]) })).sort((a, b) => b.l - a.l)[0];
   if (level === 'between')
     return fits

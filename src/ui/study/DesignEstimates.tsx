@@ -69,7 +69,7 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
           <tbody>
             {main.map((g) => (
               <tr key={`${g.gap}|${g.spread}`} data-gap={g.gap}>
-                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> {formatDuration(Math.max(0, g.gap - g.spread), u)} to {formatDuration(g.gap + g.spread, u)}</span>}</th>
+                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> {g.gap - g.spread > 1e-9 * g.gap ? `${formatDuration(g.gap - g.spread, u)} to ` : 'up to '}{formatDuration(g.gap + g.spread, u)}</span>}</th>
                 <td>{pct(g.share)}</td>
                 <td>{where(g)}</td>
               </tr>

@@ -81,6 +81,19 @@ describe('fast chained symptoms and a slow common driver', () => {
     expect(e.pictures.rankLong.secondRatio).toBeLessThan(0.005);
     expect(e.pictures.longReading).toContain('nearly rank one (second/first singular value below .01)');
     for (const p of [r.pictures, c.pictures, e.pictures]) expect(p.longReading).not.toMatch(/\.00\)/);
+    const sleep = parseModel(JSON.parse(readFileSync('src/examples/sleep-stress.json', 'utf8')));
+    if (!sleep.ok) throw new Error('the example does not open');
+    const ss = picturesAt(sleep.model, { interval: 2.4 });
+    if (!ss.ok) throw new Error(ss.reason);
+    expect(ss.pictures.byLevel.between.oneFactor!.rmsea!).toBeGreaterThan(0.1);
+    expect(ss.pictures.byLevel.between.reading).toMatch(/one factor dominates .* yet the exact fit rejects a single factor/);
+    // a dominant factor whose exact fit is far off (RMSEA above .10, 'poor' by Browne & Cudeck 1993) is not called a trace
+    for (const p of [r.pictures, c.pictures, e.pictures, ss.pictures])
+      for (const level of ['between', 'cross'] as const) {
+        const fit = p.byLevel[level].oneFactor;
+        if (fit?.rmsea != null && /one factor dominates/.test(p.byLevel[level].reading))
+          expect(p.byLevel[level].reading).toContain(fit.rmsea > 0.1 ? 'rejects a single factor' : 'leave a trace');
+      }
   });
 
   it('names a missing variable and a non-input person difference', () => {
