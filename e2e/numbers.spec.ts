@@ -159,6 +159,8 @@ test('the Numbers pane exports the simulation chart and the lagged network as th
   // The lagged network at the interval.
   const sampled = pane.locator('[data-section="sampled"]');
   await expect(sampled.locator('svg.lf-num-network').first()).toBeVisible();
+  // where the same-interval network is shown, the pane says it depends on the process noise (issue 14)
+  await expect(sampled.locator('[data-noise-note]')).toContainText("depend on each state's process noise");
   await sampled.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('numbers-export.png') });
   const appNet = (await exported(page, 'Export the lagged network as SVG', testInfo.outputPath('app-lagged.svg'))).toString('utf8');

@@ -200,3 +200,30 @@ test('the probability of each ordering under uncertain timescales is the one `lo
   await unc.scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('uncertain-orderings-1440.png') });
 });
+
+test('the Pictures tab reads the study\'s prompts and persons as `loopfold factor` does (a daily window: 70 prompts, not 14 days / 2.4 h)', async ({ page }, testInfo) => {
+  test.setTimeout(300_000);
+  const cli = (level: string) => JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'factor', 'src/examples/sleep-stress.json', '--level', level, '--json'], { encoding: 'utf8' })) as { samples: number; persons: number; n: number; chi2: number; rmsea: number };
+  const within = cli('within');
+  const between = cli('between');
+  // the example's study: 5 prompts a day 09:00–21:00 for 14 days, 40 persons (counted by hand: 70 prompts)
+  expect([within.samples, within.persons, within.n, between.n]).toEqual([70, 40, 40 * 69, 40]);
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await page.goto('/?example=sleep-stress');
+  await expect(page.getByRole('slider', { name: /sampling interval/i })).toBeVisible({ timeout: 90_000 });
+  await page.getByRole('tab', { name: 'Pictures' }).click();
+  const pane = page.locator('.lf-pictures');
+  await expect(pane.locator('.lf-pic-row[data-pictures="ready"]')).toBeVisible({ timeout: 90_000 });
+  await expect(pane.locator('.lf-pic-controls').first()).toContainText('70 prompts each, every 2.4 h');
+  await expect(pane.getByLabel('Persons', { exact: true })).toHaveValue('40');
+  const fits = pane.getByRole('table', { name: 'Factor fits by level' });
+  for (const [level, want] of [['within', within], ['between', between]] as const) {
+    const cells = fits.locator(`tr[data-level="${level}"] td`);
+    await expect(cells.nth(1)).toHaveText(String(want.n));
+    await expect(cells.nth(2)).toHaveText(want.chi2.toFixed(1));
+    await expect(cells.nth(4)).toHaveText(want.rmsea.toFixed(3));
+  }
+  await page.screenshot({ path: testInfo.outputPath('pictures-study-prompts-1440.png') });
+  await page.setViewportSize({ width: 1024, height: 768 });
+  await page.screenshot({ path: testInfo.outputPath('pictures-study-prompts-1024.png') });
+});

@@ -170,6 +170,11 @@ test.describe('the Study tab', () => {
     await expect(page.getByLabel('First prompt from')).toHaveValue('08:00');
     expect(await stored()).toEqual(edited);
     await expect(estimates).toHaveAttribute('data-status', 'done', { timeout: 90_000 });
+    // a random gap shows its range (by hand: 6 parts of 08:00–21:00 are 13/6 h wide; one part apart is 0 to 4.33 h,
+    // two parts apart 2.17 h to 6.5 h)
+    const gapRows = estimates.locator('.lf-study-gaps tbody tr');
+    await expect(gapRows.nth(0).locator('th')).toHaveText('2.17 h up to 4.33 h');
+    await expect(gapRows.nth(1).locator('th')).toHaveText('4.33 h 2.17 h to 6.5 h');
     await shot(page, testInfo.outputPath('11-study-reloaded-1440.png'));
     await estimates.scrollIntoViewIfNeeded();
     await shot(page, testInfo.outputPath('12-study-estimates-1440.png'));

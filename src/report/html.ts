@@ -37,7 +37,7 @@ export interface ReportOptions {
 
 import { htmlEscape } from './html-escape';
 import { trajectoryChart } from './chart';
-import { designAxis } from '../core/study/convert';
+import { designAxis, type StudyAxis } from '../core/study/convert';
 import { formatNumber, labelOf } from '../present/index';
 import { REPORT_HELD, REPORT_INK, REPORT_LINE, REPORT_MUTED } from '../theme/tokens';
 
@@ -184,7 +184,7 @@ function durationText(model: Model, d: number | string | { low: number | string;
 }
 
 /** The model specification: variables, links, relations, noise and the study design. */
-function specification(model: Model, axis: { window?: number; samples?: number }): string {
+function specification(model: Model, axis: StudyAxis): string {
   const e = htmlEscape;
   const out: string[] = ['<h2>Model specification</h2>'];
   const noiseOf = (id: string) => model.variables.find((v) => v.id === id)?.noise ?? model.settings?.noise?.[id];
@@ -203,7 +203,7 @@ function specification(model: Model, axis: { window?: number; samples?: number }
   }
   const study = (model as Model & { study?: { interval?: unknown; length?: unknown; persons?: unknown } }).study;
   const design = [
-    axis.window !== undefined ? `a study of fixed length ${formatDuration(axis.window, model.timeUnit)} at every interval` : `a study of ${axis.samples ?? model.settings?.samples ?? 50} samples at every interval`,
+    axis.window !== undefined ? `a study of fixed length ${formatDuration(axis.window, model.timeUnit)} at every interval` : `a study of ${axis.samples} samples at every interval`,
     `timescale separation k = ${model.settings?.separation ?? 5} (a state settles when its timescale is under Δ/k, freezes when over k times the study length)`,
     `time unit ${model.timeUnit}`,
   ];

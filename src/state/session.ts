@@ -12,7 +12,7 @@
 import { useStore } from 'zustand';
 import type { Model, Study, VariableId } from '../core/model/types';
 import type { StudyDesign } from '../core/ordering/types';
-import { designAxis, designOfStudy, exactDuration, lengthAxis, studyInterval } from '../core/study/convert';
+import { designAxis, designOfStudy, exactDuration, lengthAxis, modelAxis, studyInterval, type StudyAxis } from '../core/study/convert';
 import { studyOfModel } from '../core/study/design';
 import { analysisStore, setStudyDesign } from './analysis';
 import { documentStore, editDocument, selectModel, validationOf } from './document';
@@ -51,12 +51,24 @@ function resolve(study: Study, own: boolean, model: Model): SessionStudy {
     study,
     own,
     interval,
-    length: axis.window !== undefined ? { by: 'window', window: axis.window } : { by: 'samples', samples: axis.samples },
+    length: lengthOfAxis(axis),
     holds: study.holds ?? NO_HOLDS,
     design: designOfStudy(study, unit),
   };
   byUnit.set(key, s);
   return s;
+}
+
+function lengthOfAxis(axis: StudyAxis): StudyLength {
+  return axis.window !== undefined ? { by: 'window', window: axis.window } : { by: 'samples', samples: axis.samples };
+}
+
+/**
+ * The study length of a checked model when no session study is at hand: the
+ * core's reading of the model (its study, a version-1 `settings.samples`, the default).
+ */
+export function modelLength(model: Model): StudyLength {
+  return lengthOfAxis(modelAxis(model));
 }
 
 /** The session's study for a document model (null while the model does not pass its checks). */

@@ -74,6 +74,8 @@ export interface PictureOptions extends LevelOptions {
 }
 
 const f2 = (x: number) => (Math.abs(x) < 1 ? x.toFixed(2).replace(/^(-?)0\./, '$1.') : x.toFixed(2));
+/** A singular value ratio in words: two decimals, or "below .01" rather than a ".00" that reads as zero. */
+const ratioText = (x: number) => (x > 0 && x < 0.005 ? 'below .01' : f2(x));
 
 function fitWords(fit: FactorFit): string {
   if (fit.rmsea === null) return fit.df === 0 ? 'one factor reproduces any covariance of three variables (no degrees of freedom)' : 'the fit could not be judged';
@@ -94,7 +96,7 @@ function levelWords(level: Level, fit: FactorFit | null, lv: LevelCovariances, u
   const p = fit.eigenvalues.length;
   const share = fit.eigenvalues[0] / p;
   if (!fits && share >= 0.75 && level !== 'within')
-    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; the loops still leave a trace the exact fit detects (RMSEA ${f2(fit.rmsea!)}).`;
+    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; ${fit.rmsea! <= 0.1 ? 'the loops still leave a trace the exact fit detects' : 'yet the exact fit rejects a single factor: the small rest of the variance follows the loops'} (RMSEA ${f2(fit.rmsea!)}).`;
   const strongest = fit.loadings.map((l, i) => ({ i, l: Math.abs(l[0]) })).sort((a, b) => b.l - a.l)[0];
   if (level === 'between')
     return fits
@@ -185,9 +187,9 @@ export function picturesAt(model: Model, options: PictureOptions): { ok: true; p
   else if (rankLong.secondRatio <= 0.1)
     longReading =
       rankLong.spread >= Math.max(2, p / 2)
-        ? `Every ${longWords}: the lagged matrix is nearly rank one (second/first singular value ${f2(rankLong.secondRatio)}): one pattern over ${Math.round(rankLong.spread)} of ${p} variables carries over, as a common cause would.`
-        : `Every ${longWords}: the lagged matrix is nearly rank one (second/first ${f2(rankLong.secondRatio)}), but the pattern sits on ${label(lv.observed[rankLong.pattern.map(Math.abs).indexOf(Math.max(...rankLong.pattern.map(Math.abs)))])}: one slow variable's persistence, not a common cause.`;
-  else longReading = `Every ${longWords}: the lagged matrix keeps ${rankLong.singularValues.filter((s) => s >= 0.1 * rankLong.singularValues[0]).length} patterns (second/first singular value ${f2(rankLong.secondRatio)}).`;
+        ? `Every ${longWords}: the lagged matrix is nearly rank one (second/first singular value ${ratioText(rankLong.secondRatio)}): one pattern over ${Math.round(rankLong.spread)} of ${p} variables carries over, as a common cause would.`
+        : `Every ${longWords}: the lagged matrix is nearly rank one (second/first ${ratioText(rankLong.secondRatio)}), but the pattern sits on ${label(lv.observed[rankLong.pattern.map(Math.abs).indexOf(Math.max(...rankLong.pattern.map(Math.abs)))])}: one slow variable's persistence, not a common cause.`;
+  else longReading = `Every ${longWords}: the lagged matrix keeps ${rankLong.singularValues.filter((s) => s >= 0.1 * rankLong.singularValues[0]).length} patterns (second/first singular value ${ratioText(rankLong.secondRatio)}).`;
 
   const summary = [withinReading, byLevel.within.reading, byLevel.between.reading, byLevel.cross.reading, longReading].filter((s) => s !== '');
   if (lv.personInputs.length === 0) summary.push('No input differs across persons: give a person-level input a person SD to see differences between persons.');

@@ -30,6 +30,7 @@
  */
 import { DEFAULT_SAMPLES, type Model, type VariableId } from '../model/types';
 import { modelAxis, noiseOf } from '../study/convert';
+import { studyPrompts } from '../study/schedule';
 import { driftAtEquilibrium } from '../numeric/index';
 import { solveEquilibrium } from '../numeric/equilibrium';
 import { linkCounts, linkStrengths } from '../model/strength';
@@ -177,9 +178,13 @@ function sub(m: Mat, idx: number[]): number[][] {
 export function levelCovariances(model: Model, options: LevelOptions): LevelResult {
   const warnings: string[] = [];
   if (!(options.interval > 0) || !Number.isFinite(options.interval)) return { ok: false, reason: `the interval must be a positive duration, not ${options.interval}` };
-  // Prompts per person: the option, else the model's study (a length given as a duration counts its intervals).
-  const axis = modelAxis(model);
-  const samples = options.samples ?? (axis.window !== undefined ? Math.max(2, Math.round(axis.window / options.interval)) : axis.samples ?? DEFAULT_SAMPLES);
+  // Prompts per person: the option, else the prompts the model's study plans at this interval (`studyPrompts`).
+  let samples: number;
+  try {
+    samples = options.samples ?? (model.study ? studyPrompts(model.study, model.timeUnit, options.interval) : modelAxis(model).samples ?? DEFAULT_SAMPLES);
+  } catch (e) {
+    return { ok: false, reason: e instanceof Error ? e.message : String(e) };
+  }
   if (!Number.isInteger(samples) || samples < 2) return { ok: false, reason: `the study needs at least 2 prompts per person, not ${samples}` };
   const persons = options.persons ?? (model.study?.persons !== undefined && model.study.persons >= 2 ? model.study.persons : DEFAULT_PERSONS);
   if (!Number.isInteger(persons) || persons < 2) return { ok: false, reason: `the study needs at least 2 persons, not ${persons}` };

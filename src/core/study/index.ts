@@ -12,7 +12,7 @@ export type { StudyAxis } from './convert';
 export { defaultInterval, studyOfModel, studyRange } from './design';
 export { seededRandom } from '../stats/random';
 export type { Random } from '../stats/random';
-export { DEFAULT_SEED, MAX_PROMPTS, answeredOccasions, clockMinutes, nominalSpacing, plannedSlots, promptPlan } from './schedule';
+export { DEFAULT_SEED, MAX_PROMPTS, answeredOccasions, clockMinutes, nominalSpacing, plannedSlots, promptPlan, studyPrompts } from './schedule';
 export type { PersonPrompts, PlannedSlots, PromptPlan } from './schedule';
 export { attenuated, phiOverGap, scheduleGaps, varLimits } from './gaps';
 export type { GapClass, GapPhi, VarLimits } from './gaps';

@@ -16,7 +16,7 @@
  */
 import type { Schedule, Study, TimeUnit } from '../model/types';
 import { convertDuration } from '../model/units';
-import { DEFAULT_PERSONS, lengthAxis, parseInterval } from './convert';
+import { DEFAULT_PERSONS, lengthAxis, parseInterval, studyInterval } from './convert';
 import { seededRandom, type Random } from '../stats/random';
 
 /** Default seed of a study that names none. */
@@ -72,6 +72,32 @@ export interface PlannedSlots {
 
 /** The most prompts a study may plan per person. */
 export const MAX_PROMPTS = 1_000_000;
+
+/**
+ * Prompts per person a study plans, read at `interval` (the study's own when
+ * absent): the planned slots of its schedule (a daily window of 5 prompts for
+ * 14 days: 70, whatever its nominal interval), or, at another interval, a
+ * prompt every interval over the study's length (a count of samples stays
+ * that count). At least 2. The one conversion from a study's length to prompts
+ * that the pictures, the app and the command line share.
+ * Example: `studyPrompts({ interval: "2.4 h", length: "14 days", schedule: { kind: "daily-window", promptsPerDay: 5, from: "09:00", to: "21:00", timing: "stratified-random" } }, "h")` → 70;
+ * the same study at 3 h → 112.
+ */
+export function studyPrompts(study: Study, unit: TimeUnit, interval?: number): number {
+  const own = studyInterval(study, unit);
+  const same = interval === undefined || (own !== undefined && Math.abs(interval - own) <= 1e-9 * own);
+  if (!same && !(interval! > 0 && Number.isFinite(interval))) throw new Error(`the interval must be a positive duration, not ${interval}`);
+  const read: Study = same ? study : { ...study, interval: interval!, schedule: { kind: 'fixed' } };
+  try {
+    return Math.max(2, plannedSlots(read, unit).base.length);
+  } catch (e) {
+    // more than MAX_PROMPTS: the count without listing the slots
+    const axis = lengthAxis(study.length, unit);
+    const step = studyInterval(read, unit);
+    if (!axis.ok || step === undefined) throw e;
+    return axis.samples !== undefined ? axis.samples : Math.max(2, Math.ceil(axis.window / step - 1e-12));
+  }
+}
 
 /**
  * The planned slots of a study (the same for every person).

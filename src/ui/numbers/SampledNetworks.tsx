@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
+import { DEFAULT_NOISE } from '../../core/study/convert';
 import { laggedNetwork, sameIntervalNetwork } from '../../export/charts';
 import { svgDocument } from '../../export/svg';
 import type { SampledAnswer } from '../../worker/numericApi';
@@ -36,6 +37,7 @@ export function SampledNetworks({ model, answer, onPick, caption, study }: { mod
         </>
       )}
       <h4>Same-interval links: partial correlations of what changes within one interval</h4>
+      <p className="lf-num-note" data-noise-note="true">These depend on each state's process noise (set in the inspector; default {DEFAULT_NOISE}); the lagged effects above do not.</p>
       {same ? (
         <>
           <NetworkDiagram model={model} figure={same} />

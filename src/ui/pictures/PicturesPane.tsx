@@ -13,6 +13,7 @@ import { DEFAULT_PERSONS, defaultObserved, type Level } from '../../core/picture
 import { useValidatedModel } from '../../state/document';
 import { designOf } from '../../state/study';
 import { useSessionStudy } from '../../state/session';
+import { studyPrompts } from '../../core/study/schedule';
 import { factorFigure, laggedMatrixFigure, rankCurveCaption, rankCurveFigure, withinNetworkFigure } from '../../export/pictures';
 import { svgDocument } from '../../export/svg';
 import { sideBySideFigure } from '../../export/picturesSideBySide';
@@ -47,10 +48,13 @@ function Figure({ el, what, name, print }: { el: El | null; what: string; name: 
 function PicturesOf({ model }: { model: Model }) {
   const session = useSessionStudy();
   const interval = session && Number.isFinite(session.interval) ? session.interval : null;
-  const length = session?.length ?? { by: 'samples' as const, samples: 50 };
+  // the study's length and prompts, through the core's conversion (null only while the model does not check out)
+  const length = session?.length ?? null;
+  const study = session?.study;
   const states = model.variables.filter((v) => v.kind === 'state').map((v) => v.id);
   const inputs = model.variables.filter((v) => v.kind === 'input');
-  const [persons, setPersons] = useState(model.study?.persons !== undefined && model.study.persons >= 2 ? model.study.persons : DEFAULT_PERSONS);
+  // the checked model carries no study: the persons come from the session's study
+  const [persons, setPersons] = useState(study?.persons !== undefined && study.persons >= 2 ? study.persons : DEFAULT_PERSONS);
   const [observed, setObserved] = useState<string[] | null>(null);
   const [personSD, setPersonSD] = useState<Record<string, number>>({});
   const [level, setLevel] = useState<Level>('between');
@@ -62,17 +66,24 @@ function PicturesOf({ model }: { model: Model }) {
   useModalFocus(overlay, overlayOpen);
   useEffect(() => { if (overlayOpen) overlay.current?.querySelector<HTMLElement>('.lf-pic-overlay-head button')?.focus(); }, [overlayOpen]);
   const obs = (observed ?? defaultObserved(model)).filter((id) => states.includes(id));
-  const samples = interval === null ? 50 : length.by === 'samples' ? length.samples : Math.max(2, Math.round(length.window / interval));
+  const samples = useMemo(() => {
+    if (interval === null || !study) return null;
+    try {
+      return studyPrompts(study, model.timeUnit, interval);
+    } catch {
+      return null;
+    }
+  }, [study, model.timeUnit, interval]);
   const sdOverrides = useMemo(() => Object.fromEntries(inputs.map((v) => [v.id, personSD[v.id] ?? v.personSD ?? 0])), [inputs, personSD]);
 
   useEffect(() => {
-    if (interval === null) return;
+    if (interval === null || samples === null) return;
     let live = true;
     void appPicturesClient().then((c) => c.pictures(model, { interval, samples, persons, observed: obs, personSD: sdOverrides, factors: 2 })).then((a) => { if (live && a) setAnswer(a); });
     return () => { live = false; };
   }, [model, interval, samples, persons, obs.join(','), JSON.stringify(sdOverrides)]); // eslint-disable-line react-hooks/exhaustive-deps
 
-  if (interval === null) return <p className="lf-pictures lf-pic-note">Choose a sampling interval on the track below the canvas.</p>;
+  if (interval === null || samples === null || length === null) return <p className="lf-pictures lf-pic-note">Choose a sampling interval and a study length (Study tab, or the track below the canvas).</p>;
   const stem = fileStem(model.name);
   const caption = `Model-based: what a study every ${formatDuration(interval, model.timeUnit)} with ${samples} prompts and ${persons} persons would see if the mechanism were true; not a finding.`;
   const file = { heading: true, caption };

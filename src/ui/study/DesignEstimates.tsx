@@ -56,7 +56,7 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
         <p className="lf-hint">Every gap is one interval or shorter: the VAR over consecutive prompts estimates about Φ at the interval.</p>
       )}
       <h4>Gaps between consecutive answered prompts</h4>
-      <p className="lf-hint">A missed prompt makes a gap of two parts or more.</p>
+      <p className="lf-hint">A missed prompt makes a gap of two parts or more.{main.some((g) => g.spread > 0) ? ' With prompts at random times in their parts of the window a gap varies: its range is under it (gaps near the middle are the most common).' : ''}</p>
       <div className="lf-study-scroll">
         <table className="lf-num-table lf-study-gaps">
           <thead>
@@ -69,16 +69,16 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
           <tbody>
             {main.map((g) => (
               <tr key={`${g.gap}|${g.spread}`} data-gap={g.gap}>
-                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> ± {formatDuration(g.spread, u)}</span>}</th>
+                <th scope="row">{formatDuration(g.gap, u)}{g.spread > 0 && <span className="lf-study-spread"> {g.gap - g.spread > 1e-9 * g.gap ? `${formatDuration(g.gap - g.spread, u)} to ` : 'up to '}{formatDuration(g.gap + g.spread, u)}</span>}</th>
                 <td>{pct(g.share)}</td>
                 <td>{where(g)}</td>
               </tr>
             ))}
             {rest.length > 0 && (
               <tr>
-                <th scope="row">{rest.length} longer gaps (up to {formatDuration(rest[rest.length - 1].gap, u)})</th>
+                <th scope="row" className="lf-study-rest">{rest.length} longer gaps (up to {formatDuration(rest[rest.length - 1].gap, u)})</th>
                 <td>{pct(restShare)}</td>
-                <td>after several missed prompts in a row</td>
+                <td className="lf-study-where">after several missed prompts in a row</td>
               </tr>
             )}
           </tbody>

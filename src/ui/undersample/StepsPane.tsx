@@ -101,6 +101,7 @@ function RateControl({ rate, maxRate, disabled }: { rate: number; maxRate: numbe
   const set = (u: number) => stepsStore.getState().set({ rate: Math.max(1, Math.min(maxRate, u)) });
   return (
     <div>
+      <div className="lf-steps-rate-label" aria-hidden="true">Measured every <strong>u</strong>-th step of the causal graph: <strong>u = {rate}</strong></div>
       <div className="lf-steps-rate">
         <button type="button" aria-label="Measure more often (u − 1)" disabled={disabled || rate <= 1} onClick={() => set(rate - 1)}>−</button>
         <input type="range" min={1} max={maxRate} step={1} value={rate} disabled={disabled} aria-label="Measured every u-th step" aria-valuetext={`u = ${rate}`} onChange={(e) => set(Number(e.target.value))} />

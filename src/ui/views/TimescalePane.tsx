@@ -12,12 +12,11 @@ import { drawnPositions } from '../../layout/instant';
 import type { Layout } from '../../layout/types';
 import { useValidatedModel } from '../../state/document';
 import { foldedKeys, studyStore, useStudy } from '../../state/study';
-import { useSessionStudy, type StudyLength } from '../../state/session';
+import { modelLength, useSessionStudy } from '../../state/session';
 import { viewCaption } from '../../export/caption';
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
 
-const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 /** Whether the export row is unfolded: kept while the modeller goes to another tab and back. */
 const exportRowStore = createStore<{ open: boolean }>(() => ({ open: false }));
 import { openBandCache, useBandCache, useShownBand } from './bandCache';
@@ -40,7 +39,8 @@ export function TimescalePane() {
 /** `presenting`: inside presentation mode (no toolbar, no mechanism beside it). */
 export function TimescalePaneFor({ model, presenting = false }: { model: Model; presenting?: boolean }) {
   const session = useSessionStudy();
-  const length = session?.length ?? DEFAULT_LENGTH;
+  // the study's length; without a session (a model passed in) the core's reading of the model
+  const length = session?.length ?? modelLength(model);
   const liveInterval = session ? session.interval : null;
   // while the control is dragged the figure follows the band where the thumb rests (a drag across a
   // big model passes a band every few pixels; drawing each would hold the thumb back)

@@ -52,6 +52,13 @@ describe('factor, rank and order --uncertain', () => {
       expectClose(j.chi2, s.chi2, { relTol: 1e-4, absTol: 1e-4 }, `${level} χ²`);
       expectClose(j.rmsea, s.rmsea, { relTol: 0, absTol: 1e-4 }, `${level} RMSEA`);
     }
+    // Without --samples the prompts come from the file's study through the core (studyPrompts): a daily window of
+    // 5 prompts for 14 days plans 70 prompts (counted by hand), not 14 days / 2.4 h = 140.
+    const study = { interval: '2.4 h', length: '14 days', schedule: { kind: 'daily-window', promptsPerDay: 5, from: '09:00', to: '21:00', timing: 'stratified-random' }, persons: 40 };
+    const m = memoryIo({ 'study.json': JSON.stringify({ ...chainModel(0.3, 0), version: 2, study }) }, { disk: true });
+    expect(await runCli(['factor', 'study.json', '--level', 'within', '--person-sd', 'load=0.5', '--json'], m.io), m.err.join('\n')).toBe(0);
+    const own = JSON.parse(m.out.join('\n')) as { samples: number; persons: number; n: number };
+    expect([own.samples, own.persons, own.n]).toEqual([70, 40, 40 * 69]);
     // Two factors for four variables leave no degrees of freedom: refused, naming the option.
     const two = await run(['factor', FILE, '--interval', '3h', '--factors', '2', '--person-sd', 'load=0.5', '--json']);
     expect(two.code).not.toBe(0);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Study } from '../../../src/core/model/types';
 import { seededRandom } from '../../../src/core/stats/random';
-import { answeredOccasions, nominalSpacing, plannedSlots, promptPlan } from '../../../src/core/study/schedule';
+import { answeredOccasions, nominalSpacing, plannedSlots, promptPlan, studyPrompts } from '../../../src/core/study/schedule';
 import { decimals, expectClose } from '../../helpers/tolerance';
 
 const esm = (timing: 'fixed' | 'stratified-random', extra: Partial<Study> = {}): Study => ({
@@ -39,6 +39,30 @@ describe('planned prompts', () => {
   });
   it('refuses a study of more than a million prompts per person with a message', () => {
     expect(() => plannedSlots({ interval: '1 s', length: '1 year', schedule: { kind: 'fixed' } }, 'h')).toThrow(/more than 1,000,000 prompts/);
+  });
+});
+
+describe('prompts per person a study plans (studyPrompts: the one length-to-prompts conversion)', () => {
+  // Counts by hand (common practice: prompts per day × days; one prompt per interval over a window).
+  it('a daily window of 5 prompts for 14 days plans 70 prompts, whatever its nominal interval (not 14 days / 2.4 h = 140)', () => {
+    expect(studyPrompts(esm('stratified-random', { interval: '2.4 h' }), 'h')).toBe(70);
+    expect(studyPrompts(esm('fixed'), 'h')).toBe(70);
+    // the same study in minutes: the same prompts
+    expect(studyPrompts(esm('fixed'), 'min')).toBe(70);
+  });
+  it('at another interval the study is read as a prompt every interval over its length', () => {
+    // 14 days = 336 h; one prompt every 3 h starting at 0 → 112 prompts
+    expect(studyPrompts(esm('stratified-random', { interval: '2.4 h' }), 'h', 3)).toBe(112);
+    // 10 h at 3 h: prompts at 0, 3, 6, 9 h → 4
+    expect(studyPrompts({ interval: '3h', length: '10 h', schedule: { kind: 'fixed' } }, 'h', 3)).toBe(4);
+    expect(studyPrompts({ interval: '1h', length: '10 h', schedule: { kind: 'fixed' } }, 'h', 3)).toBe(4);
+  });
+  it('a count of samples stays that count at every interval; daily and weekly schedules count days and weeks', () => {
+    expect(studyPrompts({ interval: '90 min', length: 50, schedule: { kind: 'fixed' } }, 'h')).toBe(50);
+    expect(studyPrompts({ interval: '90 min', length: 50, schedule: { kind: 'fixed' } }, 'h', 7)).toBe(50);
+    expect(studyPrompts({ interval: 'daily', length: '26 weeks', schedule: { kind: 'daily' } }, 'day')).toBe(182);
+    expect(studyPrompts({ interval: 'weekly', length: '2 years', schedule: { kind: 'weekly' } }, 'week')).toBe(Math.ceil((2 * 365.25) / 7));
+    expect(() => studyPrompts(esm('fixed'), 'h', -1)).toThrow(/positive duration/);
   });
 });
 
