@@ -7,7 +7,7 @@ import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis, windowOf } from '../../core/study/convert';
 import { uncertainOrdering, uncertainText } from './pictures';
-import { labeller } from '../../present/index';
+import { labeller, significant } from '../../present/index';
 
 /** Study design from --interval, --window, --samples and --hold; each one absent comes from the file's study (the length through the core). */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -129,7 +129,7 @@ export const orderingCommands: CliCommand[] = [
       }
       const lines = [`${model.name}: the ordering changes at ${bps.length} interval(s)`];
       for (const b of bps) {
-        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${Number(b.interval.toPrecision(6))} ${model.timeUnit}):`);
+        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${significant(b.interval, 6)} ${model.timeUnit}):`);
         for (const c of b.changes) lines.push(`    ${c.reason}`);
       }
       io.out(lines.join('\n'));

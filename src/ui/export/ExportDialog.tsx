@@ -15,6 +15,7 @@ import { svgPng } from '../figureFiles';
 import { cliArgs, commandText, pngPixels, printedFigure, printedSvg, type FigureSource } from './printFile';
 import './export.css';
 import { useModalFocus } from '../modal';
+import { fixedText } from '../../present/index';
 
 type WidthChoice = 'column' | '1.5-column' | 'two-columns' | 'own' | 'length';
 const WIDTHS: { value: WidthChoice; text: string }[] = [
@@ -117,7 +118,7 @@ export function ExportDialog({ what, name, modelFile, source, onClose }: ExportD
       const svg = printedSvg(fig);
       if (format === 'svg') downloadBlob(new Blob([svg], { type: 'image/svg+xml' }), `${name}.svg`);
       else downloadBlob(await svgToPng(svg, pngPixels(fig, check.opts, dpiValue), dpiValue), `${name}.png`);
-      setStatus({ tone: 'note', lines: [`Saved ${name}.${format}; its smallest text is ${fig.smallestPt.toFixed(1)} pt.`, ...fig.notes.map((n) => `To fit: ${n}.`)] });
+      setStatus({ tone: 'note', lines: [`Saved ${name}.${format}; its smallest text is ${fixedText(fig.smallestPt, 1)} pt.`, ...fig.notes.map((n) => `To fit: ${n}.`)] });
     } catch (e) {
       setStatus({ tone: 'error', lines: [`The file could not be made: ${(e as Error).message ?? String(e)}`] });
     } finally {

@@ -5,7 +5,7 @@ import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
 import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths, parseStrengthRangeText, strengthRangeText } from '../../core/model/strength';
 import { CheckedField, numberCheck, toNumber } from './fields';
-import { labeller } from '../../present/index';
+import { labeller, significant } from '../../present/index';
 
 /** What the strength is in the equations, its unit and the default when empty. */
 function strengthHint(link: Link, model: Model, name: (id: string) => string) {
@@ -18,7 +18,7 @@ function strengthHint(link: Link, model: Model, name: (id: string) => string) {
   const eq = to.kind === 'state'
     ? `d${t}/dt = (Σ strength × source − ${t}) / τ`
     : `${t} = Σ strength × source`;
-  const def = Number((DEFAULT_TOTAL_GAIN / s.sharedBy).toPrecision(3));
+  const def = significant(DEFAULT_TOTAL_GAIN / s.sharedBy, 3);
   return (
     <>
       The coefficient of {f} in {t}'s equation, <span className="lf-mono">{eq}</span>, with the sign above. No unit: the change in {t}{to.kind === 'state' ? '’s balance' : ''} per unit of {f}.
@@ -77,7 +77,7 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
         commit={(t) => editDocument({ type: 'updateLink', id: link.id!, patch: { weight: toNumber(t) } }, { squash: `${link.id}:weight` })}
         onBlur={stop}
         hint={strengthHint(link, model, name)}
-        placeholder={`empty: ${Number((DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy).toPrecision(3))}`}
+        placeholder={`empty: ${significant(DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy, 3)}`}
       />
       <CheckedField
         label="Strength range (optional)"
