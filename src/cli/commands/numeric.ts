@@ -1,21 +1,16 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { sampledAt, simulate, solveEquilibrium, timescalesAt, toRows, type Mat } from '../../core/numeric/index';
-import type { Diagnostic } from '../../core/ordering/types';
 import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../export/charts';
 import { sampledOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
-import { designFromArgs } from './ordering';
+import { designFromArgs, diagnosticLines } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { formatNumber, labelOf, simulationCsv } from '../../present/index';
 
 /** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
 const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
-
-function diagnosticLines(ds: Diagnostic[]): string[] {
-  return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
-}
 
 function matrixText(m: Mat, names: string[]): string[] {
   const rows = toRows(m);

@@ -51,7 +51,8 @@ function describeDesign(model: Model, design: StudyDesign): string {
   return `sampling every ${formatDuration(design.interval, u)}, over a study of ${formatDuration(window, u)}`;
 }
 
-function diagnosticLines(ds: Diagnostic[]): string[] {
+/** Diagnostics as table lines: level, then the message. */
+export function diagnosticLines(ds: Diagnostic[]): string[] {
   return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
 }
 

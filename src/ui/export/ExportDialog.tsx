@@ -14,7 +14,7 @@ import { downloadBlob } from '../download';
 import { svgPng } from '../figureFiles';
 import { cliArgs, commandText, pngPixels, printedFigure, printedSvg, type FigureSource } from './printFile';
 import './export.css';
-import { useModalFocus } from '../modal';
+import { useModalDialog } from '../modal';
 import { fixedText } from '../../present/index';
 
 type WidthChoice = 'column' | '1.5-column' | 'two-columns' | 'own' | 'length';
@@ -67,7 +67,7 @@ async function svgToPng(svg: string, size: { width: number; height: number }, dp
 
 export function ExportDialog({ what, name, modelFile, source, onClose }: ExportDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
-  useModalFocus(ref, true);
+  useModalDialog(ref, true);
   const id = useId();
   const [width, setWidth] = useState<WidthChoice>('column');
   const [length, setLength] = useState('120mm');
@@ -82,11 +82,6 @@ export function ExportDialog({ what, name, modelFile, source, onClose }: ExportD
   const [busy, setBusy] = useState(false);
   const [copied, setCopied] = useState(false);
   const [command, setCommand] = useState<string | null>(null);
-
-  useEffect(() => {
-    const d = ref.current;
-    if (d && !d.open) d.showModal();
-  }, []);
 
   const check = checked(width, length, font, palette, background, title, caption);
   const dpiValue = Number(dpi);
