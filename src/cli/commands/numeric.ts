@@ -5,7 +5,7 @@ import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../expor
 import { sampledOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
-import { designFromArgs, diagnosticLines } from './ordering';
+import { designFromArgs, diagnosticsSection } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { formatNumber, labelOf, simulationCsv } from '../../present/index';
 
@@ -61,8 +61,7 @@ export const numericCommands: CliCommand[] = [
       else {
         const lines = [`${model.name}: equilibrium${r.ok ? '' : ' (not found for every block)'}`, ''];
         for (const v of model.variables) lines.push(`  ${labelOf(model, v.id).padEnd(24)} ${num(r.values[v.id]).padStart(14)}   ${v.kind}`);
-        if (r.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(r.diagnostics));
-        io.out(lines.join('\n'));
+        io.out([...lines, ...diagnosticsSection(r.diagnostics)].join('\n'));
       }
       return r.ok ? 0 : 1;
     },
@@ -103,8 +102,7 @@ export const numericCommands: CliCommand[] = [
         const step = Math.max(1, Math.ceil(r.times.length / 25));
         for (let k = 0; k < r.times.length; k += step) lines.push(`  ${num(r.times[k]).padStart(w)} ${ids.map((id) => num(r.series[id][k]).padStart(w)).join(' ')}`);
         if (step > 1) lines.push(`  (every ${step}th of ${r.times.length} rows; use --csv or --json for all)`);
-        if (r.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(r.diagnostics));
-        io.out(lines.join('\n'));
+        io.out([...lines, ...diagnosticsSection(r.diagnostics)].join('\n'));
       }
       return r.ok ? 0 : 1;
     },

@@ -56,6 +56,11 @@ export function diagnosticLines(ds: Diagnostic[]): string[] {
   return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
 }
 
+/** The closing section of a text report: a blank line, "diagnostics:" and their lines; nothing when there are none. */
+export function diagnosticsSection(ds: Diagnostic[]): string[] {
+  return ds.length > 0 ? ['', 'diagnostics:', ...diagnosticLines(ds)] : [];
+}
+
 /** Readable text for `order` without --json. */
 export function orderingText(model: Model, design: StudyDesign, o: Ordering): string {
   const label = labeller(model);
@@ -72,8 +77,7 @@ export function orderingText(model: Model, design: StudyDesign, o: Ordering): st
   for (const e of within) lines.push(`  ${label(e.from)} ${e.simultaneous ? '<->' : '->'} ${label(e.to)}`);
   lines.push('', `across time, lagged (${across.length}):`);
   for (const e of across) lines.push(`  ${label(e.from)} => ${label(e.to)}`);
-  if (o.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(o.diagnostics));
-  return lines.join('\n');
+  return [...lines, ...diagnosticsSection(o.diagnostics)].join('\n');
 }
 
 const designOptions = { interval: true, window: true, samples: true, hold: true, json: false };
