@@ -2,6 +2,7 @@
  * Scales and ticks of the charts: pure arithmetic shared by the drawing of
  * the Numbers pane's charts and their export.
  */
+import { formatNumber, significant } from '../present/index';
 
 /**
  * Round tick values within [lo, hi]: the smallest step of 1, 2 or 5 × 10ᵏ
@@ -16,7 +17,7 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   const f = raw / mag;
   const step = (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * mag;
   const out: number[] = [];
-  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + step * 1e-9; k++) out.push(Number((k * step).toPrecision(12)));
+  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + step * 1e-9; k++) out.push(significant(k * step, 12));
   return out;
 }
 
@@ -54,8 +55,5 @@ export function extent(values: Iterable<number>): [number, number] {
 
 /** Tick label: short, no floating-point noise, minus as U+2212 (the one minus sign of every figure). */
 export function tickText(x: number): string {
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  if (a >= 1e5 || a < 1e-3) return x.toExponential(0).replace('e+', 'e').replace(/-/g, '−');
-  return String(Number(x.toPrecision(4))).replace('-', '−');
+  return formatNumber(x, { digits: 4, exponentDigits: 0, large: 1e5, exponentPlus: false });
 }

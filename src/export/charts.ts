@@ -15,7 +15,7 @@ import { CHART_STYLE as C, FONT_STACK, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { studyLength, type StudyAt } from './caption';
 import { nameLines, nameWidth, placeNetwork, placeNetworkCompact, textWidth, WEIGHT_FONT, type NetworkPlacement } from '../layout/network';
-import { labelOf, numText, unitOf, weightText } from '../present/index';
+import { labelOf, numText, significant, unitOf, weightText } from '../present/index';
 import { wrapText, type Attr, type El } from './scene';
 import { targetScale } from './print/figure';
 import { DEFAULT_FONT_PT } from './print/options';
@@ -423,7 +423,7 @@ export function linkCurveChart(input: LinkCurveInput, opts: FigureOptions = {}):
     tick(keyRows ? 20 : 190, keyRows ? 26 : 10, 'current Δ', 'start'),
   ];
   const peakRow = keyRows ? 16 : 0;
-  if (peak) legend.push(el('path', { d: diamond(8, 22 + peakRow), ...peakFill }), tick(20, 26 + peakRow, `strongest: ${numText(Number(peak.effect.toPrecision(3)))} at Δ = ${formatDuration(peak.interval, u)}`, 'start'));
+  if (peak) legend.push(el('path', { d: diamond(8, 22 + peakRow), ...peakFill }), tick(20, 26 + peakRow, `strongest: ${numText(significant(peak.effect, 3))} at Δ = ${formatDuration(peak.interval, u)}`, 'start'));
   body.push(el('g', { transform: `translate(${CL},${CH + 6})`, 'data-part': 'legend' }, legend));
   return figure('link-curve', linkCurveLabel(model, curve), CW, CH + 42 + (keyRows ? 16 : 0), body, opts);
 }

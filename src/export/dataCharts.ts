@@ -12,7 +12,7 @@ import type { LagCurves } from '../core/fit/lagCurve';
 import { CHART_STYLE as C, SERIES_DASHES } from '../theme/visual';
 import { extent, linear, logScale, logTicks, niceTicks, tickText } from './axes';
 import { el, figure, hline, r1, text, tick, vline, type FigureOptions } from './charts';
-import { labelOf, numText } from '../present/index';
+import { labelOf, numText, significant } from '../present/index';
 import type { Attr, El } from './scene';
 
 
@@ -104,7 +104,7 @@ export function intervalHistogramChart(h: IntervalHistogram, timeUnit: TimeUnit,
     const lx = (i % 2) * 150, ly = Math.floor(i / 2) * 14;
     legend.push(el('rect', { x: lx, y: ly, width: 10, height: 10, fill: KIND_FILL[k] }), tick(lx + 14, ly + 9, `${k} (${h.totals[k]})`, 'start'));
   });
-  legend.push(hline(150, 166, 21, { stroke: C.line, 'stroke-width': 1.5, 'stroke-dasharray': '4 2' }), tick(170, 24, `median ${formatDuration(Number(h.median.toPrecision(3)), timeUnit)}`, 'start'));
+  legend.push(hline(150, 166, 21, { stroke: C.line, 'stroke-width': 1.5, 'stroke-dasharray': '4 2' }), tick(170, 24, `median ${formatDuration(significant(h.median, 3), timeUnit)}`, 'start'));
   body.push(el('g', { transform: `translate(${L},${H + 2})`, 'data-part': 'legend' }, legend));
   return figure('interval-histogram', intervalHistogramLabel(), W, H + 32, body, opts);
 }
@@ -127,7 +127,7 @@ export function missingnessChart(model: Pick<Model, 'variables'>, rows: readonly
       tick(LL - 6, yy + 11, labelOf(model, m.variable), 'end'),
       el('rect', { x: LL, y: yy + 2, width: r1(x(1) - LL), height: RH - 6, fill: C.paper, stroke: C.frame }),
       el('rect', { x: LL, y: yy + 2, width: r1(x(share) - LL), height: RH - 6, fill: C.label, 'data-share': share }),
-      tick(x(1) + 4, yy + 11, `${numText(Number((100 * share).toPrecision(3)))} %`, 'start'),
+      tick(x(1) + 4, yy + 11, `${numText(significant(100 * share, 3))} %`, 'start'),
     ]));
   });
   const axisY = T + rows.length * RH + 2;
@@ -177,7 +177,7 @@ export function lagCurveChart(model: Pick<Model, 'variables'>, c: LagCurves, tim
   const legend: El[] = [hline(0, 16, 6, { stroke: C.line, 'stroke-width': 1.5, 'stroke-dasharray': SERIES_DASHES[1] }), tick(20, 10, 'sketch', 'start')];
   if (c.fitted) legend.push(hline(70, 86, 6, { stroke: C.accent, 'stroke-width': 2 }), tick(90, 10, 'fitted drift', 'start'));
   if (c.point) legend.push(el('circle', { cx: 170, cy: 6, r: 3.5, fill: C.breakpoint }), tick(178, 10, 'VAR with 95 % interval', 'start'));
-  legend.push(el('rect', { x: 0, y: 16, width: 16, height: 10, fill: C.grid }), tick(20, 25, `middle half of the data's intervals (median ${formatDuration(Number(c.data.median.toPrecision(3)), timeUnit)})`, 'start'));
+  legend.push(el('rect', { x: 0, y: 16, width: 16, height: 10, fill: C.grid }), tick(20, 25, `middle half of the data's intervals (median ${formatDuration(significant(c.data.median, 3), timeUnit)})`, 'start'));
   body.push(el('g', { transform: `translate(${L},${H + 4})`, 'data-part': 'legend' }, legend));
   return figure('lag-curve', lagCurveLabel(model, c), W, H + 34, body, opts);
 }

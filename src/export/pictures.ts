@@ -15,6 +15,7 @@ import { logScale, logTicks, linear, tickText } from './axes';
 import { fittedWidth, networkDiagram, type FigureOptions } from './charts';
 import { nameOf, weightText } from './format';
 import { wrapText, type Attr, type El } from './scene';
+import { fixedText } from '../present/index';
 
 const PAD = 10;
 const r1 = (x: number) => Math.round(x * 10) / 10;
@@ -71,7 +72,7 @@ export function factorFigure(model: Model, variables: readonly string[], pic: Le
     const u = fit.uniqueness[i];
     const len = (Math.min(1, Math.abs(l)) * barW) / 2;
     const x0 = l >= 0 ? zero : zero - len;
-    body.push(el('g', { 'data-variable': id, 'data-loading': l.toFixed(4) }, [
+    body.push(el('g', { 'data-variable': id, 'data-loading': fixedText(l, 4, { ascii: true }) }, [
       el('title', {}, [`${nameOf(model, id)}: loading ${two(l)}, uniqueness ${two(u)}`]),
       text({ x: nameW, y: r1(y + 14), 'text-anchor': 'end' }, short(nameOf(model, id))),
       el('rect', { x: r1(x0), y: y + 5, width: r1(Math.max(len, 0.5)), height: 13, fill: l >= 0 ? C.accent : C.paper, stroke: C.accent, 'stroke-dasharray': l < 0 ? C.negativeDash : undefined }),
@@ -81,7 +82,7 @@ export function factorFigure(model: Model, variables: readonly string[], pic: Le
     ]));
   });
   const h = top + variables.length * rowH + 8;
-  const stats = fit.chi2 === null ? `df ${fit.df}` : `χ² ${fit.chi2.toFixed(1)}, df ${fit.df}, N ${pic.n}${fit.rmsea === null ? '' : `, RMSEA ${two(fit.rmsea)}`}`;
+  const stats = fit.chi2 === null ? `df ${fit.df}` : `χ² ${fixedText(fit.chi2, 1)}, df ${fit.df}, N ${pic.n}${fit.rmsea === null ? '' : `, RMSEA ${two(fit.rmsea)}`}`;
   body.push(text({ x: barX, y: h + 6, 'font-size': 9.5, fill: C.label }, stats));
   return figure('factor', label, W, h + 14, body, opts);
 }

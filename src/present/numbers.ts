@@ -36,14 +36,54 @@ export interface NumberStyle {
  */
 export function formatNumber(x: number, style: NumberStyle = {}): string {
   const { digits = 6, exponentDigits, small = 1e-3, large = 1e6, exponentPlus = true, ascii = false } = style;
-  if (!Number.isFinite(x)) {
-    if (ascii) return String(x);
-    return Number.isNaN(x) ? 'not a number' : x > 0 ? 'infinite' : `${MINUS}infinite`;
-  }
+  if (!Number.isFinite(x)) return notFinite(x, ascii);
   if (x === 0) return '0';
   const a = Math.abs(x);
-  let s = exponentDigits !== undefined && (a < small || a >= large) ? x.toExponential(exponentDigits) : String(Number(x.toPrecision(digits)));
+  let s = exponentDigits !== undefined && (a < small || a >= large) ? x.toExponential(exponentDigits) : String(significant(x, digits));
   if (!exponentPlus) s = s.replace('e+', 'e');
+  return ascii ? s : s.replace(/-/g, MINUS);
+}
+
+/**
+ * A number rounded to `digits` significant digits, still a number: no floating-point noise in
+ * what is shown or compared. Example: `significant(0.1 + 0.2, 3)` → 0.3
+ */
+export function significant(x: number, digits: number): number {
+  return Number(x.toPrecision(digits));
+}
+
+/** A number rounded to `decimals` places after the point, still a number. Example: `rounded(25.4049, 2)` → 25.4 */
+export function rounded(x: number, decimals: number): number {
+  return Number(x.toFixed(decimals));
+}
+
+/** Words for a value that is not finite, or JavaScript's own words for programs. */
+function notFinite(x: number, ascii: boolean): string {
+  if (ascii) return String(x);
+  return Number.isNaN(x) ? 'not a number' : x > 0 ? 'infinite' : `${MINUS}infinite`;
+}
+
+/**
+ * Exactly `decimals` places after the point, trailing zeros kept (sizes, durations, scales).
+ * `ascii` keeps the hyphen-minus for text that programs read (attributes, tables).
+ * Example: `fixedText(-0.5, 2)` → "−0.50"; `fixedText(7, 1)` → "7.0".
+ */
+export function fixedText(x: number, decimals: number, style: Pick<NumberStyle, 'ascii'> = {}): string {
+  const ascii = style.ascii ?? false;
+  if (!Number.isFinite(x)) return notFinite(x, ascii);
+  const s = x.toFixed(decimals);
+  return ascii ? s : s.replace(/-/g, MINUS);
+}
+
+/**
+ * Exactly `digits` significant digits, trailing zeros kept, exponent form where JavaScript
+ * chooses it (a residual, a growth rate). Example: `precisionText(0, 3)` → "0.00";
+ * `precisionText(-1.234e-8, 3)` → "−1.23e−8".
+ */
+export function precisionText(x: number, digits: number, style: Pick<NumberStyle, 'ascii'> = {}): string {
+  const ascii = style.ascii ?? false;
+  if (!Number.isFinite(x)) return notFinite(x, ascii);
+  const s = x.toPrecision(digits);
   return ascii ? s : s.replace(/-/g, MINUS);
 }
 

@@ -5,7 +5,8 @@
  * IndexedDB beside the autosaved model (a store of its own), reopened with
  * it; never written into model files or share links, never sent anywhere.
  */
-import { createStore as createIdb, del, get, set, type UseStore } from 'idb-keyval';
+import { del, get, set, type UseStore } from 'idb-keyval';
+import { lazyStore } from './persist';
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
 import type { ColumnMapping, ImportResult } from '../core/data/import';
@@ -26,12 +27,7 @@ export interface Dataset {
   importedAt: number;
 }
 
-let idb: UseStore | undefined;
-function store(s?: UseStore): UseStore {
-  if (s) return s;
-  idb ??= createIdb('loopfold-data', 'datasets');
-  return idb;
-}
+const store = lazyStore('loopfold-data', 'datasets');
 
 export async function saveDataset(d: Omit<Dataset, 'version'>, s?: UseStore): Promise<void> {
   await set(KEY, { version: DATASET_VERSION, ...d }, store(s));

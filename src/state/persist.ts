@@ -20,12 +20,12 @@ export interface Snapshot {
   savedAt: number;
 }
 
-let defaultStore: UseStore | undefined;
-function store(s?: UseStore): UseStore {
-  if (s) return s;
-  defaultStore ??= createStore('loopfold', 'autosave');
-  return defaultStore;
+/** An IndexedDB store opened on first use; a store passed in (a test's) wins. */
+export function lazyStore(db: string, name: string): (s?: UseStore) => UseStore {
+  let opened: UseStore | undefined;
+  return (s) => s ?? (opened ??= createStore(db, name));
 }
+const store = lazyStore('loopfold', 'autosave');
 
 export async function saveSnapshot(snap: Omit<Snapshot, 'version' | 'savedAt'>, s?: UseStore): Promise<void> {
   const full: Snapshot = { version: SNAPSHOT_VERSION, savedAt: Date.now(), ...snap };

@@ -1,20 +1,14 @@
-import { useEffect, useRef } from 'react';
+import { useRef } from 'react';
 import { EXAMPLES } from '../examples/index';
 import { useUi, uiStore } from '../state/ui';
-import { useModalFocus } from './modal';
+import { useModalDialog } from './modal';
 import { openExample } from './actions';
 
 /** The example gallery: scenarios to open and explore. */
 export function GalleryDialog() {
   const open = useUi((s) => s.galleryOpen);
   const ref = useRef<HTMLDialogElement>(null);
-  useModalFocus(ref, open);
-  useEffect(() => {
-    const d = ref.current;
-    if (!d) return;
-    if (open && !d.open) d.showModal();
-    if (!open && d.open) d.close();
-  }, [open]);
+  useModalDialog(ref, open);
   return (
     <dialog ref={ref} className="lf-dialog" aria-labelledby="lf-gallery-title" onClose={() => uiStore.getState().set({ galleryOpen: false })}>
       <h2 id="lf-gallery-title">Examples</h2>

@@ -1,18 +1,12 @@
-import { useEffect, useRef } from 'react';
+import { useRef } from 'react';
 import { useUi, uiStore } from '../state/ui';
-import { useModalFocus } from './modal';
+import { useModalDialog } from './modal';
 
 /** A message that needs reading: a file that could not be opened, with every problem and where it is. */
 export function NoticeDialog() {
   const notice = useUi((s) => s.notice);
   const ref = useRef<HTMLDialogElement>(null);
-  useModalFocus(ref, !!notice);
-  useEffect(() => {
-    const d = ref.current;
-    if (!d) return;
-    if (notice && !d.open) d.showModal();
-    if (!notice && d.open) d.close();
-  }, [notice]);
+  useModalDialog(ref, !!notice);
   return (
     <dialog ref={ref} className={`lf-dialog lf-notice${notice?.tone === 'error' ? ' is-error' : ''}`} aria-labelledby="lf-notice-title" onClose={() => uiStore.getState().set({ notice: null })}>
       {notice && (

@@ -14,7 +14,7 @@ import { downloadBlob } from './download';
 import { defaultPosition } from './canvas/flow';
 import { freeSpot, type Box } from './canvas/geometry';
 import { NODE_H, variableWidth } from './canvas/VariableNode';
-import { labelOf } from '../present/index';
+import { fixedText, labelOf } from '../present/index';
 
 const model = () => selectModel(documentStore.getState());
 
@@ -176,7 +176,7 @@ export function openExample(id: string): boolean {
 
 export async function openFile(file: File): Promise<boolean> {
   if (file.size > MAX_FILE_BYTES) {
-    showNotice({ tone: 'error', title: `"${file.name}" could not be opened; your current model is unchanged`, lines: [`(file): is ${(file.size / 1024 / 1024).toFixed(1)} MB, larger than the ${MAX_FILE_BYTES / 1024 / 1024} MB a model file may have`] });
+    showNotice({ tone: 'error', title: `"${file.name}" could not be opened; your current model is unchanged`, lines: [`(file): is ${fixedText(file.size / 1024 / 1024, 1)} MB, larger than the ${MAX_FILE_BYTES / 1024 / 1024} MB a model file may have`] });
     return false;
   }
   let text: string;

@@ -5,7 +5,7 @@
  * (Escape, a Close button, or the layer taken away) the focus goes back to the control
  * that opened it.
  */
-import { useLayoutEffect, type RefObject } from 'react';
+import { useEffect, useLayoutEffect, type RefObject } from 'react';
 
 const FOCUSABLE = 'button, [href], input:not([type=hidden]), select, textarea, summary, [tabindex]:not([tabindex="-1"])';
 
@@ -55,5 +55,16 @@ export function useModalFocus(ref: RefObject<HTMLElement | null>, open: boolean)
         if (back?.isConnected && (!now || now === document.body || !root.isConnected || root.contains(now))) back.focus();
       }, 0);
     };
+  }, [open, ref]);
+}
+
+/** A native dialog shown as a modal while `open` and closed when not, with the keyboard behaviour of `useModalFocus`. */
+export function useModalDialog(ref: RefObject<HTMLDialogElement | null>, open: boolean): void {
+  useModalFocus(ref, open);
+  useEffect(() => {
+    const d = ref.current;
+    if (!d) return;
+    if (open && !d.open) d.showModal();
+    if (!open && d.open) d.close();
   }, [open, ref]);
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatNumber, MINUS, numText, quantityText, weightText } from '../../src/present/numbers';
+import { fixedText, formatNumber, MINUS, numText, precisionText, quantityText, rounded, significant, weightText } from '../../src/present/numbers';
 import { labelOf, labeller, unitOf } from '../../src/present/labels';
 import { emptyModel } from '../../src/state/changes';
 
@@ -28,6 +28,26 @@ describe('numbers as people read them', () => {
   });
   it('tick labels drop the plus of the exponent', () => {
     expect(formatNumber(2e5, { digits: 4, exponentDigits: 0, large: 1e5, exponentPlus: false })).toBe('2e5');
+  });
+  // ECMA-262, Number.prototype.toFixed / toPrecision: fixed places and significant digits, trailing
+  // zeros kept, exponent form when the exponent is below -6 or not below the digits asked for.
+  it('fixed places and significant digits as the language defines them, with one minus sign', () => {
+    expect(fixedText(7, 1)).toBe('7.0');
+    expect(fixedText(-0.5, 2)).toBe(`${MINUS}0.50`);
+    expect(fixedText(-0.5, 2, { ascii: true })).toBe('-0.50');
+    expect(fixedText(1234.5678, 3)).toBe('1234.568');
+    expect(precisionText(0, 3)).toBe('0.00');
+    expect(precisionText(-1.234e-8, 3)).toBe(`${MINUS}1.23e${MINUS}8`);
+    expect(precisionText(123456, 2, { ascii: true })).toBe('1.2e+5');
+    expect(fixedText(NaN, 1)).toBe('not a number');
+    expect(precisionText(Infinity, 3, { ascii: true })).toBe('Infinity');
+  });
+  it('rounding that stays a number drops floating-point noise', () => {
+    expect(significant(0.1 + 0.2, 3)).toBe(0.3);
+    expect(significant(-123456, 2)).toBe(-120000);
+    expect(significant(0.000123456, 3)).toBe(0.000123);
+    expect(rounded(25.4049, 2)).toBe(25.4);
+    expect(rounded(1.005 * 1000, 1)).toBe(1005);
   });
   it('numbers with units: time units take their plural', () => {
     expect(quantityText(20.04, 'day', { digits: 3 })).toBe('20 days');

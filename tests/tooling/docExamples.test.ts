@@ -14,8 +14,6 @@ import vm from 'node:vm';
 import { describe, expect, it } from 'vitest';
 
 const ROOT = join(__dirname, '..', '..');
-// changed in parallel elsewhere: left out of this list
-const EXCLUDED = new Set(['src/core/stats/random.ts', 'src/core/study/rng.ts']);
 
 function sources(dir: string): string[] {
   return readdirSync(dir).flatMap((f) => {
@@ -146,7 +144,7 @@ export function calledNames(code: string): string[] {
   return [...new Set(called.filter((n) => !local.has(n) && !GLOBALS.has(n) && !KEYWORDS.has(n)))];
 }
 
-const files = [...sources(join(ROOT, 'src/core')), ...sources(join(ROOT, 'src/present'))].filter((f) => !EXCLUDED.has(f)).sort();
+const files = [...sources(join(ROOT, 'src/core')), ...sources(join(ROOT, 'src/present'))].sort();
 const examples = files.flatMap((f) => examplesOf(f, readFileSync(join(ROOT, f), 'utf8')));
 
 describe('the reader of doc examples', () => {

@@ -13,6 +13,7 @@ export const CROSS_CUTTING: Record<string, string> = {
   'tests/tooling/mirror.test.ts': 'checks where the test files stand',
   'tests/tooling/wall.test.ts': 'probes the lint zones and the core tsconfig, which are configuration',
   'tests/tooling/docExamples.test.ts': 'runs the Example: comments of every core and presentation file',
+  'tests/tooling/docPaths.test.ts': 'checks that the paths DEVELOPERS.md and docs/dev name exist, which are prose',
   'tests/tooling/benchUndersample.test.ts': 'checks the bench script bench/undersample.ts, which stands outside src/',
 };
 

@@ -49,6 +49,16 @@ describe('the lint zones of the layers', () => {
     expect(await violations('src/theme/probe.ts', "export const c = '#c77d0a';")).toEqual([]);
   });
 
+  it('numbers and variable names are written by src/present/ only', async () => {
+    expect(await violations('src/ui/canvas/probe.tsx', 'export const f = (x: number) => x.toFixed(2);')).toContain('no-restricted-properties');
+    expect(await violations('src/core/numeric/probe.ts', 'export const f = (x: number) => Number(x.toPrecision(3));')).toContain('no-restricted-properties');
+    expect(await violations('src/present/probe.ts', 'export const f = (x: number) => x.toFixed(2);')).toEqual([]);
+    const byHand = "import type { Model } from '../../core/model/types';\nexport const f = (m: Model, id: string) => m.variables.find((v) => v.id === id)?.label ?? id;";
+    expect(await violations('src/ui/canvas/probe.tsx', byHand)).toContain('no-restricted-syntax');
+    expect(await violations('src/export/probe.ts', byHand.replace('../../', '../').replace('?? id', '|| id'))).toContain('no-restricted-syntax');
+    expect(await violations('src/ui/canvas/probe.tsx', "import type { Model } from '../../core/model/types';\nimport { labelOf } from '../../present/index';\nexport const f = (m: Model, id: string) => labelOf(m, id);")).toEqual([]);
+  });
+
   it('approximate checks go through the tolerance helper', async () => {
     expect(await violations('tests/core/probe.test.ts', "import { expect } from 'vitest';\nexpect(0.1 + 0.2).toBeCloseTo(0.3);")).toContain('no-restricted-syntax');
   });

@@ -15,6 +15,7 @@
  */
 import { dirname, isAbsolute, join } from 'node:path';
 import { CliError, type CliCommand, type CliIO } from './types';
+import { fixedText } from '../../present/index';
 
 /** Options that name files, resolved against the batch file's folder. */
 const FILE_OPTIONS = new Set(['out', 'svg', 'trajectory', 'bands-csv', 'breakpoints-csv']);
@@ -127,7 +128,7 @@ export function batchCommand(run: (argv: string[], io: CliIO) => Promise<number>
         }
         worst = Math.max(worst, code);
       }
-      io.err(`batch: ${planned.length} jobs in ${((Date.now() - t0) / 1000).toFixed(1)} s${worst ? ', some failed' : ''}`);
+      io.err(`batch: ${planned.length} jobs in ${fixedText((Date.now() - t0) / 1000, 1)} s${worst ? ', some failed' : ''}`);
       return worst;
     },
   };

@@ -13,7 +13,7 @@ import { bandsCsv, breakpointsCsv, trajectoriesCsv } from '../../report/tables';
 import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis } from '../../core/study/convert';
-import { formatNumber, labeller } from '../../present/index';
+import { formatNumber, labeller, significant } from '../../present/index';
 
 /** `x=3,y=0.5` → { x: 3, y: 0.5 }, checking each variable and value. */
 export function parseHoldOption(text: string | true | undefined, model: Model): Record<string, number> {
@@ -150,7 +150,7 @@ export const interventionCommands: CliCommand[] = [
         if (!checks) return '';
         const c = checks[i];
         if (c.message) return ` (not confirmed by simulation: ${c.message})`;
-        return c.confirmed ? ` (simulated step: moves by up to ${Number(c.maxDeviation.toPrecision(3))}, returns to ${Number(c.before.toPrecision(4))})` : ' (the simulated step did NOT confirm it)';
+        return c.confirmed ? ` (simulated step: moves by up to ${significant(c.maxDeviation, 3)}, returns to ${significant(c.before, 4)})` : ' (the simulated step did NOT confirm it)';
       };
       if (r.adapted.length === 0) io.out(`${model.name}: no variable perfectly adapts to an input`);
       else io.out([`${model.name}: perfect adaptation (the variable answers a lasting change of the input for a while, then returns):`, ...r.adapted.map((a, i) => `  ${label(a.variable)} adapts to ${label(a.input)}${note(i)}`)].join('\n'));

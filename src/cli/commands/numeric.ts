@@ -1,21 +1,16 @@
 import type { Model } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
 import { sampledAt, simulate, solveEquilibrium, timescalesAt, toRows, type Mat } from '../../core/numeric/index';
-import type { Diagnostic } from '../../core/ordering/types';
 import { laggedNetwork, sameIntervalNetwork, simulationChart } from '../../export/charts';
 import { sampledOf } from '../../core/numeric/answers';
 import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from '../figure';
 import { durationOption, loadModel } from '../load';
-import { designFromArgs } from './ordering';
+import { designFromArgs, diagnosticsSection } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { formatNumber, labelOf, simulationCsv } from '../../present/index';
 
 /** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
 const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
-
-function diagnosticLines(ds: Diagnostic[]): string[] {
-  return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
-}
 
 function matrixText(m: Mat, names: string[]): string[] {
   const rows = toRows(m);
@@ -66,8 +61,7 @@ export const numericCommands: CliCommand[] = [
       else {
         const lines = [`${model.name}: equilibrium${r.ok ? '' : ' (not found for every block)'}`, ''];
         for (const v of model.variables) lines.push(`  ${labelOf(model, v.id).padEnd(24)} ${num(r.values[v.id]).padStart(14)}   ${v.kind}`);
-        if (r.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(r.diagnostics));
-        io.out(lines.join('\n'));
+        io.out([...lines, ...diagnosticsSection(r.diagnostics)].join('\n'));
       }
       return r.ok ? 0 : 1;
     },
@@ -108,8 +102,7 @@ export const numericCommands: CliCommand[] = [
         const step = Math.max(1, Math.ceil(r.times.length / 25));
         for (let k = 0; k < r.times.length; k += step) lines.push(`  ${num(r.times[k]).padStart(w)} ${ids.map((id) => num(r.series[id][k]).padStart(w)).join(' ')}`);
         if (step > 1) lines.push(`  (every ${step}th of ${r.times.length} rows; use --csv or --json for all)`);
-        if (r.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(r.diagnostics));
-        io.out(lines.join('\n'));
+        io.out([...lines, ...diagnosticsSection(r.diagnostics)].join('\n'));
       }
       return r.ok ? 0 : 1;
     },

@@ -7,7 +7,7 @@ import { durationOption, loadModel } from '../load';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { designAxis, windowOf } from '../../core/study/convert';
 import { uncertainOrdering, uncertainText } from './pictures';
-import { labeller } from '../../present/index';
+import { labeller, significant } from '../../present/index';
 
 /** Study design from --interval, --window, --samples and --hold; each one absent comes from the file's study (the length through the core). */
 export function designFromArgs(args: CliArgs, model: Model): StudyDesign {
@@ -51,8 +51,14 @@ function describeDesign(model: Model, design: StudyDesign): string {
   return `sampling every ${formatDuration(design.interval, u)}, over a study of ${formatDuration(window, u)}`;
 }
 
-function diagnosticLines(ds: Diagnostic[]): string[] {
+/** Diagnostics as table lines: level, then the message. */
+export function diagnosticLines(ds: Diagnostic[]): string[] {
   return ds.map((d) => `  ${d.level === 'error' ? 'error  ' : 'warning'}  ${d.message}`);
+}
+
+/** The closing section of a text report: a blank line, "diagnostics:" and their lines; nothing when there are none. */
+export function diagnosticsSection(ds: Diagnostic[]): string[] {
+  return ds.length > 0 ? ['', 'diagnostics:', ...diagnosticLines(ds)] : [];
 }
 
 /** Readable text for `order` without --json. */
@@ -71,8 +77,7 @@ export function orderingText(model: Model, design: StudyDesign, o: Ordering): st
   for (const e of within) lines.push(`  ${label(e.from)} ${e.simultaneous ? '<->' : '->'} ${label(e.to)}`);
   lines.push('', `across time, lagged (${across.length}):`);
   for (const e of across) lines.push(`  ${label(e.from)} => ${label(e.to)}`);
-  if (o.diagnostics.length > 0) lines.push('', 'diagnostics:', ...diagnosticLines(o.diagnostics));
-  return lines.join('\n');
+  return [...lines, ...diagnosticsSection(o.diagnostics)].join('\n');
 }
 
 const designOptions = { interval: true, window: true, samples: true, hold: true, json: false };
@@ -129,7 +134,7 @@ export const orderingCommands: CliCommand[] = [
       }
       const lines = [`${model.name}: the ordering changes at ${bps.length} interval(s)`];
       for (const b of bps) {
-        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${Number(b.interval.toPrecision(6))} ${model.timeUnit}):`);
+        lines.push(`  every ${formatDuration(b.interval, model.timeUnit)} (${significant(b.interval, 6)} ${model.timeUnit}):`);
         for (const c of b.changes) lines.push(`    ${c.reason}`);
       }
       io.out(lines.join('\n'));

@@ -36,9 +36,8 @@ import type { EquationId, VariableId } from '../model/types';
 import type { Diagnostic, Ordering, OrderingEdge, Role } from '../ordering/types';
 import { equationId } from '../ordering/types';
 import { cloneStructure, compareIds, stateOfDerivative, type EquationStructure } from '../ordering/structure';
-import { equilibrateAll, exogenize, hold, type StructureChange } from '../ordering/operators';
+import { equilibrateAll, exogenize, hold, removableEquations, type StructureChange } from '../ordering/operators';
 import { listNames, orderStructure } from '../ordering/order';
-import { bipartiteFromLists, hopcroftKarp } from '../ordering/matching';
 
 /** Which states settle and which freeze at the interval under study (held variables are skipped). */
 export interface SettlePlan {
@@ -152,13 +151,7 @@ export function pairedEquation(s: EquationStructure, v: VariableId): { equation:
     return { equation: eq, candidates: containing.length > 0 ? containing : eq ? [eq] : [] };
   }
   // In a simultaneous block: equations whose removal leaves the rest of the block able to fix the rest of its variables.
-  const rest = block.variables.filter((x) => x !== v);
-  const col = new Map(rest.map((x, i) => [x, i]));
-  const candidates = containing.filter((drop) => {
-    const lists = block.equations.filter((e) => e !== drop).map((e) => eqVars.get(e)!.filter((x) => col.has(x)).map((x) => col.get(x)!));
-    return hopcroftKarp(bipartiteFromLists(rest.length, lists)).size === rest.length;
-  });
-  const pool = candidates.length > 0 ? candidates : containing;
+  const pool = removableEquations(block, v, containing, eqVars);
   const eq = paired !== null && pool.includes(paired) ? paired : (pool[0] ?? null);
   return { equation: eq, candidates: pool };
 }

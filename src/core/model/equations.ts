@@ -73,6 +73,14 @@ export function buildStructure(model: Model): ModelStructure {
     return parsed.symbols.filter((s) => known.has(s));
   };
 
+  /** The names a written formula or rate uses; null when there is none, or (with a note) when it cannot be read and the links stand in. */
+  const written = (text: string | undefined, id: VariableId, eq: EquationId, what: 'formula' | 'rate'): string[] | null => {
+    if (text === undefined) return null;
+    const symbols = symbolsOf(text, id, eq, `the ${what} of ${id}`);
+    if (symbols === null) warn('formula-ignored', `until the ${what} of ${id} is fixed, its links are used instead`, [id], [eq]);
+    return symbols;
+  };
+
   for (const v of [...model.variables].sort((a, b) => compareIds(a.id, b.id))) {
     const links = incoming.get(v.id) ?? [];
     if (v.kind === 'input') {
@@ -83,11 +91,7 @@ export function buildStructure(model: Model): ModelStructure {
     }
     if (v.kind === 'derived') {
       const eq = equationId.formula(v.id);
-      let symbols: string[] | null = null;
-      if (v.formula !== undefined) {
-        symbols = symbolsOf(v.formula, v.id, eq, `the formula of ${v.id}`);
-        if (symbols === null) warn('formula-ignored', `until the formula of ${v.id} is fixed, its links are used instead`, [v.id], [eq]);
-      }
+      const symbols = written(v.formula, v.id, eq, 'formula');
       const inst = links.filter((l) => l.kind === 'instantaneous');
       const integ = links.filter((l) => l.kind === 'integrating');
       if (symbols !== null) {
@@ -116,11 +120,7 @@ export function buildStructure(model: Model): ModelStructure {
     const d = derivativeOf(v.id);
     exogenous.push(v.id);
     derivatives[v.id] = eq;
-    let symbols: string[] | null = null;
-    if (v.rate !== undefined) {
-      symbols = symbolsOf(v.rate, v.id, eq, `the rate of ${v.id}`);
-      if (symbols === null) warn('formula-ignored', `until the rate of ${v.id} is fixed, its links are used instead`, [v.id], [eq]);
-    }
+    const symbols = written(v.rate, v.id, eq, 'rate');
     const inst = links.filter((l) => l.kind === 'instantaneous');
     const integ = links.filter((l) => l.kind === 'integrating');
     for (const l of inst)

@@ -1,5 +1,5 @@
 import { TIME_UNITS, type TimeUnit } from './types';
-import { timeUnitWord } from '../../present/numbers';
+import { significant, timeUnitWord } from '../../present/numbers';
 
 /** Length of each time unit in seconds (month = 1/12 of a Julian year of 365.25 days: common practice). */
 export const SECONDS_PER_UNIT: Record<TimeUnit, number> = {
@@ -61,7 +61,7 @@ export function convertDuration(value: number, from: TimeUnit, to: TimeUnit): nu
 export function formatDuration(value: number, unit: TimeUnit): string {
   const seconds = value * SECONDS_PER_UNIT[unit];
   // Below a second: milliseconds with three significant digits (never "0 s").
-  if (seconds > 0 && seconds < 0.9995) return `${Number((seconds * 1000).toPrecision(3))} ms`;
+  if (seconds > 0 && seconds < 0.9995) return `${significant(seconds * 1000, 3)} ms`;
   const order: TimeUnit[] = ['year', 'month', 'week', 'day', 'h', 'min', 's'];
   let chosen: TimeUnit = 's';
   for (const u of order) {

@@ -8,6 +8,7 @@ import { orderingAt } from '../ordering/index';
 import type { Diagnostic } from '../ordering/types';
 import { blockRank, prepareBlock, solveBlock, type BlockOutcome } from './blocks';
 import { buildNumericSystem, systemError, type NumericSystem } from './system';
+import { precisionText } from '../../present/numbers';
 
 export interface EquilibriumResult {
   ok: boolean;
@@ -109,7 +110,7 @@ export function solveEquilibrium(model: Model, options: { hold?: Record<Variable
       diagnostics.push({
         level: 'error',
         code: `equilibrium-${outcome.status}`,
-        message: `no equilibrium found for ${where}: ${why[outcome.status]} (remaining residual ${outcome.residual.toPrecision(3)}); values shown are the closest found`,
+        message: `no equilibrium found for ${where}: ${why[outcome.status]} (remaining residual ${precisionText(outcome.residual, 3)}); values shown are the closest found`,
         variables: block.variables,
         equations: eqs,
       });

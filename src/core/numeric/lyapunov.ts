@@ -15,6 +15,7 @@
 import { axpby, eigenvalues, luFactor, luSolve, mul, mulT, normMax, symmetrize, transpose, zeros, type Mat } from './dense';
 import { vanLoan } from './expm';
 import { realSchur } from './schur';
+import { precisionText } from '../../present/numbers';
 
 export const KRONECKER_MAX = 10;
 
@@ -35,7 +36,7 @@ export function lyapunov(a: Mat, c: Mat): LyapunovResult {
   if (unstable.length > 0)
     return {
       ok: false,
-      reason: `the drift matrix has ${unstable.length} eigenvalue${unstable.length > 1 ? 's' : ''} with non-negative real part (largest ${Math.max(...unstable.map((u) => u.re)).toPrecision(3)}): the process is not stable, so it has no stationary covariance`,
+      reason: `the drift matrix has ${unstable.length} eigenvalue${unstable.length > 1 ? 's' : ''} with non-negative real part (largest ${precisionText(Math.max(...unstable.map((u) => u.re)), 3)}): the process is not stable, so it has no stationary covariance`,
       unstable,
     };
   if (n <= KRONECKER_MAX) {

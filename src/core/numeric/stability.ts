@@ -13,6 +13,8 @@ import { linkCounts, linkStrengths, signedStrength } from '../model/strength';
 import type { Mat } from './dense';
 import { timescalesOf, type Mode, type TimescaleReport } from './timescales';
 import { driftAtEquilibrium } from './index';
+import { significant } from '../../present/numbers';
+import { labeller } from '../../present/labels';
 
 export interface GrowingMode {
   /** Re λ > 0, per model time unit. */
@@ -48,7 +50,7 @@ export function growingModes(a: Mat, states: VariableId[], report?: TimescaleRep
 }
 
 function fmt(x: number): string {
-  return Number(x.toPrecision(3)).toString();
+  return String(significant(x, 3));
 }
 
 /** A loop of the sketch and the product of its strengths. */
@@ -97,10 +99,6 @@ export function loopsThrough(model: Model, through: readonly VariableId[], maxLe
   return loops;
 }
 
-function labelOf(model: Model): (id: VariableId) => string {
-  const labels = new Map(model.variables.map((v) => [v.id, v.label || v.id]));
-  return (id) => labels.get(id) ?? id;
-}
 
 function list(items: string[]): string {
   return items.length <= 1 ? items.join('') : `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
@@ -116,7 +114,7 @@ function selfRegulated(model: Model, state: VariableId): boolean {
 }
 
 export function growingModeMessage(model: Model, mode: GrowingMode): string {
-  const label = labelOf(model);
+  const label = labeller(model);
   const u = model.timeUnit;
   const carriers = mode.carriers.map((c) => `${label(c.state)} (${Math.round(c.share * 100)} %)`);
   const osc = mode.im > 0 ? `, swinging with a period of ${formatDuration((2 * Math.PI) / mode.im, u)}` : '';
@@ -199,7 +197,7 @@ function dynamicsChecks(model: Model): Diagnostic[] {
   const out: Diagnostic[] = [];
   for (const m of growingModes(d.drift, d.states, report))
     out.push({ level: 'warning', code: 'growing-mode', message: growingModeMessage(model, m), variables: m.carriers.map((c) => c.state), equations: [] });
-  const label = labelOf(model);
+  const label = labeller(model);
   const u = model.timeUnit;
   for (const x of timescaleMismatches(model, report)) {
     const faster = x.derived < x.typed;

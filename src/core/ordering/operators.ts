@@ -127,15 +127,28 @@ function equationToDrop(s: EquationStructure, x: VariableId): { eq: EquationId |
   }
   const containing = block.equations.filter((e) => eqVars.get(e)!.includes(x));
   if (block.variables.length <= 1) return { eq: containing[0] ?? Object.keys(ordered.causal.matching).find((e) => ordered.causal.matching[e] === x) ?? null, upstream };
-  // Candidates: equations whose removal leaves the rest of the block able to determine the rest of its variables.
+  const pool = removableEquations(block, x, containing, eqVars);
+  return { eq: pool[0] ?? null, candidates: pool, upstream };
+}
+
+/**
+ * Of the equations of a simultaneous block that contain `x`, those whose removal leaves the rest
+ * of the block able to determine the rest of its variables (a complete matching remains); all of
+ * `containing` when none does.
+ */
+export function removableEquations(
+  block: { variables: VariableId[]; equations: EquationId[] },
+  x: VariableId,
+  containing: EquationId[],
+  eqVars: ReadonlyMap<EquationId, VariableId[]>,
+): EquationId[] {
   const rest = block.variables.filter((v) => v !== x);
   const col = new Map(rest.map((v, i) => [v, i]));
   const candidates = containing.filter((drop) => {
     const lists = block.equations.filter((e) => e !== drop).map((e) => eqVars.get(e)!.filter((v) => col.has(v)).map((v) => col.get(v)!));
     return hopcroftKarp(bipartiteFromLists(rest.length, lists)).size === rest.length;
   });
-  const pool = candidates.length > 0 ? candidates : containing;
-  return { eq: pool[0] ?? null, candidates: pool, upstream };
+  return candidates.length > 0 ? candidates : containing;
 }
 
 /** At most this many equations are tried as alternatives (each try is one ordering). */

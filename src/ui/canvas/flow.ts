@@ -8,6 +8,7 @@ import type { Change } from '../../state/changes';
 import type { Link, Model, Relation, Variable } from '../../core/model/types';
 import type { Role } from '../../core/ordering/types';
 import { symbolsOf } from '../../state/validate';
+import { labeller } from '../../present/index';
 
 export interface VariableNodeData extends Record<string, unknown> {
   variable: Variable;
@@ -99,11 +100,11 @@ export function linkAriaLabel(l: Link, name: (id: string) => string): string {
  * so the layer computes it once per edit, not once per pointer move.
  */
 export function canvasLines(model: Model): CanvasLines {
-  const names = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
-  const name = (id: string) => names.get(id) ?? id;
+  const name = labeller(model);
+  const ids = new Set(model.variables.map((v) => v.id));
   const links = model.links.map((link) => ({ id: link.id!, link, label: linkAriaLabel(link, name) }));
   const members: CanvasLines['members'] = [];
-  for (const r of model.relations ?? []) for (const s of symbolsOf(r.equation, true)) if (names.has(s)) members.push({ id: `member:${r.id}:${s}`, relation: r.id, variable: s });
+  for (const r of model.relations ?? []) for (const s of symbolsOf(r.equation, true)) if (ids.has(s)) members.push({ id: `member:${r.id}:${s}`, relation: r.id, variable: s });
   return { links, members };
 }
 

@@ -5,6 +5,7 @@
  */
 import { useModel } from '../../state/document';
 import { useAnalysisState } from '../../state/analysis';
+import { labelOf } from '../../present/index';
 
 export function useGrowingStates(): string[] | null {
   const diagnostics = useAnalysisState((s) => s.analysis?.ordering.diagnostics);
@@ -12,7 +13,7 @@ export function useGrowingStates(): string[] | null {
   const growing = (diagnostics ?? []).filter((d) => d.code === 'growing-mode');
   if (growing.length === 0) return null;
   const ids = [...new Set(growing.flatMap((d) => d.variables))];
-  return ids.map((id) => model.variables.find((v) => v.id === id)?.label || id);
+  return ids.map((id) => labelOf(model, id));
 }
 
 function names(list: string[]): string {

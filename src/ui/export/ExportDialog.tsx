@@ -14,7 +14,8 @@ import { downloadBlob } from '../download';
 import { svgPng } from '../figureFiles';
 import { cliArgs, commandText, pngPixels, printedFigure, printedSvg, type FigureSource } from './printFile';
 import './export.css';
-import { useModalFocus } from '../modal';
+import { useModalDialog } from '../modal';
+import { fixedText } from '../../present/index';
 
 type WidthChoice = 'column' | '1.5-column' | 'two-columns' | 'own' | 'length';
 const WIDTHS: { value: WidthChoice; text: string }[] = [
@@ -66,7 +67,7 @@ async function svgToPng(svg: string, size: { width: number; height: number }, dp
 
 export function ExportDialog({ what, name, modelFile, source, onClose }: ExportDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
-  useModalFocus(ref, true);
+  useModalDialog(ref, true);
   const id = useId();
   const [width, setWidth] = useState<WidthChoice>('column');
   const [length, setLength] = useState('120mm');
@@ -81,11 +82,6 @@ export function ExportDialog({ what, name, modelFile, source, onClose }: ExportD
   const [busy, setBusy] = useState(false);
   const [copied, setCopied] = useState(false);
   const [command, setCommand] = useState<string | null>(null);
-
-  useEffect(() => {
-    const d = ref.current;
-    if (d && !d.open) d.showModal();
-  }, []);
 
   const check = checked(width, length, font, palette, background, title, caption);
   const dpiValue = Number(dpi);
@@ -117,7 +113,7 @@ export function ExportDialog({ what, name, modelFile, source, onClose }: ExportD
       const svg = printedSvg(fig);
       if (format === 'svg') downloadBlob(new Blob([svg], { type: 'image/svg+xml' }), `${name}.svg`);
       else downloadBlob(await svgToPng(svg, pngPixels(fig, check.opts, dpiValue), dpiValue), `${name}.png`);
-      setStatus({ tone: 'note', lines: [`Saved ${name}.${format}; its smallest text is ${fig.smallestPt.toFixed(1)} pt.`, ...fig.notes.map((n) => `To fit: ${n}.`)] });
+      setStatus({ tone: 'note', lines: [`Saved ${name}.${format}; its smallest text is ${fixedText(fig.smallestPt, 1)} pt.`, ...fig.notes.map((n) => `To fit: ${n}.`)] });
     } catch (e) {
       setStatus({ tone: 'error', lines: [`The file could not be made: ${(e as Error).message ?? String(e)}`] });
     } finally {

@@ -17,6 +17,7 @@ import { svgDocument } from '../../export/svg';
 import { figureLayout } from '../../layout/figure';
 import { drawnPositions } from '../../layout/instant';
 import type { ElkRunner } from '../../layout/elk';
+import { rounded } from '../../present/index';
 
 /** What a figure is: a view (ordering, three instants, mechanism) or a chart built by `charts.ts`. */
 export type FigureSource =
@@ -71,7 +72,7 @@ const PRESET_ARG: Record<WidthPreset, string> = { column: 'column', 'column-and-
 
 function widthArg(w: PrintWidth): string {
   if ('px' in w) return `${w.px}px`;
-  return w.preset ? PRESET_ARG[w.preset] : `${Number(w.mm.toFixed(2))}mm`;
+  return w.preset ? PRESET_ARG[w.preset] : `${rounded(w.mm, 2)}mm`;
 }
 
 /** The print options as command-line arguments (the same parsers read them back). */

@@ -3,6 +3,7 @@ import type { Model } from '../../core/model/types';
 import { checkFormula, checkRelation, symbolsOf } from '../../state/validate';
 import { selectionStore } from '../../state/selection';
 import { finishKeys, useDraft } from './fields';
+import { labeller } from '../../present/index';
 
 interface Props {
   label: string;
@@ -30,7 +31,7 @@ export function ExpressionField({ label, value: stored, model, relation, placeho
   const blank = value.trim() === '';
   const error = blank ? null : relation ? checkRelation(value, model) : checkFormula(value, model);
   const symbols = error ? [] : symbolsOf(value, relation);
-  const names = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
+  const name = labeller(model);
   return (
     <div className="lf-field lf-expr">
       <label htmlFor={id}>{label}</label>
@@ -78,8 +79,8 @@ export function ExpressionField({ label, value: stored, model, relation, placeho
           <p className="lf-symbols">
             Uses:{' '}
             {symbols.map((s) => (
-              <button key={s} type="button" className="lf-linkish" onClick={() => selectionStore.getState().select({ nodes: [s] })} title={`Select ${names.get(s) ?? s}`}>
-                {names.get(s) ?? s}
+              <button key={s} type="button" className="lf-linkish" onClick={() => selectionStore.getState().select({ nodes: [s] })} title={`Select ${name(s)}`}>
+                {name(s)}
               </button>
             ))}
           </p>

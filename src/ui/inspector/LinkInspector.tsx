@@ -5,7 +5,7 @@ import { documentStore, editDocument } from '../../state/document';
 import { selectionStore } from '../../state/selection';
 import { DEFAULT_TOTAL_GAIN, linkCounts, linkStrengths, parseStrengthRangeText, strengthRangeText } from '../../core/model/strength';
 import { CheckedField, numberCheck, toNumber } from './fields';
-import { labeller } from '../../present/index';
+import { labeller, significant } from '../../present/index';
 
 /** What the strength is in the equations, its unit and the default when empty. */
 function strengthHint(link: Link, model: Model, name: (id: string) => string) {
@@ -18,7 +18,7 @@ function strengthHint(link: Link, model: Model, name: (id: string) => string) {
   const eq = to.kind === 'state'
     ? `d${t}/dt = (Σ strength × source − ${t}) / τ`
     : `${t} = Σ strength × source`;
-  const def = Number((DEFAULT_TOTAL_GAIN / s.sharedBy).toPrecision(3));
+  const def = significant(DEFAULT_TOTAL_GAIN / s.sharedBy, 3);
   return (
     <>
       The coefficient of {f} in {t}'s equation, <span className="lf-mono">{eq}</span>, with the sign above. No unit: the change in {t}{to.kind === 'state' ? '’s balance' : ''} per unit of {f}.
@@ -46,6 +46,13 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
     stop();
     editDocument({ type: 'updateLink', id: link.id!, patch });
   };
+  /** A field of the link that is a number or empty; typing in it is one undo step. */
+  const edited = (key: 'weight' | 'personSD' | 'strengthRange', text: (l: Link) => string, patch: (t: string) => Partial<Link> | null) => ({
+    value: text(link),
+    commit: (t: string) => { const p = patch(t); if (p) editDocument({ type: 'updateLink', id: link.id!, patch: p }, { squash: `${link.id}:${key}` }); },
+    onBlur: stop,
+  });
+  const optional = (x: number | undefined) => (x === undefined ? '' : String(x));
   return (
     <div className="lf-inspector-body">
       <p>
@@ -72,28 +79,22 @@ export function LinkInspector({ link, model }: { link: Link; model: Model }) {
       </fieldset>
       <CheckedField
         label="Strength (optional)"
-        value={link.weight === undefined ? '' : String(link.weight)}
+        {...edited('weight', (l) => optional(l.weight), (t) => ({ weight: toNumber(t) }))}
         check={numberCheck}
-        commit={(t) => editDocument({ type: 'updateLink', id: link.id!, patch: { weight: toNumber(t) } }, { squash: `${link.id}:weight` })}
-        onBlur={stop}
         hint={strengthHint(link, model, name)}
-        placeholder={`empty: ${Number((DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy).toPrecision(3))}`}
+        placeholder={`empty: ${significant(DEFAULT_TOTAL_GAIN / linkStrengths(model)[model.links.indexOf(link)].sharedBy, 3)}`}
       />
       <CheckedField
         label="Strength range (optional)"
-        value={strengthRangeText(link.strengthRange)}
+        {...edited('strengthRange', (l) => strengthRangeText(l.strengthRange), (t) => { const r = parseStrengthRangeText(t); return r.ok ? { strengthRange: r.value } : null; })}
         check={(t) => { const r = parseStrengthRangeText(t); return r.ok ? null : r.message; }}
-        commit={(t) => { const r = parseStrengthRangeText(t); if (r.ok) editDocument({ type: 'updateLink', id: link.id!, patch: { strengthRange: r.value } }, { squash: `${link.id}:strengthRange` }); }}
-        onBlur={stop}
         hint="When the strength is only roughly known: low..high, such as 0.2..0.9 (sizes; the sign above applies). The design advisor then reports how often its interval holds over strengths drawn from the range (loopfold advise --uncertain)."
         placeholder="e.g. 0.2..0.9"
       />
       <CheckedField
         label="Person SD of strength (optional)"
-        value={link.personSD === undefined ? '' : String(link.personSD)}
+        {...edited('personSD', (l) => optional(l.personSD), (t) => ({ personSD: toNumber(t) }))}
         check={personSdCheck}
-        commit={(t) => editDocument({ type: 'updateLink', id: link.id!, patch: { personSD: toNumber(t) } }, { squash: `${link.id}:personSD` })}
-        onBlur={stop}
         hint="How much this strength differs from person to person (a standard deviation, same scale as the strength). It moves each person’s balance point and so enters the covariance across persons in the Pictures tab; empty: the same for everyone."
         placeholder="empty: 0"
       />

@@ -10,7 +10,7 @@ import { idFromLabel, isGeneratedId, usedIds } from '../../state/changes';
 import { addLink } from '../actions';
 import { ExpressionField } from './ExpressionField';
 import { CheckedField, TextField, numberCheck, toNumber } from './fields';
-import { labeller } from '../../present/index';
+import { labeller, significant } from '../../present/index';
 
 const KINDS: { kind: VariableKind; name: string; text: string }[] = [
   { kind: 'input', name: 'Input', text: 'set from outside' },
@@ -190,7 +190,7 @@ function timescaleHint(v: Variable, model: Model): string {
   const d = readTimescale(v.timescale, model.timeUnit);
   if (!d.ok) return '';
   const words = formatDuration(d.point, model.timeUnit);
-  const inUnit = `${+d.point.toPrecision(4)} ${model.timeUnit}`;
+  const inUnit = `${significant(d.point, 4)} ${model.timeUnit}`;
   const point = words === inUnit ? `= ${words}` : `= ${words} (${inUnit})`;
   return d.uncertain ? `a range: ${formatDuration(d.low, model.timeUnit)} to ${formatDuration(d.high, model.timeUnit)}; single-value analyses use its geometric mean ${point.slice(2)}` : point;
 }

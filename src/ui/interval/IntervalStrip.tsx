@@ -17,6 +17,7 @@ import { breakpointRanges, type BreakpointRange } from '../../core/pictures/unce
 import { setIntervalDrag } from './dragging';
 import './interval.css';
 import { BREAKPOINT, TRACK_NOTCH } from '../../theme/tokens';
+import { labeller } from '../../present/index';
 
 /** The length of a model's own study, as the control reads it (the session's, once it has one). */
 function modelLength(model: Model): StudyLength {
@@ -140,7 +141,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
-  const labels = new Map(model.variables.map((v) => [v.id, v.label ?? v.id]));
+  const label = labeller(model);
   const edges = [range.min, ...cuts.map((c) => c.at).filter((c) => c > range.min && c < range.max), range.max];
   const X = (v: number) => Math.round(toPosition(range, v) * width * 10) / 10;
   let odd = '';
@@ -160,7 +161,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
             const x0 = X(Math.max(r.low, range.min)), x1 = X(Math.min(r.high, range.max));
             return (
               <rect key={`${r.variable}-${r.to}`} className="lf-bp-range" data-range={r.variable} x={x0} y={3} width={Math.max(1, x1 - x0)} height={TRACK_H - 6} fill={BREAKPOINT} fillOpacity={0.14} stroke={BREAKPOINT} strokeOpacity={0.5} strokeDasharray="3 2">
-                <title>{`${labels.get(r.variable) ?? r.variable} ${r.from === 'state' ? 'dynamic' : r.from} → ${r.to === 'state' ? 'dynamic' : r.to} somewhere from ${formatDuration(r.low, unit)} to ${formatDuration(r.high, unit)} (its timescale is a range; the tick is at the geometric mean)`}</title>
+                <title>{`${label(r.variable)} ${r.from === 'state' ? 'dynamic' : r.from} → ${r.to === 'state' ? 'dynamic' : r.to} somewhere from ${formatDuration(r.low, unit)} to ${formatDuration(r.high, unit)} (its timescale is a range; the tick is at the geometric mean)`}</title>
               </rect>
             );
           })}
@@ -171,7 +172,7 @@ const TrackMarks = memo(function TrackMarks({ cache, model, ranges }: { cache: B
             const x = X(b.interval);
             return (
               <path key={i} className="lf-tick" data-breakpoint={b.interval} d={`M${x},-5 V${TRACK_H + 5} M${x - 4},-8 H${x + 4} L${x},-2 Z`} stroke={BREAKPOINT} strokeWidth={2} fill={BREAKPOINT}>
-                <title>{`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${labels.get(c.variable) ?? c.variable} ${c.from} → ${c.to}`).join('; ')}`}</title>
+                <title>{`${formatDuration(b.interval, unit)}${b.exclusive ? ' (just above)' : ''}: ${b.changes.map((c) => `${label(c.variable)} ${c.from} → ${c.to}`).join('; ')}`}</title>
               </path>
             );
           })}

@@ -13,11 +13,11 @@ import { solveEquilibrium } from '../../core/numeric/equilibrium';
 import { useAnalysisState } from '../../state/analysis';
 import { useValidatedModel } from '../../state/document';
 import './interventions.css';
-import { formatNumber, labeller } from '../../present/index';
+import { formatNumber, labelOf, labeller } from '../../present/index';
 
 /** An equation id in the modeller's words: rate(x) → "the rate equation of X", a relation → its text. */
 export function equationWords(model: Model, id: string): string {
-  const label = (v: string) => model.variables.find((x) => x.id === v)?.label || v;
+  const label = (v: string) => labelOf(model, v);
   const m = /^(rate|formula|hold)\((.+)\)$/.exec(id);
   if (m) return m[1] === 'rate' ? `the rate equation of ${label(m[2])}` : m[1] === 'formula' ? `the formula of ${label(m[2])}` : `the hold on ${label(m[2])}`;
   const r = (model.relations ?? []).find((x) => x.id === id);
@@ -33,12 +33,12 @@ const PLAIN_WORDS = new Set('a an and any are as at be by each either equation f
 
 /** A core sentence with equation ids and variable ids put in words and labels. */
 export function inWords(model: Model, text: string): string {
-  const byId = new Map(model.variables.map((v) => [v.id, v.label || v.id]));
+  const name = labeller(model);
   const rel = new Set((model.relations ?? []).map((r) => r.id));
   return text
-    .replace(/d\(([A-Za-z_]\w*)\)\/dt/g, (_, v: string) => `the change of ${byId.get(v) ?? v}`)
+    .replace(/d\(([A-Za-z_]\w*)\)\/dt/g, (_, v: string) => `the change of ${name(v)}`)
     .replace(/\b(rate|formula|hold)\(([A-Za-z_]\w*)\)/g, (e: string) => equationWords(model, e))
-    .replace(/\b[A-Za-z_]\w*\b/g, (w) => (PLAIN_WORDS.has(w.toLowerCase()) ? w : rel.has(w) ? equationWords(model, w) : byId.get(w) ?? w));
+    .replace(/\b[A-Za-z_]\w*\b/g, (w) => (PLAIN_WORDS.has(w.toLowerCase()) ? w : rel.has(w) ? equationWords(model, w) : name(w)));
 }
 
 export function CommutationPanel() {

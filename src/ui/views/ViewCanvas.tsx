@@ -13,6 +13,7 @@ import type { Layout } from '../../layout/types';
 import { patchSvg, type SvgHost } from './svgPatch';
 import { contains, grown, visibleRect, type Area } from './inView';
 import { aboveInPane, fitScaleFor, roomIn, type Size } from './fit';
+import { fixedText } from '../../present/index';
 
 const ANIMATION_MS = 320;
 /** The tuned layout is asked for when the view has stayed this long (not for every band a drag passes). */
@@ -219,7 +220,7 @@ export const ViewCanvas = memo(function ViewCanvas({ vm, drawn, onToggleBlock, o
         <button type="button" aria-label="Zoom in" onClick={() => zoomBy(1.25)}>+</button>
         <button type="button" aria-label="1:1, actual size" title="Actual size: the exported file's own scale" aria-pressed={zoom === 1} onClick={() => setZoom(1)}>1:1</button>
       </div>
-      <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} data-scale={scale.toFixed(3)} data-fit={zoom === 'fit' ? 'true' : 'false'} onClick={onClick} />
+      <div ref={host} className="lf-view-canvas" aria-label={label} role="figure" data-layout={shown.source} data-pending={pending ? 'true' : 'false'} data-shown={tag} data-scale={fixedText(scale, 3, { ascii: true })} data-fit={zoom === 'fit' ? 'true' : 'false'} onClick={onClick} />
     </div>
   );
 });

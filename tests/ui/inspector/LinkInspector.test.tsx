@@ -91,3 +91,36 @@ describe('link inspector: person SD of the strength', () => {
     expect(personSdCheck('-1')).toMatch(/negative/);
   });
 });
+
+// The strength and its range share the person SD's way of storing (one helper in the inspector).
+describe('link inspector: strength and strength range', () => {
+  const field = (host: HTMLElement, text: string) => {
+    const label = [...host.querySelectorAll('label')].find((l) => l.textContent === text);
+    if (!label) throw new Error(`no field ${text}`);
+    return host.querySelector<HTMLInputElement>(`#${CSS.escape(label.htmlFor)}`)!;
+  };
+  const link = () => documentStore.getState().history.present.links[0];
+
+  it('the strength shows what the file holds and stores a new number on Enter, empty removes it', () => {
+    const { host } = setUp();
+    const input = field(host, 'Strength (optional)');
+    expect(input.value).toBe('0.4');
+    typeInto(input, '0.7');
+    key(input, 'Enter');
+    expect(link().weight).toBe(0.7);
+    typeInto(input, '');
+    leave(input);
+    expect(link().weight).toBeUndefined();
+  });
+
+  it('a range low..high is stored when the field is left; a bad range stores nothing', () => {
+    const { host } = setUp();
+    const input = field(host, 'Strength range (optional)');
+    typeInto(input, '0.2..0.9');
+    leave(input);
+    expect(link().strengthRange).toEqual({ low: 0.2, high: 0.9 });
+    typeInto(input, 'wide');
+    key(input, 'Enter');
+    expect(link().strengthRange).toEqual({ low: 0.2, high: 0.9 });
+  });
+});
