@@ -239,6 +239,45 @@ test.describe('accessibility (axe-core, WCAG 2.1 AA)', () => {
   });
 });
 
+test.describe('accessibility of the other tabs and of the modal layers (axe-core, WCAG 2.1 AA)', () => {
+  test('Pictures, Steps, Study, Data, Rehearse, the side-by-side pictures, Compare designs, the print options and the presentation have no violations', async ({ page }, testInfo) => {
+    test.setTimeout(420_000);
+    await page.goto('/?example=sleep-stress');
+    await expect(page.locator('.react-flow__node-variable')).toHaveCount(7);
+    const found: Record<string, string[]> = {};
+    for (const tab of ['Pictures', 'Steps', 'Study', 'Data', 'Rehearse']) {
+      await page.getByRole('tab', { name: tab }).click();
+      if (tab === 'Pictures') await expect(page.getByRole('button', { name: 'Side by side, full width' })).toBeEnabled({ timeout: 120_000 });
+      await page.waitForTimeout(800);
+      found[tab] = await axeViolations(page);
+      await shot(page, testInfo.outputPath(`axe-${tab}.png`));
+    }
+    await page.getByRole('tab', { name: 'Pictures' }).click();
+    await page.getByRole('button', { name: 'Side by side, full width' }).click();
+    await expect(page.getByRole('dialog', { name: 'The three pictures side by side' })).toBeVisible();
+    found['side by side'] = await axeViolations(page);
+    await page.keyboard.press('Escape');
+    await page.getByRole('tab', { name: 'Study' }).click();
+    await page.getByRole('button', { name: 'Compare designs…' }).click();
+    const compare = page.getByRole('dialog', { name: 'Compare designs' });
+    await expect(compare.locator('.lf-compare-estimated[data-status="done"]')).toHaveCount(3, { timeout: 120_000 });
+    found['compare designs'] = await axeViolations(page);
+    await shot(page, testInfo.outputPath('axe-compare.png'));
+    await page.keyboard.press('Escape');
+    await page.getByRole('tab', { name: 'Timescales' }).click();
+    await page.locator('.lf-timescale-bar [aria-expanded]').click();
+    await page.getByRole('button', { name: 'Print options…' }).click();
+    await expect(page.getByRole('dialog', { name: /for print/ })).toBeVisible();
+    found['print options'] = await axeViolations(page);
+    await page.keyboard.press('Escape');
+    await page.getByRole('button', { name: 'Present' }).click();
+    await expect(page.getByRole('dialog', { name: 'Presentation' }).locator('.lf-view-canvas')).toHaveAttribute('data-pending', 'false', { timeout: 60_000 });
+    found.presentation = await axeViolations(page);
+    await page.keyboard.press('Escape');
+    expect(found).toEqual({ Pictures: [], Steps: [], Study: [], Data: [], Rehearse: [], 'side by side': [], 'compare designs': [], 'print options': [], presentation: [] });
+  });
+});
+
 test.describe('keyboard access to the canvas', () => {
   test('select a variable, move it with the arrows, add a link from the inspector and pick a link, all from the keyboard', async ({ page }, testInfo) => {
     test.setTimeout(180_000);

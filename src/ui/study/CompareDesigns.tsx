@@ -129,11 +129,11 @@ function DesignRow({ model, s, design, index, onChange, onRemove }: { model: Mod
         <button
           type="button"
           disabled={inUse}
-          aria-label={`Use design ${n} (${text}) as the study`}
+          aria-label={inUse ? `Use design ${n}: in use (${text}, the study’s design)` : `Use design ${n} (${text}) as the study`}
           title={inUse ? 'The study uses this design' : 'Set the study’s schedule and interval to this design (undo brings back the one before)'}
           onClick={() => editStudy({ schedule: design.schedule, interval: design.interval })}
         >
-          {inUse ? 'the study’s design' : 'Use this design'}
+          {inUse ? `Use design ${n}: in use` : `Use design ${n}`}
         </button>
         {onRemove && <button type="button" aria-label={`Remove design ${n}`} onClick={onRemove}>Remove</button>}
       </div>
