@@ -247,6 +247,20 @@ test.describe('choosing an interval elsewhere sets the study', () => {
     await shot(page, testInfo.outputPath('22-curve-peak-used-1440.png'));
     await page.keyboard.press('Control+z');
     await expect.poll(interval).toBe('2.4 h');
+
+    // the interval advisor: its advised interval is offered too, and undo brings back the study's
+    const adv = page.locator('[data-section="advisor"]');
+    await adv.locator('input[data-link="stress>cortisol"]').check();
+    await adv.locator('input[data-link="cortisol>sleepDebt"]').check();
+    await expect(adv.getByRole('status')).toContainText('Best single interval', { timeout: 120_000 });
+    const advised = adv.locator('.lf-use-interval').first();
+    await expect(advised).toHaveAccessibleName(/\(the advised interval\) as the study interval$/);
+    const best = (await advised.getAttribute('data-interval'))!;
+    await advised.click();
+    expect(await interval()).toBe(best);
+    await expect(advised).toBeDisabled();
+    await page.keyboard.press('Control+z');
+    await expect.poll(interval).toBe('2.4 h');
     expect(errors).toEqual([]);
   });
 });
