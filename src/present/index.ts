@@ -5,6 +5,6 @@
  * command line and the app share it. Colours are tokens of src/theme/.
  */
 export { labelOf, labeller, unitOf } from './labels';
-export { fixedText, formatNumber, MINUS, numText, precisionText, rounded, significant, quantityText, timeUnitWord, weightText, type NumberStyle } from './numbers';
+export { fixedText, formatNumber, MINUS, numText, precisionText, rounded, significant, quantityText, tableText, timeUnitWord, weightText, type NumberStyle } from './numbers';
 export { csvField, defuseFormula, recordsToCsv, simulationCsv, toCsv, type CsvValue } from './csv';
 export { studyCsv, type LongStudy } from './studyCsv';

@@ -92,6 +92,11 @@ export function numText(x: number): string {
   return formatNumber(x, { exponentDigits: 3 });
 }
 
+/** Numbers in the command line's tables, which programs read too: six significant digits, exponent form with five below 0.001 and from a million on, hyphen-minus. Example: `tableText(-1.5e-7)` → "-1.5000e-7". */
+export function tableText(x: number): string {
+  return formatNumber(x, { exponentDigits: 4, ascii: true });
+}
+
 /** Path coefficients and edge weights: two decimals, two significant digits below 0.1 (common practice), exponent form below 0.001. Example: `weightText(-0.456)` → "−0.46". */
 export function weightText(x: number): string {
   const a = Math.abs(x);

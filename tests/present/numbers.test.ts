@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fixedText, formatNumber, MINUS, numText, precisionText, quantityText, rounded, significant, weightText } from '../../src/present/numbers';
+import { fixedText, formatNumber, MINUS, numText, precisionText, quantityText, rounded, significant, tableText, weightText } from '../../src/present/numbers';
 import { labelOf, labeller, unitOf } from '../../src/present/labels';
 import { emptyModel } from '../../src/state/changes';
 
@@ -24,6 +24,9 @@ describe('numbers as people read them', () => {
   it('ASCII for programs: hyphen-minus and JavaScript\'s words', () => {
     expect(formatNumber(-1.5e-7, { exponentDigits: 4, ascii: true })).toBe('-1.5000e-7');
     expect(formatNumber(-Infinity, { ascii: true })).toBe('-Infinity');
+    expect(tableText(-1.5e-7)).toBe('-1.5000e-7');
+    expect(tableText(2e7)).toBe('2.0000e+7');
+    expect(tableText(-0.25)).toBe('-0.25');
     expect(Number(formatNumber(-0.001234567, { exponentDigits: 4, ascii: true }))).toBe(-0.00123457);
   });
   it('tick labels drop the plus of the exponent', () => {

@@ -8,6 +8,7 @@
  * as `.ts`, `.tsx` or `/index.ts`, and a `*` in the last segment as a pattern.
  */
 import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { dirname, join, normalize, relative, resolve } from 'node:path';
 
@@ -66,7 +67,15 @@ export function resolves(path: string, noteDir: string, exists: (p: string) => b
 }
 
 const notes = ['DEVELOPERS.md', ...readdirSync(join(ROOT, 'docs/dev')).filter((f) => f.endsWith('.md')).sort().map((f) => `docs/dev/${f}`)];
-const topLevel = new Set(readdirSync(ROOT).filter((n) => n !== 'node_modules'));
+/** The repository's own top-level entries: what git tracks (a cache or build folder on this machine is not the tree). */
+function trackedTopLevel(): Set<string> {
+  try {
+    return new Set(execFileSync('git', ['ls-files'], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 }).split('\n').filter(Boolean).map((p) => p.split('/')[0]));
+  } catch {
+    return new Set(readdirSync(ROOT).filter((n) => !n.startsWith('.') && n !== 'node_modules' && n !== 'dist'));
+  }
+}
+const topLevel = trackedTopLevel();
 const onDisk = (p: string) => existsSync(join(ROOT, p));
 const listDir = (d: string) => readdirSync(join(ROOT, d));
 

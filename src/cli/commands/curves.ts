@@ -8,11 +8,11 @@ import { variableByIdOrLabel } from '../load';
 import { loadModel } from '../load';
 import { designFromArgs } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
-import { formatNumber } from '../../present/index';
+import { tableText } from '../../present/index';
 import { adviceUnderStrengthRanges } from '../../core/pictures/strengthRanges';
 
 /** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
-const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
+const num = tableText;
 
 function stringOption(args: CliArgs, name: string, example: string): string {
   const v = args.options[name];

@@ -7,10 +7,10 @@ import { figureOptions, figureOptionsOf, svgTarget, tableWanted, writeSvg } from
 import { durationOption, loadModel } from '../load';
 import { designFromArgs, diagnosticsSection } from './ordering';
 import { CliError, type CliArgs, type CliCommand } from './types';
-import { formatNumber, labelOf, simulationCsv } from '../../present/index';
+import { labelOf, simulationCsv, tableText } from '../../present/index';
 
 /** Six significant digits, exponent form outside [0.001, 10⁶), ASCII: scripts read these tables. */
-const num = (x: number) => formatNumber(x, { exponentDigits: 4, ascii: true });
+const num = tableText;
 
 function matrixText(m: Mat, names: string[]): string[] {
   const rows = toRows(m);
