@@ -13,7 +13,7 @@ import type { Model } from '../core/model/types';
 import { formatDuration } from '../core/model/units';
 import { stepInterval, type IntervalKey } from '../core/view/interval';
 import { useValidatedModel } from '../state/document';
-import { setStudyInterval, useSessionStudy, type StudyLength } from '../state/session';
+import { modelLength, setStudyInterval, useSessionStudy, type StudyLength } from '../state/session';
 import { useBandCache } from './views/bandCache';
 import { TimescalePaneFor } from './views/TimescalePane';
 import './presentation.css';
@@ -24,7 +24,6 @@ export const openPresentation = (): void => presentStore.setState({ open: true }
 export const closePresentation = (): void => presentStore.setState({ open: false });
 export const usePresenting = (): boolean => useStore(presentStore, (s) => s.open);
 
-const DEFAULT_LENGTH: StudyLength = { by: 'samples', samples: 50 };
 /** Keys that step the band, as the interval control's own band keys. */
 const STEP: Record<string, IntervalKey> = { ArrowRight: 'PageUp', ArrowUp: 'PageUp', PageUp: 'PageUp', ArrowLeft: 'PageDown', ArrowDown: 'PageDown', PageDown: 'PageDown', Home: 'Home', End: 'End' };
 
@@ -57,7 +56,8 @@ function PresentationFor({ model }: { model: Model | null }) {
   const root = useRef<HTMLDivElement>(null);
   useModalFocus(root, true);
   const session = useSessionStudy();
-  const length = session?.length ?? DEFAULT_LENGTH;
+  // without a checked model nothing is computed; the length then only fills the hook's argument
+  const length: StudyLength = session?.length ?? (model ? modelLength(model) : { by: 'samples', samples: 2 });
   const interval = session && Number.isFinite(session.interval) ? session.interval : null;
   const holds = session?.holds;
   const hold = holds && Object.keys(holds).length > 0 ? holds : undefined;

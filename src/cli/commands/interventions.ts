@@ -99,7 +99,7 @@ export const interventionCommands: CliCommand[] = [
   {
     name: 'commute',
     summary: 'does holding a variable commute with the settling at this interval?',
-    usage: 'MODEL.json --hold x=v[,y=w] --interval D [--window W | --samples N] [--json] [--until T] [--trajectory runs.csv]',
+    usage: 'MODEL.json --hold x=v[,y=w] [--interval D [--window W | --samples N]] [--json] [--until T] [--trajectory runs.csv]',
     options: { hold: true, interval: true, window: true, samples: true, json: false, until: true, trajectory: true },
     run(args, io) {
       const model = loadModel(args, io);

@@ -110,7 +110,7 @@ export const numericCommands: CliCommand[] = [
   {
     name: 'sampled',
     summary: 'the exact sampled model at an interval: lagged effects, innovations, stationary covariance; --out draws a network (.svg, .png, .pdf)',
-    usage: 'MODEL.json --interval D [--json] [--out FILE [--table] [--network lagged|same] [--standardized] [--window W | --samples N] [--caption]]',
+    usage: 'MODEL.json [--interval D] [--json] [--out FILE [--table] [--network lagged|same] [--standardized] [--window W | --samples N] [--caption]]',
     options: { interval: true, json: false, ...figureOptions, network: true, standardized: false, window: true, samples: true },
     async run(args, io) {
       const model = loadModel(args, io);

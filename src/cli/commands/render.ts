@@ -1,5 +1,5 @@
 /**
- * `loopfold render MODEL.json --interval D [--window W | --samples N] [--view …] [--caption] --out fig.svg`:
+ * `loopfold render MODEL.json [--interval D [--window W | --samples N]] [--view …] [--caption] --out fig.svg`:
  * the figure the app exports, from the same view model, the same layout
  * function and the same SVG renderer.
  */
@@ -100,7 +100,7 @@ function checkFoldKeys(keys: string[], model: Model, design: StudyDesign): void 
 export const renderCommand: CliCommand = {
   name: 'render',
   summary: 'write the figure of a view at a sampling interval as SVG, PNG or PDF (the same as the app exports)',
-  usage: 'MODEL.json --interval D [--window W | --samples N] [--view ordering|mechanism|unrolled] [--at D1,D2,… [--columns N]] [--focus x,y] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
+  usage: 'MODEL.json [--interval D [--window W | --samples N]] [--view ordering|mechanism|unrolled] [--at D1,D2,… [--columns N]] [--focus x,y] [--hold x=v] [--fold a+b,…] [--caption] [--width column|1.5-column|two-columns|120mm|800px] [--font-size PT] [--palette default|colour-blind|greyscale] [--background white|transparent|paper] [--no-title] [--caption-text TEXT] [--dpi N] [--text paths] --out fig.svg|fig.png|fig.pdf',
   options: { interval: true, window: true, samples: true, view: true, caption: false, fold: true, hold: true, at: true, columns: true, focus: true, ...PRINT_OPTIONS },
   async run(args, io) {
     const model = loadModel(args, io);

@@ -9,6 +9,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Model, Study, VariableId } from '../../core/model/types';
 import { exactDuration } from '../../core/study/convert';
+import { studyPrompts } from '../../core/study/schedule';
 import { formatDuration } from '../../core/model/units';
 import type { LinkOfInterest } from '../../core/rehearse/montecarlo';
 import type { AxisPlan, Budget, PlanResult } from '../../core/rehearse/plan';
@@ -242,7 +243,7 @@ function Advisor({ model, req, s, planned }: { model: Model; req: RehearseReques
   const unit = model.timeUnit;
   const [kind, setKind] = useState<Budget['kind']>('prompts');
   const prompts = planned && planned.ok ? planned.plannedPerPerson : null;
-  const span = s.length.by === 'window' ? s.length.window : (prompts ?? 50) * s.interval;
+  const span = s.length.by === 'window' ? s.length.window : (prompts ?? studyPrompts(s.study, unit)) * s.interval;
   const budget: Budget | null = kind === 'prompts' ? (prompts ? { kind: 'prompts', prompts: Math.max(3, prompts) } : null) : { kind: 'span', span };
   const a = useAnswer<Ok<AdvisorAnswer> | Failed | null>(() => (budget ? appRehearseClient().then((c) => c.advisor(req, budget)) : Promise.resolve(null)), [req, JSON.stringify(budget)]);
   const stem = fileStem(model.name);
