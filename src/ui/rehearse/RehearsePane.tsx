@@ -130,7 +130,7 @@ function Analytic({ a, name }: { a: Ok<AnalyticAnswer> | Failed | null; name: (l
               ))}
             </tbody>
           </table>
-          <p className="lf-hint">Bias of centring: with about {Math.round(a.answeredPerPerson)} occasions per person, removing each person's mean pulls the estimate down (about −(1+φ)/(T−1) for an autoregression); the expected estimate is what the analysis should give on average, to compare with the Monte Carlo mean below.</p>
+          <p className="lf-hint">Bias of centring: with about {Math.round(a.answeredPerPerson)} occasions per person, removing each person's mean shifts the estimate (an autoregression down, by about −(1+φ)/(T−1); a cross-lagged effect a little either way); the expected estimate is what the analysis should give on average, to compare with the Monte Carlo mean below.</p>
           {a.answeredPerPerson < ANALYTIC_OCCASIONS
             ? <p className="lf-rehearse-warn" role="note" data-testid="rehearse-short">Short series: about {Math.round(a.answeredPerPerson)} answered prompts per person, below about {ANALYTIC_OCCASIONS}. Here the analytic figure overstates power (it understates the SE, and its effect leaves out the bias of centring shown beside it): trust the Monte Carlo figure below.</p>
             : <p data-testid="rehearse-trust">{trustSentence(a.answeredPerPerson)}</p>}
