@@ -44,6 +44,7 @@ test('Rehearse tab: analytic power as the command line gives it, Monte Carlo run
   await expect(mc).toContainText('24 simulated studies');
   await expect(mc).toContainText('Expected (analytic)');
   await expect(page.getByTestId('rehearse-mc-trust')).toContainText('Which to trust');
+  await expect(page.getByLabel('Analysis of each simulated study')).toHaveValue('var');
   const p = Number(await mc.locator('tr[data-link="coping>stress"]').getAttribute('data-power'));
   expect(p).toBeGreaterThanOrEqual(0);
   expect(p).toBeLessThanOrEqual(1);
