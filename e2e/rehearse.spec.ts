@@ -17,7 +17,7 @@ async function axeViolations(page: Page): Promise<string[]> {
 
 test('Rehearse tab: analytic power as the command line gives it, Monte Carlo runs and stops on Cancel, no axe violations', async ({ page }, testInfo) => {
   test.setTimeout(180_000);
-  const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'power', 'src/examples/sleep-stress.json', '--link', 'coping->stress', '--json'], { encoding: 'utf8' })) as { links: { from: string; to: string; effect: number; se: number; power: number }[] };
+  const cli = JSON.parse(execFileSync('npm', ['run', '-s', 'loopfold', '--', 'power', 'src/examples/sleep-stress.json', '--link', 'coping->stress', '--json'], { encoding: 'utf8' })) as { links: { from: string; to: string; effect: number; se: number; power: number; centringBias: number; expectedEstimate: number }[] };
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
   await page.setViewportSize({ width: 1440, height: 900 });
@@ -27,10 +27,11 @@ test('Rehearse tab: analytic power as the command line gives it, Monte Carlo run
   const table = page.getByTestId('rehearse-analytic');
   await expect(table).toBeVisible({ timeout: 60_000 });
   const row = table.locator('tr[data-link="coping>stress"]');
-  for (const k of ['effect', 'se', 'power'] as const) {
-    const app = Number(await row.getAttribute(`data-${k}`));
+  for (const [attr, k] of [['effect', 'effect'], ['se', 'se'], ['power', 'power'], ['bias', 'centringBias'], ['expected', 'expectedEstimate']] as const) {
+    const app = Number(await row.getAttribute(`data-${attr}`));
     expect(Math.abs(app - cli.links[0][k])).toBeLessThan(1e-12 + 1e-9 * Math.abs(cli.links[0][k]));
   }
+  await expect(table).toContainText('Bias of centring');
   await expect(page.getByTestId('rehearse-short')).toContainText('Short series');
   await expect(page.getByTestId('rehearse-statement')).toContainText(/Recommended|No affordable design/);
   await expect(page.locator('svg[data-chart="power-curve"]').first()).toBeVisible();
@@ -41,6 +42,9 @@ test('Rehearse tab: analytic power as the command line gives it, Monte Carlo run
   const mc = page.getByTestId('rehearse-mc');
   await expect(mc).toBeVisible({ timeout: 120_000 });
   await expect(mc).toContainText('24 simulated studies');
+  await expect(mc).toContainText('Expected (analytic)');
+  await expect(page.getByTestId('rehearse-mc-trust')).toContainText('Which to trust');
+  await expect(page.getByLabel('Analysis of each simulated study')).toHaveValue('var');
   const p = Number(await mc.locator('tr[data-link="coping>stress"]').getAttribute('data-power'));
   expect(p).toBeGreaterThanOrEqual(0);
   expect(p).toBeLessThanOrEqual(1);
@@ -53,9 +57,25 @@ test('Rehearse tab: analytic power as the command line gives it, Monte Carlo run
   await page.getByRole('button', { name: 'Cancel' }).click();
   await expect(page.getByTestId('rehearse-mc-cancelled')).toBeVisible({ timeout: 15_000 });
 
+  const download = page.waitForEvent('download');
+  await page.getByRole('button', { name: 'Download a simulated study (CSV)' }).click();
+  await download;
+  await expect(page.getByTestId('rehearse-csv-message')).toContainText('exact discrete model');
+
   expect(await axeViolations(page)).toEqual([]);
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.getByTestId('rehearse-plan-interval').scrollIntoViewIfNeeded();
   await page.screenshot({ path: testInfo.outputPath('rehearse-1024.png') });
   expect(errors).toEqual([]);
+});
+
+test('Rehearse tab: a nonlinear model\'s simulated study is integrated by Euler–Maruyama and says so', async ({ page }) => {
+  test.setTimeout(120_000);
+  await page.setViewportSize({ width: 1440, height: 900 });
+  await page.goto('/?example=warehouse');
+  await page.getByRole('tab', { name: 'Rehearse' }).click();
+  const download = page.waitForEvent('download');
+  await page.getByRole('button', { name: 'Download a simulated study (CSV)' }).click();
+  await download;
+  await expect(page.getByTestId('rehearse-csv-message')).toContainText(/Euler–Maruyama on the model's own nonlinear rates, with steps of at most/, { timeout: 60_000 });
 });

@@ -19,6 +19,8 @@ export interface RehearseRequest {
   study: Study;
   links: LinkOfInterest[];
   seed?: number;
+  /** How Monte Carlo analyses each simulated study: the VAR (default) or the continuous-time fit. */
+  method?: 'var' | 'ct';
 }
 
 export type Failed = { ok: false; reason: string };
@@ -39,7 +41,7 @@ export interface AdvisorAnswer {
 }
 
 function rehearsal(req: RehearseRequest): Rehearsal {
-  return rehearsalOf({ ...req.model, study: req.study }, { links: req.links, ...(req.seed !== undefined ? { seed: req.seed } : {}) });
+  return rehearsalOf({ ...req.model, study: req.study }, { links: req.links, ...(req.seed !== undefined ? { seed: req.seed } : {}), ...(req.method ? { method: req.method } : {}) });
 }
 
 function guarded<T extends object>(f: () => T): Ok<T> | Failed {

@@ -40,11 +40,14 @@ function seedOption(args: CliArgs): number | undefined {
 function rehearsal(model: Model, args: CliArgs, withLinks: boolean): Rehearsal {
   try {
     const linkText = args.options.link;
+    const analysis = args.options.analysis ?? 'var';
+    if (analysis !== 'var' && analysis !== 'ct') throw new CliError(`--analysis: var or ct, not "${analysis === true ? '' : analysis}"`, 2);
     if (withLinks && (linkText === undefined || linkText === true)) throw new CliError('--link: name the link(s) to detect, e.g. --link stress->mood', 2);
     return rehearsalOf(model, {
       persons: wholeOption(args, 'persons', 1),
       seed: seedOption(args),
       links: withLinks && typeof linkText === 'string' ? linksOfText(model, linkText) : [],
+      method: analysis,
     });
   } catch (e) {
     if (e instanceof CliError) throw e;
@@ -62,7 +65,7 @@ function designOf(r: Rehearsal) {
 
 function powerText(model: Model, r: Rehearsal, res: PowerResult): string {
   const lines = [
-    `${model.name}: power of the planned study (${res.method === 'analytic' ? 'analytic, pooled VAR(1) limit with sandwich variance' : `Monte Carlo, ${res.replications} simulated studies analysed by the VAR fit`})`,
+    `${model.name}: power of the planned study (${res.method === 'analytic' ? 'analytic, pooled VAR(1) limit with sandwich variance' : `Monte Carlo, ${res.replications} simulated studies analysed by ${res.analysis === 'ct' ? 'the continuous-time fit (effects are drift entries, per unit of time)' : 'the VAR fit'}`})`,
     `  ${r.persons} persons, about ${Math.round(r.answeredPerPerson)} answered prompts each, α = ${r.alpha}`,
     '',
     `  ${'link'.padEnd(28)} ${'effect'.padStart(9)} ${'SE'.padStart(9)} ${'power'.padStart(7)}${res.method === 'montecarlo' ? ' ± MC error' : ` ${'centring'.padStart(9)} ${'expected'.padStart(9)}`}`,
@@ -152,12 +155,13 @@ export const rehearseCommands: CliCommand[] = [
   {
     name: 'power',
     summary: 'effect, standard error and power of each link for the file\'s study (analytic or Monte Carlo)',
-    usage: 'MODEL.json --link from->to[,from->to] [--persons N] [--method analytic|montecarlo] [--replications K] [--seed S] [--json]',
-    options: { link: true, persons: true, method: true, replications: true, seed: true, json: false },
+    usage: 'MODEL.json --link from->to[,from->to] [--persons N] [--method analytic|montecarlo] [--analysis var|ct] [--replications K] [--seed S] [--json]',
+    options: { link: true, persons: true, method: true, analysis: true, replications: true, seed: true, json: false },
     run(args, io) {
       const model = loadModel(args, io);
       const method = args.options.method ?? 'analytic';
       if (method !== 'analytic' && method !== 'montecarlo') throw new CliError(`--method: analytic or montecarlo, not "${method === true ? '' : method}"`, 2);
+      if (args.options.analysis === 'ct' && method !== 'montecarlo') throw new CliError('--analysis ct: the continuous-time analysis is rehearsed by Monte Carlo only (add --method montecarlo); the analytic figure is for the VAR', 2);
       const r = rehearsal(model, args, true);
       let res: PowerResult;
       try {
@@ -176,7 +180,7 @@ export const rehearseCommands: CliCommand[] = [
         throw new CliError((e as Error).message);
       }
       if (args.options.json)
-        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, trust: trustSentence(r.answeredPerPerson), ...(res.note ? { note: res.note } : {}) }, null, 2));
+        io.out(JSON.stringify({ design: { ...designOf(r), method: res.method, ...(res.analysis ? { analysis: res.analysis } : {}), ...(res.replications !== undefined ? { replications: res.replications, failed: res.failed } : {}) }, links: res.links, trust: trustSentence(r.answeredPerPerson), ...(res.note ? { note: res.note } : {}) }, null, 2));
       else io.out(powerText(model, r, res));
       return 0;
     },

@@ -8,6 +8,7 @@
  */
 import type { TimeUnit, VariableId } from '../model/types';
 import { fitVar, type VarOptions } from '../fit/var';
+import { fitCt } from '../fit/ct';
 import { seededRandom, type Random } from '../stats/random';
 import { normalQuantile } from '../stats/normal';
 import { simulatePanel, type PersonPrompts } from './simulate';
@@ -27,6 +28,12 @@ export interface RehearsalSetup {
   timeUnit: TimeUnit;
   links: LinkOfInterest[];
   analysis: VarOptions;
+  /**
+   * How each simulated study is analysed, as the Data pane would: 'var' (default) the lagged
+   * effect of the first-order VAR; 'ct' the drift entry (effect on the rate) of the
+   * continuous-time fit by maximum likelihood, with its standard error.
+   */
+  method?: 'var' | 'ct';
   alpha: number;
   seed: number;
 }
@@ -79,17 +86,24 @@ export function runReplications(setup: RehearsalSetup, from: number, to: number,
     const persons = prompts.map(() => drawPerson(setup.process, people));
     const panel = simulatePanel((p) => persons[p], prompts, { states, errorVariance: setup.errorVariance, timeUnit: setup.timeUnit }, rng.fork(2));
     tally.replications++;
-    let fit;
+    let est: number[][], se: number[][];
     try {
-      fit = fitVar(panel, setup.analysis);
+      if (setup.method === 'ct') {
+        const fit = fitCt(panel, { states });
+        est = fit.drift;
+        se = fit.se.drift;
+      } else {
+        const fit = fitVar(panel, setup.analysis);
+        est = fit.phi;
+        se = fit.se.phiCluster ?? fit.se.phi;
+      }
     } catch (e) {
       tally.failed++;
       tally.failure ??= e instanceof Error ? e.message : String(e);
       continue;
     }
-    const se = fit.se.phiCluster ?? fit.se.phi;
     idx.forEach(([i, j], k) => {
-      const b = fit.phi[i][j], s = se[i][j];
+      const b = est[i][j], s = se[i][j];
       const t = tally.links[k];
       t.sum += b;
       t.sumSq += b * b;

@@ -88,7 +88,7 @@ export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; 
   const budgetText = budget.kind === 'prompts' ? `${budget.prompts} prompts per person` : `a span of ${fmt(budget.span)}`;
   let statement: string;
   if (recommended) {
-    statement = `Recommended: one prompt every ${fmt(recommended.interval)}, ${recommended.prompts} prompts per person, ${r.persons} persons: power ${pct(recommended.minPower)} or more for every link (target ${pct(target)}, ${budgetText}).`;
+    statement = `Recommended: one prompt every ${fmt(recommended.interval)}, ${recommended.prompts} prompts per person, ${r.persons} persons: ${recommended.minPower > 0.995 ? 'power near 100 %' : `power of at least ${pct(recommended.minPower)}`} for every link (target ${pct(target)}, ${budgetText}).`;
   } else {
     const best = curve.reduce((a, b) => (b.minPower > a.minPower ? b : a));
     const k = best.links.findIndex((l) => l.power === best.minPower);
@@ -137,7 +137,7 @@ function axisStatement(r: Rehearsal, axis: PlanAxis, target: number, points: Axi
   const pct = (x: number) => `${Math.round(x * 100)} %`;
   if (recommended) {
     const what = axis === 'persons' ? `${recommended.persons} persons` : `${recommended.value} prompts a day (every ${fmt(recommended.interval)} within the day)`;
-    return `Recommended: ${what}, ${recommended.prompts} prompts per person, ${recommended.persons} persons: power ${pct(recommended.minPower)} or more for every link (target ${pct(target)}).`;
+    return `Recommended: ${what}, ${recommended.prompts} prompts per person, ${recommended.persons} persons: ${recommended.minPower > 0.995 ? 'power near 100 %' : `power of at least ${pct(recommended.minPower)}`} for every link (target ${pct(target)}).`;
   }
   const best = points.reduce((a, b) => (b.minPower > a.minPower ? b : a));
   const fail = best.links.reduce((a, b) => (b.power < a.power ? b : a));

@@ -48,6 +48,8 @@ export interface LinkPower {
 
 export interface PowerResult {
   method: 'analytic' | 'montecarlo';
+  /** Monte Carlo: how each simulated study was analysed ('ct': effects are drift entries). */
+  analysis?: 'var' | 'ct';
   links: LinkPower[];
   replications?: number;
   failed?: number;
@@ -149,6 +151,7 @@ export function monteCarloPower(r: Rehearsal, replications: number, hooks: { sho
   const s = summarizeTally(r, tally);
   return {
     method: 'montecarlo',
+    analysis: r.method ?? 'var',
     replications: s.replications,
     failed: s.failed,
     links: s.links.map((l) => ({ from: l.from, to: l.to, effect: l.effect, se: l.se, power: l.power, mcError: l.mcError })),

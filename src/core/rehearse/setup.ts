@@ -57,6 +57,8 @@ export interface RehearsalOverrides {
   links?: LinkOfInterest[];
   alpha?: number;
   analysis?: VarOptions;
+  /** How Monte Carlo analyses each simulated study: the VAR (default) or the continuous-time fit. */
+  method?: 'var' | 'ct';
 }
 
 export interface Rehearsal extends RehearsalSetup {
@@ -116,7 +118,7 @@ export function rehearsalOf(model: Model, overrides: RehearsalOverrides = {}): R
     plannedPerPerson: planned, answeredPerPerson: planned * (1 - missed),
     integrator: isNonlinear(model, process, ly.sigma) ? integratorFor(process.base.drift) : null,
     process, prompts, errorVariance, timeUnit: unit, links,
-    analysis: overrides.analysis ?? {}, alpha: overrides.alpha ?? 0.05, seed,
+    analysis: overrides.analysis ?? {}, method: overrides.method ?? 'var', alpha: overrides.alpha ?? 0.05, seed,
   };
 }
 

@@ -131,7 +131,7 @@ function Analytic({ a, name }: { a: Ok<AnalyticAnswer> | Failed | null; name: (l
               ))}
             </tbody>
           </table>
-          <p className="lf-hint">Bias of centring: with about {Math.round(a.answeredPerPerson)} occasions per person, removing each person's mean pulls the estimate down (about −(1+φ)/(T−1) for an autoregression); the expected estimate is what the analysis should give on average, to compare with the Monte Carlo mean below.</p>
+          <p className="lf-hint">Bias of centring: with about {Math.round(a.answeredPerPerson)} occasions per person, removing each person's mean shifts the estimate (an autoregression down, by about −(1+φ)/(T−1); a cross-lagged effect a little either way); the expected estimate is what the analysis should give on average, to compare with the Monte Carlo mean below.</p>
           {a.answeredPerPerson < ANALYTIC_OCCASIONS
             ? <p className="lf-rehearse-warn" role="note" data-testid="rehearse-short">Short series: about {Math.round(a.answeredPerPerson)} answered prompts per person, below about {ANALYTIC_OCCASIONS}. Here the analytic figure overstates power (it understates the SE, and its effect leaves out the bias of centring shown beside it): trust the Monte Carlo figure below.</p>
             : <p data-testid="rehearse-trust">{trustSentence(a.answeredPerPerson)}</p>}
@@ -144,6 +144,8 @@ function Analytic({ a, name }: { a: Ok<AnalyticAnswer> | Failed | null; name: (l
 function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: RehearseRequest; name: (l: LinkOfInterest) => string; s: SessionStudy; analytic: Ok<AnalyticAnswer> | Failed | null }) {
   const [reps, setReps] = useState('200');
   const [seed, setSeed] = useState(String(s.study.seed ?? 1));
+  const [method, setMethod] = useState<'var' | 'ct'>('var');
+  const [ranWith, setRanWith] = useState<'var' | 'ct'>('var');
   const [done, setDone] = useState(0);
   const [running, setRunning] = useState<{ run: McRun; k: number } | null>(null);
   const [outcome, setOutcome] = useState<McOutcome | null>(null);
@@ -158,7 +160,8 @@ function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: Rehe
     setOutcome(null);
     setDone(0);
     const c = await appRehearseClient();
-    const run = c.monteCarlo({ ...req, seed: sd }, k, cores, setDone);
+    const run = c.monteCarlo({ ...req, seed: sd, method }, k, cores, setDone);
+    setRanWith(method);
     runRef.current = run;
     setRunning({ run, k });
     const o = await run.result;
@@ -172,9 +175,10 @@ function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: Rehe
   return (
     <section className="lf-rehearse-section" aria-labelledby="lf-rh-mc">
       <h3 id="lf-rh-mc">Power, Monte Carlo</h3>
-      <p className="lf-hint">Simulate the study many times (each person's schedule, missed prompts, person differences and measurement error), fit the VAR to each, and count how often each link is found. Replications run on up to {cores} parallel worker{cores === 1 ? '' : 's'}.</p>
+      <p className="lf-hint">Simulate the study many times (each person's schedule, missed prompts, person differences and measurement error), analyse each as chosen (the VAR of the Data tab, or its continuous-time fit), and count how often each link is found. Replications run on up to {cores} parallel worker{cores === 1 ? '' : 's'}.</p>
       <div className="lf-rehearse-pick">
         <label>Replications <input aria-label="Replications" value={reps} size={6} inputMode="numeric" onChange={(e) => setReps(e.target.value)} aria-invalid={problem?.startsWith('Repl') ? true : undefined} /></label>
+        <label>Analysis <select aria-label="Analysis of each simulated study" value={method} onChange={(e) => setMethod(e.target.value === 'ct' ? 'ct' : 'var')}><option value="var">VAR (lagged effect)</option><option value="ct">continuous-time (drift; slower)</option></select></label>
         <label>Seed <input aria-label="Seed" value={seed} size={6} inputMode="numeric" onChange={(e) => setSeed(e.target.value)} aria-invalid={problem?.startsWith('Seed') ? true : undefined} /></label>
         <button type="button" disabled={!!problem || !!running} onClick={() => void start()}>Run Monte Carlo</button>
         {running && <button type="button" onClick={() => running.run.cancel()}>Cancel</button>}
@@ -185,11 +189,11 @@ function MonteCarlo({ model, req, name, s, analytic }: { model: Model; req: Rehe
       {outcome?.status === 'cancelled' && <p className="lf-hint" data-testid="rehearse-mc-cancelled">Cancelled{sum ? ` after ${sum.replications} replications (shown below)` : ''}.</p>}
       {sum && sum.replications > 0 && (
         <table className="lf-rehearse-table" data-testid="rehearse-mc">
-          <caption className="lf-hint">{sum.replications} simulated studies on {sum.workers} worker{sum.workers === 1 ? '' : 's'}{sum.failed ? `, ${sum.failed} analyses failed (counted as not found: ${sum.failure})` : ''}; ± is the Monte Carlo error √(p(1−p)/K)</caption>
+          <caption className="lf-hint">{sum.replications} simulated studies on {sum.workers} worker{sum.workers === 1 ? '' : 's'}{sum.failed ? `, ${sum.failed} analyses failed (counted as not found: ${sum.failure})` : ''}; ± is the Monte Carlo error √(p(1−p)/K){ranWith === 'ct' ? '; continuous-time fit: estimates are drift entries (effect on the rate per unit of time), not comparable with the analytic lagged effect' : ''}</caption>
           <thead><tr><th scope="col">Link</th><th scope="col">Mean estimate</th><th scope="col">Expected (analytic)</th><th scope="col">SD of estimates</th><th scope="col">Power</th><th scope="col">Analytic power</th></tr></thead>
           <tbody>
             {sum.links.map((l) => {
-              const an = analytic?.ok ? analytic.power.links.find((x) => x.from === l.from && x.to === l.to) : undefined;
+              const an = analytic?.ok && ranWith === 'var' ? analytic.power.links.find((x) => x.from === l.from && x.to === l.to) : undefined;
               return (
                 <tr key={`${l.from}>${l.to}`} data-link={`${l.from}>${l.to}`} data-power={l.power} data-effect={l.effect}>
                   <th scope="row">{name(l)}</th><td>{n3(l.effect)}</td><td>{n3(an?.expectedEstimate ?? NaN)}</td><td>{n3(l.se)}</td><td>{pct(l.power)} ± {pct(l.mcError)}</td><td>{pct(an?.power ?? NaN)}</td>

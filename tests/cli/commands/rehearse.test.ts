@@ -101,6 +101,20 @@ describe('loopfold power', () => {
     expect(an.trust).toMatch(/Which to trust/);
   }, 120_000);
 
+  it('Monte Carlo with the continuous-time analysis: the mean drift estimate recovers the drift the studies were simulated from', async () => {
+    const K = 8;
+    const r = await run(['power', MODEL, '--link', 'heat->damp', '--persons', '5', '--method', 'montecarlo', '--analysis', 'ct', '--replications', String(K), '--seed', '2', '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out) as { design: { analysis: string }; links: { effect: number; se: number; power: number }[] };
+    expect(j.design.analysis).toBe('ct');
+    const truth = rehearsalOf(model(), { persons: 5 }).process.base.drift;
+    const a = truth.data[1 * 2 + 0]; // effect of heat on the rate of damp
+    // Maximum likelihood is consistent, not unbiased at this size: 4 Monte Carlo errors plus 0.03.
+    expect(Math.abs(j.links[0].effect - a)).toBeLessThan(4 * j.links[0].se / Math.sqrt(K) + 0.03);
+    expect((await run(['power', MODEL, '--link', 'heat->damp', '--analysis', 'ct'])).err).toMatch(/--analysis ct: .* Monte Carlo only/);
+    expect((await run(['power', MODEL, '--link', 'heat->damp', '--method', 'montecarlo', '--analysis', 'sem'])).err).toMatch(/--analysis: var or ct/);
+  }, 120_000);
+
   it('names what is wrong with the flags', async () => {
     expect((await run(['power', MODEL, '--link', 'heat->sun'])).err).toMatch(/"sun" is not a variable of the model/);
     expect((await run(['power', MODEL])).err).toMatch(/--link/);
