@@ -93,6 +93,8 @@ test('the export dialog of a Numbers pane chart: a PNG at 150 DPI carries its DP
   // 114 mm at 150 DPI = 673 pixels; 150 DPI = 5906 pixels per metre (150 / 0.0254)
   expect(png.readUInt32BE(16)).toBe(673);
   expect(pixelsPerMetre(png)).toBe(5906);
+  // at this width the network is drawn compact, and the dialog says so after the file
+  await expect(dialog).toContainText('the network is drawn compact');
   await page.screenshot({ path: testInfo.outputPath('numbers-dialog.png') });
 });
 

@@ -101,7 +101,9 @@ function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: b
     if (ladder) {
       // down the right column, then up the left one half a step lower: no two nodes at one height
       const half = n > 2 ? 0.5 : 0;
-      centers[i] = n === 1 ? { x: cx, y: h / 2 + 24 } : k < right ? { x: cx + rx, y: h / 2 + 24 + k * ry } : { x: cx - rx, y: h / 2 + 24 + (n - 1 - k + half) * ry };
+      // (whole units: node borders fall on the same pixels in every renderer)
+      const c = n === 1 ? { x: cx, y: h / 2 + 24 } : k < right ? { x: cx + rx, y: h / 2 + 24 + k * ry } : { x: cx - rx, y: h / 2 + 24 + (n - 1 - k + half) * ry };
+      centers[i] = { x: Math.round(c.x), y: Math.round(c.y) };
       return;
     }
     // two nodes side by side; more round the ellipse from the top, clockwise
@@ -171,7 +173,7 @@ function tryPlace(ids: readonly string[], links: readonly NetLink[], directed: b
     let top = Infinity;
     for (const b of boxes) top = Math.min(top, b[1]);
     for (const l of out) top = Math.min(top, l.label.y - (WEIGHT_FONT + 3) / 2);
-    const dy = Math.max(0, Math.min(top, y0) - 12);
+    const dy = Math.max(0, Math.floor(Math.min(top, y0) - 12));
     const up = (p: Point): Point => ({ x: p.x, y: p.y - dy });
     return { centers: centers.map(up), nodeWidth: w, nodeHeight: h, links: out.map((l) => ({ ...l, start: up(l.start), control: up(l.control), end: up(l.end), label: up(l.label) })), width: x1 + 12, height: y1 + 12 - dy };
   }

@@ -58,7 +58,7 @@ interface Unit { ids: string[]; groupId?: string; box: Box }
  * lines no wider than `maxWidth`, lines of one row kept together in their left-to-right order.
  * Returns the layout unchanged when every row fits.
  */
-export function wrapRows(vm: ViewModel, layout: Layout, maxWidth: number, gap = 28): Layout {
+export function wrapRows(vm: ViewModel, layout: Layout, maxWidth: number, gap = 28, stagger = false): Layout {
   const inGroup = new Map<string, string>();
   for (const g of vm.groups) for (const m of g.members) inGroup.set(m, g.id);
   const units: Unit[] = [];
@@ -82,6 +82,7 @@ export function wrapRows(vm: ViewModel, layout: Layout, maxWidth: number, gap = 
   let y = MARGIN;
   let width = 0;
   let previousBottom: number | undefined;
+  let lineCount = 0;
   for (const row of rows) {
     row.sort((a, b) => a.box.x - b.box.x);
     const rowTop = Math.min(...row.map((u) => u.box.y));
@@ -99,7 +100,9 @@ export function wrapRows(vm: ViewModel, layout: Layout, maxWidth: number, gap = 
     lines.forEach((line, li) => {
       if (li > 0) y += 44;
       const lineWidth = line.reduce((s, u) => s + u.box.width, 0) + gap * (line.length - 1);
-      let x = MARGIN;
+      // `stagger`: lines narrower than the room alternate between its left and right side, so that edges
+      // between rows may pass beside the nodes of the rows between instead of round the figure
+      let x = MARGIN + (stagger && lineCount++ % 2 === 1 ? Math.max(0, room - lineWidth) : 0);
       const h = Math.max(...line.map((u) => u.box.height));
       for (const u of line) {
         const dx = x - u.box.x, dy = y + (h - u.box.height) / 2 - u.box.y;

@@ -89,14 +89,26 @@ export function finish(root: El, opts: PrintOptions): El {
 export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: (vm: ViewModel) => Promise<Layout>, focus?: readonly string[]): Promise<PrintedFigure> {
   const scale = targetScale(opts.fontSize ?? DEFAULT_FONT_PT, SCENE_MAIN, SCENE_MIN);
   const room = opts.width ? widthPt(opts.width) / scale : undefined;
-  const draw = async (fit: number | undefined) => {
-    const { vm, layout, notes } = await adaptedView(req, fit, layoutOf, opts.width ? widthText(opts.width) : '', focus);
+  // one layout per view model (the rooms tried below share them)
+  const laid = new Map<string, Promise<Layout>>();
+  const layoutOnce = (vm: ViewModel): Promise<Layout> => {
+    const key = JSON.stringify([vm.mode, vm.nodes.map((n) => [n.id, n.label, n.width, n.height]), vm.edges.map((e) => e.id), vm.groups.map((g) => g.id), vm.folded]);
+    let l = laid.get(key);
+    if (!l) { l = layoutOf(vm); laid.set(key, l); }
+    return l;
+  };
+  const draw = async (fit: number | undefined, stagger = false) => {
+    const { vm, layout, notes } = await adaptedView(req, fit, layoutOnce, opts.width ? widthText(opts.width) : '', focus, stagger);
     // the caption adds what the title does not say (the title names the interval and the study)
     const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
     return { notes, laidOut: layout.width, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room }) };
   };
   let fit = room;
   let { root, notes, laidOut } = await draw(fit);
+  if (room !== undefined && req.view === 'ordering' && Number(root.attrs.width) > room + 0.5) {
+    const staggered = await draw(fit, true);
+    if (Number(staggered.root.attrs.width) < Number(root.attrs.width)) ({ root, notes, laidOut } = staggered);
+  }
   // lines that arc beside a row widen the drawing past its layout: lay it out again in a room narrower by
   // that much than the layout was (three times at most), so the figure, not its text, gives way
   // (wrapping rows adds lines that arc, so several rooms are tried — narrower by the overflow than the room
@@ -108,8 +120,9 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
     // (at least one unit: then every row is wrapped to one variable a line)
     const rooms = [...new Set([fit - over, from - over, from - over / 2, from - over / 4].map((r) => Math.max(1, r)))];
     let best: { fit: number; drawn: Awaited<ReturnType<typeof draw>> } | undefined;
-    for (const r of rooms) {
-      const tried = await draw(r);
+    for (const r of rooms) for (const stagger of req.view === 'ordering' ? [false, true] : [false]) {
+      // (an ordering's wrapped lines also tried alternating between the left and the right side)
+      const tried = await draw(r, stagger);
       if (Number(tried.root.attrs.width) < Number((best?.drawn ?? { root }).root.attrs.width)) best = { fit: r, drawn: tried };
     }
     if (!best) break;
@@ -126,7 +139,7 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
  * The view of a request laid out to fit `room` drawing units where it can: the three instants stacked,
  * then every block folded, then the rows wrapped. `focus`: the summary of a big model (see summaryView).
  */
-export async function adaptedView(req: ViewRequest, room: number | undefined, layoutOf: (vm: ViewModel) => Promise<Layout>, at: string, focus?: readonly string[]): Promise<{ vm: ViewModel; layout: Layout; notes: string[] }> {
+export async function adaptedView(req: ViewRequest, room: number | undefined, layoutOf: (vm: ViewModel) => Promise<Layout>, at: string, focus?: readonly string[], stagger = false): Promise<{ vm: ViewModel; layout: Layout; notes: string[] }> {
   const notes: string[] = [];
   const view = (folded?: string[]) => {
     const v = viewOf(req, folded);
@@ -148,7 +161,7 @@ export async function adaptedView(req: ViewRequest, room: number | undefined, la
       notes.push(`${vm.groups.length + vm.folded.length === 1 ? 'the simultaneous block is' : 'the simultaneous blocks are'} folded to fit ${at}`);
     }
     if (layout.width > room && vm.mode !== 'unrolled') {
-      const wrapped = wrapRows(vm, layout, room);
+      const wrapped = wrapRows(vm, layout, room, undefined, stagger);
       if (wrapped !== layout) {
         layout = wrapped;
         notes.push(`rows of the ordering are wrapped onto several lines to fit ${at}`);
