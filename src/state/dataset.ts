@@ -10,6 +10,7 @@ import { lazyStore } from './persist';
 import { createStore } from 'zustand/vanilla';
 import { useStore } from 'zustand';
 import type { ColumnMapping, ImportResult } from '../core/data/import';
+import type { IntervalHistogram, Missingness } from '../core/data/overview';
 
 export const DATASET_VERSION = 1;
 const KEY = 'current';
@@ -21,7 +22,8 @@ export interface Dataset {
   text: string | Blob;
   delimiter?: string;
   mapping: ColumnMapping;
-  result: ImportResult;
+  /** What the importer kept and refused; `overview` as the data worker computed it beside the import. */
+  result: ImportResult & { overview?: { histogram: IntervalHistogram; missing: Missingness[] } };
   /** The model the data were mapped to (its name), to say so when another model is open. */
   modelName: string;
   importedAt: number;

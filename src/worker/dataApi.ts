@@ -8,6 +8,7 @@
 import type { Model, TimeUnit } from '../core/model/types';
 import { importText, readHeader, type ColumnMapping, type ImportResult } from '../core/data/import';
 import { suggestMapping } from '../core/data/importMapping';
+import { intervalHistogram, missingness, type IntervalHistogram, type Missingness } from '../core/data/overview';
 import type { Panel } from '../core/data/panel';
 import { fitVar, type VarFit, type VarOptions } from '../core/fit/var';
 import { ctSpec, ctStartFrom, fitCt, type CtFit } from '../core/fit/ct';
@@ -29,7 +30,11 @@ export interface HeaderAnswer {
   preview: string[][];
 }
 
-export type ImportAnswer = ({ ok: true } & ImportResult) | Failed;
+/**
+ * The import, and the overview's data computed where the import ran (the interval histogram and the
+ * missing cells: a second or more of work on a million rows, kept off the main thread).
+ */
+export type ImportAnswer = ({ ok: true; overview?: { histogram: IntervalHistogram; missing: Missingness[] } } & ImportResult) | Failed;
 
 export interface VarRequest {
   sameDay?: boolean;
@@ -118,7 +123,8 @@ export const localData: DataApi = {
   },
   async importData(text, mapping, delimiter) {
     try {
-      return { ok: true, ...importText(text, mapping, delimiter ? { delimiter } : {}) };
+      const r = importText(text, mapping, delimiter ? { delimiter } : {});
+      return { ok: true, ...r, ...(r.panel ? { overview: { histogram: intervalHistogram(r.panel), missing: missingness(r.panel) } } : {}) };
     } catch (e) {
       return reason(e);
     }

@@ -81,7 +81,9 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
   const [link, setLink] = useState<string>('');
   const chosen = links.find((l) => `${l.from}>${l.to}` === link) ?? links[0];
   const sketch = useMemo(() => { try { return sketchDrift(model, states); } catch { return null; } }, [model, states.join(',')]); // eslint-disable-line react-hooks/exhaustive-deps
-  const intervals = useMemo(() => dataIntervals(panel, sameDay), [panel, sameDay]);
+  // Every interval of the data (a million numbers for a big file): only once there is a fit to draw them with.
+  const fitted = !!(V || T);
+  const intervals = useMemo(() => (fitted ? dataIntervals(panel, sameDay) : []), [panel, sameDay, fitted]);
   const curves = useMemo(() => {
     if (!sketch || !chosen || (!V && !T)) return null;
     const i = states.indexOf(chosen.to), j = states.indexOf(chosen.from);
@@ -97,7 +99,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
   const stem = fileStem(model.name);
   const u = panel.timeUnit;
   // The ordering is read at the median of every interval (as `loopfold fit --method ct`), whatever the VAR's pairs.
-  const delta = useMemo(() => dataInterval(panel), [panel]);
+  const delta = useMemo(() => (fitted ? dataInterval(panel) : NaN), [panel, fitted]);
   const span = medianSpan(panel.persons);
 
   return (

@@ -2,7 +2,7 @@
 import { useId, useMemo, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import type { Panel } from '../../core/data/panel';
-import { intervalHistogram, missingness, personSeries } from '../../core/data/overview';
+import { intervalHistogram, missingness, personSeries, type IntervalHistogram, type Missingness } from '../../core/data/overview';
 import { intervalHistogramChart, missingnessChart, personSeriesChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
 import type { El } from '../../export/scene';
@@ -19,12 +19,13 @@ function Figure({ el, file, what, name }: { el: El; file: () => El; what: string
   );
 }
 
-export function DataOverview({ model, panel }: { model: Model; panel: Panel }) {
+/** `computed`: the histogram and missing cells the data worker computed with the import (else computed here). */
+export function DataOverview({ model, panel, computed }: { model: Model; panel: Panel; computed?: { histogram: IntervalHistogram; missing: Missingness[] } }) {
   const id = useId();
   const [person, setPerson] = useState(0);
   const p = Math.min(person, panel.persons.length - 1);
-  const hist = useMemo(() => intervalHistogram(panel), [panel]);
-  const miss = useMemo(() => missingness(panel), [panel]);
+  const hist = useMemo(() => computed?.histogram ?? intervalHistogram(panel), [panel, computed]);
+  const miss = useMemo(() => computed?.missing ?? missingness(panel), [panel, computed]);
   const series = useMemo(() => (p >= 0 ? personSeries(panel, p) : null), [panel, p]);
   const stem = fileStem(model.name);
   const caption = 'Imported data, as kept on this machine.';

@@ -140,7 +140,7 @@ function DataOf({ model }: { model: Model }) {
         <ColumnMapper model={model} fileName={source.fileName} header={header} mapping={mapping} onChange={(m) => { setMapping(m); setMapError(null); }} problem={mapError} onImport={() => void runImport()} busy={busy !== null} />
       )}
       {dataset && <ImportSummaryView dataset={dataset} />}
-      {panel && <DataOverview model={model} panel={panel} />}
+      {panel && <DataOverview model={model} panel={panel} computed={dataset?.result.overview} />}
       {panel && <DataFits model={model} panel={panel} />}
       {dataset && header && source?.fileName === dataset.fileName && dataset.mapping.format === 'long' && <DataCoint key={`${dataset.fileName}:${dataset.importedAt}`} model={model} dataset={dataset} fields={header.fields} />}
     </div>
