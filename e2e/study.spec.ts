@@ -253,6 +253,8 @@ test.describe('choosing an interval elsewhere sets the study', () => {
     await adv.locator('input[data-link="stress>cortisol"]').check();
     await adv.locator('input[data-link="cortisol>sleepDebt"]').check();
     await expect(adv.getByRole('status')).toContainText('Best single interval', { timeout: 120_000 });
+    // the advice for both links, not the first tick's answer still on screen
+    await expect(adv.locator('.lf-num-advice > table > tbody > tr')).toHaveCount(2, { timeout: 120_000 });
     const advised = adv.locator('.lf-use-interval').first();
     await expect(advised).toHaveAccessibleName(/\(the advised interval\) as the study interval$/);
     const best = (await advised.getAttribute('data-interval'))!;
