@@ -26,30 +26,12 @@ const NO_LABEL_FALLBACK = {
  * each entry leaves with its branch's merge (then the rules above cover it).
  */
 const PRESENTATION_PENDING = {
-  'src/layout/instant.ts': 'pending: other branch',
-  'src/layout/network.ts': 'pending: other branch',
-  'src/ui/Presentation.tsx': 'pending: other branch',
-  'src/ui/views/TimescalePane.tsx': 'pending: other branch',
   'src/core/fit/**': 'pending: other branch',
   'src/core/data/**': 'pending: other branch',
-  'src/core/rehearse/**': 'pending: other branch',
-  'src/core/study/**': 'pending: other branch',
-  'src/core/pictures/**': 'pending: other branch',
-  'src/core/undersample/**': 'pending: other branch',
   'src/ui/data/**': 'pending: other branch',
-  'src/ui/rehearse/**': 'pending: other branch',
-  'src/ui/study/**': 'pending: other branch',
-  'src/ui/pictures/**': 'pending: other branch',
-  'src/ui/undersample/**': 'pending: other branch',
   'src/worker/data*': 'pending: other branch',
-  'src/worker/rehearse*': 'pending: other branch',
-  'src/export/print/**': 'pending: other branch',
   'src/cli/commands/coint.ts': 'pending: other branch',
   'src/cli/commands/data.ts': 'pending: other branch',
-  'src/cli/commands/pictures.ts': 'pending: other branch',
-  'src/cli/commands/rehearse.ts': 'pending: other branch',
-  'src/cli/commands/study.ts': 'pending: other branch',
-  'src/cli/commands/undersample.ts': 'pending: other branch',
 };
 
 /**
