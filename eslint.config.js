@@ -25,31 +25,13 @@ const NO_LABEL_FALLBACK = {
  * Files that still write numbers or labels by hand because another branch is changing them now;
  * each entry leaves with its branch's merge (then the rules above cover it).
  */
-const PRESENTATION_PENDING = {
-  'src/layout/instant.ts': 'pending: other branch',
-  'src/layout/network.ts': 'pending: other branch',
-  'src/ui/Presentation.tsx': 'pending: other branch',
-  'src/ui/views/TimescalePane.tsx': 'pending: other branch',
+export const PRESENTATION_PENDING = {
   'src/core/fit/**': 'pending: other branch',
   'src/core/data/**': 'pending: other branch',
-  'src/core/rehearse/**': 'pending: other branch',
-  'src/core/study/**': 'pending: other branch',
-  'src/core/pictures/**': 'pending: other branch',
-  'src/core/undersample/**': 'pending: other branch',
   'src/ui/data/**': 'pending: other branch',
-  'src/ui/rehearse/**': 'pending: other branch',
-  'src/ui/study/**': 'pending: other branch',
-  'src/ui/pictures/**': 'pending: other branch',
-  'src/ui/undersample/**': 'pending: other branch',
   'src/worker/data*': 'pending: other branch',
-  'src/worker/rehearse*': 'pending: other branch',
-  'src/export/print/**': 'pending: other branch',
   'src/cli/commands/coint.ts': 'pending: other branch',
   'src/cli/commands/data.ts': 'pending: other branch',
-  'src/cli/commands/pictures.ts': 'pending: other branch',
-  'src/cli/commands/rehearse.ts': 'pending: other branch',
-  'src/cli/commands/study.ts': 'pending: other branch',
-  'src/cli/commands/undersample.ts': 'pending: other branch',
 };
 
 /**
@@ -96,13 +78,14 @@ export default tseslint.config(
       'no-restricted-syntax': ['error', NO_ONLY],
     },
   },
-  { files: ['src/**/*.{ts,tsx}'], ignores: ['src/theme/**'], rules: { 'no-restricted-syntax': ['error', NO_ONLY, ...NO_HEX] } },
-  {
-    files: ['src/**/*.{ts,tsx}'],
-    ignores: ['src/theme/**', 'src/present/**', ...Object.keys(PRESENTATION_PENDING)],
-    rules: { 'no-restricted-syntax': ['error', NO_ONLY, ...NO_HEX, NO_LABEL_FALLBACK], 'no-restricted-properties': ['error', ...NO_NUMBER_TEXT] },
-  },
-  { files: ['src/theme/**/*.{ts,tsx}'], rules: { 'no-restricted-syntax': ['error', NO_ONLY, NO_LABEL_FALLBACK], 'no-restricted-properties': ['error', ...NO_NUMBER_TEXT] } },
+  // Every source file: no hex colour, numbers and names through src/present/. The blocks after this one
+  // relax one rule each for a few folders; `no-restricted-syntax` is one rule, so each block that
+  // narrows it restates what stays (a later block replaces the options of an earlier one).
+  { files: ['src/**/*.{ts,tsx}'], rules: { 'no-restricted-syntax': ['error', NO_ONLY, ...NO_HEX, NO_LABEL_FALLBACK], 'no-restricted-properties': ['error', ...NO_NUMBER_TEXT] } },
+  // The theme names the colours: hex allowed there, nothing else.
+  { files: ['src/theme/**/*.{ts,tsx}'], rules: { 'no-restricted-syntax': ['error', NO_ONLY, NO_LABEL_FALLBACK] } },
+  // src/present/ writes the numbers and names; the pending files still do by hand. Hex stays banned in both.
+  { files: ['src/present/**/*.{ts,tsx}', ...Object.keys(PRESENTATION_PENDING)], rules: { 'no-restricted-syntax': ['error', NO_ONLY, ...NO_HEX], 'no-restricted-properties': 'off' } },
   { files: ['tests/**/*.{ts,tsx}'], rules: { 'no-restricted-syntax': ['error', NO_ONLY, NO_CLOSE_TO] } },
   {
     files: ['src/ui/**/*.{ts,tsx}', 'src/main.tsx'],

@@ -26,9 +26,6 @@ const NOT_FILES: Record<string, string> = {
  */
 const PENDING: Record<string, string> = {
   'docs/dev/data.md tests/core/data/importFuzz.test.ts': 'pending: other branch',
-  'docs/dev/print.md tests/cli/print.test.ts': 'pending: other branch',
-  'docs/dev/rehearse.md tests/helpers/random.ts': 'pending: other branch',
-  'docs/dev/study.md tests/core/model/json-schema.test.ts': 'pending: other branch',
 };
 
 /** Every path-like token in the code spans and link targets of a Markdown text. */

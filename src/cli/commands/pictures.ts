@@ -12,11 +12,12 @@ import { PRINT_OPTIONS } from '../output/write';
 import { durationOption, loadModel } from '../load';
 import { studyInterval } from '../../core/study/convert';
 import { CliError, type CliArgs, type CliCommand } from './types';
+import { fixedText, significant } from '../../present/index';
 
 function num(x: number | null): string {
   if (x === null) return '—';
   if (!Number.isFinite(x)) return String(x);
-  return Math.abs(x) >= 1e-3 || x === 0 ? String(Number(x.toPrecision(4))) : x.toExponential(3);
+  return Math.abs(x) >= 1e-3 || x === 0 ? String(significant(x, 4)) : x.toExponential(3);
 }
 
 function wholeOption(args: CliArgs, name: string, min: number, fallback?: number): number | undefined {
@@ -86,7 +87,7 @@ export function uncertainText(p: OrderingProbabilities): string[] {
   for (const r of p.readings) lines.push(`  ${r}`);
   for (const s of p.probabilities) {
     const d = Object.entries(s.deciding).map(([id, role]) => `${id} ${role === 'state' ? 'dynamic' : role}`).join(', ');
-    lines.push(`  ${(s.share * 100).toFixed(1).padStart(5)} %  ${d || '(every draw)'}  ${s.blocks.filter((b) => b.variables.length > 1).length} simultaneous block(s)`);
+    lines.push(`  ${fixedText(s.share * 100, 1, { ascii: true }).padStart(5)} %  ${d || '(every draw)'}  ${s.blocks.filter((b) => b.variables.length > 1).length} simultaneous block(s)`);
   }
   return lines;
 }

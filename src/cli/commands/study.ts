@@ -13,6 +13,7 @@ import { studyOfModel } from '../../core/study/design';
 import { studyDesign, type StudyDesignReport } from '../../core/study/report';
 import { loadModel, readInput } from '../load';
 import { CliError, type CliCommand } from './types';
+import { fixedText } from '../../present/index';
 
 function scheduleText(study: Study): string {
   const s = study.schedule;
@@ -31,7 +32,7 @@ function scheduleText(study: Study): string {
 function matrixLines(states: string[], m: number[][], indent = '    '): string[] {
   const w = Math.max(6, ...states.map((s) => s.length));
   const lines = [`${indent}${''.padEnd(w)}  ${states.map((s) => s.padStart(10)).join(' ')}`];
-  m.forEach((row, i) => lines.push(`${indent}${states[i].padEnd(w)}  ${row.map((x) => x.toFixed(4).padStart(10)).join(' ')}`));
+  m.forEach((row, i) => lines.push(`${indent}${states[i].padEnd(w)}  ${row.map((x) => fixedText(x, 4, { ascii: true }).padStart(10)).join(' ')}`));
   return lines;
 }
 
@@ -49,7 +50,7 @@ export function designText(name: string, r: StudyDesignReport): string {
   if (st.holds && Object.keys(st.holds).length > 0) lines.push(`  holds     ${Object.entries(st.holds).map(([k, v]) => `${k}=${v}`).join(', ')}`);
   lines.push('', 'gaps between consecutive prompts:');
   for (const g of r.gaps)
-    lines.push(`  ${formatDuration(g.gap, u).padStart(10)}${g.spread > 0 ? ` ± ${formatDuration(g.spread, u)}` : ''}  ${(g.share * 100).toFixed(1).padStart(5)} % of pairs${g.sameDayShare > 0 && g.sameDayShare < g.share - 1e-12 ? ` (${(g.sameDayShare * 100).toFixed(1)} % on the same day)` : g.sameDayShare === 0 ? ' (across days)' : ''}`);
+    lines.push(`  ${formatDuration(g.gap, u).padStart(10)}${g.spread > 0 ? ` ± ${formatDuration(g.spread, u)}` : ''}  ${fixedText(g.share * 100, 1, { ascii: true }).padStart(5)} % of pairs${g.sameDayShare > 0 && g.sameDayShare < g.share - 1e-12 ? ` (${fixedText(g.sameDayShare * 100, 1, { ascii: true })} % on the same day)` : g.sameDayShare === 0 ? ' (across days)' : ''}`);
   lines.push('', `Φ at the nominal interval (${formatDuration(r.interval, u)}), row = to, column = from:`, ...matrixLines(r.states, r.nominal));
   lines.push('', 'what a VAR(1) over consecutive prompts estimates, all pairs:', ...matrixLines(r.states, r.pooled));
   if (r.sameDay) lines.push('', 'same-day pairs only:', ...matrixLines(r.states, r.sameDay));

@@ -8,6 +8,7 @@ import { svgTarget, writeSvg } from '../figure';
 import { PRINT_OPTIONS } from '../output/write';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
 import { readInput } from '../load';
+import { fixedText } from '../../present/index';
 
 /** Default rates tried by `unsample` when neither the command nor the file names one. */
 export const DEFAULT_MAX_RATE = 5;
@@ -132,7 +133,7 @@ export const undersampleCommands: CliCommand[] = [
           const now = Date.now();
           if (now - last < 2000) return;
           last = now;
-          io.err(`searching u = ${p.rate} (${p.rateIndex + 1} of ${p.rates}): ${(100 * p.fraction).toFixed(1)} % of the space, ${p.nodes} nodes, ${p.count} found`);
+          io.err(`searching u = ${p.rate} (${p.rateIndex + 1} of ${p.rates}): ${fixedText(100 * p.fraction, 1, { ascii: true })} % of the space, ${p.nodes} nodes, ${p.count} found`);
         },
       });
       const near = r.count === 0 ? nearestMeasuredGraphs(h, rates) : null;

@@ -15,6 +15,7 @@ import { factorAnalysis, oneFactorPrecision, type FactorFit } from './factor';
 import { LEVELS, levelCovariances, type Level, type LevelCovariances, type LevelOptions } from './levels';
 import { labeller } from '../../present/labels';
 import { laggedRank, laggedRankCurve, type LaggedRank } from './rank';
+import { fixedText } from '../../present/index';
 
 export { factorAnalysis, oneFactorPrecision, chiSquareSurvival, UNIQUENESS_FLOOR } from './factor';
 export type { FactorFit, FactorOptions } from './factor';
@@ -73,7 +74,7 @@ export interface PictureOptions extends LevelOptions {
   factors?: number;
 }
 
-const f2 = (x: number) => (Math.abs(x) < 1 ? x.toFixed(2).replace(/^(-?)0\./, '$1.') : x.toFixed(2));
+const f2 = (x: number) => (Math.abs(x) < 1 ? fixedText(x, 2, { ascii: true }).replace(/^(-?)0\./, '$1.') : fixedText(x, 2, { ascii: true }));
 /** A singular value ratio in words: two decimals, or "below .01" rather than a ".00" that reads as zero. */
 const ratioText = (x: number) => (x > 0 && x < 0.005 ? 'below .01' : f2(x));
 
@@ -96,7 +97,7 @@ function levelWords(level: Level, fit: FactorFit | null, lv: LevelCovariances, u
   const p = fit.eigenvalues.length;
   const share = fit.eigenvalues[0] / p;
   if (!fits && share >= 0.75 && level !== 'within')
-    return `${where}, one factor dominates (first eigenvalue ${fit.eigenvalues[0].toFixed(1)} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; ${fit.rmsea! <= 0.1 ? 'the loops still leave a trace the exact fit detects' : 'yet the exact fit rejects a single factor: the small rest of the variance follows the loops'} (RMSEA ${f2(fit.rmsea!)}).`;
+    return `${where}, one factor dominates (first eigenvalue ${fixedText(fit.eigenvalues[0], 1, { ascii: true })} of ${p}, ${Math.round(share * 100)} % of the variance): ${driverText}; ${fit.rmsea! <= 0.1 ? 'the loops still leave a trace the exact fit detects' : 'yet the exact fit rejects a single factor: the small rest of the variance follows the loops'} (RMSEA ${f2(fit.rmsea!)}).`;
   const strongest = fit.loadings.map((l, i) => ({ i, l: Math.abs(l[0]) })).sort((a, b) => b.l - a.l)[0];
   if (level === 'between')
     return fits

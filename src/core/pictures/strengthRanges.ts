@@ -12,7 +12,7 @@
  * the rank correlation of its draws with the advised interval.
  */
 import type { Model, VariableId } from '../model/types';
-import { formatNumber } from '../../present/index';
+import { fixedText, formatNumber, labeller } from '../../present/index';
 import { adviceOf } from '../numeric/answers';
 import type { IntervalAdvice } from '../numeric/sampled';
 import { linkStrengths } from '../model/strength';
@@ -102,7 +102,8 @@ export function adviceUnderStrengthRanges(model: Model, links: { from: VariableI
   const ranged = model.links.flatMap((l, index) => (l.strengthRange ? [{ index, from: l.from, to: l.to, low: l.strengthRange.low, high: l.strengthRange.high, point: strengths0[index].value, decides: 0 }] : []));
   for (const r of ranged) if (!(r.low >= 0 && r.high >= r.low)) return { ok: false, reason: `the strength range of ${r.from} → ${r.to} must have 0 ≤ low ≤ high (it is ${r.low}..${r.high})` };
   const rand = seededUniform(seed);
-  const name = (id: VariableId) => model.variables.find((v) => v.id === id)?.label || id;
+  const label = labeller(model);
+  const name = (id: VariableId) => label(id) || id; // an empty label reads as the id here
   const pointBest = base.advice.best;
   const samples: StrengthRangeAdvice['samples'] = [];
   const peaks: number[][] = links.map(() => []);
@@ -148,7 +149,7 @@ export function adviceUnderStrengthRanges(model: Model, links: { from: VariableI
     else if (b) readings.push(`The advised interval itself lies between ${fmt(b.q10)} and ${fmt(b.q90)}${unit} in 80 % of draws (median ${fmt(b.median)}${unit}).`);
     const lead = [...ranged].sort((x, y) => Math.abs(y.decides) - Math.abs(x.decides))[0];
     if (lead && Math.abs(lead.decides) >= 0.3)
-      readings.push(`The strength of ${name(lead.from)} → ${name(lead.to)} (${fmt(lead.low)}..${fmt(lead.high)}) decides most: the stronger it is, the ${lead.decides > 0 ? 'longer' : 'shorter'} the advised interval (rank correlation ${lead.decides.toFixed(2)}).`);
+      readings.push(`The strength of ${name(lead.from)} → ${name(lead.to)} (${fmt(lead.low)}..${fmt(lead.high)}) decides most: the stronger it is, the ${lead.decides > 0 ? 'longer' : 'shorter'} the advised interval (rank correlation ${fixedText(lead.decides, 2, { ascii: true })}).`);
     if (none > 0) readings.push(`In ${pct(none / draws)} of draws no single interval can be advised.`);
   }
   return {

@@ -15,6 +15,7 @@ import { nominalSpacing, plannedSlots, studyRange } from '../study/index';
 import { studyInterval } from '../study/convert';
 import { analyticPower, type LinkPower } from './power';
 import type { Rehearsal } from './setup';
+import { precisionText } from '../../present/index';
 
 export type Budget = { kind: 'prompts'; prompts: number } | { kind: 'span'; span: number };
 
@@ -59,7 +60,7 @@ export function planStudy(r: Rehearsal, budget: Budget, opt: { target?: number; 
   if (budget.kind === 'prompts' && !(Number.isInteger(budget.prompts) && budget.prompts >= 3)) throw new Error(`--budget prompts: a whole number of at least 3 prompts per person is needed, not ${budget.prompts}`);
   if (budget.kind === 'span' && !(budget.span > 0)) throw new Error(`--budget span: a positive duration is needed, not ${budget.span}`);
   const target = opt.target ?? 0.8;
-  const fmt = opt.format ?? ((x: number) => x.toPrecision(3));
+  const fmt = opt.format ?? ((x: number) => precisionText(x, 3, { ascii: true }));
   const grid = opt.grid ?? planGrid(r, budget);
   const missed = r.study.missedPrompts ?? 0;
   const curve: PlanPoint[] = [];
@@ -161,7 +162,7 @@ export function planPersons(r: Rehearsal, opt: { values?: readonly number[]; tar
     return { value: persons, persons, prompts: r.plannedPerPerson, interval, links: res.links, minPower: Math.min(...res.links.map((l) => l.power)) };
   });
   const recommended = points.find((p) => p.minPower >= target) ?? null;
-  return { axis: 'persons', target, points, recommended, statement: axisStatement(r, 'persons', target, points, recommended, opt.format ?? ((x) => x.toPrecision(3))) };
+  return { axis: 'persons', target, points, recommended, statement: axisStatement(r, 'persons', target, points, recommended, opt.format ?? ((x) => precisionText(x, 3, { ascii: true }))) };
 }
 
 /**
@@ -191,5 +192,5 @@ export function planPromptsPerDay(r: Rehearsal, opt: { values?: readonly number[
   }
   if (points.length === 0) throw new Error('prompts per day: no value leaves at least 3 prompts per person in the study\'s span');
   const recommended = points.find((p) => p.minPower >= target) ?? null;
-  return { axis: 'promptsPerDay', target, points, recommended, statement: axisStatement(r, 'promptsPerDay', target, points, recommended, opt.format ?? ((x) => x.toPrecision(3))) };
+  return { axis: 'promptsPerDay', target, points, recommended, statement: axisStatement(r, 'promptsPerDay', target, points, recommended, opt.format ?? ((x) => precisionText(x, 3, { ascii: true }))) };
 }

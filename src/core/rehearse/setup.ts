@@ -16,10 +16,11 @@ import { drawPerson, studyProcess } from './process';
 import { integratorFor, isNonlinear, personModel, simulateNonlinearPanel, type IntegratorChoice } from './nonlinear';
 import { simulatePanel, type PersonPrompts } from './simulate';
 import type { LinkOfInterest, RehearsalSetup } from './montecarlo';
+import { labelOf } from '../../present/index';
 
 function nameOf(model: Model, id: VariableId): string {
-  const v = model.variables.find((x) => x.id === id);
-  return v?.label && v.label !== id ? `${v.label} (${id})` : id;
+  const label = labelOf(model, id);
+  return label && label !== id ? `${label} (${id})` : id;
 }
 
 /** A variable by id, else by label (case and surrounding spaces ignored). */

@@ -7,6 +7,7 @@
 import { DEFAULT_SAMPLES, type Duration, type Model, type Study, type TimeUnit, type VariableId } from '../model/types';
 import { convertDuration, formatDuration, parseDuration, SECONDS_PER_UNIT, type DurationResult } from '../model/units';
 import type { StudyDesign } from '../ordering/types';
+import { significant } from '../../present/index';
 
 /** Process noise intensity of a state when the model gives none (variance added per unit time). */
 export const DEFAULT_NOISE = 1;
@@ -81,7 +82,7 @@ export function exactDuration(value: number, unit: TimeUnit): string {
   }
   let chosen: TimeUnit = 's';
   for (const u of order) if (seconds >= SECONDS_PER_UNIT[u]) { chosen = u; break; }
-  return `${Number((seconds / SECONDS_PER_UNIT[chosen]).toPrecision(15))} ${chosen}`;
+  return `${significant(seconds / SECONDS_PER_UNIT[chosen], 15)} ${chosen}`;
 }
 
 /** How long a study runs, as the ordering reads it: a number of samples or a window in the model's time unit. */

@@ -23,6 +23,7 @@ import type { Study, TimeUnit, VariableId } from '../model/types';
 import { axpby, identity, inverse, mul, scale, zeros, type Mat } from '../numeric/dense';
 import { expm } from '../numeric/expm';
 import { plannedSlots } from './schedule';
+import { precisionText } from '../../present/index';
 
 /** A kind of gap between consecutive answered prompts, with its share of all such pairs over the study. */
 export interface GapClass {
@@ -62,7 +63,7 @@ export function scheduleGaps(study: Study, unit: TimeUnit): GapClass[] {
       const b = a + j;
       const gap = slots.base[b] - slots.base[a];
       const sameDay = slots.day[b] === slots.day[a];
-      const key = `${gap.toPrecision(12)}|${sameDay ? 1 : 0}|${j - 1}`;
+      const key = `${precisionText(gap, 12, { ascii: true })}|${sameDay ? 1 : 0}|${j - 1}`;
       const g = keyed.get(key);
       if (g) g.share += run;
       else keyed.set(key, { gap, share: run, sameDay, spread: slots.width, skipped: j - 1 });

@@ -12,6 +12,7 @@ import { sampledModel } from '../numeric/sampled';
 import { noiseOf, reliabilityOf, studyInterval } from './convert';
 import { studyOfModel } from './design';
 import { attenuated, scheduleGaps, varLimits } from './gaps';
+import { fixedText, labeller, precisionText } from '../../present/index';
 
 /** One distinct gap between consecutive prompts. */
 export interface DesignGap {
@@ -70,7 +71,7 @@ export function studyDesign(model: Model, study: Study = studyOfModel(model)): {
   // merge the classes that share a gap (same day or across midnight, after a missed prompt or not)
   const merged = new Map<string, DesignGap>();
   for (const g of lim.gaps) {
-    const key = `${g.gap.toPrecision(12)}|${g.spread}`;
+    const key = `${precisionText(g.gap, 12, { ascii: true })}|${g.spread}`;
     const m = merged.get(key);
     if (m) {
       m.share += g.share;
@@ -95,7 +96,7 @@ export function studyDesign(model: Model, study: Study = studyOfModel(model)): {
   };
 }
 
-const fmt = (x: number) => (Math.abs(x) >= 0.01 || x === 0 ? x.toFixed(2) : x.toPrecision(2));
+const fmt = (x: number) => (Math.abs(x) >= 0.01 || x === 0 ? fixedText(x, 2, { ascii: true }) : precisionText(x, 2, { ascii: true }));
 
 /**
  * The night-gap (long-gap) shrinkage in words. Only a daily window has nights between its prompts; in other
@@ -107,7 +108,7 @@ function shrinkageText(model: Model, window: boolean, states: VariableId[], inte
   if (long.length === 0) return [];
   const longShare = long.reduce((s, g) => s + g.share, 0);
   const longest = long[long.length - 1];
-  const label = (id: VariableId) => model.variables.find((v) => v.id === id)?.label ?? id;
+  const label = labeller(model);
   const out: string[] = [];
   const nights = window && longest.sameDayShare < longest.share * 0.5;
   const what = nights ? 'night gaps' : 'longer gaps after missed prompts';

@@ -19,6 +19,7 @@ import { stackInstants, wrapRows } from './adapt';
 import { foldedAwayFrom, summaryView } from './summary';
 import { DEFAULT_FONT_PT, MIN_TEXT_PT, widthPt, widthText, type PrintOptions } from './options';
 import { fontSizes, minusSigns, recolour, sized, smallestTextPt, withBackground } from './transform';
+import { fixedText } from '../../present/index';
 
 export interface ViewRequest {
   model: Model;
@@ -131,7 +132,7 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
   }
   root = finish(root, opts);
   const smallestPt = smallestTextPt(root, opts.width);
-  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the figure does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset or fold blocks`);
+  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the figure does not fit ${widthText(opts.width)} legibly: its smallest text is ${fixedText(smallestPt, 1, { ascii: true })} pt (under ${MIN_TEXT_PT} pt); choose a wider preset or fold blocks`);
   return { root, notes, smallestPt };
 }
 
@@ -183,7 +184,7 @@ export function printChart(root: El, opts: PrintOptions): PrintedFigure {
   // a builder that changed its drawing to fit the width says how (`data-adapted` on its root)
   const adapted = root.attrs['data-adapted'];
   if (typeof adapted === 'string' && adapted) notes.push(opts.width ? `${adapted} to fit ${widthText(opts.width)}` : adapted);
-  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the chart does not fit ${widthText(opts.width)} legibly: its smallest text is ${smallestPt.toFixed(1)} pt (under ${MIN_TEXT_PT} pt); choose a wider preset`);
+  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the chart does not fit ${widthText(opts.width)} legibly: its smallest text is ${fixedText(smallestPt, 1, { ascii: true })} pt (under ${MIN_TEXT_PT} pt); choose a wider preset`);
   return { root: r, notes, smallestPt };
 }
 

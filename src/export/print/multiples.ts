@@ -18,6 +18,7 @@ import { adaptedView, finish, targetScale, type PrintedFigure } from './figure';
 import { DEFAULT_FONT_PT, MIN_TEXT_PT, widthPt, widthText, type PrintOptions } from './options';
 import { smallestTextPt } from './transform';
 import { FONT_STACK, INK, PAPER } from '../../theme/visual';
+import { fixedText } from '../../present/index';
 
 const GAP = 16, HEAD = 26;
 /** The narrowest panel worth drawing (drawing units): about two variables side by side. */
@@ -114,6 +115,6 @@ export async function printMultiples(req: MultiplesRequest, opts: PrintOptions, 
   };
   const printed = finish(root, opts);
   const smallestPt = smallestTextPt(printed, opts.width);
-  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the panels do not fit ${widthText(opts.width)} legibly: the smallest text is ${smallestPt.toFixed(1)} pt; choose fewer columns (--columns) or a wider preset`);
+  if (opts.width && smallestPt < MIN_TEXT_PT - 1e-9) notes.push(`the panels do not fit ${widthText(opts.width)} legibly: the smallest text is ${fixedText(smallestPt, 1, { ascii: true })} pt; choose fewer columns (--columns) or a wider preset`);
   return { root: printed, notes, smallestPt };
 }

@@ -5,6 +5,7 @@
  * user types it, with messages that name the option.
  */
 import { PALETTES, type PaletteName } from '../../theme/palettes';
+import { rounded } from '../../present/index';
 
 /** Column widths of journal pages in millimetres (common practice: 85–90, 114, 174–180 mm). */
 export const WIDTH_PRESETS = { column: 85, 'column-and-half': 114, 'two-columns': 178 } as const;
@@ -85,5 +86,5 @@ export function parseBackground(text: string): Parsed<Background> {
 export function widthText(w: PrintWidth): string {
   if ('px' in w) return `${w.px} px`;
   const names: Record<WidthPreset, string> = { column: 'one column', 'column-and-half': 'one and a half columns', 'two-columns': 'two columns' };
-  return `${Number((w.mm / 10).toFixed(2))} cm${w.preset ? ` (${names[w.preset]})` : ''}`;
+  return `${rounded(w.mm / 10, 2)} cm${w.preset ? ` (${names[w.preset]})` : ''}`;
 }

@@ -53,7 +53,7 @@ export function summaryView(vm: ViewModel, focus: readonly VariableId[]): ViewMo
   const left = allVars.size - shownVars.size;
   return {
     ...vm,
-    title: `${vm.title} — summary around ${focus.map((f) => vm.nodes.find((n) => n.variable === f)?.label ?? f).join(', ')}${left > 0 ? ` (${left} of ${allVars.size} variables left out)` : ''}`,
+    title: `${vm.title} — summary around ${focus.map((f) => nodeLabel(vm, f)).join(', ')}${left > 0 ? ` (${left} of ${allVars.size} variables left out)` : ''}`,
     nodes,
     groups,
     edges,
@@ -61,4 +61,10 @@ export function summaryView(vm: ViewModel, focus: readonly VariableId[]): ViewMo
     rolesShown: vm.rolesShown.filter((r) => nodes.some((n) => n.role === r)),
     kindsShown: vm.kindsShown.filter((k) => edges.some((e) => e.kind === k)),
   };
+}
+
+/** What the view calls a variable: its first node's label, or the id where the view has no node for it. */
+function nodeLabel(vm: ViewModel, id: VariableId): string {
+  const node = vm.nodes.find((n) => n.variable === id);
+  return node ? node.label : id;
 }

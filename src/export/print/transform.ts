@@ -9,6 +9,7 @@ import { recolourMap, type PaletteName } from '../../theme/palettes';
 import { PAPER } from '../../theme/visual';
 import type { El } from '../scene';
 import { PT_PER_MM, PT_PER_PX, widthPt, type Background, type PrintWidth } from './options';
+import { rounded } from '../../present/index';
 
 const COLOUR_ATTRS = ['fill', 'stroke', 'stop-color', 'color'];
 
@@ -70,7 +71,7 @@ export function sized(root: El, width: PrintWidth | undefined): El {
   if (!width) return root;
   const s = printScale(root, width);
   const { width: w, height: h } = viewSize(root);
-  const mm = (pt: number) => `${Number((pt / PT_PER_MM).toFixed(2))}mm`;
+  const mm = (pt: number) => `${rounded(pt / PT_PER_MM, 2)}mm`;
   return { ...root, attrs: { ...root.attrs, width: mm(w * s), height: mm(h * s) } };
 }
 

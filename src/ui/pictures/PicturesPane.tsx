@@ -26,6 +26,7 @@ import { ExportButtons } from '../numbers/ExportButtons';
 import { appPicturesClient } from '../../worker/picturesClient';
 import type { PicturesAnswer, ProbabilitiesAnswer } from '../../worker/picturesApi';
 import './pictures.css';
+import { fixedText, labelOf } from '../../present/index';
 
 export default function PicturesPane() {
   const model = useValidatedModel();
@@ -123,7 +124,7 @@ function PicturesOf({ model }: { model: Model }) {
       <fieldset className="lf-pic-observed">
         <legend>Variables analysed (states)</legend>
         {states.map((id) => (
-          <label key={id}><input type="checkbox" checked={obs.includes(id)} onChange={(e) => setObserved(e.target.checked ? [...obs, id] : obs.filter((x) => x !== id))} /> {model.variables.find((v) => v.id === id)?.label ?? id}</label>
+          <label key={id}><input type="checkbox" checked={obs.includes(id)} onChange={(e) => setObserved(e.target.checked ? [...obs, id] : obs.filter((x) => x !== id))} /> {labelOf(model, id)}</label>
         ))}
       </fieldset>
       {inputs.length > 0 && (
@@ -160,7 +161,7 @@ function PicturesOf({ model }: { model: Model }) {
 }
 
 function FitTable({ answer }: { answer: Extract<PicturesAnswer, { ok: true }>['pictures'] }) {
-  const f = (x: number | null | undefined, d = 3) => (x === null || x === undefined ? '—' : x.toFixed(d));
+  const f = (x: number | null | undefined, d = 3) => (x === null || x === undefined ? '—' : fixedText(x, d, { ascii: true }));
   return (
     <table className="lf-pic-table" aria-label="Factor fits by level">
       <thead><tr><th>level</th><th>N</th><th>χ² (1 factor)</th><th>df</th><th>RMSEA</th><th>first eigenvalue</th><th>RMSEA, 2 factors</th></tr></thead>
@@ -211,8 +212,8 @@ function UncertainOrderings({ model, interval, samples, length }: { model: Model
                 <tbody>
                   {answer.result.probabilities.map((p, i) => (
                     <tr key={i}>
-                      <td>{(p.share * 100).toFixed(1)} %</td>
-                      <td>{Object.entries(p.deciding).map(([id, r]) => `${model.variables.find((v) => v.id === id)?.label ?? id} ${r === 'state' ? 'dynamic' : r}`).join(', ') || '—'}</td>
+                      <td>{fixedText(p.share * 100, 1, { ascii: true })} %</td>
+                      <td>{Object.entries(p.deciding).map(([id, r]) => `${labelOf(model, id)} ${r === 'state' ? 'dynamic' : r}`).join(', ') || '—'}</td>
                       <td>{p.blocks.filter((b) => b.variables.length > 1).map((b) => b.variables.join(' + ')).join('; ') || 'none'}</td>
                     </tr>
                   ))}

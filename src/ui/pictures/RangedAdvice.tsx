@@ -9,7 +9,7 @@
 import { useEffect, useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
-import { labelOf } from '../../present/index';
+import { fixedText, labelOf, significant } from '../../present/index';
 import { appPicturesClient } from '../../worker/picturesClient';
 import type { StrengthAdviceAnswer } from '../../worker/picturesApi';
 import './pictures.css';
@@ -79,8 +79,8 @@ export function RangedAdvice({ model, links, fraction }: { model: Model; links: 
                 <tr key={`${r.from}>${r.to}`} data-ranged-link={`${r.from}>${r.to}`} data-decides={r.decides}>
                   <th scope="row">{labelOf(model, r.from)} → {labelOf(model, r.to)}</th>
                   <td>{r.low}..{r.high}</td>
-                  <td>{Number(r.point.toPrecision(3))}</td>
-                  <td>{r.decides.toFixed(2)}</td>
+                  <td>{significant(r.point, 3)}</td>
+                  <td>{fixedText(r.decides, 2, { ascii: true })}</td>
                 </tr>
               ))}
             </tbody>

@@ -16,7 +16,7 @@ import type { AxisPlan, Budget, PlanResult } from '../../core/rehearse/plan';
 import { ANALYTIC_OCCASIONS, trustSentence } from '../../core/rehearse/power';
 import { powerChart } from '../../export/rehearseCharts';
 import { svgDocument } from '../../export/svg';
-import { labelOf, numText } from '../../present/index';
+import { labelOf, numText, significant } from '../../present/index';
 import { useValidatedModel } from '../../state/document';
 import { useSelection } from '../../state/selection';
 import { editStudy, useSessionStudy, type SessionStudy } from '../../state/session';
@@ -30,7 +30,7 @@ import './rehearse.css';
 
 const key = (l: LinkOfInterest) => `${l.from}>${l.to}`;
 const pct = (x: number) => (Number.isFinite(x) ? `${Math.round(x * 100)} %` : '–');
-const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '–');
+const n3 = (x: number) => (Number.isFinite(x) ? numText(significant(x, 3)) : '–');
 
 export default function RehearsePane() {
   const model = useValidatedModel();

@@ -8,14 +8,14 @@
 import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { formatDuration } from '../../core/model/units';
-import { labelOf, weightText } from '../../present/index';
+import { fixedText, labelOf, weightText } from '../../present/index';
 import type { SessionStudy } from '../../state/session';
 import type { StudyDesignReport } from '../../worker/numericApi';
 import { isFailed, useNumeric } from '../numbers/useNumeric';
 import { effectTable, SMALL_EFFECT, SMALL_SHARE } from './estimates';
 
 
-const pct = (x: number) => (x >= 0.995 ? `${Math.round(x * 100)} %` : x >= 0.01 ? `${(x * 100).toFixed(1)} %` : `${(x * 100).toFixed(2)} %`);
+const pct = (x: number) => (x >= 0.995 ? `${Math.round(x * 100)} %` : x >= 0.01 ? `${fixedText(x * 100, 1, { ascii: true })} %` : `${fixedText(x * 100, 2, { ascii: true })} %`);
 
 export function DesignEstimates({ model, s }: { model: Model; s: SessionStudy }) {
   const daily = s.study.schedule.kind === 'daily-window';

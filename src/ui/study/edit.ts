@@ -8,6 +8,7 @@ import { studyIssues } from '../../core/model/schema';
 import type { Model, Schedule, Study, TimeUnit } from '../../core/model/types';
 import { exactDuration, lengthAxis, studyInterval } from '../../core/study/convert';
 import { nominalSpacing, plannedSlots } from '../../core/study/schedule';
+import { significant } from '../../present/index';
 
 /** The name of each field as the Study tab shows it, by the path the core reports. */
 export const FIELD_NAMES: Record<string, string> = {
@@ -67,7 +68,7 @@ export function missedShare(text: string): { ok: true; value: number | undefined
 
 /** The share as the field shows it: 0.2 → "20". */
 export function missedText(share: number | undefined): string {
-  return share === undefined ? '' : String(Number((share * 100).toPrecision(10)));
+  return share === undefined ? '' : String(significant(share * 100, 10));
 }
 
 /** A clock time typed loosely ("9", "9:00", "09:00") → "09:00"; anything else is left for the core to reject. */

@@ -29,6 +29,7 @@ import { GrowthNotice } from '../diagnostics/GrowthNotice';
 import { restDelay, useIntervalDrag } from '../interval/dragging';
 import { openPresentation } from '../Presentation';
 import './views.css';
+import { fixedText } from '../../present/index';
 
 export function TimescalePane() {
   const model = useValidatedModel();
@@ -123,7 +124,7 @@ export function TimescalePaneFor({ model, presenting = false }: { model: Model; 
     })();
   };
   return (
-    <section className={`lf-timescale${presenting ? ' is-presenting' : ''}`} aria-label="Ordering at the sampling interval" data-band={band} data-compute-ms={shown ? shown.computeMs.toFixed(3) : undefined} data-computed-in={shown?.where}>
+    <section className={`lf-timescale${presenting ? ' is-presenting' : ''}`} aria-label="Ordering at the sampling interval" data-band={band} data-compute-ms={shown ? fixedText(shown.computeMs, 3, { ascii: true }) : undefined} data-computed-in={shown?.where}>
       {!presenting && <div className="lf-timescale-bar" role="toolbar" aria-label="Timescale view">
         <div className="lf-seg" role="group" aria-label="View at the interval">
           <button type="button" aria-pressed={view === 'ordering'} onClick={() => studyStore.getState().setView('ordering')}>Ordering</button>
