@@ -3,7 +3,7 @@ import { useReactFlow } from '@xyflow/react';
 import { documentStore } from '../state/document';
 import { selectionStore } from '../state/selection';
 import { uiStore } from '../state/ui';
-import { canvasFitOptions } from './canvas/fit';
+import { fitCanvas } from './canvas/fit';
 import { addVariable, copySelection, deleteSelection, pasteClipboard, save, selectAll } from './actions';
 
 function typing(target: EventTarget | null): boolean {
@@ -51,7 +51,7 @@ export function useShortcuts(): void {
         deleteSelection();
       } else if (!mod && !e.altKey && k === 'f') {
         e.preventDefault();
-        void flow.fitView(canvasFitOptions(uiStore.getState().legendOpen, 200));
+        fitCanvas(flow, document.querySelector<HTMLElement>('.lf-canvas'), uiStore.getState().legendOpen, 200);
       }
     };
     window.addEventListener('keydown', onKey);

@@ -1,3 +1,4 @@
+import { useEffect, useState } from 'react';
 import { Panel } from '@xyflow/react';
 import { ACCUMULATOR_FLOOR, LINK_STYLE, ROLE_STYLE, shapePath, INK, MUTED } from '../../theme/visual';
 import { useUi, uiStore } from '../../state/ui';
@@ -24,12 +25,19 @@ function Line({ kind }: { kind: 'instantaneous' | 'integrating' }) {
   );
 }
 
-/** What the shapes and lines mean; collapsible. */
-export function Legend() {
-  const open = useUi((s) => s.legendOpen);
+/**
+ * What the shapes and lines mean; collapsible. On a narrow canvas (a projector) it starts folded
+ * to its button and opens on request, without changing the choice kept for a wide canvas.
+ */
+export function Legend({ narrow = false, onResize }: { narrow?: boolean; onResize?: () => void }) {
+  const wideOpen = useUi((s) => s.legendOpen);
+  const [narrowOpen, setNarrowOpen] = useState(false);
+  const open = narrow ? narrowOpen : wideOpen;
+  const toggle = () => (narrow ? setNarrowOpen(!open) : uiStore.getState().set({ legendOpen: !open }));
+  useEffect(() => onResize?.(), [open, onResize]);
   return (
     <Panel position="top-left" className={`lf-legend${open ? ' is-open' : ''}`} aria-label="Notation">
-      <button type="button" className="lf-legend-toggle" aria-expanded={open} onClick={() => uiStore.getState().set({ legendOpen: !open })}>
+      <button type="button" className="lf-legend-toggle" aria-expanded={open} onClick={toggle}>
         {open ? '▾' : '▸'} Notation
       </button>
       {open && (

@@ -3,12 +3,14 @@ import {
   Background,
   BackgroundVariant,
   ConnectionMode,
+  ControlButton,
   Controls,
   MiniMap,
   ReactFlow,
   applyNodeChanges,
   useReactFlow,
   useStore,
+  useNodesInitialized,
   useStoreApi,
   type FitViewOptions,
   type FinalConnectionState,
@@ -28,7 +30,7 @@ import { CanvasDrawing } from './CanvasDrawing';
 import { RelationNode } from './RelationNode';
 import { VariableNode } from './VariableNode';
 import { DASH_SCALE_VAR, dashScaleAt } from './zoomDetail';
-import { canvasFitOptions } from './fit';
+import { NARROW_CANVAS_PX, canvasFitOptions, fitCanvas } from './fit';
 import { GRID_DOT, OVERVIEW_GROUND, OVERVIEW_VIEW, UNKNOWN_STROKE } from '../../theme/tokens';
 
 const nodeTypes = { variable: VariableNode, relation: RelationNode };
@@ -87,28 +89,41 @@ export function ModelCanvas() {
   // changes only when the zoom crosses a step of the dash scale (zoomDetail.ts), not on every zoom
   const dashScale = useStore((s) => dashScaleAt(s.transform[2]));
   const canvasStyle = useMemo(() => ({ [DASH_SCALE_VAR]: dashScale }) as CSSProperties, [dashScale]);
-  // keep the fitted drawing clear of the legend strip (top) and the overview map (bottom right)
-  // and never below the zoom that keeps its smallest text legible (fit.ts): a big drawing is panned instead
+  // the first Fit goes through the library (before the nodes are measured); every later Fit
+  // keeps the drawing clear of the measured overlays (fit.ts) and never below the zoom that keeps
+  // its smallest text legible: a big drawing is placed where no overlay covers a node, and panned
   const fitOptions = useMemo<FitViewOptions>(() => canvasFitOptions(legendOpen), [legendOpen]);
   const [fitOnMount] = useState(() => model.variables.length > 0);
   const fitted = useRef(generation);
   // until the modeller pans or zooms, the view keeps the drawing fitted (new document, resized pane)
   const autoFit = useRef(fitOnMount);
+  const legendOpenRef = useRef(legendOpen);
+  legendOpenRef.current = legendOpen;
+  const fitNow = useCallback((duration?: number) => fitCanvas(flow, wrapper.current, legendOpenRef.current, duration), [flow]);
+  const nodesMeasured = useNodesInitialized();
+  useEffect(() => {
+    if (!nodesMeasured || !autoFit.current) return;
+    const t = setTimeout(() => fitNow(), 30);
+    return () => clearTimeout(t);
+  }, [nodesMeasured, fitNow]);
   useEffect(() => {
     if (fitted.current === generation) return;
     fitted.current = generation;
     autoFit.current = true;
-    const t = setTimeout(() => void flow.fitView(fitOptions), 60);
+    const t = setTimeout(() => fitNow(), 60);
     return () => clearTimeout(t);
-  }, [generation, flow, fitOptions]);
+  }, [generation, fitNow]);
+  // the notation key starts folded on a narrow canvas (a projector): open, it wraps over a third of it
+  const [narrow, setNarrow] = useState(false);
   useEffect(() => {
     const el = wrapper.current;
     if (!el || typeof ResizeObserver === 'undefined') return;
     let t: ReturnType<typeof setTimeout> | undefined;
     const ro = new ResizeObserver(() => {
+      setNarrow(el.clientWidth < NARROW_CANVAS_PX);
       clearTimeout(t);
       t = setTimeout(() => {
-        if (autoFit.current) void flow.fitView(fitOptions);
+        if (autoFit.current) fitNow();
       }, 50);
     });
     ro.observe(el);
@@ -116,7 +131,11 @@ export function ModelCanvas() {
       clearTimeout(t);
       ro.disconnect();
     };
-  }, [flow, fitOptions]);
+  }, [fitNow]);
+  // the key opened or folded: the fitted view makes room for it (or takes the room back)
+  const onLegendResize = useCallback(() => {
+    if (autoFit.current) setTimeout(() => fitNow(), 30);
+  }, [fitNow]);
   const onMoveStart = useCallback((e: MouseEvent | TouchEvent | null) => {
     if (e) autoFit.current = false;
   }, []);
@@ -211,7 +230,11 @@ export function ModelCanvas() {
         ariaLabelConfig={ARIA_LABELS}
       >
         <Background variant={BackgroundVariant.Dots} gap={24} size={1.2} color={GRID_DOT} />
-        <Controls showInteractive={false} position="bottom-left" aria-label="Zoom and fit" fitViewOptions={fitOptions} />
+        <Controls showInteractive={false} showFitView={false} position="bottom-left" aria-label="Zoom and fit">
+          <ControlButton className="react-flow__controls-fitview" onClick={() => fitNow(200)} title="Fit view (F)" aria-label="Fit view">
+            <svg viewBox="0 0 16 16" aria-hidden="true"><path d="M1.5 5.5v-4h4M10.5 1.5h4v4M14.5 10.5v4h-4M5.5 14.5h-4v-4" fill="none" stroke="currentColor" strokeWidth="1.6" /><rect x="5.5" y="5.5" width="5" height="5" /></svg>
+          </ControlButton>
+        </Controls>
         <MiniMap
           position="bottom-right"
           pannable
@@ -227,7 +250,7 @@ export function ModelCanvas() {
         />
         <CanvasDrawing model={model} />
         <MeasuredLayer model={model} />
-        <Legend />
+        <Legend narrow={narrow} onResize={onLegendResize} />
       </ReactFlow>
       {model.variables.length === 0 && (
         <div className="lf-empty" role="note">

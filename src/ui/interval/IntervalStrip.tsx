@@ -15,6 +15,8 @@ import { lengthBy, lengthFieldText, lengthOther, switchedLength, typedLength, ty
 import { useBandCache, type BandCache } from '../views/bandCache';
 import { breakpointRanges, type BreakpointRange } from '../../core/pictures/uncertain';
 import { setIntervalDrag } from './dragging';
+import { placeLabels, unitMarks } from './scale';
+import { fontMeasure } from '../canvas/textFit';
 import './interval.css';
 import { BREAKPOINT, TRACK_NOTCH } from '../../theme/tokens';
 import { labeller } from '../../present/index';
@@ -26,12 +28,6 @@ function modelLength(model: Model): StudyLength {
 }
 
 const KEYS: ReadonlySet<string> = new Set(['ArrowLeft', 'ArrowRight', 'ArrowUp', 'ArrowDown', 'PageUp', 'PageDown', 'Home', 'End']);
-
-/** Round unit marks inside the range: 1 s, 1 min, 1 h, 1 day, 1 week, 1 month, 1 year, 10 years. */
-function unitMarks(range: IntervalRange, unit: TimeUnit): { at: number; label: string }[] {
-  const marks: [number, string][] = [[1, '1 s'], [60, '1 min'], [3600, '1 h'], [86400, '1 day'], [7 * 86400, '1 week'], [SECONDS_PER_UNIT.month, '1 month'], [SECONDS_PER_UNIT.year, '1 year'], [10 * SECONDS_PER_UNIT.year, '10 years']];
-  return marks.map(([s, label]) => ({ at: s / SECONDS_PER_UNIT[unit], label })).filter((m) => m.at >= range.min && m.at <= range.max);
-}
 
 export function IntervalStrip() {
   const model = useValidatedModel();
@@ -107,9 +103,7 @@ export function IntervalStripFor({ model }: { model: Model }) {
           <div className="lf-thumb" />
         </div>
       </div>
-      <div className="lf-interval-scale" aria-hidden="true">
-        {unitMarks(range, unit).map((m) => <span key={m.label} style={{ left: `${toPosition(range, m.at) * 100}%` }}>{m.label}</span>)}
-      </div>
+      <UnitScale range={range} unit={unit} />
       {session && <StudyLengthField key={unit} unit={unit} study={session.study} />}
     </div>
   );
@@ -272,5 +266,37 @@ function IntervalField({ unit, interval, exact }: { unit: TimeUnit; interval: nu
       />
       {problem && <span className="lf-problem" role="alert">{problem}</span>}
     </span>
+  );
+}
+
+/**
+ * The unit labels under the track, measured at the track's width: a label that would overlap
+ * another or run past an end keeps only its tick (scale.ts).
+ */
+function UnitScale({ range, unit }: { range: IntervalRange; unit: TimeUnit }) {
+  const box = useRef<HTMLDivElement>(null);
+  const [size, setSize] = useState<{ width: number; font: string } | null>(null);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    const read = () => setSize((s) => (s && s.width === el.clientWidth ? s : { width: el.clientWidth, font: getComputedStyle(el).font }));
+    read();
+    if (typeof ResizeObserver === 'undefined') return;
+    const ro = new ResizeObserver(read);
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
+  const marks = useMemo(() => {
+    if (!size) return [];
+    return placeLabels(unitMarks(range, unit), range, size.width, fontMeasure(size.font, 11));
+  }, [range, unit, size]);
+  return (
+    <div className="lf-interval-scale" aria-hidden="true" ref={box}>
+      {marks.map((m) => (
+        <span key={m.label} className="lf-scale-mark" style={{ left: m.x }}>
+          {m.shown && <span className="lf-scale-text" style={{ left: m.left - m.x }}>{m.label}</span>}
+        </span>
+      ))}
+    </div>
   );
 }
