@@ -3,10 +3,11 @@ import { readColumns } from '../../core/data/columns';
 import { cointegrationReport, pooledCointegration, type CointegrationReport } from '../../core/fit/coint';
 import { CliError, type CliArgs, type CliCommand } from './types';
 import { readInput } from '../load';
+import { significant } from '../../present/index';
 
 function num(x: number): string {
   if (!Number.isFinite(x)) return String(x);
-  const v = Number(x.toPrecision(4));
+  const v = significant(x, 4);
   return v < 0 ? `−${-v}` : String(v);
 }
 

@@ -10,6 +10,7 @@ import { fittedOrdering, type FittedOrdering } from '../../core/fit/fittedOrderi
 import { medianSpan } from '../../core/fit/roles';
 import { loadModel, readInput } from '../load';
 import { CliError, type CliArgs, type CliCommand, type CliIO } from './types';
+import { significant } from '../../present/index';
 
 const IMPORT_OPTIONS = { waves: true, format: true, person: true, time: true, 'time-unit': true, day: true, prompt: true, map: true, missing: true, delimiter: true, json: false } as const;
 
@@ -118,7 +119,7 @@ function summaryLines(r: ImportResult): string[] {
 }
 
 function num(x: number): string {
-  return Number.isFinite(x) ? String(Number(x.toPrecision(4))) : String(x);
+  return Number.isFinite(x) ? String(significant(x, 4)) : String(x);
 }
 
 export const dataCommands: CliCommand[] = [

@@ -30,6 +30,7 @@ import { symmetricEigen } from '../pictures/symmetric';
 import { fromRows, type Mat } from '../numeric/dense';
 import { chiSquareSurvival } from './compare';
 import { johansenCritical, tauCritical, tauPValueArgument, type Deterministic } from './cointTables';
+import { significant } from '../../present/index';
 
 export type AdfRegression = Deterministic | 'n';
 
@@ -450,7 +451,7 @@ function listText(xs: string[]): string {
 }
 
 function fmt(x: number): string {
-  return String(Number(x.toPrecision(4)));
+  return String(significant(x, 4));
 }
 
 export interface CointegrationOptions {

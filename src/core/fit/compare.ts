@@ -11,6 +11,7 @@ import { expm } from '../numeric/expm';
 import { fromRows, type Mat } from '../numeric/dense';
 import type { CtFit } from './ct';
 import type { VarFit } from './var';
+import { significant } from '../../present/index';
 
 export type Verdict = 'supported' | 'opposite sign' | 'not detectable with these data' | 'in the data but missing from the sketch' | 'absent in both';
 
@@ -79,7 +80,7 @@ function words(v: Verdict, from: string, to: string, est: number, low: number, h
 }
 
 function fmt(x: number): string {
-  return Number.isFinite(x) ? String(Number(x.toPrecision(3))) : '—';
+  return Number.isFinite(x) ? String(significant(x, 3)) : '—';
 }
 
 /**

@@ -10,11 +10,11 @@ import { useId, useMemo, useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import type { ColumnMapping } from '../../core/data/import';
 import type { Dataset } from '../../state/dataset';
-import { labelOf, numText } from '../../present/index';
+import { labelOf, numText, significant } from '../../present/index';
 import { appDataClient } from '../../worker/dataClient';
 import type { CointAnswer, CointReport } from '../../worker/dataApi';
 
-const n4 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(4))) : '—');
+const n4 = (x: number) => (Number.isFinite(x) ? numText(significant(x, 4)) : '—');
 const pText = (p: number) => (!Number.isFinite(p) ? '—' : p < 0.001 ? '< 0.001' : n4(p));
 
 function Num({ x, p }: { x: number; p?: boolean }) {

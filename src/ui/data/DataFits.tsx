@@ -14,7 +14,7 @@ import { medianSpan } from '../../core/fit/roles';
 import { eigenvalues, fromRows } from '../../core/numeric/dense';
 import { lagCurveChart } from '../../export/dataCharts';
 import { svgDocument } from '../../export/svg';
-import { labelOf, numText, timeUnitWord } from '../../present/index';
+import { labelOf, numText, significant, timeUnitWord } from '../../present/index';
 import { comparisonCsv } from '../../present/comparisonCsv';
 import { appDataClient, type FitAnswer } from '../../worker/dataClient';
 import type { CtAnswer, VarAnswer } from '../../worker/dataApi';
@@ -26,7 +26,7 @@ import { ExportButtons } from '../numbers/ExportButtons';
 import { PersonVar } from './PersonVar';
 import { OrderingBeside } from './OrderingBeside';
 
-const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
+const n3 = (x: number) => (Number.isFinite(x) ? numText(significant(x, 3)) : '—');
 
 function ComparisonTable({ model, rows, what, sketchHead }: { model: Model; rows: LinkComparison[]; what: string; sketchHead: string }) {
   return (
@@ -134,7 +134,7 @@ export function DataFits({ model, panel }: { model: Model; panel: Panel }) {
       {ctAnswer && !ctAnswer.ok && ('cancelled' in ctAnswer ? <p className="lf-data-note" role="status">The continuous-time fit was stopped.</p> : <p className="lf-data-error" role="alert">Continuous-time fit: {ctAnswer.reason}</p>)}
       {V && (
         <div data-testid="var-result">
-          <h4>VAR(1) within persons, every {n3(V.interval)} {timeUnitWord(u, Number(V.interval.toPrecision(3)))} (median interval{sameDay ? ' within days' : ''})</h4>
+          <h4>VAR(1) within persons, every {n3(V.interval)} {timeUnitWord(u, significant(V.interval, 3))} (median interval{sameDay ? ' within days' : ''})</h4>
           <p className="lf-data-note">
             {V.fit.n.persons} persons, {V.fit.n.pairs} pairs of occasions; person means taken out (people differ in their usual levels). Intervals: cluster-robust across persons.
             {V.fit.excluded.length > 0 && ` Pairs left out: ${V.fit.excluded.map((e) => `${e.pairs} ${e.reason}`).join('; ')}.`}

@@ -10,9 +10,9 @@ import { useMemo } from 'react';
 import type { Model } from '../../core/model/types';
 import type { CtFit } from '../../core/fit/ct';
 import { fittedOrdering, orderingRows, sketchOrderingRows, type FittedLink, type OrderingPlace } from '../../core/fit/fittedOrdering';
-import { labelOf, numText } from '../../present/index';
+import { labelOf, numText, significant } from '../../present/index';
 
-const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
+const n3 = (x: number) => (Number.isFinite(x) ? numText(significant(x, 3)) : '—');
 
 const ROLE_WORDS: Record<string, string> = {
   settled: 'settles within an interval (a balance)',

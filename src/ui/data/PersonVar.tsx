@@ -7,9 +7,9 @@
 import { useId, useState } from 'react';
 import type { Model } from '../../core/model/types';
 import type { VarFit } from '../../core/fit/var';
-import { labelOf, numText } from '../../present/index';
+import { labelOf, numText, significant } from '../../present/index';
 
-const n3 = (x: number) => (Number.isFinite(x) ? numText(Number(x.toPrecision(3))) : '—');
+const n3 = (x: number) => (Number.isFinite(x) ? numText(significant(x, 3)) : '—');
 /** Two-sided 95 % normal quantile (common practice for the interval shown). */
 const Z95 = 1.959963984540054;
 

@@ -11,7 +11,7 @@ import { useState } from 'react';
 import type { Model, VariableId } from '../../core/model/types';
 import { TIME_UNITS } from '../../core/model/types';
 import type { ColumnMapping, WaveColumns } from '../../core/data/import';
-import { labelOf, numText, timeUnitWord } from '../../present/index';
+import { labelOf, numText, significant, timeUnitWord } from '../../present/index';
 
 export type WaveTimeMode = 'times' | 'intervals' | 'columns';
 
@@ -78,7 +78,7 @@ function typedOf(waves: WaveColumns[], mode: WaveTimeMode): string[] {
   const t = waves.map((w) => ('value' in w.time && Number.isFinite(w.time.value) ? w.time.value : NaN));
   return waves.map((_, k) => {
     const v = mode === 'intervals' ? (k === 0 ? 0 : t[k] - t[k - 1]) : t[k];
-    return Number.isFinite(v) ? String(Number(v.toPrecision(12))) : '';
+    return Number.isFinite(v) ? String(significant(v, 12)) : '';
   });
 }
 
@@ -130,7 +130,7 @@ export function WaveMapper({ model, fields, mapping, onChange }: { model: Model;
     setWaves(ws);
   };
   const addWave = () => {
-    const texts = [...typed, mode === 'intervals' ? '1' : String(Number(((typedNumber(typed[typed.length - 1] ?? '') ?? waves.length - 1) + 1).toPrecision(12)))];
+    const texts = [...typed, mode === 'intervals' ? '1' : String(significant((typedNumber(typed[typed.length - 1] ?? '') ?? waves.length - 1) + 1, 12))];
     setTyped(texts);
     setWaves([...waves, { time: mode === 'columns' ? { column: '' } : { value: NaN }, cells: [] }], texts);
   };
