@@ -18,7 +18,7 @@ import { solveEquilibrium } from '../numeric/equilibrium';
 import { eigenvalues, type Mat } from '../numeric/dense';
 import { eulerMaruyama, type SdeSystem } from '../numeric/stochastic';
 import type { Random } from '../stats/random';
-import { choleskyPsd, type PersonPrompts } from './simulate';
+import { choleskyPsd, personSeries, type PersonPrompts } from './simulate';
 import type { StudyProcess } from './process';
 
 /** Steps per fastest timescale. */
@@ -149,13 +149,7 @@ export function simulateNonlinearPerson(model: Model, states: readonly VariableI
       const ev = errorVariance[i];
       values[k * n + i] = path[k * n + i] + (ev > 0 ? Math.sqrt(ev) * rng.normal() : 0);
     }
-  return {
-    id: prompts.id,
-    time: times,
-    ...(prompts.day ? { day: Int32Array.from(prompts.day) } : {}),
-    ...(prompts.prompt ? { prompt: Int32Array.from(prompts.prompt) } : {}),
-    values,
-  };
+  return personSeries(prompts, times, values);
 }
 
 /** Every person of a nonlinear study (person i on `rng.fork(i)`), as `simulatePanel` does for a linear one. */

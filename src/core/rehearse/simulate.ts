@@ -134,13 +134,7 @@ export function simulatePerson(process: PersonProcess, prompts: PersonPrompts, o
       values[k * n + i] = process.mean[i] + x[i] + (ev > 0 ? Math.sqrt(ev) * rng.normal() : 0);
     }
   }
-  return {
-    id: prompts.id,
-    time: times,
-    ...(prompts.day ? { day: Int32Array.from(prompts.day) } : {}),
-    ...(prompts.prompt ? { prompt: Int32Array.from(prompts.prompt) } : {}),
-    values,
-  };
+  return personSeries(prompts, times, values);
 }
 
 /** Simulate every person (person i on stream `rng.fork(i)`, so adding persons keeps the first ones). */
@@ -149,5 +143,16 @@ export function simulatePanel(processes: (person: number) => PersonProcess, prom
     variables: opt.states.slice(),
     timeUnit: opt.timeUnit,
     persons: prompts.map((p, i) => simulatePerson(processes(i), p, opt, rng.fork(i))),
+  };
+}
+
+/** One person's simulated series on their prompts (day and prompt numbers kept when planned). */
+export function personSeries(prompts: PersonPrompts, times: Float64Array, values: Float64Array): PersonSeries {
+  return {
+    id: prompts.id,
+    time: times,
+    ...(prompts.day ? { day: Int32Array.from(prompts.day) } : {}),
+    ...(prompts.prompt ? { prompt: Int32Array.from(prompts.prompt) } : {}),
+    values,
   };
 }
