@@ -255,13 +255,18 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
   const lanes = () => (laneCache ??= freeLanes([...Object.values(layout.nodes), ...Object.values(layout.groups)]));
   const laneUse = new Map<number, number>();
   const entries = new Map<Box, number>();
+  // the three instants stacked top to bottom (for print): links between instants run in narrow lanes beside the stack
+  const endsOf = (e: ViewEdge) => new Set([e.from, e.to, groupOf.get(e.from) ?? e.from, groupOf.get(e.to) ?? e.to]);
+  const besideStack = stackLanes(vm, layout, endBox, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))));
   for (const e of vm.edges) {
     const a = endBox(e.from, e.to), b = endBox(e.to, e.from);
     if (!a || !b || !layout.nodes[e.from] || !layout.nodes[e.to]) continue;
     const route = layout.edges?.[e.id];
     const reverse = pairs.has(`${e.to}>${e.from}`) && e.from !== e.to;
     let line: EdgeLine;
+    const beside = besideStack.get(e.id);
     if (route && route.length >= 2) line = routedLine(reverse && groupOf.get(e.from) !== undefined && groupOf.get(e.from) === groupOf.get(e.to) ? shiftedLeft(route, 5) : route);
+    else if (beside && space.lineClear(beside.ps, endsOf(e))) line = beside;
     else {
       // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
       const across = vm.mode === 'unrolled' && e.kind === 'integrating';
@@ -323,6 +328,84 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
     parts.push({ box, make: () => edgeEl(l.e, l.line, sign, mark) });
   });
   return parts;
+}
+
+/** Lanes beside a stack of instants: the first is this far from the widest box, the others this far apart. */
+const STACK_LANE_OFFSET = 12, STACK_LANE_GAP = 6;
+
+/**
+ * When the three instants are stacked top to bottom (print at a narrow width), a link between two instants
+ * drawn straight or as an arc would cross the instants between its ends or swing far out to the side (and a
+ * figure that widens is printed smaller); so would a link within an instant that no line bent by at most
+ * 30 px can draw past the nodes between its ends. Here each such link leaves its source's side horizontally, runs down
+ * (or up) a narrow vertical lane just beside the stack, and enters its target's side: lanes on the left and the
+ * right of the stack, links spread over both sides so that no side of a node takes more ends than needed, ends
+ * on one side of a node spread over its height (ordered by where the other end lies, so stubs do not cross),
+ * and the shortest links in the innermost lanes, a lane shared only by links whose vertical spans are apart.
+ * Returns the lines by edge id (the caller keeps a line only if it passes through no other box).
+ */
+function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean): Map<string, EdgeLine> {
+  const out = new Map<string, EdgeLine>();
+  const frames = Object.values(layout.slices ?? {}).sort((p, q) => p.y - q.y);
+  if (vm.mode !== 'unrolled' || frames.length < 2) return out;
+  // stacked: each frame wholly below the one before
+  for (let i = 1; i < frames.length; i++) if (frames[i].y < frames[i - 1].y + frames[i - 1].height - 1) return out;
+  const sliceOf = new Map(vm.nodes.map((n) => [n.id, n.slice ?? 0]));
+  const boxes = [...Object.values(layout.nodes), ...Object.values(layout.groups)];
+  if (!boxes.length) return out;
+  const left = Math.min(...boxes.map((b) => b.x)) - STACK_LANE_OFFSET;
+  const right = Math.max(...boxes.map((b) => b.x + b.width)) + STACK_LANE_OFFSET;
+  interface Link { id: string; a: Box; b: Box; side: 0 | 1; ya: number; yb: number }
+  const links: Link[] = [];
+  const ends = new Map<Box, [number, number]>();
+  const load = (b: Box) => ends.get(b) ?? ends.set(b, [0, 0]).get(b)!;
+  const perSide: [number, number] = [0, 0];
+  // longest links first choose their side (they take the most lane length)
+  const across = vm.edges.filter((e) => e.from !== e.to && !layout.edges?.[e.id])
+    .map((e) => ({ e, a: endBox(e.from, e.to), b: endBox(e.to, e.from) }))
+    .filter((x): x is { e: ViewEdge; a: Box; b: Box } => !!x.a && !!x.b && x.a !== x.b && !(sliceOf.get(x.e.from) === sliceOf.get(x.e.to) && nearlyStraight(x.e, x.a, x.b)))
+    .sort((p, q) => Math.abs(q.b.y - q.a.y) - Math.abs(p.b.y - p.a.y) || (p.e.id < q.e.id ? -1 : 1));
+  for (const { e, a, b } of across) {
+    const la = load(a), lb = load(b);
+    const cost = (s: 0 | 1) => la[s] + lb[s] + perSide[s] / 1000;
+    const side: 0 | 1 = cost(1) < cost(0) ? 1 : 0;
+    la[side]++; lb[side]++; perSide[side]++;
+    links.push({ id: e.id, a, b, side, ya: 0, yb: 0 });
+  }
+  // ends on one side of a box: spread over its height, ordered by the other end's height
+  const slots = new Map<string, { link: Link; source: boolean; other: number }[]>();
+  for (const l of links) {
+    for (const [box, source, other] of [[l.a, true, l.b], [l.b, false, l.a]] as const) {
+      const key = `${box.x},${box.y},${l.side}`;
+      (slots.get(key) ?? slots.set(key, []).get(key)!).push({ link: l, source, other: other.y + other.height / 2 });
+    }
+  }
+  for (const list of slots.values()) {
+    list.sort((p, q) => p.other - q.other || (p.link.id < q.link.id ? -1 : 1));
+    const box = list[0].source ? list[0].link.a : list[0].link.b;
+    const n = list.length;
+    const step = Math.min(8, (box.height - 8) / Math.max(1, n - 1));
+    list.forEach((s, k) => {
+      const y = box.y + box.height / 2 + (k - (n - 1) / 2) * step;
+      if (s.source) s.link.ya = y; else s.link.yb = y;
+    });
+  }
+  // lanes: the shortest spans innermost; a lane holds spans at least 10 px apart
+  for (const side of [0, 1] as const) {
+    const lanes: [number, number][][] = [];
+    const mine = links.filter((l) => l.side === side).sort((p, q) => Math.abs(p.yb - p.ya) - Math.abs(q.yb - q.ya) || (p.id < q.id ? -1 : 1));
+    for (const l of mine) {
+      const lo = Math.min(l.ya, l.yb) - 10, hi = Math.max(l.ya, l.yb) + 10;
+      let k = lanes.findIndex((lane) => lane.every(([p, q]) => hi < p || lo > q));
+      if (k < 0) { k = lanes.length; lanes.push([]); }
+      lanes[k].push([lo, hi]);
+      const x = side === 0 ? left - k * STACK_LANE_GAP : right + k * STACK_LANE_GAP;
+      const ax = side === 0 ? l.a.x - 2 : l.a.x + l.a.width + 2;
+      const bx = side === 0 ? l.b.x - 3 : l.b.x + l.b.width + 3;
+      out.set(l.id, routedLine([{ x: ax, y: l.ya }, { x, y: l.ya }, { x, y: l.yb }, { x: bx, y: l.yb }]));
+    }
+  }
+  return out;
 }
 
 /** The extent of what the lines and signs draw, in the layout's coordinates. */
