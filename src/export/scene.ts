@@ -257,7 +257,7 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
   const entries = new Map<Box, number>();
   // the three instants stacked top to bottom (for print): links between instants run in narrow lanes beside the stack
   const endsOf = (e: ViewEdge) => new Set([e.from, e.to, groupOf.get(e.from) ?? e.from, groupOf.get(e.to) ?? e.to]);
-  const besideStack = stackLanes(vm, layout, endBox, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))));
+  const besideStack = stackLanes(vm, layout, endBox, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))), (e, ps) => space.lineClear(ps, endsOf(e)));
   for (const e of vm.edges) {
     const a = endBox(e.from, e.to), b = endBox(e.to, e.from);
     if (!a || !b || !layout.nodes[e.from] || !layout.nodes[e.to]) continue;
@@ -344,7 +344,7 @@ const STACK_LANE_OFFSET = 12, STACK_LANE_GAP = 6;
  * and the shortest links in the innermost lanes, a lane shared only by links whose vertical spans are apart.
  * Returns the lines by edge id (the caller keeps a line only if it passes through no other box).
  */
-function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean): Map<string, EdgeLine> {
+function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean, clear: (e: ViewEdge, ps: Point[]) => boolean): Map<string, EdgeLine> {
   const out = new Map<string, EdgeLine>();
   const frames = Object.values(layout.slices ?? {}).sort((p, q) => p.y - q.y);
   if (vm.mode !== 'unrolled' || frames.length < 2) return out;
@@ -355,7 +355,18 @@ function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: s
   if (!boxes.length) return out;
   const left = Math.min(...boxes.map((b) => b.x)) - STACK_LANE_OFFSET;
   const right = Math.max(...boxes.map((b) => b.x + b.width)) + STACK_LANE_OFFSET;
-  interface Link { id: string; a: Box; b: Box; side: 0 | 1; ya: number; yb: number }
+  interface Link { id: string; a: Box; b: Box; side: 0 | 1; ya: number; yb: number; viaA?: number; viaB?: number }
+  const gaps = freeLanes(boxes);
+  const gapUse = new Map<number, number>();
+  /** The free strip between rows next to a box, towards `y` (a stub blocked by a neighbour goes round by it). */
+  const gapBeside = (box: Box, y: number): number | undefined => {
+    const below = y > box.y + box.height / 2;
+    const g = below ? gaps.filter((v) => v > box.y + box.height).sort((p, q) => p - q)[0] : gaps.filter((v) => v < box.y).sort((p, q) => q - p)[0];
+    if (g === undefined) return undefined;
+    const k = gapUse.get(g) ?? 0;
+    gapUse.set(g, k + 1);
+    return g + (k % 2 ? 1 : -1) * 5 * Math.ceil(k / 2);
+  };
   const links: Link[] = [];
   const ends = new Map<Box, [number, number]>();
   const load = (b: Box) => ends.get(b) ?? ends.set(b, [0, 0]).get(b)!;
@@ -367,10 +378,21 @@ function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: s
     .sort((p, q) => Math.abs(q.b.y - q.a.y) - Math.abs(p.b.y - p.a.y) || (p.e.id < q.e.id ? -1 : 1));
   for (const { e, a, b } of across) {
     const la = load(a), lb = load(b);
-    const cost = (s: 0 | 1) => la[s] + lb[s] + perSide[s] / 1000;
+    // a side whose stub (at the middle of either end) would cross a neighbour in the same row is avoided
+    const stubClear = (s: 0 | 1) => [a, b].every((box) => {
+      const y = box.y + box.height / 2, x0 = s === 0 ? box.x - 2 : box.x + box.width + 2;
+      return clear(e, [{ x: x0, y }, { x: s === 0 ? left : right, y }]);
+    });
+    const cost = (s: 0 | 1) => la[s] + lb[s] + perSide[s] / 1000 + (stubClear(s) ? 0 : 1000);
     const side: 0 | 1 = cost(1) < cost(0) ? 1 : 0;
     la[side]++; lb[side]++; perSide[side]++;
-    links.push({ id: e.id, a, b, side, ya: 0, yb: 0 });
+    const blocked = (box: Box) => {
+      const y = box.y + box.height / 2;
+      return !clear(e, [{ x: side === 0 ? box.x - 2 : box.x + box.width + 2, y }, { x: side === 0 ? left : right, y }]);
+    };
+    const viaA = blocked(a) ? gapBeside(a, b.y + b.height / 2) : undefined;
+    const viaB = blocked(b) ? gapBeside(b, a.y + a.height / 2) : undefined;
+    links.push({ id: e.id, a, b, side, ya: 0, yb: 0, viaA, viaB });
   }
   // ends on one side of a box: spread over its height, ordered by the other end's height
   const slots = new Map<string, { link: Link; source: boolean; other: number }[]>();
@@ -395,14 +417,20 @@ function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: s
     const lanes: [number, number][][] = [];
     const mine = links.filter((l) => l.side === side).sort((p, q) => Math.abs(p.yb - p.ya) - Math.abs(q.yb - q.ya) || (p.id < q.id ? -1 : 1));
     for (const l of mine) {
-      const lo = Math.min(l.ya, l.yb) - 10, hi = Math.max(l.ya, l.yb) + 10;
+      const lo = Math.min(l.viaA ?? l.ya, l.viaB ?? l.yb) - 10, hi = Math.max(l.viaA ?? l.ya, l.viaB ?? l.yb) + 10;
       let k = lanes.findIndex((lane) => lane.every(([p, q]) => hi < p || lo > q));
       if (k < 0) { k = lanes.length; lanes.push([]); }
       lanes[k].push([lo, hi]);
       const x = side === 0 ? left - k * STACK_LANE_GAP : right + k * STACK_LANE_GAP;
       const ax = side === 0 ? l.a.x - 2 : l.a.x + l.a.width + 2;
       const bx = side === 0 ? l.b.x - 3 : l.b.x + l.b.width + 3;
-      out.set(l.id, routedLine([{ x: ax, y: l.ya }, { x, y: l.ya }, { x, y: l.yb }, { x: bx, y: l.yb }]));
+      // an end whose side is taken by a neighbour: out of its top or bottom to the strip between rows, then aside
+      // (at a quarter of its width from the lane's side: lines within the instant leave and enter at the middle)
+      const at = (b: Box) => b.x + b.width * (side === 0 ? 0.25 : 0.75);
+      const start = l.viaA === undefined ? [{ x: ax, y: l.ya }] : [{ x: at(l.a), y: l.viaA > l.a.y ? l.a.y + l.a.height + 2 : l.a.y - 2 }, { x: at(l.a), y: l.viaA }];
+      const end = l.viaB === undefined ? [{ x: bx, y: l.yb }] : [{ x: at(l.b), y: l.viaB }, { x: at(l.b), y: l.viaB > l.b.y ? l.b.y + l.b.height + 3 : l.b.y - 3 }];
+      const y0 = l.viaA ?? l.ya, y1 = l.viaB ?? l.yb;
+      out.set(l.id, routedLine([...start, { x, y: y0 }, { x, y: y1 }, ...end]));
     }
   }
   return out;
