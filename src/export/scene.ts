@@ -38,6 +38,11 @@ export interface SceneOptions {
    * the app's view of a big figure. The svg's size and everything outside the figure stay as without it.
    */
   area?: readonly number[];
+  /**
+   * An ordering whose rows were wrapped for print: links that no line bent by at most 30 px can draw run in
+   * narrow lanes beside the rows (as beside stacked instants) instead of arcing round the figure.
+   */
+  lanesBesideRows?: boolean;
   /** The figure's width in its units when printed (legend and caption wrap to it); default: the layout's, at least 560. */
   width?: number;
 }
@@ -238,7 +243,7 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
  * that covers no node, block header, other sign or other line (`placeMark`). `reach`: how far the lines
  * and signs reach (arcs over or under a row leave the laid-out box), drawn or not.
  */
-function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
+function edgeParts(vm: ViewModel, layout: Layout, reach: Reach, besideRows = false): Part[] {
   const groupOf = new Map<string, string>();
   for (const g of vm.groups) if (layout.groups[g.id]) for (const m of g.members) groupOf.set(m, g.id);
   /** The box an end is drawn at: the node, or its block when the other end lies outside that block. */
@@ -257,7 +262,7 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
   const entries = new Map<Box, number>();
   // the three instants stacked top to bottom (for print): links between instants run in narrow lanes beside the stack
   const endsOf = (e: ViewEdge) => new Set([e.from, e.to, groupOf.get(e.from) ?? e.from, groupOf.get(e.to) ?? e.to]);
-  const besideStack = stackLanes(vm, layout, endBox, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))), (e, ps) => space.lineClear(ps, endsOf(e)));
+  const besideStack = stackLanes(vm, layout, endBox, besideRows, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))), (e, ps) => space.lineClear(ps, endsOf(e)));
   for (const e of vm.edges) {
     const a = endBox(e.from, e.to), b = endBox(e.to, e.from);
     if (!a || !b || !layout.nodes[e.from] || !layout.nodes[e.to]) continue;
@@ -344,12 +349,14 @@ const STACK_LANE_OFFSET = 12, STACK_LANE_GAP = 6;
  * and the shortest links in the innermost lanes, a lane shared only by links whose vertical spans are apart.
  * Returns the lines by edge id (the caller keeps a line only if it passes through no other box).
  */
-function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean, clear: (e: ViewEdge, ps: Point[]) => boolean): Map<string, EdgeLine> {
+function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, besideRows: boolean, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean, clear: (e: ViewEdge, ps: Point[]) => boolean): Map<string, EdgeLine> {
   const out = new Map<string, EdgeLine>();
   const frames = Object.values(layout.slices ?? {}).sort((p, q) => p.y - q.y);
-  if (vm.mode !== 'unrolled' || frames.length < 2) return out;
-  // stacked: each frame wholly below the one before
-  for (let i = 1; i < frames.length; i++) if (frames[i].y < frames[i - 1].y + frames[i - 1].height - 1) return out;
+  if (!(besideRows && vm.mode === 'ordering')) {
+    if (vm.mode !== 'unrolled' || frames.length < 2) return out;
+    // stacked: each frame wholly below the one before
+    for (let i = 1; i < frames.length; i++) if (frames[i].y < frames[i - 1].y + frames[i - 1].height - 1) return out;
+  }
   const sliceOf = new Map(vm.nodes.map((n) => [n.id, n.slice ?? 0]));
   const boxes = [...Object.values(layout.nodes), ...Object.values(layout.groups)];
   if (!boxes.length) return out;
@@ -572,7 +579,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
     ]) });
   }
-  body.push(...edgeParts(vm, layout, reach));
+  body.push(...edgeParts(vm, layout, reach, opts.lanesBesideRows));
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
     if (b) body.push({ box: outline(b, 4), make: () => nodeEl(n, b) });
