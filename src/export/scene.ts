@@ -38,6 +38,11 @@ export interface SceneOptions {
    * the app's view of a big figure. The svg's size and everything outside the figure stay as without it.
    */
   area?: readonly number[];
+  /**
+   * An ordering whose rows were wrapped for print: links that no line bent by at most 30 px can draw run in
+   * narrow lanes beside the rows (as beside stacked instants) instead of arcing round the figure.
+   */
+  lanesBesideRows?: boolean;
   /** The figure's width in its units when printed (legend and caption wrap to it); default: the layout's, at least 560. */
   width?: number;
 }
@@ -238,7 +243,7 @@ function legendEl(vm: ViewModel, y: number, width: number): { el: El; height: nu
  * that covers no node, block header, other sign or other line (`placeMark`). `reach`: how far the lines
  * and signs reach (arcs over or under a row leave the laid-out box), drawn or not.
  */
-function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
+function edgeParts(vm: ViewModel, layout: Layout, reach: Reach, besideRows = false): Part[] {
   const groupOf = new Map<string, string>();
   for (const g of vm.groups) if (layout.groups[g.id]) for (const m of g.members) groupOf.set(m, g.id);
   /** The box an end is drawn at: the node, or its block when the other end lies outside that block. */
@@ -255,13 +260,18 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
   const lanes = () => (laneCache ??= freeLanes([...Object.values(layout.nodes), ...Object.values(layout.groups)]));
   const laneUse = new Map<number, number>();
   const entries = new Map<Box, number>();
+  // the three instants stacked top to bottom (for print): links between instants run in narrow lanes beside the stack
+  const endsOf = (e: ViewEdge) => new Set([e.from, e.to, groupOf.get(e.from) ?? e.from, groupOf.get(e.to) ?? e.to]);
+  const besideStack = stackLanes(vm, layout, endBox, besideRows, (e, a, b) => [0, 30, -30].some((t) => space.lineClear(edgeLine(a, b, t).ps, endsOf(e))), (e, ps) => space.lineClear(ps, endsOf(e)));
   for (const e of vm.edges) {
     const a = endBox(e.from, e.to), b = endBox(e.to, e.from);
     if (!a || !b || !layout.nodes[e.from] || !layout.nodes[e.to]) continue;
     const route = layout.edges?.[e.id];
     const reverse = pairs.has(`${e.to}>${e.from}`) && e.from !== e.to;
     let line: EdgeLine;
+    const beside = besideStack.get(e.id);
     if (route && route.length >= 2) line = routedLine(reverse && groupOf.get(e.from) !== undefined && groupOf.get(e.from) === groupOf.get(e.to) ? shiftedLeft(route, 5) : route);
+    else if (beside && space.lineClear(beside.ps, endsOf(e))) line = beside;
     else {
       // across instants: arcs over the row when both ends sit in one row (a straight line would cross the row)
       const across = vm.mode === 'unrolled' && e.kind === 'integrating';
@@ -323,6 +333,114 @@ function edgeParts(vm: ViewModel, layout: Layout, reach: Reach): Part[] {
     parts.push({ box, make: () => edgeEl(l.e, l.line, sign, mark) });
   });
   return parts;
+}
+
+/** Lanes beside a stack of instants: the first is this far from the widest box, the others this far apart. */
+const STACK_LANE_OFFSET = 12, STACK_LANE_GAP = 6;
+
+/**
+ * When the three instants are stacked top to bottom (print at a narrow width), a link between two instants
+ * drawn straight or as an arc would cross the instants between its ends or swing far out to the side (and a
+ * figure that widens is printed smaller); so would a link within an instant that no line bent by at most
+ * 30 px can draw past the nodes between its ends. Here each such link leaves its source's side horizontally, runs down
+ * (or up) a narrow vertical lane just beside the stack, and enters its target's side: lanes on the left and the
+ * right of the stack, links spread over both sides so that no side of a node takes more ends than needed, ends
+ * on one side of a node spread over its height (ordered by where the other end lies, so stubs do not cross),
+ * and the shortest links in the innermost lanes, a lane shared only by links whose vertical spans are apart.
+ * Returns the lines by edge id (the caller keeps a line only if it passes through no other box).
+ */
+function stackLanes(vm: ViewModel, layout: Layout, endBox: (id: string, other: string) => Box | undefined, besideRows: boolean, nearlyStraight: (e: ViewEdge, a: Box, b: Box) => boolean, clear: (e: ViewEdge, ps: Point[]) => boolean): Map<string, EdgeLine> {
+  const out = new Map<string, EdgeLine>();
+  const frames = Object.values(layout.slices ?? {}).sort((p, q) => p.y - q.y);
+  if (!(besideRows && vm.mode === 'ordering')) {
+    if (vm.mode !== 'unrolled' || frames.length < 2) return out;
+    // stacked: each frame wholly below the one before
+    for (let i = 1; i < frames.length; i++) if (frames[i].y < frames[i - 1].y + frames[i - 1].height - 1) return out;
+  }
+  const sliceOf = new Map(vm.nodes.map((n) => [n.id, n.slice ?? 0]));
+  const boxes = [...Object.values(layout.nodes), ...Object.values(layout.groups)];
+  if (!boxes.length) return out;
+  const left = Math.min(...boxes.map((b) => b.x)) - STACK_LANE_OFFSET;
+  const right = Math.max(...boxes.map((b) => b.x + b.width)) + STACK_LANE_OFFSET;
+  interface Link { id: string; a: Box; b: Box; side: 0 | 1; ya: number; yb: number; viaA?: number; viaB?: number }
+  const gaps = freeLanes(boxes);
+  const gapUse = new Map<number, number>();
+  /** The free strip between rows next to a box, towards `y` (a stub blocked by a neighbour goes round by it). */
+  const gapBeside = (box: Box, y: number): number | undefined => {
+    const below = y > box.y + box.height / 2;
+    const g = below ? gaps.filter((v) => v > box.y + box.height).sort((p, q) => p - q)[0] : gaps.filter((v) => v < box.y).sort((p, q) => q - p)[0];
+    if (g === undefined) return undefined;
+    const k = gapUse.get(g) ?? 0;
+    gapUse.set(g, k + 1);
+    return g + (k % 2 ? 1 : -1) * 5 * Math.ceil(k / 2);
+  };
+  const links: Link[] = [];
+  const ends = new Map<Box, [number, number]>();
+  const load = (b: Box) => ends.get(b) ?? ends.set(b, [0, 0]).get(b)!;
+  const perSide: [number, number] = [0, 0];
+  // longest links first choose their side (they take the most lane length)
+  const across = vm.edges.filter((e) => e.from !== e.to && !layout.edges?.[e.id])
+    .map((e) => ({ e, a: endBox(e.from, e.to), b: endBox(e.to, e.from) }))
+    .filter((x): x is { e: ViewEdge; a: Box; b: Box } => !!x.a && !!x.b && x.a !== x.b && !(sliceOf.get(x.e.from) === sliceOf.get(x.e.to) && nearlyStraight(x.e, x.a, x.b)))
+    .sort((p, q) => Math.abs(q.b.y - q.a.y) - Math.abs(p.b.y - p.a.y) || (p.e.id < q.e.id ? -1 : 1));
+  for (const { e, a, b } of across) {
+    const la = load(a), lb = load(b);
+    // a side whose stub (at the middle of either end) would cross a neighbour in the same row is avoided
+    const stubClear = (s: 0 | 1) => [a, b].every((box) => {
+      const y = box.y + box.height / 2, x0 = s === 0 ? box.x - 2 : box.x + box.width + 2;
+      return clear(e, [{ x: x0, y }, { x: s === 0 ? left : right, y }]);
+    });
+    const cost = (s: 0 | 1) => la[s] + lb[s] + perSide[s] / 1000 + (stubClear(s) ? 0 : 1000);
+    const side: 0 | 1 = cost(1) < cost(0) ? 1 : 0;
+    la[side]++; lb[side]++; perSide[side]++;
+    const blocked = (box: Box) => {
+      const y = box.y + box.height / 2;
+      return !clear(e, [{ x: side === 0 ? box.x - 2 : box.x + box.width + 2, y }, { x: side === 0 ? left : right, y }]);
+    };
+    const viaA = blocked(a) ? gapBeside(a, b.y + b.height / 2) : undefined;
+    const viaB = blocked(b) ? gapBeside(b, a.y + a.height / 2) : undefined;
+    links.push({ id: e.id, a, b, side, ya: 0, yb: 0, viaA, viaB });
+  }
+  // ends on one side of a box: spread over its height, ordered by the other end's height
+  const slots = new Map<string, { link: Link; source: boolean; other: number }[]>();
+  for (const l of links) {
+    for (const [box, source, other] of [[l.a, true, l.b], [l.b, false, l.a]] as const) {
+      const key = `${box.x},${box.y},${l.side}`;
+      (slots.get(key) ?? slots.set(key, []).get(key)!).push({ link: l, source, other: other.y + other.height / 2 });
+    }
+  }
+  for (const list of slots.values()) {
+    list.sort((p, q) => p.other - q.other || (p.link.id < q.link.id ? -1 : 1));
+    const box = list[0].source ? list[0].link.a : list[0].link.b;
+    const n = list.length;
+    const step = Math.min(8, (box.height - 8) / Math.max(1, n - 1));
+    list.forEach((s, k) => {
+      const y = box.y + box.height / 2 + (k - (n - 1) / 2) * step;
+      if (s.source) s.link.ya = y; else s.link.yb = y;
+    });
+  }
+  // lanes: the shortest spans innermost; a lane holds spans at least 10 px apart
+  for (const side of [0, 1] as const) {
+    const lanes: [number, number][][] = [];
+    const mine = links.filter((l) => l.side === side).sort((p, q) => Math.abs(p.yb - p.ya) - Math.abs(q.yb - q.ya) || (p.id < q.id ? -1 : 1));
+    for (const l of mine) {
+      const lo = Math.min(l.viaA ?? l.ya, l.viaB ?? l.yb) - 10, hi = Math.max(l.viaA ?? l.ya, l.viaB ?? l.yb) + 10;
+      let k = lanes.findIndex((lane) => lane.every(([p, q]) => hi < p || lo > q));
+      if (k < 0) { k = lanes.length; lanes.push([]); }
+      lanes[k].push([lo, hi]);
+      const x = side === 0 ? left - k * STACK_LANE_GAP : right + k * STACK_LANE_GAP;
+      const ax = side === 0 ? l.a.x - 2 : l.a.x + l.a.width + 2;
+      const bx = side === 0 ? l.b.x - 3 : l.b.x + l.b.width + 3;
+      // an end whose side is taken by a neighbour: out of its top or bottom to the strip between rows, then aside
+      // (at a quarter of its width from the lane's side: lines within the instant leave and enter at the middle)
+      const at = (b: Box) => b.x + b.width * (side === 0 ? 0.25 : 0.75);
+      const start = l.viaA === undefined ? [{ x: ax, y: l.ya }] : [{ x: at(l.a), y: l.viaA > l.a.y ? l.a.y + l.a.height + 2 : l.a.y - 2 }, { x: at(l.a), y: l.viaA }];
+      const end = l.viaB === undefined ? [{ x: bx, y: l.yb }] : [{ x: at(l.b), y: l.viaB }, { x: at(l.b), y: l.viaB > l.b.y ? l.b.y + l.b.height + 3 : l.b.y - 3 }];
+      const y0 = l.viaA ?? l.ya, y1 = l.viaB ?? l.yb;
+      out.set(l.id, routedLine([...start, { x, y: y0 }, { x, y: y1 }, ...end]));
+    }
+  }
+  return out;
 }
 
 /** The extent of what the lines and signs draw, in the layout's coordinates. */
@@ -461,7 +579,7 @@ export function buildScene(vm: ViewModel, layout: Layout, opts: SceneOptions = {
       el('text', { x: r1(b.x + 32), y: r1(b.y + 21), 'font-size': 12, 'font-weight': 700, fill: s.stroke, stroke: s.fill, 'stroke-width': 4, 'paint-order': 'stroke' }, [b.width >= 190 ? `${g.variables.length} determined together` : `${g.variables.length} together`]),
     ]) });
   }
-  body.push(...edgeParts(vm, layout, reach));
+  body.push(...edgeParts(vm, layout, reach, opts.lanesBesideRows));
   for (const n of vm.nodes) {
     const b = layout.nodes[n.id];
     if (b) body.push({ box: outline(b, 4), make: () => nodeEl(n, b) });

@@ -102,7 +102,7 @@ export async function printView(req: ViewRequest, opts: PrintOptions, layoutOf: 
     const { vm, layout, notes } = await adaptedView(req, fit, layoutOnce, opts.width ? widthText(opts.width) : '', focus, stagger);
     // the caption adds what the title does not say (the title names the interval and the study)
     const captionText = req.caption ? (opts.caption ?? (req.view === 'mechanism' ? undefined : viewCaption(vm))) : opts.caption;
-    return { notes, laidOut: layout.width, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room }) };
+    return { notes, laidOut: layout.width, root: buildScene(vm, layout, { title: opts.title !== false, caption: captionText !== undefined, captionText, width: room, lanesBesideRows: notes.some((n) => n.startsWith('rows of the ordering are wrapped')) }) };
   };
   let fit = room;
   let { root, notes, laidOut } = await draw(fit);
