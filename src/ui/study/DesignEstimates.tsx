@@ -57,7 +57,7 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
       )}
       <h4>Gaps between consecutive answered prompts</h4>
       <p className="lf-hint">A missed prompt makes a gap of two parts or more.{main.some((g) => g.spread > 0) ? ' With prompts at random times in their parts of the window a gap varies: its range is under it (gaps near the middle are the most common).' : ''}</p>
-      <div className="lf-study-scroll">
+      <div className="lf-study-scroll" tabIndex={0} role="region" aria-label="Gaps between consecutive answered prompts (scrolls sideways)">
         <table className="lf-num-table lf-study-gaps">
           <thead>
             <tr>
@@ -100,7 +100,7 @@ function Report({ model, r }: { model: Model; r: StudyDesignReport }) {
           <input type="checkbox" checked={all} onChange={(e) => setAll(e.target.checked)} /> also effects under {SMALL_EFFECT} everywhere
         </label>
       </div>
-      <div className="lf-study-scroll">
+      <div className="lf-study-scroll" tabIndex={0} role="region" aria-label="Lagged effects per gap and in the VAR limits (scrolls sideways)">
         <table className="lf-num-table lf-study-limits" aria-label="Lagged effects per gap and in the VAR limits">
           <thead>
             <tr>
