@@ -6,11 +6,9 @@
  * makes room for them instead of letting them run under the legend or out of the picture.
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
-import { breakpoints, orderingAt } from '../../src/core/ordering/index';
+import { orderingAt } from '../../src/core/ordering/index';
 import { orderingView } from '../../src/core/view/derive';
-import { cutsOf } from '../../src/core/view/interval';
 import type { ViewModel } from '../../src/core/view/types';
 import { buildScene, type El } from '../../src/export/scene';
 import { EXAMPLES } from '../../src/examples/index';
@@ -20,19 +18,9 @@ import { nodeElk } from '../../src/layout/node';
 import type { Layout } from '../../src/layout/types';
 import { readFigure, type R } from '../helpers/figureGeometry';
 import { generatedSketch } from '../helpers/sketches';
+import { bandIntervals, exampleModel } from '../helpers/examples';
 
-function example(id: string): Model {
-  const r = parseModel(EXAMPLES.find((e) => e.id === id)!.model);
-  if (!r.ok) throw new Error('bad example');
-  return r.model;
-}
 
-/** One interval inside each band of the model's interval axis (the geometric middle of each band; outside the ends). */
-function bandIntervals(m: Model): number[] {
-  const cuts = cutsOf(breakpoints(m, { samples: 50 }));
-  if (!cuts.length) return [1];
-  return [cuts[0].at / 2, ...cuts.map((c, i) => Math.sqrt(c.at * (cuts[i + 1]?.at ?? c.at * 4)))];
-}
 
 const viewAt = (m: Model, interval: number, mode: 'ordering' | 'unrolled'): ViewModel =>
   orderingView(m, orderingAt(m, { interval, samples: 50 }), { mode, interval, samples: 50 });
@@ -89,7 +77,7 @@ async function checkAll(m: Model, name: string, intervals: number[], modes: read
 describe('timescale figures: every line and sign inside the figure', () => {
   for (const ex of EXAMPLES) {
     it(`${ex.id}: the ordering and the three instants at every band`, async () => {
-      const m = example(ex.id);
+      const m = exampleModel(ex.id);
       expect(await checkAll(m, ex.id, bandIntervals(m), ['ordering', 'unrolled'])).toEqual([]);
     }, 180_000);
   }
@@ -104,7 +92,7 @@ describe('timescale figures: every line and sign inside the figure', () => {
 
   it('the arcs of the three instants that go under their row in the evening-unrest example get room below (they did not)', async () => {
     // at this interval (5.5, the example's time unit) lagged links between instants arc under the row of nodes
-    const m = example('evening-unrest');
+    const m = exampleModel('evening-unrest');
     const vm = viewAt(m, 5.53, 'unrolled');
     const layout = await figureLayout(nodeElk(), vm);
     const root = buildScene(vm, layout, { caption: true });

@@ -5,11 +5,9 @@
  * for every example at every band and for generated models of up to 60 variables.
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
-import { breakpoints, orderingAt } from '../../src/core/ordering/index';
+import { orderingAt } from '../../src/core/ordering/index';
 import { orderingView } from '../../src/core/view/derive';
-import { cutsOf } from '../../src/core/view/interval';
 import type { ViewModel } from '../../src/core/view/types';
 import { buildScene } from '../../src/export/scene';
 import { EXAMPLES } from '../../src/examples/index';
@@ -17,22 +15,12 @@ import { figureLayout } from '../../src/layout/figure';
 import { nodeElk } from '../../src/layout/node';
 import { problems, readFigure, sharedBends, type Drawn } from '../helpers/figureGeometry';
 import { generatedSketch } from '../helpers/sketches';
+import { bandIntervals, exampleModel } from '../helpers/examples';
 
 // signs are kept off other lines where a free spot exists; in a crowded block one may still sit on a line (see docs/dev/figures-geometry.md)
 const RULES = { nodeGap: 0, minVisible: 12, marksOffLines: false };
 
-function example(id: string): Model {
-  const r = parseModel(EXAMPLES.find((e) => e.id === id)!.model);
-  if (!r.ok) throw new Error('bad example');
-  return r.model;
-}
 
-/** One interval inside each band of the model's interval axis (the geometric middle of each band; outside the ends). */
-function bandIntervals(m: Model): number[] {
-  const cuts = cutsOf(breakpoints(m, { samples: 50 }));
-  if (!cuts.length) return [1];
-  return [cuts[0].at / 2, ...cuts.map((c, i) => Math.sqrt(c.at * (cuts[i + 1]?.at ?? c.at * 4)))];
-}
 
 function viewAt(m: Model, interval: number, mode: 'ordering' | 'unrolled'): ViewModel {
   return orderingView(m, orderingAt(m, { interval, samples: 50 }), { mode, interval, samples: 50 });
@@ -88,7 +76,7 @@ function readAlong(root: ReturnType<typeof buildScene>): Map<string, string> {
 describe('timescale figures: nodes apart, every edge visible and traceable, signs readable, levels top to bottom', () => {
   for (const ex of EXAMPLES) {
     it(`${ex.id}: the ordering and the three instants at every band`, async () => {
-      const m = example(ex.id);
+      const m = exampleModel(ex.id);
       for (const interval of bandIntervals(m)) for (const mode of ['ordering', 'unrolled'] as const) await check(viewAt(m, interval, mode), `${ex.id} ${mode} at ${interval}`);
     }, 120_000);
   }
@@ -107,7 +95,7 @@ describe('timescale figures: nodes apart, every edge visible and traceable, sign
   }, 300_000);
 
   it('an input that drives a simultaneous block is one line into the block, not one line to each member', async () => {
-    const m = example('sleep-stress');
+    const m = exampleModel('sleep-stress');
     // at 1 day stress (settled) and rumination form a block driven by workload (src/examples/sleep-stress.json)
     const vm = viewAt(m, 24, 'ordering');
     const block = vm.groups.find((g) => g.variables.includes('stress') && g.variables.includes('rumination'));

@@ -8,12 +8,10 @@
  * generated models of 3–30 variables with scrambled seeds.
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel } from '../../src/core/model/schema';
 import type { Model } from '../../src/core/model/types';
-import { breakpoints, orderingAt } from '../../src/core/ordering/index';
+import { orderingAt } from '../../src/core/ordering/index';
 import { seededRandom } from '../../src/core/stats/random';
 import { orderingView } from '../../src/core/view/derive';
-import { cutsOf } from '../../src/core/view/interval';
 import type { ViewModel } from '../../src/core/view/types';
 import { buildScene } from '../../src/export/scene';
 import { EXAMPLES } from '../../src/examples/index';
@@ -23,23 +21,13 @@ import { nodeElk } from '../../src/layout/node';
 import type { Box, Layout } from '../../src/layout/types';
 import { problems, readFigure, type Drawn, type R } from '../helpers/figureGeometry';
 import { generatedSketch } from '../helpers/sketches';
+import { bandIntervals, exampleModel } from '../helpers/examples';
 
 // the rules of the brief; a straight link through a third node is the tuned layout's to route (tests/export/scene.test.ts)
 const RULES = { nodeGap: 12, minVisible: 12, marksOffLines: false };
 const routing = (p: string) => / runs through node | runs across the header of /.test(p);
 
-function example(id: string): Model {
-  const r = parseModel(EXAMPLES.find((e) => e.id === id)!.model);
-  if (!r.ok) throw new Error('bad example');
-  return r.model;
-}
 
-/** One interval inside each band (the geometric middle of each band; half the first cut below it). */
-function bandIntervals(m: Model): number[] {
-  const cuts = cutsOf(breakpoints(m, { samples: 50 }));
-  if (!cuts.length) return [1];
-  return [cuts[0].at / 2, ...cuts.map((c, i) => Math.sqrt(c.at * (cuts[i + 1]?.at ?? c.at * 4)))];
-}
 
 const viewAt = (m: Model, interval: number, mode: ViewModel['mode']): ViewModel => orderingView(m, orderingAt(m, { interval, samples: 50 }), { mode, interval, samples: 50 });
 
@@ -102,7 +90,7 @@ function scrambled(vm: ViewModel, seed: number, side = 120): Layout {
 describe('instant placement: nodes apart, frames over their own members only, signs readable, levels top to bottom', () => {
   for (const ex of EXAMPLES) {
     it(`${ex.id}: the ordering and the three instants at every band, from the band before and from nothing; the mechanism as drawn`, async () => {
-      const m = example(ex.id);
+      const m = exampleModel(ex.id);
       const found: string[] = [];
       for (const mode of ['ordering', 'unrolled'] as const) {
         let tuned: Layout | undefined, instant: Layout | undefined;
@@ -143,7 +131,7 @@ describe('instant placement: nodes apart, frames over their own members only, si
   it('the tuned layout keeps the same rules (node gap and frames) for every example at every band', async () => {
     const found: string[] = [];
     for (const ex of EXAMPLES) {
-      const m = example(ex.id);
+      const m = exampleModel(ex.id);
       for (const interval of bandIntervals(m)) for (const mode of ['ordering', 'unrolled'] as const) {
         const vm = viewAt(m, interval, mode);
         found.push(...check(vm, await figureLayout(nodeElk(), vm)).map((p) => `${ex.id} ${mode} at ${interval.toPrecision(3)}: ${p}`));
@@ -153,7 +141,7 @@ describe('instant placement: nodes apart, frames over their own members only, si
   }, 120_000);
 
   it('separate: two nodes on one spot end at least NODE_GAP apart, side by side on one level', () => {
-    const m = example('greenhouse');
+    const m = exampleModel('greenhouse');
     const vm = viewAt(m, 1, 'mechanism');
     const [a, b] = vm.nodes;
     const nodes = Object.fromEntries(vm.nodes.map((n, i) => [n.id, { x: i * 1000, y: 0, width: n.width, height: n.height }]));
