@@ -279,13 +279,14 @@ export function networkDiagram(input: NetworkInput, opts: FigureOptions = {}): E
     const straight = Math.abs((start.x + end.x) / 2 - control.x) < 1e-6 && Math.abs((start.y + end.y) / 2 - control.y) < 1e-6;
     const d = straight ? `M${r1(start.x)},${r1(start.y)} L${r1(end.x)},${r1(end.y)}` : `M${r1(start.x)},${r1(start.y)} Q${r1(control.x)},${r1(control.y)} ${r1(end.x)},${r1(end.y)}`;
     const from = states[e.from], to = states[e.to];
-    const kids: El[] = [el('title', {}, [`${labelOf(model, from)} ${directed ? '→' : '—'} ${labelOf(model, to)}: ${weightText(e.weight)}`])];
+    const weight = weightText(e.weight), weightWidth = textWidth(weight, WEIGHT_FONT);
+    const kids: El[] = [el('title', {}, [`${labelOf(model, from)} ${directed ? '→' : '—'} ${labelOf(model, to)}: ${weight}`])];
     if (input.pickable) kids.push(el('path', { d, class: 'lf-net-hit', fill: 'none', stroke: C.paper, 'stroke-opacity': 0, 'stroke-width': 12 }));
     kids.push(
       el('path', { d, class: 'lf-net-edge', fill: 'none', stroke: C.line, 'stroke-width': widthOf(e.weight), 'stroke-dasharray': e.weight < 0 ? C.negativeDash : undefined, 'marker-end': directed ? `url(#${marker})` : undefined }),
       // a box in the paper colour under the weight, so a thick or dashed line never shows between its glyphs
-      el('rect', { class: 'lf-net-weight-box', x: r1(at.x - textWidth(weightText(e.weight), WEIGHT_FONT) / 2 - 3), y: r1(at.y - 5), width: r1(textWidth(weightText(e.weight), WEIGHT_FONT) + 6), height: 10, rx: 2, fill: C.paper }),
-      text({ class: 'lf-net-weight', x: r1(at.x), y: r1(at.y + 3.4), 'text-anchor': 'middle', 'font-size': WEIGHT_FONT, fill: C.text, stroke: C.paper, 'stroke-width': 3, 'paint-order': 'stroke' }, weightText(e.weight)),
+      el('rect', { class: 'lf-net-weight-box', x: r1(at.x - weightWidth / 2 - 3), y: r1(at.y - 5), width: r1(weightWidth + 6), height: 10, rx: 2, fill: C.paper }),
+      text({ class: 'lf-net-weight', x: r1(at.x), y: r1(at.y + 3.4), 'text-anchor': 'middle', 'font-size': WEIGHT_FONT, fill: C.text, stroke: C.paper, 'stroke-width': 3, 'paint-order': 'stroke' }, weight),
     );
     body.push(el('g', { 'data-edge': `${from}>${to}`, 'data-sign': e.weight < 0 ? 'negative' : 'positive' }, kids));
   }
