@@ -34,6 +34,17 @@ function randomMatrix(n: number, r: () => number, density: number): number[][] {
 
 const check = (fig: El) => problems(readFigure(fig), RULES);
 
+/** A seeded random network of 2 to 30 states, sparse or (every third seed) dense. */
+function randomNetwork(seed: number): { n: number; ids: string[]; matrix: number[][] } {
+  const r = seededRandom(seed).uniform;
+  const n = 2 + Math.floor(r() * 29);
+  const ids = Array.from({ length: n }, (_, i) => `s${String(i).padStart(2, '0')}`);
+  return { n, ids, matrix: randomMatrix(n, r, seed % 3 === 0 ? 0.9 : 0.25) };
+}
+
+/** The upper triangle mirrored: an undirected network's weights. */
+const symmetric = (m: number[][]): number[][] => m.map((row, i) => row.map((_, j) => m[Math.min(i, j)][Math.max(i, j)]));
+
 describe('network figures: every link visible, no node or weight covered', () => {
   for (const ex of EXAMPLES) {
     it(`${ex.id}: lagged and same-interval networks at 1/10, 1 and 10 times the shortest timescale and at a long interval`, () => {
@@ -56,12 +67,9 @@ describe('network figures: every link visible, no node or weight covered', () =>
 
   it('random networks of 2 to 30 states, sparse and dense, directed and not (seeded)', () => {
     for (let seed = 1; seed <= 24; seed++) {
-      const r = seededRandom(seed).uniform;
-      const n = 2 + Math.floor(r() * 29);
-      const ids = Array.from({ length: n }, (_, i) => `s${String(i).padStart(2, '0')}`);
-      const matrix = randomMatrix(n, r, seed % 3 === 0 ? 0.9 : 0.25);
+      const { n, ids, matrix } = randomNetwork(seed);
       for (const directed of [true, false]) {
-        const sym = directed ? matrix : matrix.map((row, i) => row.map((_, j) => matrix[Math.min(i, j)][Math.max(i, j)]));
+        const sym = directed ? matrix : symmetric(matrix);
         const fig = networkDiagram({ model: namesModel(ids), states: ids, matrix: sym, directed, label: 'random' });
         expect(check(fig), `seed ${seed}, ${n} states, ${directed ? 'directed' : 'undirected'}`).toEqual([]);
       }
@@ -96,12 +104,9 @@ describe('network figures: every link visible, no node or weight covered', () =>
   it('random networks of 2 to 30 states drawn for one column keep every rule; up to 7 states they are compact (seeded)', () => {
     let compact = 0;
     for (let seed = 1; seed <= 24; seed++) {
-      const r = seededRandom(seed).uniform;
-      const n = 2 + Math.floor(r() * 29);
-      const ids = Array.from({ length: n }, (_, i) => `s${String(i).padStart(2, '0')}`);
-      const matrix = randomMatrix(n, r, seed % 3 === 0 ? 0.9 : 0.25);
+      const { n, ids, matrix } = randomNetwork(seed);
       for (const directed of [true, false]) {
-        const sym = directed ? matrix : matrix.map((row, i) => row.map((_, j) => matrix[Math.min(i, j)][Math.max(i, j)]));
+        const sym = directed ? matrix : symmetric(matrix);
         const fig = networkDiagram({ model: namesModel(ids), states: ids, matrix: sym, directed, label: 'random' }, { fitTo: { widthPt: (85 * 72) / 25.4 } });
         const name = `seed ${seed}, ${n} states, ${directed ? 'directed' : 'undirected'}`;
         if (fig.attrs['data-adapted']) compact++;
