@@ -14,7 +14,6 @@ import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../../src/core/model/schema';
 import type { Model } from '../../../src/core/model/types';
 import { bands } from '../../../src/core/ordering/index';
-import type { ViewModel } from '../../../src/core/view/types';
 import { EXAMPLES } from '../../../src/examples/index';
 import { printView } from '../../../src/export/print/figure';
 import { MIN_TEXT_PT, parseWidth, WIDTH_PRESETS, type PrintOptions } from '../../../src/export/print/options';
@@ -23,11 +22,10 @@ import { svgDocument } from '../../../src/export/svg';
 import { figureToPdf } from '../../../src/cli/output/pdf';
 import { svgToPng } from '../../../src/cli/output/raster';
 import { bandInterval } from '../../../src/report/html';
-import type { Layout } from '../../../src/layout/types';
-import { layoutInNode } from '../../../src/layout/node';
 import { luminance, PALETTE_TOKENS } from '../../../src/theme/palettes';
 import { decimals, expectClose } from '../../helpers/tolerance';
 import { runPython } from '../../helpers/python';
+import { cachedLayouts } from '../../helpers/examples';
 
 const MEASURE = fileURLToPath(new URL('./print_measure.py', import.meta.url));
 const PHYS = fileURLToPath(new URL('./png_phys.py', import.meta.url));
@@ -38,14 +36,7 @@ function example(id: string): Model {
   return r.model;
 }
 
-// one ELK layout per view model (the presets share them)
-const layouts = new Map<string, Promise<Layout>>();
-const layoutOf = (vm: ViewModel): Promise<Layout> => {
-  const key = JSON.stringify([vm.mode, vm.nodes.map((n) => [n.id, n.width]), vm.edges.map((e) => e.id)]);
-  let l = layouts.get(key);
-  if (!l) { l = layoutInNode(vm); layouts.set(key, l); }
-  return l;
-};
+const layoutOf = cachedLayouts();
 
 describe('figures at print size', () => {
   it('every example figure (ordering in every band, three instants, mechanism) keeps its text at 7 pt or more at each column preset, or says it does not fit', async () => {

@@ -10,25 +10,17 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { parseModel } from '../../../src/core/model/schema';
 import { bands } from '../../../src/core/ordering/index';
-import type { ViewModel } from '../../../src/core/view/types';
 import { EXAMPLES } from '../../../src/examples/index';
 import { printView } from '../../../src/export/print/figure';
 import { MIN_TEXT_PT, WIDTH_PRESETS } from '../../../src/export/print/options';
 import { svgDocument } from '../../../src/export/svg';
-import { layoutInNode } from '../../../src/layout/node';
-import type { Layout } from '../../../src/layout/types';
 import { bandInterval } from '../../../src/report/html';
 import { problems, readFigure } from '../../helpers/figureGeometry';
 import { runPython } from '../../helpers/python';
+import { cachedLayouts } from '../../helpers/examples';
 
 const MEASURE = fileURLToPath(new URL('./print_measure.py', import.meta.url));
-const layouts = new Map<string, Promise<Layout>>();
-const layoutOf = (vm: ViewModel): Promise<Layout> => {
-  const key = JSON.stringify([vm.mode, vm.nodes.map((n) => [n.id, n.width]), vm.edges.map((e) => e.id)]);
-  let l = layouts.get(key);
-  if (!l) { l = layoutInNode(vm); layouts.set(key, l); }
-  return l;
-};
+const layoutOf = cachedLayouts();
 
 /**
  * Figures still under 7 pt (example, band number from 1, view, width): none. Measured 2026-12-05 before the lanes
